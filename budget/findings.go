@@ -1,0 +1,134 @@
+package budget
+
+import (
+	"fmt"
+	"math"
+)
+
+// Severity of a finding.
+type Severity string
+
+// Severities: an action finding must be dealt with before alignment and makes
+// `check` exit 1; advice is shown but does not.
+const (
+	SeverityAction Severity = "action"
+	SeverityAdvice Severity = "advice"
+)
+
+// Finding is something the evaluation found that a person should look at.
+type Finding struct {
+	Severity Severity
+	Kind     string // short machine-readable kind, e.g. "clipping"
+	Path     string // path name, "" when not on a path
+	Element  int    // 1-based element index, 0 when not at an element
+	At       float64
+	Message  string
+}
+
+// Finding kinds of the budget.
+const (
+	FindingClipping      = "clipping"
+	FindingModeMatch     = "fibre_mode_match"
+	FindingDumpRating    = "dump_rating"
+	FindingOpenEnd       = "open_end"
+	FindingUnfollowed    = "unfollowed_splitter_port"
+	FindingUnusedLaser   = "unused_laser"
+	FindingDumpUnrated   = "dump_unrated"
+	FindingLosslessGuess = "assumed_lossless"
+)
+
+// ClearApertureFactor: a clear aperture diameter under π·W (W the larger
+// 1/e² radius) clips about 1 % or more of a round Gaussian beam; common
+// practice sizes optics to at least this.
+const ClearApertureFactor = math.Pi
+
+// PoorModeOverlap is the computed fibre mode overlap below which the coupling
+// optics, not the alignment, limit the coupling (our threshold).
+const PoorModeOverlap = 0.5
+
+// Findings lists what the budget found, in path and element order. Powers in
+// messages use each laser's maximum power where they concern hazards or
+// ratings, and say so.
+func (b *Budget) Findings() []Finding {
+	var out []Finding
+	used := map[*Laser]bool{}
+	for _, pb := range b.Paths {
+		used[pb.Laser] = true
+		p := pb.Path
+		max := pb.Laser.Power
+		for _, r := range pb.Rows {
+			e := r.Element
+			where := fmt.Sprintf("%s %d (%s)", "element", e.Index, e.Label())
+			clear := e.Aperture
+			if e.Type == TypeAperture && (clear == 0 || e.Diameter < clear) {
+				clear = e.Diameter
+			}
+			if clear > 0 {
+				wx, wy := r.BeamIn.Radii()
+				w := math.Max(wx, wy)
+				if clear < ClearApertureFactor*w {
+					out = append(out, Finding{SeverityAdvice, FindingClipping, p.Name, e.Index, e.At,
+						fmt.Sprintf("%s: clear aperture %s is under π·W = %s for the beam there; %.2f %% of the power is clipped (included in the budget; diffraction from the edge is not modelled)",
+							where, FormatLength(clear), FormatLength(ClearApertureFactor*w), 100*(1-r.ClipFraction))})
+				}
+			}
+			if r.Fiber != nil && !r.Fiber.Given && r.Fiber.Overlap < PoorModeOverlap {
+				out = append(out, Finding{SeverityAdvice, FindingModeMatch, p.Name, e.Index, e.At,
+					fmt.Sprintf("%s: mode overlap with the fibre is only %.1f %%; the coupling optics do not match the beam to the mode (ideal coupling-lens focal length %s)",
+						where, 100*r.Fiber.Overlap, formatFocalPair(r.Fiber.IdealFocalLength))})
+			}
+			if e.Type == TypeDump {
+				pw := r.FractionIn * max
+				if e.Rating == 0 {
+					out = append(out, Finding{SeverityAdvice, FindingDumpUnrated, p.Name, e.Index, e.At,
+						fmt.Sprintf("%s: no rating stated; it receives up to %s at the laser's maximum power", where, FormatPower(pw))})
+				} else if pw > e.Rating {
+					out = append(out, Finding{SeverityAction, FindingDumpRating, p.Name, e.Index, e.At,
+						fmt.Sprintf("%s: receives up to %s at the laser's maximum power, above its rating of %s", where, FormatPower(pw), FormatPower(e.Rating))})
+				}
+			}
+		}
+		for _, e := range pb.UnfollowedPorts {
+			r := pb.row(e)
+			pw := r.FractionIn * r.ClipFraction * (1 - *e.Transmission) * max
+			out = append(out, Finding{SeverityAction, FindingUnfollowed, p.Name, e.Index, e.At,
+				fmt.Sprintf("element %d (%s): up to %s leaves the other port and no path follows it; describe where it goes (a path from %q) or block it",
+					e.Index, e.Label(), FormatPower(pw), p.Name+":"+e.Name)})
+		}
+		if pb.OpenEnd {
+			at := 0.0
+			if n := len(p.Elements); n > 0 {
+				at = p.Elements[n-1].At
+			}
+			out = append(out, Finding{SeverityAction, FindingOpenEnd, p.Name, 0, at,
+				fmt.Sprintf("the path ends without a dump: up to %s leaves it at %s; end it in a rated dump", FormatPower(pb.EndFraction*max), FormatLength(at))})
+		}
+	}
+	for _, las := range b.Setup.Lasers {
+		if !used[las] {
+			out = append(out, Finding{SeverityAdvice, FindingUnusedLaser, "", 0, 0,
+				fmt.Sprintf("laser %q feeds no path; its beam is not evaluated", las.Name)})
+		}
+	}
+	if b.AssumedLossless > 0 {
+		out = append(out, Finding{SeverityAdvice, FindingLosslessGuess, "", 0, 0,
+			fmt.Sprintf("%d element(s) have no stated loss and were assumed lossless; the budget is optimistic by their real losses", b.AssumedLossless)})
+	}
+	return out
+}
+
+func formatFocalPair(f [2]float64) string {
+	show := func(v float64) string {
+		if math.IsNaN(v) {
+			return "none (expand the beam first)"
+		}
+		return FormatLength(v)
+	}
+	if f[0] == f[1] || (math.IsNaN(f[0]) && math.IsNaN(f[1])) || math.Abs(f[0]-f[1]) < 1e-3*math.Abs(f[0]) {
+		return show(f[0])
+	}
+	return fmt.Sprintf("x %s, y %s", show(f[0]), show(f[1]))
+}
+
+// FormatFocalPair writes the x and y ideal focal lengths, once when equal.
+func FormatFocalPair(f [2]float64) string { return formatFocalPair(f) }

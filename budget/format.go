@@ -1,0 +1,66 @@
+package budget
+
+import (
+	"fmt"
+	"math"
+	"strconv"
+	"strings"
+)
+
+// Formatting of quantities for people. Every function takes SI base units.
+
+var siPrefixes = []struct {
+	exp    int
+	symbol string
+}{{9, "G"}, {6, "M"}, {3, "k"}, {0, ""}, {-3, "m"}, {-6, "µ"}, {-9, "n"}, {-12, "p"}, {-15, "f"}}
+
+// FormatSI writes v with an SI prefix chosen so that the mantissa lies in
+// [1, 1000), with four significant digits: FormatSI(0.0012, "W") = "1.2 mW".
+func FormatSI(v float64, unit string) string {
+	if v == 0 || math.IsNaN(v) || math.IsInf(v, 0) {
+		return fmt.Sprintf("%s %s", trimFloat(v, 4), unit)
+	}
+	a := math.Abs(v)
+	for _, p := range siPrefixes {
+		scale := math.Pow(10, float64(p.exp))
+		if a >= scale*(1-5e-5) || p.exp == -15 {
+			return trimFloat(v/scale, 4) + " " + p.symbol + unit
+		}
+	}
+	return trimFloat(v, 4) + " " + unit
+}
+
+// trimFloat formats with n significant digits and no exponent for ordinary
+// magnitudes, dropping trailing zeros.
+func trimFloat(v float64, n int) string {
+	if v == 0 {
+		return "0"
+	}
+	s := strconv.FormatFloat(v, 'g', n, 64)
+	if strings.ContainsAny(s, "e") {
+		f, _ := strconv.ParseFloat(s, 64)
+		if math.Abs(f) >= 1e-4 && math.Abs(f) < 1e15 {
+			s = strconv.FormatFloat(f, 'f', -1, 64)
+		}
+	}
+	return s
+}
+
+// FormatLength writes a length with a readable prefix: "1.35 m", "250 mm".
+func FormatLength(m float64) string { return FormatSI(m, "m") }
+
+// FormatPower writes a power: "1.1 W", "250 mW".
+func FormatPower(w float64) string { return FormatSI(w, "W") }
+
+// FormatIrradiance writes an irradiance in W/cm² (the unit the lab reads):
+// input W/m².
+func FormatIrradiance(wm2 float64) string { return FormatSI(wm2*1e-4, "W/cm²") }
+
+// FormatFrequency writes a frequency in Hz with a prefix.
+func FormatFrequency(hz float64) string { return FormatSI(hz, "Hz") }
+
+// FixedMM writes a length in mm with the given decimals.
+func FixedMM(m float64, decimals int) string { return strconv.FormatFloat(m*1e3, 'f', decimals, 64) }
+
+// Decibels of a power ratio out/in (negative for a loss).
+func Decibels(ratio float64) float64 { return 10 * math.Log10(ratio) }

@@ -1,0 +1,405 @@
+package budget
+
+import (
+	"fmt"
+	"strings"
+)
+
+// Wavelength range a setup may use: the span of the exposure limits, m.
+const (
+	MinWavelength = 180e-9
+	MaxWavelength = 1e-3
+)
+
+func (l *loader) setup(raw map[string]any) *Setup {
+	s := &Setup{File: l.file}
+	top := l.table("", "", raw)
+	if m := top.subtable("setup"); m != nil {
+		t := l.table("[setup]", "setup", m)
+		s.Meta.Title = t.str("title", false)
+		s.Meta.Site = t.str("site", false)
+		s.Meta.PreparedBy = t.str("prepared_by", false)
+		s.Meta.Revision = t.str("revision", false)
+		s.Meta.Exposure = t.positive("exposure", Time, false)
+		t.done()
+	}
+	for i, m := range top.tables("laser") {
+		s.Lasers = append(s.Lasers, l.laser(i, m))
+	}
+	for i, m := range top.tables("cloud") {
+		s.Clouds = append(s.Clouds, l.cloud(i, m))
+	}
+	for i, m := range top.tables("path") {
+		s.Paths = append(s.Paths, l.path(i, m))
+	}
+	for i, m := range top.tables("eyewear") {
+		s.Eyewear = append(s.Eyewear, l.eyewear(i, m))
+	}
+	top.done()
+	if len(l.problems) == 0 {
+		l.link(s)
+	}
+	return s
+}
+
+func (l *loader) laser(i int, m map[string]any) *Laser {
+	loc := fmt.Sprintf("laser[%d]", i)
+	t := l.table(fmt.Sprintf("laser %d", i+1), loc, m)
+	las := &Laser{Line: l.lines[loc]}
+	las.Name = t.str("name", true)
+	if las.Name != "" {
+		t.context = fmt.Sprintf("laser %q", las.Name)
+	}
+	las.Wavelength = t.positive("wavelength", Length, true)
+	if w := las.Wavelength; w > 0 && (w < MinWavelength || w > MaxWavelength) {
+		t.fail("wavelength", "%s is outside 180 nm to 1 mm, the span of the exposure limits", show(m["wavelength"]))
+	}
+	las.Power = t.positive("power", Power, true)
+	las.OperatingPower = las.Power
+	if t.has("operating_power") {
+		las.OperatingPower = t.positive("operating_power", Power, true)
+		if las.Power > 0 && las.OperatingPower > las.Power {
+			t.fail("operating_power", "%s is more than power %s", show(m["operating_power"]), show(m["power"]))
+		}
+	}
+	las.Waist, _ = t.pair("waist", Length, true, 0)
+	las.M2 = [2]float64{1, 1}
+	if t.has("m2") {
+		las.M2, _ = t.pair("m2", Dimensionless, true, 1)
+	}
+	las.WaistAt, _ = t.quantity("waist_at", Length, false)
+	las.Emission = t.enum("emission", EmissionCW, EmissionCW, EmissionPulsed)
+	if las.Emission == EmissionPulsed {
+		las.PulseDuration = t.positive("pulse_duration", Time, true)
+		las.RepetitionRate = t.positive("repetition_rate", Frequency, true)
+	} else {
+		for _, k := range []string{"pulse_duration", "repetition_rate"} {
+			if t.has(k) {
+				t.get(k)
+				t.fail(k, "only for emission = \"pulsed\"")
+			}
+		}
+	}
+	las.Detuning, _ = t.quantity("detuning", Frequency, false)
+	t.done()
+	return las
+}
+
+func (l *loader) cloud(i int, m map[string]any) *Cloud {
+	loc := fmt.Sprintf("cloud[%d]", i)
+	t := l.table(fmt.Sprintf("cloud %d", i+1), loc, m)
+	c := &Cloud{Line: l.lines[loc]}
+	c.Name = t.str("name", true)
+	if c.Name != "" {
+		t.context = fmt.Sprintf("cloud %q", c.Name)
+	}
+	c.Transition = t.str("transition", true)
+	c.Atoms, _ = t.quantity("atoms", Dimensionless, true)
+	if t.has("atoms") && c.Atoms <= 0 {
+		t.fail("atoms", "must be positive, got %s", show(m["atoms"]))
+	}
+	if v, ok := t.get("rms_size"); ok {
+		arr, isArr := v.([]any)
+		if !isArr || len(arr) != 3 {
+			t.fail("rms_size", "want [x, y, along the beam], three lengths")
+		} else {
+			for k, e := range arr {
+				q, ok := t.quantityValue("rms_size", e, Length)
+				if ok && q <= 0 {
+					t.fail("rms_size", "must be positive, got %s", show(e))
+				}
+				c.RMSSize[k] = q
+			}
+		}
+	} else {
+		t.fail("rms_size", "missing (want [x, y, along the beam], three lengths)")
+	}
+	c.Saturation = t.enum("saturation", SaturationCycling, SaturationCycling, SaturationIsotropic)
+	c.CollectiveRate = t.positive("collective_rate", Frequency, false)
+	custom := c.Transition == "custom"
+	for _, k := range []string{"wavelength", "linewidth", "saturation_intensity", "mass"} {
+		if !custom && t.has(k) {
+			t.get(k)
+			t.fail(k, "only for transition = \"custom\"")
+		}
+	}
+	if custom {
+		c.Wavelength = t.positive("wavelength", Length, true)
+		c.Linewidth = t.positive("linewidth", Frequency, true)
+		c.SaturationIntensity = t.positive("saturation_intensity", Irradiance, false)
+		c.Mass = t.positive("mass", Mass, false)
+		if t.has("saturation") && c.Saturation == SaturationIsotropic {
+			t.fail("saturation", "a custom transition has one saturation intensity; leave saturation out")
+		}
+	}
+	t.done()
+	return c
+}
+
+func (l *loader) eyewear(i int, m map[string]any) *Eyewear {
+	loc := fmt.Sprintf("eyewear[%d]", i)
+	t := l.table(fmt.Sprintf("eyewear %d", i+1), loc, m)
+	e := &Eyewear{Line: l.lines[loc]}
+	e.Name = t.str("name", true)
+	if e.Name != "" {
+		t.context = fmt.Sprintf("eyewear %q", e.Name)
+	}
+	bands := t.tables("bands")
+	if !t.has("bands") {
+		t.fail("bands", "missing (want [{ from = \"740 nm\", to = \"1100 nm\", od = 7 }, …])")
+	}
+	for k, b := range bands {
+		bt := l.table(fmt.Sprintf("%s, band %d", t.context, k+1), loc+".bands", b)
+		var band EyewearBand
+		band.From = bt.positive("from", Length, true)
+		band.To = bt.positive("to", Length, true)
+		if band.From > 0 && band.To > 0 && band.To <= band.From {
+			bt.fail("to", "%s is not above from %s", show(b["to"]), show(b["from"]))
+		}
+		od, ok := bt.quantity("od", Dimensionless, true)
+		if ok && od < 0 {
+			bt.fail("od", "must not be negative, got %s", show(b["od"]))
+		}
+		band.OD = od
+		bt.done()
+		e.Bands = append(e.Bands, band)
+	}
+	t.done()
+	return e
+}
+
+func (l *loader) path(i int, m map[string]any) *Path {
+	loc := fmt.Sprintf("path[%d]", i)
+	t := l.table(fmt.Sprintf("path %d", i+1), loc, m)
+	p := &Path{Line: l.lines[loc]}
+	p.Name = t.str("name", true)
+	if p.Name != "" {
+		t.context = fmt.Sprintf("path %q", p.Name)
+	}
+	p.From = t.str("from", true)
+	p.Access = Access(t.enum("access", string(AccessOpen), string(AccessOpen), string(AccessEnclosed), string(AccessVacuum)))
+	for k, em := range t.tables("element") {
+		p.Elements = append(p.Elements, l.element(p, t.context, fmt.Sprintf("%s.element[%d]", loc, k), k, em))
+	}
+	t.done()
+	return p
+}
+
+// elementKeys lists the keys each element type takes besides the common ones.
+var elementKeys = map[string][]string{
+	TypeLens:     {"focal_length"},
+	TypeMirror:   {"reflectivity", "radius_of_curvature"},
+	TypeWindow:   {"thickness", "index"},
+	TypeAOM:      {"efficiency", "frequency", "order", "passes"},
+	TypeFilter:   {"optical_density"},
+	TypeAperture: {"diameter"},
+	TypeSplitter: {},
+	TypeFiber:    {"mode_field_diameter", "alignment", "coupling", "output_waist", "output_focal_length"},
+	TypeAtoms:    {"cloud", "goal", "goal_value", "goal_factor", "detuning"},
+	TypeDump:     {"rating", "diffuse_reflectance"},
+}
+
+// commonElementKeys are taken by every element type.
+var commonElementKeys = []string{"type", "name", "at", "aperture", "transmission", "access", "surface_reflectance", "damage_threshold", "damage_pulse_duration"}
+
+// ElementTypes lists the element types in a fixed order.
+var ElementTypes = []string{TypeLens, TypeMirror, TypeWindow, TypeAOM, TypeFilter, TypeAperture, TypeSplitter, TypeFiber, TypeAtoms, TypeDump}
+
+func (l *loader) element(p *Path, pathContext, loc string, k int, m map[string]any) *Element {
+	t := l.table(fmt.Sprintf("%s, element %d", pathContext, k+1), loc, m)
+	e := &Element{Index: k + 1, Line: l.lines[loc]}
+	e.Type = t.str("type", true)
+	if _, ok := elementKeys[e.Type]; !ok {
+		if e.Type != "" {
+			t.fail("type", "unknown element type %q (want one of %s)", e.Type, strings.Join(ElementTypes, ", "))
+		}
+		for key := range m {
+			t.get(key) // the type is wrong; do not also list its keys as unknown
+		}
+		return e
+	}
+	t.context = fmt.Sprintf("%s, element %d (%s)", pathContext, k+1, e.Type)
+	e.Name = t.str("name", e.Type == TypeSplitter)
+	if e.Name != "" {
+		t.context = fmt.Sprintf("%s, element %d (%s %q)", pathContext, k+1, e.Type, e.Name)
+	}
+	e.At, _ = t.quantity("at", Length, true)
+	if e.At < 0 {
+		t.fail("at", "must not be negative, got %s", show(m["at"]))
+	}
+	e.Aperture = t.positive("aperture", Length, false)
+	if e.Type == TypeMirror {
+		if t.has("transmission") {
+			t.get("transmission")
+			t.fail("transmission", "a mirror's throughput is its reflectivity")
+		}
+	} else {
+		e.Transmission = t.fraction("transmission", 0, 1)
+	}
+	if t.has("access") {
+		e.Access = Access(t.enum("access", "", string(AccessOpen), string(AccessEnclosed), string(AccessVacuum)))
+	}
+	e.SurfaceReflectance = t.fraction("surface_reflectance", 0, 1)
+	if v, ok := t.get("damage_threshold"); ok {
+		s, _ := v.(string)
+		q, d, err := ParseQuantity(s)
+		switch {
+		case err != nil || s == "":
+			t.fail("damage_threshold", "want a linear power density (cw, e.g. \"5 kW/cm\") or a radiant exposure (pulsed, e.g. \"2 J/cm2\")")
+		case q <= 0:
+			t.fail("damage_threshold", "must be positive, got %q", s)
+		case d == LinearPowerDensity:
+			e.DamageThreshold = q
+		case d == RadiantExposure:
+			e.DamageThreshold, e.DamageIsFluence = q, true
+		default:
+			t.fail("damage_threshold", "%q is %s; want a linear power density (cw, e.g. \"5 kW/cm\") or a radiant exposure (pulsed, e.g. \"2 J/cm2\")", s, describe(d))
+		}
+	}
+	e.DamagePulseDuration = t.positive("damage_pulse_duration", Time, e.DamageIsFluence)
+
+	switch e.Type {
+	case TypeLens:
+		f, ok := t.quantity("focal_length", Length, true)
+		if ok && f == 0 {
+			t.fail("focal_length", "must not be zero")
+		}
+		e.FocalLength = f
+	case TypeMirror:
+		e.Reflectivity = t.fraction("reflectivity", 0, 1)
+		e.RadiusOfCurvature, _ = t.quantity("radius_of_curvature", Length, false)
+	case TypeWindow:
+		e.Thickness = t.positive("thickness", Length, false)
+		if t.has("index") {
+			n, ok := t.quantity("index", Dimensionless, true)
+			if ok && (n < 1 || n > 5) {
+				t.fail("index", "%s is outside [1, 5]", show(m["index"]))
+			}
+			if !t.has("thickness") {
+				t.fail("index", "needs thickness")
+			}
+			e.RefractiveIndex = n
+		} else if t.has("thickness") {
+			t.fail("thickness", "needs index (the refractive index)")
+		}
+	case TypeAOM:
+		e.Efficiency = t.fraction("efficiency", 0, 1)
+		e.Frequency, _ = t.quantity("frequency", Frequency, false)
+		e.Order = t.integer("order", 1, -10, 10)
+		e.Passes = t.integer("passes", 1, 1, 4)
+		if e.Order == 0 && t.has("order") {
+			t.fail("order", "0 is the undiffracted beam; give the order used (e.g. 1 or -1)")
+		}
+	case TypeFilter:
+		if !t.has("optical_density") && !t.has("transmission") {
+			t.fail("optical_density", "missing (a filter needs optical_density or transmission)")
+		}
+		if od, ok := t.quantity("optical_density", Dimensionless, false); ok {
+			if od < 0 || od > 20 {
+				t.fail("optical_density", "%s is outside [0, 20]", show(m["optical_density"]))
+			} else {
+				e.OpticalDensity = &od
+			}
+		}
+	case TypeAperture:
+		e.Diameter = t.positive("diameter", Length, true)
+	case TypeSplitter:
+		if !t.has("transmission") {
+			t.fail("transmission", "missing (a splitter needs the fraction sent on along this path)")
+		}
+	case TypeFiber:
+		e.Coupling = t.fraction("coupling", 0, 1)
+		e.ModeFieldDiameter = t.positive("mode_field_diameter", Length, e.Coupling == nil && !t.has("coupling"))
+		e.Alignment = t.fraction("alignment", 0, 1)
+		if e.Coupling != nil && e.Alignment != nil {
+			t.fail("alignment", "coupling is given, which already includes alignment")
+		}
+		e.OutputWaist = t.positive("output_waist", Length, false)
+		e.OutputFocalLength = t.positive("output_focal_length", Length, false)
+		switch {
+		case t.has("output_waist") && t.has("output_focal_length"):
+			t.fail("output_focal_length", "give output_waist or output_focal_length, not both")
+		case !t.has("output_waist") && !t.has("output_focal_length"):
+			t.fail("output_waist", "missing (a fiber needs output_waist or output_focal_length)")
+		case t.has("output_focal_length") && !t.has("mode_field_diameter"):
+			t.fail("output_focal_length", "needs mode_field_diameter to size the output beam")
+		}
+	case TypeAtoms:
+		e.Cloud = t.str("cloud", true)
+		e.Goal = t.enum("goal", "", GoalCollective, GoalSaturation, GoalRabi, GoalTrapDepth)
+		e.GoalFactor = 1
+		switch e.Goal {
+		case GoalSaturation:
+			e.GoalValue = t.positivePtr("goal_value", Dimensionless, "a saturation parameter s")
+		case GoalRabi:
+			e.GoalValue = t.positivePtr("goal_value", Frequency, "a Rabi frequency Ω/2π")
+		case GoalTrapDepth:
+			e.GoalValue = t.positivePtr("goal_value", Temperature, "a trap depth U/k_B")
+		case GoalCollective:
+			if t.has("goal_value") {
+				t.get("goal_value")
+				t.fail("goal_value", "a collective goal has no value; use goal_factor for a multiple of the threshold")
+			}
+		default:
+			if t.has("goal_value") {
+				t.get("goal_value")
+				t.fail("goal_value", "given without goal")
+			}
+		}
+		if t.has("goal_factor") {
+			if e.Goal != GoalCollective {
+				t.get("goal_factor")
+				t.fail("goal_factor", "only for goal = \"collective\"")
+			} else if f, ok := t.quantity("goal_factor", Dimensionless, true); ok {
+				if f <= 0 {
+					t.fail("goal_factor", "must be positive, got %s", show(m["goal_factor"]))
+				} else {
+					e.GoalFactor = f
+				}
+			}
+		}
+		if d, ok := t.quantity("detuning", Frequency, false); ok {
+			e.Detuning = &d
+		}
+	case TypeDump:
+		e.Rating = t.positive("rating", Power, false)
+		e.DiffuseReflectance = t.fraction("diffuse_reflectance", 0, 1)
+	}
+	if e.Type != TypeDump && t.has("diffuse_reflectance") {
+		t.get("diffuse_reflectance")
+		t.fail("diffuse_reflectance", "only for a dump")
+	}
+	t.hint = fmt.Sprintf(" for a %s (it takes %s)", e.Type, strings.Join(append(elementKeys[e.Type], commonElementKeys...), ", "))
+	t.done()
+	return e
+}
+
+func (t *table) positivePtr(key string, dim Dimension, what string) *float64 {
+	if !t.has(key) {
+		t.get(key)
+		t.fail(key, "missing (the goal needs %s, %s)", what, dim)
+		return nil
+	}
+	q := t.positive(key, dim, true)
+	if q <= 0 {
+		return nil
+	}
+	return &q
+}
+
+func (t *table) integer(key string, def, lo, hi int) int {
+	v, ok := t.get(key)
+	if !ok {
+		return def
+	}
+	n, isInt := v.(int64)
+	if !isInt {
+		t.fail(key, "want a whole number, got %s", tomlKind(v))
+		return def
+	}
+	if n < int64(lo) || n > int64(hi) {
+		t.fail(key, "%d is outside [%d, %d]", n, lo, hi)
+		return def
+	}
+	return int(n)
+}

@@ -1,0 +1,197 @@
+package budget
+
+// Setup is a whole setup file: lasers, beam paths, atom clouds and eyewear.
+// Every quantity is in SI base units.
+type Setup struct {
+	File    string // the file it was read from, for messages
+	Meta    Meta
+	Lasers  []*Laser
+	Paths   []*Path
+	Clouds  []*Cloud
+	Eyewear []*Eyewear
+}
+
+// Meta is the [setup] table: who, where, and evaluation-wide choices.
+type Meta struct {
+	Title, Site, PreparedBy, Revision string
+	// Exposure overrides the assumed viewing duration for every wavelength,
+	// s; zero means the default durations are used.
+	Exposure float64
+}
+
+// Emission kinds.
+const (
+	EmissionCW     = "cw"
+	EmissionPulsed = "pulsed"
+)
+
+// Laser is one source.
+type Laser struct {
+	Name       string
+	Line       int     // line of its [[laser]] header
+	Wavelength float64 // vacuum wavelength, m
+	// Power is the most the source can emit, W; hazards use it.
+	Power float64
+	// OperatingPower is what the drive budget assumes, W.
+	OperatingPower float64
+	// Waist is the 1/e² intensity radius at the waist in x and y, m.
+	Waist [2]float64
+	// M2 is the beam quality factor in x and y.
+	M2 [2]float64
+	// WaistAt is the waist position relative to the output, m (positive:
+	// after the output, along the first path).
+	WaistAt  float64
+	Emission string
+	// PulseDuration is the pulse length, s (pulsed only).
+	PulseDuration float64
+	// RepetitionRate is the pulse rate, Hz (pulsed only).
+	RepetitionRate float64
+	// Detuning is the laser frequency minus the driven transition's, Hz.
+	Detuning float64
+}
+
+// Access says what surrounds a segment of a path.
+type Access string
+
+// Segment access kinds.
+const (
+	AccessOpen     Access = "open"
+	AccessEnclosed Access = "enclosed"
+	AccessVacuum   Access = "vacuum"
+)
+
+// Path is a beam path starting at a laser or at a splitter's other port.
+type Path struct {
+	Name string
+	Line int
+	From string // laser name or "<path>:<splitter name>"
+	// Access is the first segment's (before the first element).
+	Access   Access
+	Elements []*Element
+
+	// Resolved by the loader:
+	Laser      *Laser   // the source that feeds the path
+	Parent     *Path    // the path whose splitter feeds this one, or nil
+	ParentPort *Element // that splitter
+}
+
+// Element types.
+const (
+	TypeLens     = "lens"
+	TypeMirror   = "mirror"
+	TypeWindow   = "window"
+	TypeAOM      = "aom"
+	TypeFilter   = "filter"
+	TypeAperture = "aperture"
+	TypeSplitter = "splitter"
+	TypeFiber    = "fiber"
+	TypeAtoms    = "atoms"
+	TypeDump     = "dump"
+)
+
+// Element is one optic, cloud or dump along a path. Optional numbers are
+// pointers: nil means the setup did not state them.
+type Element struct {
+	Index int // 1-based position in the path
+	Line  int
+	Type  string
+	Name  string
+	// At is the free-space distance from the start of the path, m.
+	At float64
+	// Aperture is the clear aperture diameter, m (0: unlimited).
+	Aperture float64
+	// Transmission is the stated throughput (for a splitter: the fraction
+	// sent on along this path).
+	Transmission *float64
+	// Access of the segment after this element; "" keeps the previous one.
+	Access Access
+
+	FocalLength       float64  // lens, m
+	Reflectivity      *float64 // mirror
+	RadiusOfCurvature float64  // mirror, m (0: flat; positive: concave, focusing)
+	Thickness         float64  // window, m
+	RefractiveIndex   float64  // window (0: not given)
+	Efficiency        *float64 // aom, per pass
+	Frequency         float64  // aom drive frequency, Hz
+	Order             int      // aom diffraction order
+	Passes            int      // aom passes
+	OpticalDensity    *float64 // filter
+	Diameter          float64  // aperture (iris) diameter, m
+
+	// fiber
+	ModeFieldDiameter float64 // m
+	Alignment         *float64
+	Coupling          *float64
+	OutputWaist       float64 // m
+	OutputFocalLength float64 // m
+
+	// atoms
+	Cloud      string
+	Goal       string
+	GoalValue  *float64 // SI: saturation (bare), rabi (Hz), trap_depth (K)
+	GoalFactor float64  // collective: multiple of the threshold
+	Detuning   *float64 // Hz, overrides the laser's plus AOM shifts
+
+	// dump
+	Rating float64 // W
+
+	// hazard inputs
+	SurfaceReflectance  *float64
+	DiffuseReflectance  *float64
+	DamageThreshold     float64 // W/m (cw) or J/m² (pulsed)
+	DamagePulseDuration float64 // s
+	DamageIsFluence     bool
+}
+
+// Label is how the element is named in output: its name, else its type.
+func (e *Element) Label() string {
+	if e.Name != "" {
+		return e.Name
+	}
+	return e.Type
+}
+
+// Goals at an atoms element.
+const (
+	GoalSaturation = "saturation"
+	GoalRabi       = "rabi"
+	GoalTrapDepth  = "trap_depth"
+	GoalCollective = "collective"
+)
+
+// Saturation choices for a cloud.
+const (
+	SaturationCycling   = "cycling"
+	SaturationIsotropic = "isotropic"
+)
+
+// Cloud is an atom cloud.
+type Cloud struct {
+	Name       string
+	Line       int
+	Transition string
+	Atoms      float64
+	// RMSSize is the rms radius in x, y and along the beam, m.
+	RMSSize    [3]float64
+	Saturation string
+	// CollectiveRate is N Γ_c / 2π, Hz (0: estimate from optical depth).
+	CollectiveRate float64
+
+	// custom transition
+	Wavelength          float64 // m
+	Linewidth           float64 // Γ/2π, Hz
+	SaturationIntensity float64 // W/m²
+	Mass                float64 // kg
+}
+
+// Eyewear is one declared pair of protective eyewear.
+type Eyewear struct {
+	Name  string
+	Line  int
+	Bands []EyewearBand
+}
+
+// EyewearBand is an optical density over a wavelength band, m.
+type EyewearBand struct {
+	From, To, OD float64
+}

@@ -1,0 +1,61 @@
+package main
+
+import (
+	"github.com/spf13/cobra"
+
+	"beamledger/budget"
+	"beamledger/safety"
+	"beamledger/safety/render"
+)
+
+type checkOptions struct {
+	file string
+	json bool
+}
+
+func (e *env) newCheck() *cobra.Command {
+	o := &checkOptions{}
+	cmd := &cobra.Command{
+		Use:   "check FILE",
+		Short: "Print the power and beam budget of every path and the findings",
+		Long: `check loads a setup file and prints, for every beam path, the 1/e² radii,
+power in and out, peak irradiance and cumulative loss at every element, the
+power balance of each laser, and the findings.
+
+Powers in the table are at each laser's operating power; ratings and escaping
+beams are judged at its maximum power. Exit status: 0 no finding needs action,
+1 a finding needs action, 2 the setup could not be used.`,
+		Example: `  beamledger check testdata/examples/table-c.toml
+  beamledger check --json testdata/examples/table-c.toml`,
+		Args: cobra.ExactArgs(1),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			o.file = args[0]
+			return e.runCheck(o)
+		},
+	}
+	cmd.Flags().BoolVar(&o.json, "json", false, "write JSON (SI units, unit-suffixed keys) instead of text")
+	return cmd
+}
+
+func (e *env) runCheck(o *checkOptions) error {
+	s, err := budget.Load(o.file)
+	if err != nil {
+		return err
+	}
+	a, err := safety.Evaluate(s)
+	if err != nil {
+		return err
+	}
+	if o.json {
+		err = render.JSON(e.stdout, a)
+	} else {
+		err = render.Text(e.stdout, a)
+	}
+	if err != nil {
+		return err
+	}
+	if a.NeedsAction() {
+		return errFindings
+	}
+	return nil
+}

@@ -1,0 +1,70 @@
+package main
+
+import (
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"time"
+
+	"github.com/spf13/cobra"
+)
+
+// Exit statuses, decided here only.
+const (
+	exitOK       = 0 // every check within limits, every goal reached
+	exitFindings = 1 // a finding needs action (a limit exceeded, a goal short, an optic over its rating)
+	exitBadInput = 2 // the input could not be used
+)
+
+// version of the tool, printed by `version` and recorded in reports.
+var version = "0.1.0"
+
+// errFindings is returned by a command whose run produced action findings.
+var errFindings = errors.New("findings need action")
+
+// env carries what commands take from outside: output streams and the clock.
+type env struct {
+	stdout, stderr io.Writer
+	now            func() time.Time
+	getenv         func(string) string
+}
+
+func run(args []string, stdout, stderr io.Writer) int {
+	e := &env{stdout: stdout, stderr: stderr, now: time.Now, getenv: os.Getenv}
+	return e.execute(args)
+}
+
+func (e *env) execute(args []string) int {
+	root := e.newRoot()
+	root.SetArgs(args)
+	err := root.Execute()
+	switch {
+	case err == nil:
+		return exitOK
+	case errors.Is(err, errFindings):
+		return exitFindings
+	default:
+		fmt.Fprintf(e.stderr, "beamledger: %v\n", err)
+		return exitBadInput
+	}
+}
+
+func (e *env) newRoot() *cobra.Command {
+	root := &cobra.Command{
+		Use:   "beamledger",
+		Short: "Check the light at the atoms and the hazards of a laser setup before alignment",
+		Long: `beamledger reads a TOML setup of lasers, beam paths, optics and atom clouds,
+propagates Gaussian beams (1/e² radii, M², x and y planes) through the optics,
+and reports the power budget element by element.
+
+Its figures support, and never replace, the evaluation of your laser safety
+officer under local regulations.`,
+		SilenceUsage:  true,
+		SilenceErrors: true,
+	}
+	root.SetOut(e.stdout)
+	root.SetErr(e.stderr)
+	root.AddCommand(e.newCheck(), e.newInit(), e.newVersion())
+	return root
+}

@@ -1,0 +1,31 @@
+package safety
+
+import "beamledger/budget"
+
+// Assessment is the whole evaluation of one setup.
+type Assessment struct {
+	Setup    *budget.Setup
+	Budget   *budget.Budget
+	Findings []budget.Finding
+}
+
+// Evaluate computes everything `check` reports.
+func Evaluate(s *budget.Setup) (*Assessment, error) {
+	b, err := budget.Compute(s)
+	if err != nil {
+		return nil, err
+	}
+	a := &Assessment{Setup: s, Budget: b}
+	a.Findings = append(a.Findings, b.Findings()...)
+	return a, nil
+}
+
+// NeedsAction reports whether any finding must be dealt with.
+func (a *Assessment) NeedsAction() bool {
+	for _, f := range a.Findings {
+		if f.Severity == budget.SeverityAction {
+			return true
+		}
+	}
+	return false
+}
