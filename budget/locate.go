@@ -94,7 +94,11 @@ func arrayPrefix(name string, counts map[string]int) string {
 // line returns the line of a key, else of its table, else 0.
 func (idx lineIndex) line(table, key string) int {
 	if key != "" {
-		if n, ok := idx[table+"."+key]; ok {
+		full := key
+		if table != "" {
+			full = table + "." + key
+		}
+		if n, ok := idx[full]; ok {
 			return n
 		}
 	}

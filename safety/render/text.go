@@ -70,6 +70,9 @@ func writePath(ew *errWriter, pb *budget.PathBudget) {
 		}
 		var losses []string
 		for _, l := range r.Losses {
+			if l.Fraction < negligibleLoss {
+				continue
+			}
 			losses = append(losses, fmt.Sprintf("%s %s", l.Kind, budget.FormatPower(l.Fraction*op)))
 		}
 		if r.AssumedLossless {
@@ -119,6 +122,10 @@ func writeBalance(ew *errWriter, bal *budget.LaserBalance) {
 	}
 	ew.printf("  %s: %s; total %s\n", bal.Laser.Name, strings.Join(parts, ", "), fmtPct(bal.Total()))
 }
+
+// negligibleLoss is the fraction of the source below which the table does not
+// list a loss (the JSON output and the balance keep it).
+const negligibleLoss = 1e-9
 
 func fmtPct(f float64) string { return fmt.Sprintf("%.2f %%", 100*f) }
 

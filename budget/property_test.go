@@ -1,0 +1,80 @@
+package budget_test
+
+import (
+	"fmt"
+	"math"
+	"testing"
+
+	"beamledger/budget"
+	"beamledger/budget/synth"
+)
+
+func generated(t testing.TB, seed uint64, o synth.Options) *budget.Budget {
+	t.Helper()
+	src := synth.Lab(seed, o)
+	s, err := budget.Parse(fmt.Sprintf("gen-%d.toml", seed), []byte(src))
+	if err != nil {
+		t.Fatalf("seed %d: generated setup does not load: %v", seed, err)
+	}
+	b, err := budget.Compute(s)
+	if err != nil {
+		t.Fatalf("seed %d: %v", seed, err)
+	}
+	return b
+}
+
+// The budget closes: for every laser, dumps + open ends + every named loss =
+// the source power, to 1e-9 relative (energy conservation; the property the
+// budget must keep whatever the optics).
+func TestBudgetCloses(t *testing.T) {
+	for seed := uint64(1); seed <= 300; seed++ {
+		b := generated(t, seed, synth.Options{Lasers: 2, ElementsPerPath: 8, Splits: 2, OpenEnds: seed%2 == 0})
+		for _, bal := range b.Balances {
+			if got := bal.Total(); math.Abs(got-1) > 1e-9 {
+				t.Fatalf("seed %d, laser %q: balance sums to %.12f of the source", seed, bal.Laser.Name, got)
+			}
+		}
+	}
+}
+
+// An element never adds power; every stated loss is non-negative; the
+// branch of a splitter never carries more than arrived at it.
+func TestAttenuatorsNeverAddPower(t *testing.T) {
+	for seed := uint64(1); seed <= 200; seed++ {
+		b := generated(t, seed, synth.Options{Lasers: 1, ElementsPerPath: 10, Splits: 1})
+		for _, pb := range b.Paths {
+			for _, r := range pb.Rows {
+				if r.FractionOut > r.FractionIn*(1+1e-12) {
+					t.Fatalf("seed %d, path %q, element %d: out %g > in %g", seed, pb.Path.Name, r.Element.Index, r.FractionOut, r.FractionIn)
+				}
+				for _, l := range r.Losses {
+					if l.Fraction < 0 {
+						t.Fatalf("seed %d: negative loss %+v", seed, l)
+					}
+				}
+			}
+			if pb.Path.ParentPort != nil {
+				parent := b.Path(pb.Path.Parent.Name)
+				for _, r := range parent.Rows {
+					if r.Element == pb.Path.ParentPort && pb.StartFraction > r.FractionIn {
+						t.Fatalf("seed %d: branch %q starts with %g > %g arriving at its splitter", seed, pb.Path.Name, pb.StartFraction, r.FractionIn)
+					}
+				}
+			}
+		}
+	}
+}
+
+func BenchmarkComputeLargeLab(b *testing.B) {
+	src := synth.Lab(7, synth.Options{Lasers: 50, ElementsPerPath: 20, Splits: 1})
+	s, err := budget.Parse("large.toml", []byte(src))
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if _, err := budget.Compute(s); err != nil {
+			b.Fatal(err)
+		}
+	}
+}

@@ -1,0 +1,92 @@
+package main
+
+import (
+	"bytes"
+	"flag"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+	"time"
+)
+
+var update = flag.Bool("update", false, "rewrite the golden files under testdata/golden")
+
+// runCLI runs the command line from the repository root with a pinned clock.
+func runCLI(t *testing.T, args ...string) (stdout, stderr string, code int) {
+	t.Helper()
+	var out, errOut bytes.Buffer
+	e := &env{stdout: &out, stderr: &errOut,
+		now:    func() time.Time { return time.Date(2026, 1, 2, 3, 4, 5, 0, time.UTC) },
+		getenv: func(string) string { return "" }}
+	code = e.execute(args)
+	return out.String(), errOut.String(), code
+}
+
+// compareGolden checks got against testdata/golden/name, or rewrites it with
+// -update. A missing golden file is a failure, never a pass.
+func compareGolden(t *testing.T, name, got string) {
+	t.Helper()
+	path := filepath.Join("testdata", "golden", name)
+	if *update {
+		if err := os.WriteFile(path, []byte(got), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		return
+	}
+	want, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatalf("golden file: %v (run go test ./cmd/beamledger -update to create it)", err)
+	}
+	if got == string(want) {
+		return
+	}
+	gl, wl := strings.Split(got, "\n"), strings.Split(string(want), "\n")
+	for i := 0; i < len(gl) || i < len(wl); i++ {
+		var g, w string
+		if i < len(gl) {
+			g = gl[i]
+		}
+		if i < len(wl) {
+			w = wl[i]
+		}
+		if g != w {
+			t.Fatalf("%s differs first at line %d:\n got: %q\nwant: %q", path, i+1, g, w)
+		}
+	}
+}
+
+// Every shipped example has a text and a JSON golden file and a known exit
+// status.
+func TestCheckGolden(t *testing.T) {
+	t.Chdir("../..")
+	files, err := filepath.Glob("testdata/examples/*.toml")
+	if err != nil || len(files) < 4 {
+		t.Fatalf("examples: %v (%d found)", err, len(files))
+	}
+	wantCode := map[string]int{
+		"table-c":           exitOK,
+		"elliptical-diode":  exitOK,
+		"clipped-telescope": exitFindings, // open end
+		"splitter-tree":     exitFindings, // dumps under-rated
+	}
+	for _, f := range files {
+		base := strings.TrimSuffix(filepath.Base(f), ".toml")
+		t.Run(base, func(t *testing.T) {
+			code, known := wantCode[base]
+			if !known {
+				t.Fatalf("no expected exit status for %s; add it to wantCode", base)
+			}
+			out, errOut, got := runCLI(t, "check", f)
+			if got != code {
+				t.Errorf("check %s: exit %d, want %d (stderr %q)", f, got, code, errOut)
+			}
+			compareGolden(t, base+".txt", out)
+			out, _, got = runCLI(t, "check", "--json", f)
+			if got != code {
+				t.Errorf("check --json %s: exit %d, want %d", f, got, code)
+			}
+			compareGolden(t, base+".json", out)
+		})
+	}
+}
