@@ -12,7 +12,7 @@ import (
 var siPrefixes = []struct {
 	exp    int
 	symbol string
-}{{9, "G"}, {6, "M"}, {3, "k"}, {0, ""}, {-3, "m"}, {-6, "µ"}, {-9, "n"}, {-12, "p"}, {-15, "f"}}
+}{{12, "T"}, {9, "G"}, {6, "M"}, {3, "k"}, {0, ""}, {-3, "m"}, {-6, "µ"}, {-9, "n"}, {-12, "p"}, {-15, "f"}}
 
 // FormatSI writes v with an SI prefix chosen so that the mantissa lies in
 // [1, 1000), with four significant digits: FormatSI(0.0012, "W") = "1.2 mW".
@@ -37,14 +37,18 @@ func trimFloat(v float64, n int) string {
 		return "0"
 	}
 	s := strconv.FormatFloat(v, 'g', n, 64)
-	if strings.ContainsAny(s, "e") {
+	if strings.ContainsAny(s, "e") && !math.IsInf(v, 0) && !math.IsNaN(v) {
 		f, _ := strconv.ParseFloat(s, 64)
-		if math.Abs(f) >= 1e-4 && math.Abs(f) < 1e15 {
+		if math.Abs(f) >= 1e-4 && math.Abs(f) < 1e7 {
 			s = strconv.FormatFloat(f, 'f', -1, 64)
 		}
 	}
 	return s
 }
+
+// FormatNumber writes a bare number with four significant digits, without an
+// exponent between 1e-4 and 1e15.
+func FormatNumber(v float64) string { return trimFloat(v, 4) }
 
 // FormatLength writes a length with a readable prefix: "1.35 m", "250 mm".
 func FormatLength(m float64) string { return FormatSI(m, "m") }

@@ -2,7 +2,10 @@ package budget
 
 import (
 	"fmt"
+	"math"
 	"strings"
+
+	"beamledger/budget/atoms"
 )
 
 // Wavelength range a setup may use: the span of the exposure limits, m.
@@ -80,7 +83,7 @@ func (l *loader) laser(i int, m map[string]any) *Laser {
 			}
 		}
 	}
-	las.Detuning, _ = t.quantity("detuning", Frequency, false)
+	las.Detuning, las.DetuningSet = t.quantity("detuning", Frequency, false)
 	t.done()
 	return las
 }
@@ -125,11 +128,26 @@ func (l *loader) cloud(i int, m map[string]any) *Cloud {
 	}
 	if custom {
 		c.Wavelength = t.positive("wavelength", Length, true)
+		if w := c.Wavelength; w > 0 && (w < MinWavelength || w > MaxWavelength) {
+			t.fail("wavelength", "%s is outside 180 nm to 1 mm", show(m["wavelength"]))
+		}
 		c.Linewidth = t.positive("linewidth", Frequency, true)
 		c.SaturationIntensity = t.positive("saturation_intensity", Irradiance, false)
 		c.Mass = t.positive("mass", Mass, false)
 		if t.has("saturation") && c.Saturation == SaturationIsotropic {
 			t.fail("saturation", "a custom transition has one saturation intensity; leave saturation out")
+		}
+		if c.Wavelength > 0 && c.Linewidth > 0 {
+			c.Data = atoms.Custom(c.Wavelength, 2*math.Pi*c.Linewidth, c.SaturationIntensity, c.Mass)
+		}
+	} else if c.Transition != "" {
+		if tr, ok := atoms.Lookup(c.Transition); !ok {
+			t.fail("transition", "unknown transition %q (built-in: %s; or \"custom\" with wavelength, linewidth)", c.Transition, strings.Join(atoms.Names(), ", "))
+		} else {
+			c.Data = tr
+			if c.Saturation == SaturationIsotropic && tr.IsatIsotropic == 0 {
+				t.fail("saturation", "transition %q has no isotropic saturation intensity in its data; use \"cycling\"", c.Transition)
+			}
 		}
 	}
 	t.done()

@@ -117,6 +117,12 @@ func TestLoadErrors(t *testing.T) {
 		{"eyewear band", okLaser + okPath + "[[eyewear]]\nname = \"g\"\nbands = [{ from = \"900 nm\", to = \"800 nm\", od = 5 }]\n",
 			`eyewear "g", band 1: to: "800 nm" is not above from "900 nm"`},
 		{"pulse keys on cw", okLaser + "pulse_duration = \"10 ns\"\n" + okPath, `laser "l": pulse_duration: only for emission = "pulsed"`},
+		{"unknown transition", okLaser + okPath + "[[cloud]]\nname = \"c\"\ntransition = \"Rb86 D2\"\natoms = 1e4\nrms_size = [\"1 um\", \"2 um\", \"3 um\"]\n",
+			`bad.toml:16: cloud "c": transition: unknown transition "Rb86 D2" (built-in: Cs133 D1, Cs133 D2,`},
+		{"isotropic missing", okLaser + okPath + "[[cloud]]\nname = \"c\"\ntransition = \"K39 D2\"\nsaturation = \"isotropic\"\natoms = 1e4\nrms_size = [\"1 um\", \"2 um\", \"3 um\"]\n",
+			`bad.toml:17: cloud "c": saturation: transition "K39 D2" has no isotropic saturation intensity in its data; use "cycling"`},
+		{"custom without linewidth", okLaser + okPath + "[[cloud]]\nname = \"c\"\ntransition = \"custom\"\nwavelength = \"780 nm\"\natoms = 1e4\nrms_size = [\"1 um\", \"2 um\", \"3 um\"]\n",
+			`cloud "c": linewidth: missing (want a frequency`},
 		{"laser array as table", "[laser]\nname = \"l\"\n", `laser: want an array of tables ([[laser]]), got a table`},
 	}
 	for _, tc := range tests {

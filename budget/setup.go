@@ -1,5 +1,7 @@
 package budget
 
+import "beamledger/budget/atoms"
+
 // Setup is a whole setup file: lasers, beam paths, atom clouds and eyewear.
 // Every quantity is in SI base units.
 type Setup struct {
@@ -48,6 +50,8 @@ type Laser struct {
 	RepetitionRate float64
 	// Detuning is the laser frequency minus the driven transition's, Hz.
 	Detuning float64
+	// DetuningSet is set when the setup states the detuning.
+	DetuningSet bool
 }
 
 // Access says what surrounds a segment of a path.
@@ -176,6 +180,9 @@ type Cloud struct {
 	Saturation string
 	// CollectiveRate is N Γ_c / 2π, Hz (0: estimate from optical depth).
 	CollectiveRate float64
+
+	// Data is the resolved transition (built-in or custom).
+	Data *atoms.Transition
 
 	// custom transition
 	Wavelength          float64 // m

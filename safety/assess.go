@@ -6,6 +6,7 @@ import "beamledger/budget"
 type Assessment struct {
 	Setup    *budget.Setup
 	Budget   *budget.Budget
+	Atoms    []*budget.AtomsResult
 	Findings []budget.Finding
 }
 
@@ -15,8 +16,9 @@ func Evaluate(s *budget.Setup) (*Assessment, error) {
 	if err != nil {
 		return nil, err
 	}
-	a := &Assessment{Setup: s, Budget: b}
+	a := &Assessment{Setup: s, Budget: b, Atoms: b.Drive()}
 	a.Findings = append(a.Findings, b.Findings()...)
+	a.Findings = append(a.Findings, budget.DriveFindings(a.Atoms)...)
 	return a, nil
 }
 

@@ -231,3 +231,12 @@ func (t *Transition) Describe() string {
 	}
 	return b.String()
 }
+
+// LineNames lists the lines used for the dipole potential.
+func (t *Transition) LineNames() []string {
+	out := make([]string, len(t.Lines))
+	for i, l := range t.Lines {
+		out[i] = l.Name
+	}
+	return out
+}

@@ -70,3 +70,16 @@ func TestVersion(t *testing.T) {
 		t.Errorf("version: %d %q", code, out)
 	}
 }
+
+func TestTransitionsListsEverySource(t *testing.T) {
+	out, _, code := runCLI(t, "transitions")
+	if code != exitOK {
+		t.Fatalf("exit %d", code)
+	}
+	for _, want := range []string{"Rb87 D2", "Rb87 D1", "Rb85 D2", "Cs133 D2", "Cs133 D1", "Na23 D2", "K39 D2", "Li6 D2",
+		"Sr88 461 nm", "Sr88 689 nm", "Yb174 399 nm", "Yb174 556 nm", "I_sat = 1.66933 mW/cm²", "isotropic 3.57713 mW/cm²", "source: D. A. Steck"} {
+		if !strings.Contains(out, want) {
+			t.Errorf("transitions output lacks %q", want)
+		}
+	}
+}

@@ -17,6 +17,7 @@ type jsonDoc struct {
 	Setup           jsonSetup     `json:"setup"`
 	PowerBasis      string        `json:"power_basis"`
 	Paths           []jsonPath    `json:"paths"`
+	Atoms           []jsonAtoms   `json:"atoms"`
 	Balances        []jsonBalance `json:"balances"`
 	AssumedLossless int           `json:"assumed_lossless_elements"`
 	Findings        []jsonFinding `json:"findings"`
@@ -115,6 +116,7 @@ func JSON(w io.Writer, a *safety.Assessment) error {
 		PowerBasis:      "operating_power",
 		AssumedLossless: a.Budget.AssumedLossless,
 		Paths:           []jsonPath{},
+		Atoms:           []jsonAtoms{},
 		Balances:        []jsonBalance{},
 		Findings:        []jsonFinding{},
 		NeedsAction:     a.NeedsAction(),
@@ -155,6 +157,9 @@ func JSON(w io.Writer, a *safety.Assessment) error {
 			jp.Elements = append(jp.Elements, je)
 		}
 		doc.Paths = append(doc.Paths, jp)
+	}
+	for _, at := range a.Atoms {
+		doc.Atoms = append(doc.Atoms, atomsJSON(at))
 	}
 	for _, bal := range a.Budget.Balances {
 		op := bal.Laser.OperatingPower

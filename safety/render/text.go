@@ -8,6 +8,7 @@ import (
 	"strings"
 
 	"beamledger/budget"
+	"beamledger/budget/atoms"
 	"beamledger/safety"
 )
 
@@ -27,6 +28,12 @@ func Text(w io.Writer, a *safety.Assessment) error {
 	for _, pb := range a.Budget.Paths {
 		ew.printf("\n")
 		writePath(ew, pb)
+	}
+	if len(a.Atoms) > 0 {
+		ew.printf("\nAt the atoms\n")
+		for _, at := range a.Atoms {
+			writeAtoms(ew, at)
+		}
 	}
 	ew.printf("\nPower balance per laser (fractions of the source; they sum to 100 %%)\n")
 	for _, bal := range a.Budget.Balances {
@@ -157,3 +164,9 @@ func (e *errWriter) Write(p []byte) (int, error) {
 }
 
 func (e *errWriter) printf(format string, args ...any) { fmt.Fprintf(e, format, args...) }
+
+// Constants for display conversions (CODATA, via package atoms).
+var (
+	kB      = atoms.KB
+	hPlanck = atoms.H
+)

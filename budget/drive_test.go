@@ -1,0 +1,188 @@
+package budget
+
+import (
+	"math"
+	"strings"
+	"testing"
+
+	"beamledger/budget/atoms"
+)
+
+func demoDrive(t *testing.T) []*AtomsResult {
+	t.Helper()
+	s, err := Load("../testdata/examples/table-c.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := Compute(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return b.Drive()
+}
+
+// The demo's drive beam, by hand: b0 = σ0 N/(2π σx σy) with σ0 = 2.906 692 ×
+// 10⁻⁹ cm² (Steck, Rubidium 87 D Line Data, table 3), N = 2·10⁴, σ = 6 µm:
+// b0 = 2.906692e-13 · 2e4 / (2π · 36e-12) = 25.70; Ω_c = b0 Γ/8 with
+// Γ/2π = 6.0666 MHz: Ω_c/2π = 19.49 MHz; s_c = b0²/32 = 20.64. The laser's
+// 80 MHz detuning and the −1 order of the 80 MHz AOM cancel: Δ = 0.
+func TestDemoDriveByHand(t *testing.T) {
+	d := demoDrive(t)
+	if len(d) != 2 {
+		t.Fatalf("%d atoms results, want 2", len(d))
+	}
+	a := d[0]
+	if !near(a.OpticalDepth, 25.70, 2e-4) {
+		t.Errorf("b0 = %g, want 25.70", a.OpticalDepth)
+	}
+	if a.Detuning != 0 || a.DetuningSource != DetuningFromLaser {
+		t.Errorf("Δ = %g (%s), want 0 from laser + AOM", a.Detuning, a.DetuningSource)
+	}
+	g := a.Goal
+	if g == nil || g.Collective == nil {
+		t.Fatal("no collective goal")
+	}
+	if got := g.Collective.OmegaC / (2 * math.Pi); !near(got, 19.49e6, 3e-4) {
+		t.Errorf("Ω_c/2π = %g, want 19.49 MHz", got)
+	}
+	if !near(g.Collective.SatC, 20.64, 3e-4) {
+		t.Errorf("s_c = %g, want 20.64", g.Collective.SatC)
+	}
+	// Power needed: s = (1.5)² s_c, I = s I_sat, P = I π W²/2 at the atoms,
+	// divided by the path's transmission to the atoms.
+	wx, wy := a.Row.BeamIn.Radii()
+	s := 1.5 * 1.5 * g.Collective.SatC
+	pAtoms := s * 16.6933 * math.Pi * wx * wy / 2
+	if !near(g.PowerAtAtoms, pAtoms, 1e-9) || !near(g.SourcePower, pAtoms/a.Row.FractionIn, 1e-9) {
+		t.Errorf("power at atoms %g (want %g), at source %g", g.PowerAtAtoms, pAtoms, g.SourcePower)
+	}
+	if !g.Met || !near(g.MarginDB, 10*math.Log10(1.1/g.SourcePower), 1e-12) {
+		t.Errorf("margin %g dB, met %v", g.MarginDB, g.Met)
+	}
+}
+
+// The demo's trap beam against the polarizability of Rb at 1064 nm,
+// α ≈ 687 a.u. (Safronova, Arora and Clark, PRA 73, 022505 (2006), from
+// memory): U = −α I/(2ε0 c), within 3 % (the core is not modelled).
+func TestDemoTrapDepth(t *testing.T) {
+	a := demoDrive(t)[1]
+	if !a.FarDetuned || a.Dipole == nil {
+		t.Fatal("trap beam not far detuned")
+	}
+	want := -687 * atoms.AUPol * a.PeakIrradiance / (2 * atoms.Eps0 * atoms.C)
+	if math.Abs(a.Dipole.Depth-want) > 0.03*math.Abs(want) {
+		t.Errorf("U = %g J, α-based estimate %g J", a.Dipole.Depth, want)
+	}
+	g := a.Goal
+	// The goal intensity reproduces the target depth.
+	if got := g.Intensity * a.Dipole.Depth / a.PeakIrradiance / atoms.KB; !near(-got, 0.5e-3, 1e-12) {
+		t.Errorf("goal intensity gives U/k_B = %g, want −0.5 mK", got)
+	}
+}
+
+const goalLab = `
+[[laser]]
+name = "l"
+wavelength = "780.241 nm"
+power = "20 mW"
+waist = "1 mm"
+detuning = "0 MHz"
+
+[[path]]
+name = "p"
+from = "l"
+  [[path.element]]
+  type = "window"
+  at = "10 cm"
+  transmission = 0.5
+  [[path.element]]
+  type = "atoms"
+  at = "20 cm"
+  cloud = "c"
+  GOAL
+  [[path.element]]
+  type = "dump"
+  at = "30 cm"
+  rating = "1 W"
+
+[[cloud]]
+name = "c"
+transition = "custom"
+wavelength = "780.241 nm"
+linewidth = "6 MHz"
+saturation_intensity = "2 mW/cm2"
+atoms = 1000
+rms_size = ["10 um", "10 um", "10 um"]
+CLOUD
+`
+
+func goalFor(t *testing.T, goal, cloud string) (*AtomsResult, []Finding) {
+	t.Helper()
+	src := strings.Replace(strings.Replace(goalLab, "GOAL", goal, 1), "CLOUD", cloud, 1)
+	s, err := Parse("goal.toml", []byte(src))
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := Compute(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	d := b.Drive()
+	return d[0], DriveFindings(d)
+}
+
+// By hand: W = 1 mm (waist at the laser, 0.2 m away: W = 1.0000 mm × √(1 +
+// (0.2/4.0264)²) = 1.001233 mm), I_sat = 20 W/m², s = 1 needs P = I_sat π W²/2
+// = 31.49 µW at the atoms and twice that at the laser (window T = 0.5).
+func TestGoalSaturationByHand(t *testing.T) {
+	a, f := goalFor(t, `goal = "saturation"`+"\n  goal_value = 1", "")
+	w := 1e-3 * math.Sqrt(1+math.Pow(0.2/(math.Pi*1e-6/780.241e-9), 2))
+	want := 20 * math.Pi * w * w / 2
+	if g := a.Goal; !near(g.PowerAtAtoms, want, 1e-9) || !near(g.SourcePower, 2*want, 1e-9) || !g.Met {
+		t.Errorf("goal %+v, want %g W at the atoms", *g, want)
+	}
+	if len(f) != 0 {
+		t.Errorf("findings %v", f)
+	}
+	// Ω/2π = Γ/2π √(s/2): for Ω/2π = 6 MHz, s = 2.
+	a, _ = goalFor(t, `goal = "rabi"`+"\n  goal_value = \"6 MHz\"", "")
+	if g := a.Goal; !near(g.Intensity, 2*20, 1e-12) {
+		t.Errorf("rabi goal needs %g W/m², want 40", g.Intensity)
+	}
+}
+
+func TestGoalShortIsAFinding(t *testing.T) {
+	a, f := goalFor(t, `goal = "saturation"`+"\n  goal_value = 1e5", "")
+	if a.Goal.Met || len(f) != 1 || f[0].Kind != FindingGoalShort || f[0].Severity != SeverityAction {
+		t.Fatalf("goal %+v findings %+v", *a.Goal, f)
+	}
+	if !strings.Contains(f[0].Message, "short by") || !strings.Contains(f[0].Message, `laser "l"`) {
+		t.Errorf("message %q", f[0].Message)
+	}
+}
+
+func TestTrapGoalNearResonanceIsImpossible(t *testing.T) {
+	a, f := goalFor(t, `goal = "trap_depth"`+"\n  goal_value = \"1 mK\"", "")
+	if a.Goal.Impossible == "" || len(f) == 0 || f[0].Kind != FindingGoalImpossible {
+		t.Errorf("goal %+v findings %+v", *a.Goal, f)
+	}
+}
+
+// A stated collective rate N Γ_c/2π overrides the optical-depth estimate:
+// Ω_c = N Γ_c / 2.
+func TestCollectiveRateOverride(t *testing.T) {
+	a, _ := goalFor(t, `goal = "collective"`, `collective_rate = "10 MHz"`)
+	c := a.Goal.Collective
+	if !c.FromRate || !near(c.OmegaC, math.Pi*10e6, 1e-12) || c.OmegaCLow != c.OmegaC {
+		t.Errorf("collective %+v", *c)
+	}
+}
+
+func BenchmarkDrive(b *testing.B) {
+	s, _ := Load("../testdata/examples/table-c.toml")
+	bud, _ := Compute(s)
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		bud.Drive()
+	}
+}
