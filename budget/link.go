@@ -8,27 +8,9 @@ import (
 // link resolves names between lasers, paths and clouds, and checks the
 // order of elements and the shape of the path tree.
 func (l *loader) link(s *Setup) {
-	lasers := map[string]*Laser{}
-	for _, las := range s.Lasers {
-		if prev, dup := lasers[las.Name]; dup {
-			l.addf(las.Line, fmt.Sprintf("laser %q", las.Name), "name: duplicate name (also at line %d)", prev.Line)
-		}
-		lasers[las.Name] = las
-	}
-	clouds := map[string]*Cloud{}
-	for _, c := range s.Clouds {
-		if prev, dup := clouds[c.Name]; dup {
-			l.addf(c.Line, fmt.Sprintf("cloud %q", c.Name), "name: duplicate name (also at line %d)", prev.Line)
-		}
-		clouds[c.Name] = c
-	}
-	eyewear := map[string]*Eyewear{}
-	for _, e := range s.Eyewear {
-		if prev, dup := eyewear[e.Name]; dup {
-			l.addf(e.Line, fmt.Sprintf("eyewear %q", e.Name), "name: duplicate name (also at line %d)", prev.Line)
-		}
-		eyewear[e.Name] = e
-	}
+	lasers := uniqueNames(l, "laser", s.Lasers, func(x *Laser) (string, int) { return x.Name, x.Line })
+	clouds := uniqueNames(l, "cloud", s.Clouds, func(x *Cloud) (string, int) { return x.Name, x.Line })
+	uniqueNames(l, "eyewear", s.Eyewear, func(x *Eyewear) (string, int) { return x.Name, x.Line })
 	paths := map[string]*Path{}
 	for _, p := range s.Paths {
 		ctx := fmt.Sprintf("path %q", p.Name)
@@ -127,6 +109,22 @@ func (l *loader) link(s *Setup) {
 			p.Laser = q.Laser
 		}
 	}
+}
+
+// uniqueNames maps names to items and reports each duplicate name.
+func uniqueNames[T any](l *loader, kind string, items []T, id func(T) (string, int)) map[string]T {
+	out := map[string]T{}
+	first := map[string]int{}
+	for _, it := range items {
+		name, line := id(it)
+		if prev, dup := first[name]; dup {
+			l.addf(line, fmt.Sprintf("%s %q", kind, name), "name: duplicate name (also at line %d)", prev)
+			continue
+		}
+		first[name] = line
+		out[name] = it
+	}
+	return out
 }
 
 func cycleNames(p *Path) string {

@@ -45,11 +45,15 @@ func (l *loader) setup(raw map[string]any) *Setup {
 	return s
 }
 
+// named starts reading entry i of an array of tables such as [[laser]].
+func (l *loader) named(kind string, i int, m map[string]any) (*table, string) {
+	loc := fmt.Sprintf("%s[%d]", kind, i)
+	return l.table(fmt.Sprintf("%s %d", kind, i+1), loc, m), loc
+}
+
 func (l *loader) laser(i int, m map[string]any) *Laser {
-	loc := fmt.Sprintf("laser[%d]", i)
-	t := l.table(fmt.Sprintf("laser %d", i+1), loc, m)
-	las := &Laser{Line: l.lines[loc]}
-	las.Name = t.str("name", true)
+	t, loc := l.named("laser", i, m)
+	las := &Laser{Line: l.lines[loc], Name: t.str("name", true)}
 	if las.Name != "" {
 		t.context = fmt.Sprintf("laser %q", las.Name)
 	}
@@ -89,10 +93,8 @@ func (l *loader) laser(i int, m map[string]any) *Laser {
 }
 
 func (l *loader) cloud(i int, m map[string]any) *Cloud {
-	loc := fmt.Sprintf("cloud[%d]", i)
-	t := l.table(fmt.Sprintf("cloud %d", i+1), loc, m)
-	c := &Cloud{Line: l.lines[loc]}
-	c.Name = t.str("name", true)
+	t, loc := l.named("cloud", i, m)
+	c := &Cloud{Line: l.lines[loc], Name: t.str("name", true)}
 	if c.Name != "" {
 		t.context = fmt.Sprintf("cloud %q", c.Name)
 	}
@@ -155,10 +157,8 @@ func (l *loader) cloud(i int, m map[string]any) *Cloud {
 }
 
 func (l *loader) eyewear(i int, m map[string]any) *Eyewear {
-	loc := fmt.Sprintf("eyewear[%d]", i)
-	t := l.table(fmt.Sprintf("eyewear %d", i+1), loc, m)
-	e := &Eyewear{Line: l.lines[loc]}
-	e.Name = t.str("name", true)
+	t, loc := l.named("eyewear", i, m)
+	e := &Eyewear{Line: l.lines[loc], Name: t.str("name", true)}
 	if e.Name != "" {
 		t.context = fmt.Sprintf("eyewear %q", e.Name)
 	}
@@ -187,10 +187,8 @@ func (l *loader) eyewear(i int, m map[string]any) *Eyewear {
 }
 
 func (l *loader) path(i int, m map[string]any) *Path {
-	loc := fmt.Sprintf("path[%d]", i)
-	t := l.table(fmt.Sprintf("path %d", i+1), loc, m)
-	p := &Path{Line: l.lines[loc]}
-	p.Name = t.str("name", true)
+	t, loc := l.named("path", i, m)
+	p := &Path{Line: l.lines[loc], Name: t.str("name", true)}
 	if p.Name != "" {
 		t.context = fmt.Sprintf("path %q", p.Name)
 	}
