@@ -307,8 +307,14 @@ func (pb *PathBudget) propagate(followed map[*Element]*Path) error {
 		row.BeamOut = beam
 		row.FractionOut = frac
 		pb.Rows = append(pb.Rows, row)
-		if e.Access != "" {
+		// The segment after an element is open unless the element says
+		// otherwise; after a cloud it stays as it was (the atoms sit in their
+		// chamber). Open is the conservative reading for hazards.
+		switch {
+		case e.Access != "":
 			access = e.Access
+		case e.Type != TypeAtoms:
+			access = AccessOpen
 		}
 		after = e.Index
 	}

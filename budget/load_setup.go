@@ -24,6 +24,9 @@ func (l *loader) setup(raw map[string]any) *Setup {
 		s.Meta.PreparedBy = t.str("prepared_by", false)
 		s.Meta.Revision = t.str("revision", false)
 		s.Meta.Exposure = t.positive("exposure", Time, false)
+		if e := s.Meta.Exposure; e > 0 && (e < 1e-13 || e > 3e4) {
+			t.fail("exposure", "%s is outside 1e-13 s to 3e4 s, the span of the exposure limits", show(m["exposure"]))
+		}
 		t.done()
 	}
 	for i, m := range top.tables("laser") {
@@ -78,7 +81,13 @@ func (l *loader) laser(i int, m map[string]any) *Laser {
 	las.Emission = t.enum("emission", EmissionCW, EmissionCW, EmissionPulsed)
 	if las.Emission == EmissionPulsed {
 		las.PulseDuration = t.positive("pulse_duration", Time, true)
+		if d := las.PulseDuration; d > 0 && (d < 1e-13 || d > 3e4) {
+			t.fail("pulse_duration", "%s is outside 1e-13 s to 3e4 s, the span of the exposure limits", show(m["pulse_duration"]))
+		}
 		las.RepetitionRate = t.positive("repetition_rate", Frequency, true)
+		if las.PulseDuration > 0 && las.RepetitionRate*las.PulseDuration > 1 {
+			t.fail("repetition_rate", "%s with %s pulses is a duty cycle above 1", show(m["repetition_rate"]), show(m["pulse_duration"]))
+		}
 	} else {
 		for _, k := range []string{"pulse_duration", "repetition_rate"} {
 			if t.has(k) {

@@ -107,7 +107,8 @@ type Element struct {
 	// Transmission is the stated throughput (for a splitter: the fraction
 	// sent on along this path).
 	Transmission *float64
-	// Access of the segment after this element; "" keeps the previous one.
+	// Access of the segment after this element; "" means open, except after
+	// an atoms element, where it keeps the access before the element.
 	Access Access
 
 	FocalLength       float64  // lens, m

@@ -57,13 +57,13 @@ func OpticalDensity(ratio float64) float64 {
 // memory); n is the larger of the OD needed and log10(E/10 W/m²) rounded up,
 // at least 1 and at most 10. ok is false outside 315–1400 nm, where this
 // package does not give a scale number.
-func EN207ScaleCW(λ, od, peakIrradiance float64) (n int, ok bool) {
+func EN207ScaleCW(λ, od, irradiance float64) (n int, ok bool) {
 	if λ < 315e-9 || λ > 1400e-9 {
 		return 0, false
 	}
 	need := od
-	if peakIrradiance > 0 {
-		need = math.Max(need, math.Ceil(math.Log10(peakIrradiance/10)-1e-12))
+	if irradiance > 0 {
+		need = math.Max(need, math.Ceil(math.Log10(irradiance/10)-1e-12))
 	}
 	return int(math.Min(10, math.Max(1, need))), true
 }

@@ -7,6 +7,7 @@ type Assessment struct {
 	Setup    *budget.Setup
 	Budget   *budget.Budget
 	Atoms    []*budget.AtomsResult
+	Hazards  *Hazards
 	Findings []budget.Finding
 }
 
@@ -19,6 +20,12 @@ func Evaluate(s *budget.Setup) (*Assessment, error) {
 	a := &Assessment{Setup: s, Budget: b, Atoms: b.Drive()}
 	a.Findings = append(a.Findings, b.Findings()...)
 	a.Findings = append(a.Findings, budget.DriveFindings(a.Atoms)...)
+	h, err := evaluateHazards(s, b)
+	if err != nil {
+		return nil, err
+	}
+	a.Hazards = h
+	a.Findings = append(a.Findings, h.Findings...)
 	return a, nil
 }
 

@@ -1,6 +1,8 @@
 package main
 
 import (
+	"encoding/json"
+	"math"
 	"os"
 	"path/filepath"
 	"strings"
@@ -80,6 +82,56 @@ func TestTransitionsListsEverySource(t *testing.T) {
 		"Sr88 461 nm", "Sr88 689 nm", "Yb174 399 nm", "Yb174 556 nm", "I_sat = 1.66933 mW/cm²", "isotropic 3.57713 mW/cm²", "source: D. A. Steck"} {
 		if !strings.Contains(out, want) {
 			t.Errorf("transitions output lacks %q", want)
+		}
+	}
+}
+
+func TestLimitsJSONKeys(t *testing.T) {
+	out, errOut, code := runCLI(t, "limits", "--wavelength", "780 nm", "--power", "50 mW", "--beam-diameter", "2 mm", "--divergence", "1 mrad", "--json")
+	if code != exitOK {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	var doc map[string]any
+	if err := json.Unmarshal([]byte(out), &doc); err != nil {
+		t.Fatal(err)
+	}
+	eye := doc["eye"].(map[string]any)
+	ael := doc["ael_w"].(map[string]any)
+	for _, k := range []string{"mpe_irradiance_w_m2", "mpe_radiant_exposure_j_m2", "aperture_diameter_m"} {
+		if _, ok := eye[k].(float64); !ok {
+			t.Errorf("eye.%s missing", k)
+		}
+	}
+	if ael["class_2"] != nil {
+		t.Errorf("ael_w.class_2 at 780 nm = %v, want null", ael["class_2"])
+	}
+	for _, k := range []string{"wavelength_m", "duration_s", "nohd_m", "od_required"} {
+		if _, ok := doc[k].(float64); !ok {
+			t.Errorf("%s missing", k)
+		}
+	}
+	// 780 nm defaults to 10 s: 18 C4 10^−0.25 W/m², C4 = 10^(0.002·80) (IEC
+	// 60825-1:2014, 700–1050 nm, t ≥ T2; from memory).
+	if got, want := eye["mpe_irradiance_w_m2"].(float64), 18*math.Pow(10, 0.16)*math.Pow(10, -0.25); math.Abs(got-want) > 1e-9*want {
+		t.Errorf("eye MPE %g, want %g", got, want)
+	}
+	if doc["class"] != "3B" {
+		t.Errorf("class of 50 mW at 780 nm = %v, want 3B", doc["class"])
+	}
+}
+
+func TestLimitsErrors(t *testing.T) {
+	for _, args := range [][]string{
+		{"limits"},
+		{"limits", "--wavelength", "100 nm"},
+		{"limits", "--wavelength", "780 nm", "--duration", "1e5 s"},
+		{"limits", "--wavelength", "5 mW"},
+		{"limits", "--wavelength", "780 nm", "--power", "1 W"},
+		{"limits", "--wavelength", "780 nm", "--pulse-duration", "1 ns"},
+	} {
+		out, errOut, code := runCLI(t, args...)
+		if code != exitBadInput || out != "" || errOut == "" {
+			t.Errorf("%v: exit %d, stdout %q, stderr %q", args, code, out, errOut)
 		}
 	}
 }

@@ -14,10 +14,11 @@ import (
 // a value that does not exist (never NaN).
 
 type jsonDoc struct {
-	Setup           jsonSetup     `json:"setup"`
-	PowerBasis      string        `json:"power_basis"`
-	Paths           []jsonPath    `json:"paths"`
-	Atoms           []jsonAtoms   `json:"atoms"`
+	Setup      jsonSetup   `json:"setup"`
+	PowerBasis string      `json:"power_basis"`
+	Paths      []jsonPath  `json:"paths"`
+	Atoms      []jsonAtoms `json:"atoms"`
+	jsonHazards
 	Balances        []jsonBalance `json:"balances"`
 	AssumedLossless int           `json:"assumed_lossless_elements"`
 	Findings        []jsonFinding `json:"findings"`
@@ -161,6 +162,7 @@ func JSON(w io.Writer, a *safety.Assessment) error {
 	for _, at := range a.Atoms {
 		doc.Atoms = append(doc.Atoms, atomsJSON(at))
 	}
+	doc.jsonHazards = hazardsJSON(a)
 	for _, bal := range a.Budget.Balances {
 		op := bal.Laser.OperatingPower
 		jb := jsonBalance{Laser: bal.Laser.Name, SourcePowerW: op, DumpedW: bal.Dumped * op, LeavingW: bal.Leaving * op,
@@ -180,5 +182,6 @@ func JSON(w io.Writer, a *safety.Assessment) error {
 	}
 	enc := json.NewEncoder(w)
 	enc.SetIndent("", "  ")
+	enc.SetEscapeHTML(false)
 	return enc.Encode(doc)
 }

@@ -39,6 +39,7 @@ func Text(w io.Writer, a *safety.Assessment) error {
 	for _, bal := range a.Budget.Balances {
 		writeBalance(ew, bal)
 	}
+	writeHazards(ew, a)
 	ew.printf("\nFindings\n")
 	if len(a.Findings) == 0 {
 		ew.printf("  none in what was evaluated (see the assumptions above)\n")

@@ -1,0 +1,431 @@
+package safety
+
+import (
+	"fmt"
+	"math"
+	"sort"
+
+	"beamledger/budget"
+	"beamledger/limits"
+)
+
+// Standard names the standard and edition the limits come from.
+const Standard = "IEC 60825-1:2014 (Edition 3)"
+
+// Default viewing durations for unintended exposure, s: the aversion response
+// in the visible, 10 s elsewhere.
+const (
+	DurationVisible = 0.25
+	DurationOther   = 10
+)
+
+// DefaultSurfaceReflectance is assumed per uncoated glass surface (common
+// practice: about 4 % at normal incidence for n ≈ 1.5).
+const DefaultSurfaceReflectance = 0.04
+
+// DefaultDiffuseReflectance is assumed for a diffuse reflector (conservative).
+const DefaultDiffuseReflectance = 1.0
+
+// FiberFaceLimit is the irradiance on a fibre's input face above which
+// common practice expects damage to a clean silica face, W/m² (1 MW/cm²).
+const FiberFaceLimit = 1e10
+
+// LaserLimits are the exposure limits for one source at its viewing
+// duration.
+type LaserLimits struct {
+	Laser    *budget.Laser
+	Duration float64 // s
+	Eye      limits.Limit
+	// EyeIrradiance is the irradiance limit against which average
+	// irradiances are compared, W/m² (pulsed: per-pulse limit × rate).
+	EyeIrradiance  float64
+	EyeRule        string
+	Skin           limits.Limit
+	SkinIrradiance float64
+	EyeAperture    float64 // m
+	SkinAperture   float64 // m
+	AEL            limits.AEL
+	Class          string // "" when not assessed
+	ClassNote      string
+	Pulsed         *limits.PulsedLimit
+}
+
+// ViewingDuration is the assumed exposure for wavelength λ: the setup's
+// exposure if stated, else 0.25 s in 400–700 nm and 10 s elsewhere.
+func ViewingDuration(s *budget.Setup, λ float64) float64 {
+	if s.Meta.Exposure > 0 {
+		return s.Meta.Exposure
+	}
+	if λ >= 400e-9 && λ <= 700e-9 {
+		return DurationVisible
+	}
+	return DurationOther
+}
+
+func laserLimits(s *budget.Setup, las *budget.Laser) (*LaserLimits, error) {
+	t := ViewingDuration(s, las.Wavelength)
+	ll := &LaserLimits{Laser: las, Duration: t}
+	var err error
+	if ll.Eye, err = limits.EyeMPE(las.Wavelength, t, 0); err != nil {
+		return nil, fmt.Errorf("laser %q: %w", las.Name, err)
+	}
+	if ll.Skin, err = limits.SkinMPE(las.Wavelength, t); err != nil {
+		return nil, fmt.Errorf("laser %q: %w", las.Name, err)
+	}
+	ll.EyeIrradiance, ll.EyeRule, ll.SkinIrradiance = ll.Eye.Irradiance, ll.Eye.Rule, ll.Skin.Irradiance
+	if las.Emission == budget.EmissionPulsed {
+		p, err := limits.PulsedEyeMPE(las.Wavelength, las.PulseDuration, las.RepetitionRate, t, 0)
+		if err != nil {
+			return nil, fmt.Errorf("laser %q: %w", las.Name, err)
+		}
+		ll.Pulsed = &p
+		ll.EyeIrradiance = p.Irradiance
+		ll.EyeRule = fmt.Sprintf("repetitive pulses, %s rule governs: %.4g J/m² per pulse × %s", p.Rule, p.PerPulse, budget.FormatFrequency(las.RepetitionRate))
+		sp, err := limits.SkinMPE(las.Wavelength, las.PulseDuration)
+		if err == nil {
+			ll.SkinIrradiance = math.Min(ll.SkinIrradiance, math.Min(sp.RadiantExposure, ll.Skin.RadiantExposure/math.Max(1, las.RepetitionRate*t))*las.RepetitionRate)
+		}
+	}
+	if ll.EyeAperture, err = limits.EyeAperture(las.Wavelength, t); err != nil {
+		return nil, err
+	}
+	if ll.SkinAperture, err = limits.SkinAperture(las.Wavelength, t); err != nil {
+		return nil, err
+	}
+	if ll.AEL, err = limits.ContinuousAEL(las.Wavelength, 0); err != nil {
+		return nil, err
+	}
+	if las.Emission == budget.EmissionCW {
+		ll.Class = limits.ClassOf(las.Power, ll.AEL)
+		ll.ClassNote = "by maximum power against the continuous-emission AELs, the whole beam taken to enter the aperture (1M/2M not distinguished)"
+	} else {
+		ll.ClassNote = "not assessed: the pulse AELs are not implemented; the class must come from the laser's label or the laser safety officer"
+	}
+	return ll, nil
+}
+
+// Exposure is the worst aperture-averaged irradiance on one open segment, at
+// the laser's maximum power.
+type Exposure struct {
+	Path        *budget.PathBudget
+	Segment     budget.Segment
+	Laser       *LaserLimits
+	At          float64 // position of the worst point along the path, m
+	Power       float64 // W in the segment
+	Irradiance  float64 // eye-aperture-averaged, W/m²
+	Ratio       float64 // ÷ eye MPE
+	SkinIrr     float64 // skin-aperture-averaged, W/m²
+	SkinRatio   float64
+	OD          float64
+	PeakIrr     float64 // peak irradiance at the worst point, W/m²
+	OpenEnd     bool
+	NOHD        float64 // for an open end: distance beyond the last element, m
+	ClosedFormN float64 // NOHD from the far-field closed form, m (open ends)
+}
+
+// Reflection is a stray reflection from a surface, or a diffuse hazard zone.
+type Reflection struct {
+	Path        *budget.PathBudget
+	Element     *budget.Element
+	Kind        string // "stray" or "diffuse"
+	Reflectance float64
+	Assumed     bool // the reflectance was a default
+	Surfaces    int
+	Power       float64 // per surface, W
+	Irradiance  float64 // at the surface, eye-aperture-averaged, W/m²
+	Ratio       float64
+	OD          float64
+	Radius      float64 // diffuse: nominal hazard zone radius, m
+	Laser       *LaserLimits
+}
+
+// EyewearNeed is what eyewear must give at one wavelength.
+type EyewearNeed struct {
+	Wavelength float64
+	OD         float64
+	LB         int
+	LBValid    bool
+	// Irradiance is the largest eye-aperture-averaged irradiance on an open
+	// segment at this wavelength, W/m²; the EN 207 scale number must
+	// withstand it.
+	Irradiance float64
+	CoveredBy  []string
+}
+
+// Hazards is the safety half of the assessment.
+type Hazards struct {
+	Lasers      []*LaserLimits
+	Exposures   []*Exposure
+	Reflections []*Reflection
+	Eyewear     []*EyewearNeed
+	Findings    []budget.Finding
+	// DefaultsAssumed lists default values the evaluation had to assume.
+	DefaultsAssumed []string
+}
+
+func evaluateHazards(s *budget.Setup, b *budget.Budget) (*Hazards, error) {
+	h := &Hazards{}
+	byLaser := map[*budget.Laser]*LaserLimits{}
+	for _, las := range s.Lasers {
+		ll, err := laserLimits(s, las)
+		if err != nil {
+			return nil, err
+		}
+		byLaser[las] = ll
+		h.Lasers = append(h.Lasers, ll)
+		if ll.Class == "" {
+			h.Findings = append(h.Findings, budget.Finding{Severity: budget.SeverityAdvice, Kind: "class_not_assessed",
+				Message: fmt.Sprintf("laser %q: class %s", las.Name, ll.ClassNote)})
+		}
+	}
+	strayDefault, diffuseDefault := 0, 0
+	for _, pb := range b.Paths {
+		ll := byLaser[pb.Laser]
+		max := pb.Laser.Power
+		for _, seg := range pb.Segments {
+			if seg.Access != budget.AccessOpen || seg.Fraction <= 0 {
+				continue
+			}
+			p := seg.Fraction * max
+			irr, at := maxAlong(seg.Beam, p, ll.EyeAperture, seg.To-seg.From)
+			skin, _ := maxAlong(seg.Beam, p, ll.SkinAperture, seg.To-seg.From)
+			e := &Exposure{Path: pb, Segment: seg, Laser: ll, At: seg.From + at, Power: p, Irradiance: irr,
+				Ratio: irr / ll.EyeIrradiance, SkinIrr: skin, SkinRatio: skin / ll.SkinIrradiance,
+				PeakIrr: seg.Beam.Propagate(at).PeakIrradiance(p), OpenEnd: math.IsInf(seg.To, 1)}
+			e.OD = limits.OpticalDensity(e.Ratio)
+			if e.OpenEnd {
+				e.NOHD = hazardDistance(seg.Beam, p, ll.EyeAperture, ll.EyeIrradiance)
+				wx, wy := seg.Beam.Radii()
+				w0 := math.Max(wx, wy)
+				div := 2 * math.Max(seg.Beam.X.Divergence(seg.Beam.Wavelength), seg.Beam.Y.Divergence(seg.Beam.Wavelength))
+				e.ClosedFormN = limits.NOHD(p, 2*w0, div, ll.EyeIrradiance)
+			}
+			h.Exposures = append(h.Exposures, e)
+			if e.Ratio > 1 || e.SkinRatio > 1 {
+				msg := fmt.Sprintf("%s: up to %s reaches %s × the eye MPE (%s averaged over %s, %s exposure) and %s × the skin MPE; eyewear needs OD %g at %s",
+					segmentName(seg), budget.FormatPower(p), fmtX(e.Ratio), budget.FormatIrradiance(irr), budget.FormatLength(ll.EyeAperture),
+					budget.FormatSI(ll.Duration, "s"), fmtX(e.SkinRatio), e.OD, fmtNM(pb.Laser.Wavelength))
+				if e.OpenEnd {
+					msg += fmt.Sprintf("; the escaping beam stays above the MPE for %s beyond the path's end (NOHD)", fmtDistance(e.NOHD))
+				}
+				h.Findings = append(h.Findings, budget.Finding{Severity: budget.SeverityAction, Kind: "exposure_above_mpe", Path: pb.Path.Name,
+					Element: seg.After, At: e.At, Message: msg})
+			}
+		}
+		// Stray and diffuse reflections, and damage, element by element.
+		for i := range pb.Rows {
+			r := &pb.Rows[i]
+			el := r.Element
+			in := precedingAccess(pb, i)
+			p := r.FractionIn * max
+			if surfaces := transmissiveSurfaces(el.Type); surfaces > 0 && in == budget.AccessOpen && p > 0 {
+				R, assumed := DefaultSurfaceReflectance, true
+				if el.SurfaceReflectance != nil {
+					R, assumed = *el.SurfaceReflectance, false
+				}
+				if assumed {
+					strayDefault++
+				}
+				pr := R * p
+				irr := apertureIrradiance(r.BeamIn, pr, ll.EyeAperture)
+				ref := &Reflection{Path: pb, Element: el, Kind: "stray", Reflectance: R, Assumed: assumed, Surfaces: surfaces,
+					Power: pr, Irradiance: irr, Ratio: irr / ll.EyeIrradiance, Laser: ll}
+				ref.OD = limits.OpticalDensity(ref.Ratio)
+				if ref.Ratio > 1 {
+					h.Reflections = append(h.Reflections, ref)
+					h.Findings = append(h.Findings, budget.Finding{Severity: budget.SeverityAction, Kind: "stray_reflection", Path: pb.Path.Name,
+						Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s): each of its %d surface(s) reflects %s (R = %g%s), %.3g × the eye MPE at the surface; block or enclose the back-reflection",
+							el.Index, el.Label(), surfaces, budget.FormatPower(pr), R, assumedNote(assumed), ref.Ratio)})
+				}
+			}
+			if el.Type == budget.TypeDump && in == budget.AccessOpen && p > 0 {
+				ρ, assumed := DefaultDiffuseReflectance, true
+				if el.DiffuseReflectance != nil {
+					ρ, assumed = *el.DiffuseReflectance, false
+				}
+				if assumed {
+					diffuseDefault++
+				}
+				h.Reflections = append(h.Reflections, diffuse(pb, el, ll, p, ρ, assumed))
+			}
+			h.Findings = append(h.Findings, damage(pb, r, p)...)
+		}
+		if pb.OpenEnd && pb.EndFraction > 0 {
+			// What the escaping beam hits may reflect diffusely.
+			n := len(pb.Rows)
+			var last *budget.Element
+			if n > 0 {
+				last = pb.Rows[n-1].Element
+			}
+			diffuseDefault++
+			h.Reflections = append(h.Reflections, diffuse(pb, last, ll, pb.EndFraction*max, DefaultDiffuseReflectance, true))
+		}
+	}
+	if strayDefault > 0 {
+		h.DefaultsAssumed = append(h.DefaultsAssumed, fmt.Sprintf("surface reflectance %g per surface (uncoated glass, common practice) at %d element(s) without surface_reflectance", DefaultSurfaceReflectance, strayDefault))
+	}
+	if diffuseDefault > 0 {
+		h.DefaultsAssumed = append(h.DefaultsAssumed, fmt.Sprintf("diffuse reflectance %g (conservative) at %d dump(s) or path end(s) without diffuse_reflectance", DefaultDiffuseReflectance, diffuseDefault))
+	}
+	h.Eyewear = eyewearNeeds(h)
+	h.Findings = append(h.Findings, checkEyewear(s, h.Eyewear)...)
+	return h, nil
+}
+
+func assumedNote(assumed bool) string {
+	if assumed {
+		return ", assumed"
+	}
+	return ""
+}
+
+// diffuse is the nominal hazard zone of a Lambertian reflector receiving
+// power p: r = √(ρ P cos θ / (π MPE)) at θ = 0, with the small-source MPE
+// (conservative).
+func diffuse(pb *budget.PathBudget, el *budget.Element, ll *LaserLimits, p, ρ float64, assumed bool) *Reflection {
+	r := limits.RoundUp(math.Sqrt(ρ*p/(math.Pi*ll.EyeIrradiance)), 3)
+	return &Reflection{Path: pb, Element: el, Kind: "diffuse", Reflectance: ρ, Assumed: assumed, Surfaces: 1, Power: p, Radius: r, Laser: ll}
+}
+
+// DiffuseHazardRadius is r = √(ρ P cos θ/(π E_MPE)), m (the nominal hazard
+// zone of a Lambertian reflector viewed along its normal).
+func DiffuseHazardRadius(ρ, p, cosθ, mpe float64) float64 {
+	return math.Sqrt(ρ * p * cosθ / (math.Pi * mpe))
+}
+
+func transmissiveSurfaces(t string) int {
+	switch t {
+	case budget.TypeLens, budget.TypeWindow, budget.TypeFilter, budget.TypeAOM, budget.TypeSplitter:
+		return 2
+	case budget.TypeFiber:
+		return 1
+	}
+	return 0
+}
+
+// precedingAccess is the access of the segment arriving at row i.
+func precedingAccess(pb *budget.PathBudget, i int) budget.Access {
+	if i < len(pb.Segments) {
+		return pb.Segments[i].Access
+	}
+	return budget.AccessOpen
+}
+
+func damage(pb *budget.PathBudget, r *budget.Row, p float64) []budget.Finding {
+	el := r.Element
+	las := pb.Laser
+	var out []budget.Finding
+	wx, wy := r.BeamIn.Radii()
+	add := func(sev budget.Severity, kind, msg string) {
+		out = append(out, budget.Finding{Severity: sev, Kind: kind, Path: pb.Path.Name, Element: el.Index, At: el.At,
+			Message: fmt.Sprintf("element %d (%s): %s", el.Index, el.Label(), msg)})
+	}
+	if el.DamageThreshold > 0 && p > 0 {
+		switch {
+		case !el.DamageIsFluence && las.Emission == budget.EmissionCW:
+			// Linear power density: power over the 1/e² diameter, the smaller
+			// axis (the larger density; common practice for CW ratings).
+			lpd := p / (2 * math.Min(wx, wy))
+			if lpd > el.DamageThreshold {
+				add(budget.SeverityAction, "damage", fmt.Sprintf("linear power density %s/cm exceeds its damage threshold %s/cm at the laser's maximum power",
+					budget.FormatPower(lpd/100), budget.FormatPower(el.DamageThreshold/100)))
+			}
+		case el.DamageIsFluence && las.Emission == budget.EmissionPulsed:
+			ep := p / las.RepetitionRate
+			f := 2 * ep / (math.Pi * wx * wy)
+			// Scale the rated fluence by √(τ/τ_rated) (common practice).
+			thr := el.DamageThreshold * math.Sqrt(las.PulseDuration/el.DamagePulseDuration)
+			if f > thr {
+				add(budget.SeverityAction, "damage", fmt.Sprintf("peak fluence %s exceeds its damage threshold scaled to the pulse length, %s",
+					budget.FormatSI(f*1e-4, "J/cm²"), budget.FormatSI(thr*1e-4, "J/cm²")))
+			}
+		default:
+			add(budget.SeverityAdvice, "damage_unchecked", "its damage threshold is for the other kind of emission (a linear power density for cw, a fluence for pulses); not checked")
+		}
+	}
+	if el.Type == budget.TypeFiber && p > 0 {
+		peak := r.BeamIn.PeakIrradiance(p)
+		if peak > FiberFaceLimit {
+			add(budget.SeverityAction, "fibre_face", fmt.Sprintf("the focused beam on the input face reaches %s at the laser's maximum power, above the %s that common practice allows a clean silica face",
+				budget.FormatIrradiance(peak), budget.FormatIrradiance(FiberFaceLimit)))
+		}
+	}
+	return out
+}
+
+func eyewearNeeds(h *Hazards) []*EyewearNeed {
+	by := map[float64]*EyewearNeed{}
+	get := func(λ float64) *EyewearNeed {
+		if n, ok := by[λ]; ok {
+			return n
+		}
+		n := &EyewearNeed{Wavelength: λ}
+		by[λ] = n
+		return n
+	}
+	for _, e := range h.Exposures {
+		n := get(e.Path.Laser.Wavelength)
+		n.OD = math.Max(n.OD, e.OD)
+		n.Irradiance = math.Max(n.Irradiance, e.Irradiance)
+	}
+	for _, r := range h.Reflections {
+		if r.Kind == "stray" {
+			n := get(r.Path.Laser.Wavelength)
+			n.OD = math.Max(n.OD, r.OD)
+		}
+	}
+	var out []*EyewearNeed
+	for _, n := range by {
+		n.LB, n.LBValid = limits.EN207ScaleCW(n.Wavelength, n.OD, n.Irradiance)
+		out = append(out, n)
+	}
+	sort.Slice(out, func(i, j int) bool { return out[i].Wavelength < out[j].Wavelength })
+	return out
+}
+
+func checkEyewear(s *budget.Setup, needs []*EyewearNeed) []budget.Finding {
+	var out []budget.Finding
+	for _, n := range needs {
+		if n.OD <= 0 {
+			continue
+		}
+		for _, ew := range s.Eyewear {
+			for _, b := range ew.Bands {
+				if n.Wavelength >= b.From && n.Wavelength <= b.To && b.OD >= n.OD {
+					n.CoveredBy = append(n.CoveredBy, ew.Name)
+					break
+				}
+			}
+		}
+		if len(n.CoveredBy) == 0 {
+			msg := fmt.Sprintf("no declared eyewear gives OD %g at %s", n.OD, fmtNM(n.Wavelength))
+			if len(s.Eyewear) == 0 {
+				msg = fmt.Sprintf("no eyewear is declared; OD %g is needed at %s", n.OD, fmtNM(n.Wavelength))
+			}
+			out = append(out, budget.Finding{Severity: budget.SeverityAction, Kind: "eyewear_gap", Message: msg})
+		}
+	}
+	return out
+}
+
+func segmentName(seg budget.Segment) string {
+	if math.IsInf(seg.To, 1) {
+		return fmt.Sprintf("after element %d (open end, from %s)", seg.After, budget.FormatLength(seg.From))
+	}
+	if seg.After == 0 {
+		return fmt.Sprintf("from the start to element 1 (%s)", budget.FormatLength(seg.To))
+	}
+	return fmt.Sprintf("between elements %d and %d (%s to %s)", seg.After, seg.After+1, budget.FormatLength(seg.From), budget.FormatLength(seg.To))
+}
+
+// fmtX writes a ratio to the MPE with three figures.
+func fmtX(r float64) string { return budget.FormatNumber(limits.RoundUp(r, 3)) }
+
+func fmtNM(λ float64) string { return fmt.Sprintf("%s nm", budget.FormatNumber(λ*1e9)) }
+
+func fmtDistance(d float64) string {
+	if math.IsInf(d, 1) {
+		return fmt.Sprintf("more than %s", budget.FormatLength(MaxHazardDistance))
+	}
+	return budget.FormatLength(d)
+}

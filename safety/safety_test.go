@@ -1,0 +1,215 @@
+package safety
+
+import (
+	"math"
+	"strings"
+	"testing"
+
+	"beamledger/budget"
+	"beamledger/budget/synth"
+	"beamledger/limits"
+)
+
+func load(t testing.TB, src string) *Assessment {
+	t.Helper()
+	s, err := budget.Parse("t.toml", []byte(src))
+	if err != nil {
+		t.Fatal(err)
+	}
+	a, err := Evaluate(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return a
+}
+
+// The demo's first drive segment by hand: 1.5 W in a 1.1 × 0.6 mm beam lies
+// wholly inside the 7 mm eye aperture, so E = 1.5 W / (π (3.5 mm)²) =
+// 3.898 W/cm²; the 780.24 nm, 10 s MPE is 18 C4 T2^−0.25 = 14.647 W/m²
+// (C4 = 10^(0.002 · 80.24)); ratio 2661, OD 4.
+func TestDemoFirstSegmentByHand(t *testing.T) {
+	s, err := budget.Load("../testdata/examples/table-c.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	a, err := Evaluate(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	e := a.Hazards.Exposures[0]
+	wantE := 1.5 / (math.Pi * 3.5e-3 * 3.5e-3)
+	if math.Abs(e.Irradiance-wantE) > 1e-4*wantE {
+		t.Errorf("E = %g W/m², want %g", e.Irradiance, wantE)
+	}
+	if mpe := 18 * math.Pow(10, 0.002*80.24) * math.Pow(10, -0.25); math.Abs(e.Laser.EyeIrradiance-mpe) > 1e-9*mpe {
+		t.Errorf("MPE = %g, want %g", e.Laser.EyeIrradiance, mpe)
+	}
+	if e.OD != 4 || math.Abs(e.Ratio-2661.05) > 0.5 {
+		t.Errorf("ratio %g, OD %g; want 2661, 4", e.Ratio, e.OD)
+	}
+	if a.Hazards.Lasers[0].Class != limits.Class4 {
+		t.Errorf("class %q", a.Hazards.Lasers[0].Class)
+	}
+}
+
+// The irradiance averaged over a round aperture agrees with the closed form
+// P(1 − exp(−2r²/w²))/(πr²) for a round beam (Siegman, Lasers (1986), §17.1).
+func TestApertureIrradianceRound(t *testing.T) {
+	const λ = 633e-9
+	for _, w := range []float64{0.5e-3, 3.5e-3, 10e-3} {
+		b := budget.Beam{Wavelength: λ, X: budget.NewPlane(w, 0, 1, λ), Y: budget.NewPlane(w, 0, 1, λ)}
+		got := apertureIrradiance(b, 1, 7e-3)
+		want := limits.ApertureAverage(1, w, 7e-3)
+		if math.Abs(got-want) > 1e-9*want {
+			t.Errorf("w = %g: %g, closed form %g", w, got, want)
+		}
+	}
+}
+
+// The worst point of a focusing segment is at the focus.
+func TestMaxAlongFindsFocus(t *testing.T) {
+	const λ = 1064e-9
+	b := budget.Beam{Wavelength: λ, X: budget.NewPlane(5e-3, 0, 1, λ), Y: budget.NewPlane(5e-3, 0, 1, λ)}.Lens(0.5)
+	irr, at := maxAlong(b, 1, 1e-3, 2)
+	focus := b.X.WaistDistance()
+	if math.Abs(at-focus) > 1e-3 {
+		t.Errorf("worst at %g m, focus at %g m", at, focus)
+	}
+	want := apertureIrradiance(b.Propagate(focus), 1, 1e-3)
+	if irr < want*(1-1e-9) {
+		t.Errorf("irr %g below the focus value %g", irr, want)
+	}
+}
+
+// Far from the waist, where the beam is much larger than the aperture, the
+// numerical hazard distance agrees with the standard's closed form
+// NOHD = (√(4P/(π MPE)) − a)/φ in 1/e quantities.
+func TestHazardDistanceMatchesClosedForm(t *testing.T) {
+	const λ, w0, p, mpe = 1064e-9, 0.2e-3, 1.0, 50.61
+	b := budget.Beam{Wavelength: λ, X: budget.NewPlane(w0, 0, 1, λ), Y: budget.NewPlane(w0, 0, 1, λ)}
+	θ := b.X.Divergence(λ)
+	got := hazardDistance(b, p, 7e-3, mpe)
+	want := limits.NOHD(p, 2*w0, 2*θ, mpe)
+	if math.Abs(got-want) > 0.01*want {
+		t.Errorf("numerical %g m, closed form %g m", got, want)
+	}
+}
+
+// A Lambertian reflector's hazard zone r = √(ρP cos θ/(π E_MPE)): 1 W,
+// ρ = 1, θ = 0, MPE 10 W/m² gives 0.1784 m (evaluated by hand).
+func TestDiffuseRadius(t *testing.T) {
+	if got := DiffuseHazardRadius(1, 1, 1, 10); math.Abs(got-0.178412) > 1e-6 {
+		t.Errorf("r = %g", got)
+	}
+}
+
+const eyewearLab = `
+[[laser]]
+name = "l"
+wavelength = "1064 nm"
+power = "1 W"
+waist = "1 mm"
+
+[[path]]
+name = "p"
+from = "l"
+  [[path.element]]
+  type = "dump"
+  at = "1 m"
+  rating = "5 W"
+`
+
+// 1 W in a 1 mm beam over the 7 mm aperture: 2.598e4 W/m² against 50.61 W/m²
+// at 1064 nm, 10 s: ratio 513, OD 3 (by hand).
+func TestEyewearCoverage(t *testing.T) {
+	a := load(t, eyewearLab)
+	gap := func(a *Assessment) string {
+		for _, f := range a.Findings {
+			if f.Kind == "eyewear_gap" {
+				return f.Message
+			}
+		}
+		return ""
+	}
+	if g := gap(a); !strings.Contains(g, "no eyewear is declared; OD 3 is needed at 1064 nm") {
+		t.Errorf("gap finding %q", g)
+	}
+	a = load(t, eyewearLab+"[[eyewear]]\nname = \"g\"\nbands = [{ from = \"900 nm\", to = \"1100 nm\", od = 2 }]\n")
+	if g := gap(a); !strings.Contains(g, "no declared eyewear gives OD 3 at 1064 nm") {
+		t.Errorf("gap finding %q", g)
+	}
+	a = load(t, eyewearLab+"[[eyewear]]\nname = \"g\"\nbands = [{ from = \"900 nm\", to = \"1100 nm\", od = 3 }]\n")
+	if g := gap(a); g != "" || len(a.Hazards.Eyewear) != 1 || a.Hazards.Eyewear[0].CoveredBy[0] != "g" {
+		t.Errorf("covered eyewear still a gap: %q", g)
+	}
+}
+
+// Enclosed and vacuum segments are not open exposures; the segment after an
+// element is open unless it says otherwise.
+func TestAccessOfSegments(t *testing.T) {
+	src := strings.Replace(eyewearLab, "from = \"l\"", "from = \"l\"\naccess = \"enclosed\"", 1)
+	a := load(t, src)
+	if n := len(a.Hazards.Exposures); n != 0 {
+		t.Errorf("%d exposures on an enclosed path", n)
+	}
+}
+
+// Properties over generated labs: the OD needed never falls when every
+// power rises, and a hazard never disappears when the beams get smaller.
+func TestHazardMonotone(t *testing.T) {
+	for seed := uint64(1); seed <= 40; seed++ {
+		src := synth.Lab(seed, synth.Options{Lasers: 2, ElementsPerPath: 6, Splits: 1, OpenEnds: true})
+		base := load(t, src)
+		s, _ := budget.Parse("x.toml", []byte(src))
+		for _, las := range s.Lasers {
+			las.Power *= 3
+			las.OperatingPower *= 3
+		}
+		up, err := Evaluate(s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for i, e := range base.Hazards.Exposures {
+			if up.Hazards.Exposures[i].OD < e.OD {
+				t.Fatalf("seed %d: OD fell from %g to %g when the power tripled", seed, e.OD, up.Hazards.Exposures[i].OD)
+			}
+		}
+		s2, _ := budget.Parse("x.toml", []byte(src))
+		for _, las := range s2.Lasers {
+			las.Waist[0] /= 2
+			las.Waist[1] /= 2
+		}
+		small, err := Evaluate(s2)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if countAbove(small) < countAbove(base) {
+			t.Fatalf("seed %d: hazards above the MPE fell from %d to %d when the beams got smaller", seed, countAbove(base), countAbove(small))
+		}
+	}
+}
+
+// countAbove counts the segments straight from each laser that exceed the
+// MPE: there a smaller waist can only concentrate the light (further on, a
+// smaller source waist may well make the beam larger).
+func countAbove(a *Assessment) int {
+	n := 0
+	for _, e := range a.Hazards.Exposures {
+		if e.Ratio > 1 && e.Segment.After == 0 {
+			n++
+		}
+	}
+	return n
+}
+
+func BenchmarkEvaluateDemo(b *testing.B) {
+	s, err := budget.Load("../testdata/examples/table-c.toml")
+	if err != nil {
+		b.Fatal(err)
+	}
+	for i := 0; i < b.N; i++ {
+		if _, err := Evaluate(s); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
