@@ -3,6 +3,7 @@ package budget
 import (
 	"fmt"
 	"math"
+	"sort"
 )
 
 // Loss kinds, each a named way power leaves a beam path.
@@ -94,10 +95,21 @@ type LaserBalance struct {
 // closes (unfollowed splitter ports are counted as losses).
 func (b LaserBalance) Total() float64 {
 	t := b.Dumped + b.Leaving
-	for _, v := range b.Lost {
-		t += v
+	for _, k := range b.LossKinds() {
+		t += b.Lost[k]
 	}
 	return t
+}
+
+// LossKinds lists the kinds of loss in a fixed (sorted) order, so that sums
+// and output do not depend on map order.
+func (b LaserBalance) LossKinds() []string {
+	kinds := make([]string, 0, len(b.Lost))
+	for k := range b.Lost {
+		kinds = append(kinds, k)
+	}
+	sort.Strings(kinds)
+	return kinds
 }
 
 // Budget is the power and beam budget of a whole setup.

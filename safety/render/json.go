@@ -4,7 +4,6 @@ import (
 	"encoding/json"
 	"io"
 	"math"
-	"sort"
 
 	"beamledger/budget"
 	"beamledger/safety"
@@ -167,11 +166,7 @@ func JSON(w io.Writer, a *safety.Assessment) error {
 		op := bal.Laser.OperatingPower
 		jb := jsonBalance{Laser: bal.Laser.Name, SourcePowerW: op, DumpedW: bal.Dumped * op, LeavingW: bal.Leaving * op,
 			LossesW: map[string]float64{}, TotalW: bal.Total() * op}
-		kinds := make([]string, 0, len(bal.Lost))
-		for k := range bal.Lost {
-			kinds = append(kinds, k)
-		}
-		sort.Strings(kinds)
+		kinds := bal.LossKinds()
 		for _, k := range kinds {
 			jb.LossesW[k] = bal.Lost[k] * op
 		}

@@ -4,7 +4,6 @@ import (
 	"fmt"
 	"io"
 	"math"
-	"sort"
 	"strings"
 
 	"beamledger/budget"
@@ -119,11 +118,7 @@ func writePath(ew *errWriter, pb *budget.PathBudget) {
 }
 
 func writeBalance(ew *errWriter, bal *budget.LaserBalance) {
-	kinds := make([]string, 0, len(bal.Lost))
-	for k := range bal.Lost {
-		kinds = append(kinds, k)
-	}
-	sort.Strings(kinds)
+	kinds := bal.LossKinds()
 	parts := []string{fmt.Sprintf("dumps %s", fmtPct(bal.Dumped)), fmt.Sprintf("open ends %s", fmtPct(bal.Leaving))}
 	for _, k := range kinds {
 		parts = append(parts, fmt.Sprintf("%s %s", k, fmtPct(bal.Lost[k])))
