@@ -110,7 +110,7 @@ func add(ts ...*Transition) {
 }
 
 const (
-	cyclingAlkali = "cycling transition, σ± light on |F = I+1/2, m_F = ±F⟩ → |F′ = F+1, m_F′ = ±F′⟩"
+	cyclingAlkali = "cycling transition: σ± light between the stretched states F = I+1/2, m_F = ±F and F' = F+1, m_F' = ±F'"
 	twoLevelNote  = "two-level value π h c Γ / (3 λ³)"
 	d1Note        = "two-level value π h c Γ / (3 λ³); a D1 line has no cycling transition"
 )

@@ -1,12 +1,14 @@
 package main
 
 import (
+	"bytes"
 	"encoding/json"
 	"math"
 	"os"
 	"path/filepath"
 	"strings"
 	"testing"
+	"time"
 
 	"beamledger/budget"
 )
@@ -133,5 +135,69 @@ func TestLimitsErrors(t *testing.T) {
 		if code != exitBadInput || out != "" || errOut == "" {
 			t.Errorf("%v: exit %d, stdout %q, stderr %q", args, code, out, errOut)
 		}
+	}
+}
+
+func runCLIEnv(t *testing.T, vars map[string]string, args ...string) (string, string, int) {
+	t.Helper()
+	var out, errOut bytes.Buffer
+	e := &env{stdout: &out, stderr: &errOut,
+		now:    func() time.Time { return time.Date(2026, 1, 2, 3, 4, 5, 0, time.UTC) },
+		getenv: func(k string) string { return vars[k] }}
+	code := e.execute(args)
+	return out.String(), errOut.String(), code
+}
+
+func TestReportWritesReproduciblePDF(t *testing.T) {
+	dir := t.TempDir()
+	a, b := filepath.Join(dir, "a.pdf"), filepath.Join(dir, "b.pdf")
+	env := map[string]string{"SOURCE_DATE_EPOCH": "1767225600"} // 2026-01-01
+	for _, out := range []string{a, b} {
+		stdout, errOut, code := runCLIEnv(t, env, "report", "../../testdata/examples/table-c.toml", "-o", out)
+		if code != exitFindings || !strings.Contains(stdout, "2026-01-01") {
+			t.Fatalf("report: exit %d, %q, %q", code, stdout, errOut)
+		}
+	}
+	pa, _ := os.ReadFile(a)
+	pb, _ := os.ReadFile(b)
+	if len(pa) < 1000 || !bytes.Equal(pa, pb) || !bytes.HasPrefix(pa, []byte("%PDF-")) {
+		t.Errorf("two runs with the same SOURCE_DATE_EPOCH differ or are not PDFs (%d, %d bytes)", len(pa), len(pb))
+	}
+	// An existing file is replaced only with --force.
+	if _, errOut, code := runCLIEnv(t, env, "report", "../../testdata/examples/table-c.toml", "-o", a); code != exitBadInput || !strings.Contains(errOut, "--force") {
+		t.Errorf("overwrite without --force: exit %d, %q", code, errOut)
+	}
+	if _, _, code := runCLIEnv(t, env, "report", "../../testdata/examples/table-c.toml", "-o", a, "--force", "--date", "2026-03-04"); code != exitFindings {
+		t.Errorf("--force: exit %d", code)
+	}
+	if pc, _ := os.ReadFile(a); bytes.Equal(pc, pa) {
+		t.Error("--force with another date left the old file")
+	}
+	entries, _ := os.ReadDir(dir)
+	if len(entries) != 2 {
+		t.Errorf("temporary files left behind: %v", entries)
+	}
+}
+
+func TestReportBadInputWritesNothing(t *testing.T) {
+	dir := t.TempDir()
+	bad := filepath.Join(dir, "bad.toml")
+	os.WriteFile(bad, []byte("[[laser]]\nname = 1\n"), 0o644)
+	out := filepath.Join(dir, "out.pdf")
+	for _, args := range [][]string{
+		{"report", bad, "-o", out},
+		{"report", "../../testdata/examples/table-c.toml", "-o", out, "--date", "yesterday"},
+		{"report", "../../testdata/examples/table-c.toml"},
+	} {
+		if _, _, code := runCLIEnv(t, nil, args...); code != exitBadInput {
+			t.Errorf("%v: exit %d", args, code)
+		}
+	}
+	if _, _, code := runCLIEnv(t, map[string]string{"SOURCE_DATE_EPOCH": "soon"}, "report", "../../testdata/examples/table-c.toml", "-o", out); code != exitBadInput {
+		t.Errorf("bad SOURCE_DATE_EPOCH: exit %d", code)
+	}
+	entries, _ := os.ReadDir(dir)
+	if len(entries) != 1 {
+		t.Errorf("files written on bad input: %v", entries)
 	}
 }

@@ -65,6 +65,6 @@ officer under local regulations.`,
 	}
 	root.SetOut(e.stdout)
 	root.SetErr(e.stderr)
-	root.AddCommand(e.newCheck(), e.newLimits(), e.newInit(), e.newTransitions(), e.newVersion())
+	root.AddCommand(e.newCheck(), e.newReport(), e.newLimits(), e.newInit(), e.newTransitions(), e.newVersion())
 	return root
 }

@@ -64,7 +64,7 @@ func writePath(ew *errWriter, pb *budget.PathBudget) {
 	ew.printf("  powers at the operating power %s (maximum %s); W = 1/e² radius arriving at the element; peak irradiance 2P/(πWxWy) on arrival\n",
 		budget.FormatPower(op), budget.FormatPower(las.Power))
 	t := &table{left: 2, lastLeft: true}
-	t.add("#", "element", "at", "Wx", "Wy", "power in", "power out", "peak irr.", "total dB", "losses here")
+	t.add("#", "element", "at", "Wx", "Wy", "power in", "power out", "peak irr.", "loss dB", "losses here")
 	wx, wy := pb.Start.Radii()
 	t.add("0", "start", "0 mm", budget.FormatLength(wx), budget.FormatLength(wy), "", budget.FormatPower(pb.StartFraction*op),
 		budget.FormatIrradiance(pb.Start.PeakIrradiance(pb.StartFraction*op)), fmtDB(pb.StartFraction), "")
@@ -136,7 +136,7 @@ func fmtDB(f float64) string {
 	if f <= 0 {
 		return "—"
 	}
-	db := budget.Decibels(f)
+	db := -budget.Decibels(f)
 	if math.Abs(db) < 0.005 {
 		db = 0
 	}

@@ -1,0 +1,133 @@
+package main
+
+import (
+	"errors"
+	"fmt"
+	"io/fs"
+	"os"
+	"path/filepath"
+	"strconv"
+	"time"
+
+	"github.com/spf13/cobra"
+
+	"beamledger/budget"
+	"beamledger/safety"
+	"beamledger/safety/pdf"
+	"beamledger/safety/report"
+)
+
+type reportOptions struct {
+	file, output, date string
+	force              bool
+}
+
+func (e *env) newReport() *cobra.Command {
+	o := &reportOptions{}
+	cmd := &cobra.Command{
+		Use:   "report FILE -o OUT.pdf",
+		Short: "Write the sign-off document of a setup as a PDF",
+		Long: `report evaluates a setup as check does and writes the sign-off document: a
+title block with the SHA-256 of the setup file, a summary, the sources, every
+beam path with plots of its beam radius and power, the drive at the atoms, the
+hazards against IEC 60825-1:2014, the eyewear needed, the assumptions, the
+cautions and a sign-off block for the preparer, the laser safety officer and
+the responsible person.
+
+The date comes from --date, else from SOURCE_DATE_EPOCH, else today; the same
+setup, tool version and date give the same bytes. The PDF is written to a
+temporary file beside OUT and renamed into place; an existing OUT is replaced
+only with --force, and nothing is written when the setup cannot be used.`,
+		Example: `  beamledger report testdata/examples/table-c.toml -o table-c.pdf
+  SOURCE_DATE_EPOCH=1767225600 beamledger report testdata/examples/table-c.toml -o table-c.pdf --force`,
+		Args: cobra.ExactArgs(1),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			o.file = args[0]
+			return e.runReport(o)
+		},
+	}
+	cmd.Flags().StringVarP(&o.output, "output", "o", "", "the PDF to write (required)")
+	cmd.Flags().StringVar(&o.date, "date", "", "the document date, YYYY-MM-DD (default: SOURCE_DATE_EPOCH, else today)")
+	cmd.Flags().BoolVar(&o.force, "force", false, "replace an existing output file")
+	return cmd
+}
+
+// reportDate picks the document date: --date, SOURCE_DATE_EPOCH, or today.
+func (e *env) reportDate(flag string) (time.Time, error) {
+	if flag != "" {
+		t, err := time.Parse("2006-01-02", flag)
+		if err != nil {
+			return time.Time{}, fmt.Errorf("--date: %q is not a date of the form YYYY-MM-DD", flag)
+		}
+		return t, nil
+	}
+	if s := e.getenv("SOURCE_DATE_EPOCH"); s != "" {
+		n, err := strconv.ParseInt(s, 10, 64)
+		if err != nil || n < 0 {
+			return time.Time{}, fmt.Errorf("SOURCE_DATE_EPOCH: %q is not a count of seconds since 1970", s)
+		}
+		return time.Unix(n, 0).UTC(), nil
+	}
+	return e.now().UTC(), nil
+}
+
+func (e *env) runReport(o *reportOptions) error {
+	if o.output == "" {
+		return fmt.Errorf("-o OUT.pdf is required")
+	}
+	date, err := e.reportDate(o.date)
+	if err != nil {
+		return err
+	}
+	if _, err := os.Stat(o.output); err == nil && !o.force {
+		return fmt.Errorf("%s exists; use --force to replace it", o.output)
+	} else if err != nil && !errors.Is(err, fs.ErrNotExist) {
+		return err
+	}
+	data, err := os.ReadFile(o.file)
+	if err != nil {
+		return fmt.Errorf("reading setup: %w", err)
+	}
+	s, err := budget.Parse(o.file, data)
+	if err != nil {
+		return err
+	}
+	a, err := safety.Evaluate(s)
+	if err != nil {
+		return err
+	}
+	doc := report.Build(a, report.Meta{Date: date.Format("2006-01-02"), ToolVersion: version, SetupBytes: data})
+	if err := writeAtomically(o.output, func(f *os.File) error {
+		return pdf.Write(f, doc, pdf.Options{Date: date, Compress: true})
+	}); err != nil {
+		return err
+	}
+	if _, err := fmt.Fprintf(e.stdout, "wrote %s (%s, setup SHA-256 %s)\n", o.output, doc.Date, doc.SetupSHA256); err != nil {
+		return err
+	}
+	if a.NeedsAction() {
+		return errFindings
+	}
+	return nil
+}
+
+// writeAtomically writes through a temporary file beside name and renames it
+// into place, so no half-written file is ever left at name.
+func writeAtomically(name string, write func(*os.File) error) error {
+	tmp, err := os.CreateTemp(filepath.Dir(name), "."+filepath.Base(name)+".tmp-*")
+	if err != nil {
+		return err
+	}
+	defer os.Remove(tmp.Name()) // no-op after a successful rename
+	if err := write(tmp); err != nil {
+		tmp.Close()
+		return err
+	}
+	if err := tmp.Close(); err != nil {
+		return err
+	}
+	if err := os.Chmod(tmp.Name(), 0o644); err != nil {
+		return err
+	}
+	return os.Rename(tmp.Name(), name)
+}

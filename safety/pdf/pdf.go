@@ -1,0 +1,242 @@
+// Package pdf draws a report.Document as a PDF with codeberg.org/go-pdf/fpdf:
+// the Go fonts embedded as UTF-8 fonts (so µ, ², Ω, Γ, Δ, λ and ≤ print),
+// vector plots readable in black and white, and a footer on every page with
+// the title, revision, the setup's SHA-256 and "page N of M". The same
+// document and date give the same bytes.
+package pdf
+
+import (
+	"fmt"
+	"io"
+	"time"
+
+	"codeberg.org/go-pdf/fpdf"
+	"golang.org/x/image/font/gofont/gobold"
+	"golang.org/x/image/font/gofont/goitalic"
+	"golang.org/x/image/font/gofont/goregular"
+
+	"beamledger/safety/report"
+)
+
+const (
+	font        = "go"
+	marginLeft  = 18.0 // mm
+	marginTop   = 16.0
+	marginRight = 18.0
+	bottomSpace = 18.0
+	lineH       = 4.2 // mm per line of body text
+)
+
+// Options control the output.
+type Options struct {
+	// Date is the document date; it is also written as the PDF's creation
+	// and modification date, so that equal inputs give equal bytes.
+	Date time.Time
+	// Compress the content streams (true in production; tests may turn it
+	// off to read the streams).
+	Compress bool
+}
+
+type writer struct {
+	f     *fpdf.Fpdf
+	doc   *report.Document
+	pageW float64
+	textW float64
+}
+
+// Write draws the document to w.
+func Write(w io.Writer, doc *report.Document, o Options) error {
+	f := fpdf.New("P", "mm", "A4", "")
+	f.SetCompression(o.Compress)
+	f.SetCatalogSort(true)
+	f.SetCreationDate(o.Date)
+	f.SetModificationDate(o.Date)
+	f.SetTitle(doc.Title, true)
+	f.SetAuthor(doc.PreparedBy, true)
+	f.SetSubject("Laser beam path evaluation and sign-off", true)
+	f.SetCreator("beamledger "+doc.ToolVersion, true)
+	f.SetProducer("beamledger "+doc.ToolVersion, true)
+	f.AddUTF8FontFromBytes(font, "", goregular.TTF)
+	f.AddUTF8FontFromBytes(font, "B", gobold.TTF)
+	f.AddUTF8FontFromBytes(font, "I", goitalic.TTF)
+	f.SetMargins(marginLeft, marginTop, marginRight)
+	f.SetAutoPageBreak(true, bottomSpace)
+	f.AliasNbPages("{nb}")
+	pw, _ := f.GetPageSize()
+	wr := &writer{f: f, doc: doc, pageW: pw, textW: pw - marginLeft - marginRight}
+	f.SetFooterFunc(wr.footer)
+	f.AddPage()
+	wr.titleBlock()
+	for i, s := range doc.Sections {
+		wr.section(i+1, s)
+	}
+	if err := f.Error(); err != nil {
+		return fmt.Errorf("drawing the PDF: %w", err)
+	}
+	return f.Output(w)
+}
+
+func (w *writer) footer() {
+	f := w.f
+	f.SetY(-12)
+	f.SetFont(font, "", 7)
+	f.SetTextColor(60, 60, 60)
+	rev := ""
+	if w.doc.Revision != "" {
+		rev = ", revision " + w.doc.Revision
+	}
+	f.CellFormat(w.textW*0.78, 4, fmt.Sprintf("%s%s — setup SHA-256 %s", w.doc.Title, rev, w.doc.SetupSHA256), "T", 0, "L", false, 0, "")
+	f.CellFormat(w.textW*0.22, 4, fmt.Sprintf("page %d of {nb}", f.PageNo()), "T", 0, "R", false, 0, "")
+	f.SetTextColor(0, 0, 0)
+}
+
+// need starts a new page unless h mm remain above the bottom margin.
+func (w *writer) need(h float64) {
+	_, ph := w.f.GetPageSize()
+	if w.f.GetY()+h > ph-bottomSpace {
+		w.f.AddPage()
+	}
+}
+
+func (w *writer) titleBlock() {
+	f, d := w.f, w.doc
+	f.SetFont(font, "B", 18)
+	f.MultiCell(w.textW, 8, d.Title, "", "L", false)
+	f.SetFont(font, "", 10)
+	f.MultiCell(w.textW, 5, "Laser beam path evaluation and sign-off", "", "L", false)
+	f.Ln(2)
+	rows := [][2]string{
+		{"Site", d.Site}, {"Revision", d.Revision}, {"Prepared by", d.PreparedBy}, {"Date", d.Date},
+		{"Tool", "beamledger " + d.ToolVersion}, {"Setup file", d.SetupFile}, {"Setup SHA-256", d.SetupSHA256},
+	}
+	for _, r := range rows {
+		f.SetFont(font, "B", 9)
+		f.CellFormat(32, 5, r[0], "", 0, "L", false, 0, "")
+		f.SetFont(font, "", 9)
+		f.MultiCell(w.textW-32, 5, r[1], "", "L", false)
+	}
+	f.Ln(3)
+	f.SetFont(font, "B", 11)
+	f.MultiCell(w.textW, 6, "Summary", "", "L", false)
+	f.SetFont(font, "", 9.5)
+	f.SetFillColor(238, 238, 238)
+	f.MultiCell(w.textW, lineH+0.6, d.Summary, "1", "L", true)
+	f.Ln(4)
+}
+
+func (w *writer) section(n int, s report.Section) {
+	f := w.f
+	w.need(20)
+	f.SetFont(font, "B", 13)
+	f.Ln(2)
+	f.MultiCell(w.textW, 7, fmt.Sprintf("%d  %s", n, s.Heading), "B", "L", false)
+	f.Ln(2)
+	for _, b := range s.Blocks {
+		switch {
+		case b.Subheading != "":
+			w.need(14)
+			f.Ln(1)
+			f.SetFont(font, "B", 10)
+			f.MultiCell(w.textW, 5, b.Subheading, "", "L", false)
+		case b.Paragraph != "":
+			f.SetFont(font, "", 9)
+			f.MultiCell(w.textW, lineH, b.Paragraph, "", "L", false)
+			f.Ln(1)
+		case b.Bullets != nil:
+			f.SetFont(font, "", 9)
+			for _, x := range b.Bullets {
+				w.need(lineH)
+				f.CellFormat(4, lineH, "•", "", 0, "L", false, 0, "")
+				f.MultiCell(w.textW-4, lineH, x, "", "L", false)
+			}
+			f.Ln(1)
+		case b.Table != nil:
+			w.table(b.Table)
+		case b.Plot != nil:
+			w.plot(b.Plot)
+		case b.SignOff != nil:
+			w.signOff(b.SignOff)
+		}
+	}
+}
+
+func (w *writer) table(t *report.Table) {
+	f := w.f
+	total := 0.0
+	for _, x := range t.Widths {
+		total += x
+	}
+	widths := make([]float64, len(t.Header))
+	for i := range widths {
+		rel := 1.0
+		if i < len(t.Widths) {
+			rel = t.Widths[i]
+		} else {
+			total++
+		}
+		widths[i] = rel
+	}
+	for i := range widths {
+		widths[i] *= w.textW / total
+	}
+	const size, cellLine, pad = 7.5, 3.4, 0.8
+	row := func(cells []string, bold bool) {
+		f.SetFont(font, map[bool]string{true: "B", false: ""}[bold], size)
+		lines := make([][]string, len(cells))
+		maxLines := 1
+		for i, c := range cells {
+			lines[i] = f.SplitText(c, widths[i]-2*pad)
+			if len(lines[i]) == 0 {
+				lines[i] = []string{""}
+			}
+			if len(lines[i]) > maxLines {
+				maxLines = len(lines[i])
+			}
+		}
+		h := float64(maxLines)*cellLine + 2*pad
+		w.need(h)
+		x, y := marginLeft, f.GetY()
+		if bold {
+			f.SetFillColor(225, 225, 225)
+			f.Rect(x, y, w.textW, h, "F")
+		}
+		f.SetDrawColor(150, 150, 150)
+		f.SetLineWidth(0.1)
+		f.Line(x, y+h, x+w.textW, y+h)
+		for i := range cells {
+			for k, ln := range lines[i] {
+				tx := x + pad
+				if i < len(t.Right) && t.Right[i] && !bold {
+					tx = x + widths[i] - pad - f.GetStringWidth(ln)
+				}
+				f.Text(tx, y+pad+cellLine*float64(k+1)-0.8, ln)
+			}
+			x += widths[i]
+		}
+		f.SetY(y + h)
+	}
+	row(t.Header, true)
+	for _, r := range t.Rows {
+		row(r, false)
+	}
+	f.SetDrawColor(0, 0, 0)
+	f.Ln(2)
+}
+
+func (w *writer) signOff(roles []string) {
+	f := w.f
+	for _, role := range roles {
+		w.need(30)
+		f.SetFont(font, "B", 10)
+		f.MultiCell(w.textW, 6, role, "", "L", false)
+		f.SetFont(font, "", 9)
+		for _, field := range []string{"Name", "Signature", "Date"} {
+			y := f.GetY() + 7
+			f.Text(marginLeft, y, field)
+			f.SetLineWidth(0.2)
+			f.Line(marginLeft+22, y+0.5, marginLeft+110, y+0.5)
+			f.SetY(y + 1)
+		}
+		f.Ln(5)
+	}
+}

@@ -1,0 +1,185 @@
+package pdf
+
+import (
+	"bytes"
+	"io"
+	"os"
+	"strings"
+	"testing"
+	"time"
+	"unicode/utf16"
+
+	"github.com/pdfcpu/pdfcpu/pkg/api"
+	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu"
+	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu/model"
+
+	"beamledger/budget"
+	"beamledger/safety"
+	"beamledger/safety/report"
+)
+
+func demoPDF(t testing.TB, compress bool) ([]byte, *report.Document) {
+	t.Helper()
+	data, err := os.ReadFile("../../testdata/examples/table-c.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := budget.Parse("table-c.toml", data)
+	if err != nil {
+		t.Fatal(err)
+	}
+	a, err := safety.Evaluate(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	doc := report.Build(a, report.Meta{Date: "2026-01-02", ToolVersion: "test", SetupBytes: data})
+	var b bytes.Buffer
+	if err := Write(&b, doc, Options{Date: time.Date(2026, 1, 2, 0, 0, 0, 0, time.UTC), Compress: compress}); err != nil {
+		t.Fatal(err)
+	}
+	return b.Bytes(), doc
+}
+
+// pdfText extracts the text of every page: pdfcpu decodes each page's
+// content stream, and the strings shown with Tj are the UTF-16BE code points
+// that fpdf writes for its UTF-8 fonts.
+func pdfText(t *testing.T, pdf []byte) (string, int) {
+	t.Helper()
+	conf := model.NewDefaultConfiguration()
+	ctx, err := api.ReadContext(bytes.NewReader(pdf), conf)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := api.ValidateContext(ctx); err != nil {
+		t.Fatal(err)
+	}
+	var all strings.Builder
+	for p := 1; p <= ctx.PageCount; p++ {
+		r, err := pdfcpu.ExtractPageContent(ctx, p)
+		if err != nil {
+			t.Fatal(err)
+		}
+		content, _ := io.ReadAll(r)
+		for _, s := range shownStrings(content) {
+			all.WriteString(s)
+			all.WriteString("\n")
+		}
+	}
+	return all.String(), ctx.PageCount
+}
+
+// shownStrings finds the literal strings before each Tj operator and decodes
+// them from UTF-16BE.
+func shownStrings(content []byte) []string {
+	var out []string
+	for i := 0; i < len(content); i++ {
+		if content[i] != '(' {
+			continue
+		}
+		var raw []byte
+		j := i + 1
+		depth := 1
+		for ; j < len(content) && depth > 0; j++ {
+			c := content[j]
+			switch {
+			case c == '\\' && j+1 < len(content):
+				j++
+				switch e := content[j]; e {
+				case 'n':
+					raw = append(raw, '\n')
+				case 'r':
+					raw = append(raw, '\r')
+				case 't':
+					raw = append(raw, '\t')
+				case 'b':
+					raw = append(raw, '\b')
+				case 'f':
+					raw = append(raw, '\f')
+				default:
+					if e >= '0' && e <= '7' {
+						v := 0
+						k := 0
+						for ; k < 3 && j < len(content) && content[j] >= '0' && content[j] <= '7'; k++ {
+							v = v*8 + int(content[j]-'0')
+							j++
+						}
+						j--
+						raw = append(raw, byte(v))
+					} else {
+						raw = append(raw, e)
+					}
+				}
+			case c == '(':
+				depth++
+				raw = append(raw, c)
+			case c == ')':
+				depth--
+				if depth > 0 {
+					raw = append(raw, c)
+				}
+			default:
+				raw = append(raw, c)
+			}
+		}
+		rest := strings.TrimLeft(string(content[j:min(j+6, len(content))]), " ")
+		if strings.HasPrefix(rest, "Tj") && len(raw)%2 == 0 {
+			u := make([]uint16, len(raw)/2)
+			for k := range u {
+				u[k] = uint16(raw[2*k])<<8 | uint16(raw[2*k+1])
+			}
+			out = append(out, string(utf16.Decode(u)))
+		}
+		i = j - 1
+	}
+	return out
+}
+
+// The document validates with pdfcpu and holds every section, the setup's
+// hash, key numbers and the symbols the Go fonts must print.
+func TestPDFValidAndComplete(t *testing.T) {
+	pdf, doc := demoPDF(t, true)
+	text, pages := pdfText(t, pdf)
+	if pages < 4 {
+		t.Errorf("%d pages", pages)
+	}
+	flat := strings.Join(strings.Fields(text), " ")
+	for _, want := range []string{
+		"Elongated cloud, table C", "Summary", "1 Sources", "2 Beam paths", "3 At the atoms", "4 Hazards", "5 Eyewear",
+		"6 Assumptions", "7 Cautions", "8 Sign-off", "Reviewed by (laser safety officer)", "Approved by (responsible person)",
+		doc.SetupSHA256, "page 1 of", "2661", "25.7", "19.49 MHz", "µm", "W/cm²", "Ω/2π", "Δ/2π", "λ", "≤", "IEC 60825-1:2014",
+		"laser safety officer",
+	} {
+		if !strings.Contains(flat, want) {
+			t.Errorf("the PDF text lacks %q", want)
+		}
+	}
+	if n := strings.Count(flat, doc.SetupSHA256); n < pages+1 {
+		t.Errorf("the hash appears %d times; want the title block and every footer (%d pages)", n, pages)
+	}
+}
+
+// Same document and date: the same bytes, compressed or not.
+func TestPDFReproducible(t *testing.T) {
+	for _, c := range []bool{true, false} {
+		a, _ := demoPDF(t, c)
+		b, _ := demoPDF(t, c)
+		if !bytes.Equal(a, b) {
+			t.Errorf("compress=%v: two runs differ", c)
+		}
+	}
+}
+
+func TestPDFMetadata(t *testing.T) {
+	pdf, _ := demoPDF(t, false)
+	for _, want := range []string{"/Title", "/Author", "/Subject", "/Creator", "/CreationDate (D:20260102000000"} {
+		if !bytes.Contains(pdf, []byte(want)) {
+			t.Errorf("metadata lacks %s", want)
+		}
+	}
+}
+
+func BenchmarkReportDemo(b *testing.B) {
+	for i := 0; i < b.N; i++ {
+		demoPDF(b, true)
+	}
+}

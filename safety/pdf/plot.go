@@ -1,0 +1,267 @@
+package pdf
+
+import (
+	"math"
+	"strconv"
+	"strings"
+
+	"beamledger/safety/report"
+)
+
+const plotHeight = 64.0 // mm, frame plus labels
+
+// axis maps data values to page coordinates, linear or logarithmic.
+type axis struct {
+	lo, hi float64 // data range (positive for log)
+	log    bool
+	p0, p1 float64 // page coordinates of lo and hi
+}
+
+func (a axis) at(v float64) float64 {
+	if a.log {
+		v, lo, hi := math.Log10(v), math.Log10(a.lo), math.Log10(a.hi)
+		return a.p0 + (v-lo)/(hi-lo)*(a.p1-a.p0)
+	}
+	return a.p0 + (v-a.lo)/(a.hi-a.lo)*(a.p1-a.p0)
+}
+
+// ticks returns tick values: decades for a log axis, 1-2-5 steps otherwise.
+func (a axis) ticks() []float64 {
+	var out []float64
+	if a.log {
+		for e := math.Floor(math.Log10(a.lo)); e <= math.Ceil(math.Log10(a.hi)); e++ {
+			if v := math.Pow(10, e); v >= a.lo*(1-1e-9) && v <= a.hi*(1+1e-9) {
+				out = append(out, v)
+			}
+		}
+		return out
+	}
+	step := niceStep((a.hi - a.lo) / 6)
+	for v := math.Ceil(a.lo/step) * step; v <= a.hi+step*1e-9; v += step {
+		out = append(out, v)
+	}
+	return out
+}
+
+func niceStep(raw float64) float64 {
+	if raw <= 0 || math.IsNaN(raw) {
+		return 1
+	}
+	e := math.Pow(10, math.Floor(math.Log10(raw)))
+	for _, m := range []float64{1, 2, 5, 10} {
+		if m*e >= raw {
+			return m * e
+		}
+	}
+	return 10 * e
+}
+
+// label writes a tick value briefly: plain digits for ordinary magnitudes,
+// else a short exponent form ("1e-6").
+func label(v float64) string {
+	a := math.Abs(v)
+	if v == 0 || (a >= 1e-3 && a < 1e6) {
+		return strconv.FormatFloat(v, 'f', -1, 64)
+	}
+	s := strconv.FormatFloat(v, 'g', 3, 64)
+	s = strings.Replace(s, "e-0", "e-", 1)
+	return strings.Replace(strings.Replace(s, "e+0", "e", 1), "e+", "e", 1)
+}
+
+// dataRange finds the extent of the values, padded; for a log axis only
+// positive values count.
+func dataRange(vals []float64, log, fromZero bool) (float64, float64) {
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for _, v := range vals {
+		if math.IsNaN(v) || math.IsInf(v, 0) || (log && v <= 0) {
+			continue
+		}
+		lo, hi = math.Min(lo, v), math.Max(hi, v)
+	}
+	if math.IsInf(lo, 1) {
+		return 0, 1
+	}
+	if log {
+		return math.Pow(10, math.Floor(math.Log10(lo))), math.Pow(10, math.Ceil(math.Log10(hi)+1e-12))
+	}
+	if fromZero && lo > 0 {
+		lo = 0
+	}
+	if hi == lo {
+		hi = lo + 1
+	}
+	pad := 0.05 * (hi - lo)
+	if lo != 0 {
+		lo -= pad
+	}
+	return lo, hi + pad
+}
+
+func (w *writer) plot(p *report.Plot) {
+	f := w.f
+	w.need(plotHeight + 6)
+	top := f.GetY() + 2
+	f.SetFont(font, "B", 8.5)
+	f.Text(marginLeft, top+3, p.Title)
+	x0, x1 := marginLeft+16, marginLeft+w.textW-2
+	y0, y1 := top+7, top+plotHeight-22 // frame top and bottom
+	if len(p.Bars) > 0 {
+		w.bars(p, x0, x1, y0, y1)
+		f.SetY(top + plotHeight)
+		return
+	}
+	var xs, ys []float64
+	for _, s := range p.Series {
+		xs = append(xs, s.X...)
+		ys = append(ys, s.Y...)
+	}
+	for _, m := range p.Markers {
+		xs = append(xs, m.X)
+	}
+	for _, h := range p.HLines {
+		ys = append(ys, h.Y)
+	}
+	xlo, xhi := dataRange(xs, p.LogX, false)
+	if !p.LogX {
+		xlo = math.Min(xlo, 0)
+	}
+	ylo, yhi := dataRange(ys, p.LogY, true)
+	ax := axis{lo: xlo, hi: xhi, log: p.LogX, p0: x0, p1: x1}
+	ay := axis{lo: ylo, hi: yhi, log: p.LogY, p0: y1, p1: y0}
+	// Grid, ticks and labels.
+	f.SetFont(font, "", 6.5)
+	f.SetLineWidth(0.1)
+	f.SetDrawColor(200, 200, 200)
+	for _, t := range ax.ticks() {
+		x := ax.at(t)
+		f.Line(x, y0, x, y1)
+		s := label(t)
+		f.Text(x-f.GetStringWidth(s)/2, y1+3.2, s)
+	}
+	for _, t := range ay.ticks() {
+		y := ay.at(t)
+		f.Line(x0, y, x1, y)
+		s := label(t)
+		f.Text(x0-1.2-f.GetStringWidth(s), y+1, s)
+	}
+	f.SetDrawColor(0, 0, 0)
+	f.SetLineWidth(0.25)
+	f.Rect(x0, y0, x1-x0, y1-y0, "D")
+	f.SetFont(font, "", 7.5)
+	f.Text((x0+x1)/2-f.GetStringWidth(p.XLabel)/2, y1+7, p.XLabel)
+	f.TransformBegin()
+	f.TransformRotate(90, marginLeft+3, (y0+y1)/2)
+	f.Text(marginLeft+3-f.GetStringWidth(p.YLabel)/2, (y0+y1)/2, p.YLabel)
+	f.TransformEnd()
+	f.ClipRect(x0, y0, x1-x0, y1-y0, false)
+	// Markers: dotted verticals with labels along them.
+	f.SetFont(font, "", 5.5)
+	for _, m := range p.Markers {
+		x := ax.at(m.X)
+		f.SetDashPattern([]float64{0.4, 0.8}, 0)
+		f.SetLineWidth(0.15)
+		f.SetDrawColor(90, 90, 90)
+		f.Line(x, y0, x, y1)
+		f.TransformBegin()
+		f.TransformRotate(90, x-0.6, y0+1)
+		f.Text(x-0.6-f.GetStringWidth(m.Label), y0+1, m.Label)
+		f.TransformEnd()
+	}
+	f.SetDrawColor(0, 0, 0)
+	for _, h := range p.HLines {
+		y := ay.at(h.Y)
+		f.SetDashPattern([]float64{2, 0.8, 0.4, 0.8}, 0)
+		f.SetLineWidth(0.3)
+		f.Line(x0, y, x1, y)
+		f.SetFont(font, "", 6.5)
+		f.Text(x0+2, y-1, h.Label)
+	}
+	for _, s := range p.Series {
+		if s.Dashed {
+			f.SetDashPattern([]float64{1.6, 1}, 0)
+		} else {
+			f.SetDashPattern(nil, 0)
+		}
+		f.SetLineWidth(0.35)
+		first := true
+		for i := range s.X {
+			if (p.LogX && s.X[i] <= 0) || (p.LogY && s.Y[i] <= 0) || math.IsNaN(s.Y[i]) {
+				first = true
+				continue
+			}
+			x, y := ax.at(s.X[i]), ay.at(s.Y[i])
+			if first {
+				f.MoveTo(x, y)
+				first = false
+			} else {
+				f.LineTo(x, y)
+			}
+		}
+		f.DrawPath("D")
+	}
+	f.SetDashPattern(nil, 0)
+	f.ClipEnd()
+	// Legend under the axis label.
+	lx := x0
+	ly := y1 + 11
+	f.SetFont(font, "", 7)
+	for _, s := range p.Series {
+		if s.Dashed {
+			f.SetDashPattern([]float64{1.6, 1}, 0)
+		}
+		f.SetLineWidth(0.35)
+		f.Line(lx, ly-1, lx+8, ly-1)
+		f.SetDashPattern(nil, 0)
+		f.Text(lx+10, ly, s.Name)
+		lx += 14 + f.GetStringWidth(s.Name)
+	}
+	f.SetLineWidth(0.2)
+	f.SetY(top + plotHeight)
+}
+
+func roundTo3(v float64) float64 {
+	f, _ := strconv.ParseFloat(strconv.FormatFloat(v, 'g', 3, 64), 64)
+	return f
+}
+
+func (w *writer) bars(p *report.Plot, x0, x1, y0, y1 float64) {
+	f := w.f
+	vals := make([]float64, len(p.Bars))
+	for i, b := range p.Bars {
+		vals[i] = b.Value
+	}
+	_, hi := dataRange(vals, false, true)
+	ay := axis{lo: 0, hi: hi, p0: y1, p1: y0}
+	f.SetFont(font, "", 6.5)
+	f.SetLineWidth(0.1)
+	f.SetDrawColor(200, 200, 200)
+	for _, t := range ay.ticks() {
+		y := ay.at(t)
+		f.Line(x0, y, x1, y)
+		s := label(t)
+		f.Text(x0-1.2-f.GetStringWidth(s), y+1, s)
+	}
+	f.SetDrawColor(0, 0, 0)
+	f.SetLineWidth(0.25)
+	f.Rect(x0, y0, x1-x0, y1-y0, "D")
+	f.TransformBegin()
+	f.TransformRotate(90, marginLeft+3, (y0+y1)/2)
+	f.SetFont(font, "", 7.5)
+	f.Text(marginLeft+3-f.GetStringWidth(p.YLabel)/2, (y0+y1)/2, p.YLabel)
+	f.TransformEnd()
+	n := float64(len(p.Bars))
+	slot := (x1 - x0) / n
+	f.SetFillColor(170, 170, 170)
+	for i, b := range p.Bars {
+		bx := x0 + slot*float64(i) + slot*0.2
+		top := ay.at(b.Value)
+		f.Rect(bx, top, slot*0.6, y1-top, "FD")
+		f.SetFont(font, "", 5.5)
+		v := label(roundTo3(b.Value))
+		f.Text(bx+slot*0.3-f.GetStringWidth(v)/2, top-0.8, v)
+		f.TransformBegin()
+		f.TransformRotate(35, bx+slot*0.3, y1+2)
+		f.Text(bx+slot*0.3-f.GetStringWidth(b.Label), y1+2, b.Label)
+		f.TransformEnd()
+	}
+}
