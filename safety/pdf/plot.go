@@ -37,7 +37,9 @@ func (a axis) ticks() []float64 {
 		return out
 	}
 	step := niceStep((a.hi - a.lo) / 6)
-	for v := math.Ceil(a.lo/step) * step; v <= a.hi+step*1e-9; v += step {
+	for k := math.Ceil(a.lo/step - 1e-9); k*step <= a.hi+step*1e-9; k++ {
+		// Round away the float noise of k·step (0.6000000000000001).
+		v, _ := strconv.ParseFloat(strconv.FormatFloat(k*step, 'g', 12, 64), 64)
 		out = append(out, v)
 	}
 	return out
