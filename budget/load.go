@@ -39,6 +39,9 @@ func Parse(filename string, data []byte) (*Setup, error) {
 	if len(data) > MaxSetupBytes {
 		return nil, &InputError{[]string{fmt.Sprintf("%s: file is %d bytes, more than the %d a setup may have", filename, len(data), MaxSetupBytes)}}
 	}
+	if err := prescan(filename, string(data)); err != nil {
+		return nil, err
+	}
 	var raw map[string]any
 	if _, err := toml.Decode(string(data), &raw); err != nil {
 		var pe toml.ParseError
