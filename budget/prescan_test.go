@@ -22,10 +22,10 @@ func TestPrescan(t *testing.T) {
 		}
 	}
 	bad := map[string]string{
-		"x = " + strings.Repeat("[", 33) + strings.Repeat("]", 33) + "\n":            "t.toml:1: values are nested more than 32 deep",
+		"x = " + strings.Repeat("[", 33) + strings.Repeat("]", 33) + "\n":             "t.toml:1: values are nested more than 32 deep",
 		"\nx = " + strings.Repeat("{a = ", 40) + "1" + strings.Repeat("}", 40) + "\n": "t.toml:2: values are nested more than 32 deep",
-		"[" + strings.Repeat("a.", 20) + "a]\n":                                      "t.toml:1: a key or table name has more than 16 dotted parts",
-		strings.Repeat("a.", 20) + "a = 1\n":                                         "t.toml:1: a key or table name has more than 16 dotted parts",
+		"[" + strings.Repeat("a.", 20) + "a]\n":                                       "t.toml:1: a key or table name has more than 16 dotted parts",
+		strings.Repeat("a.", 20) + "a = 1\n":                                          "t.toml:1: a key or table name has more than 16 dotted parts",
 	}
 	for src, want := range bad {
 		if err := prescan("t.toml", src); err == nil || err.Error() != want {

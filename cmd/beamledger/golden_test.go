@@ -2,9 +2,11 @@ package main
 
 import (
 	"bytes"
+	"encoding/json"
 	"flag"
 	"os"
 	"path/filepath"
+	"reflect"
 	"strings"
 	"testing"
 	"time"
@@ -69,6 +71,7 @@ func TestCheckGolden(t *testing.T) {
 		"elliptical-diode":  exitFindings, // open beams above the MPE
 		"clipped-telescope": exitFindings, // open end
 		"splitter-tree":     exitFindings, // dumps under-rated
+		"weak-probe":        exitOK,       // below the MPE everywhere, goal met
 	}
 	for _, f := range files {
 		base := strings.TrimSuffix(filepath.Base(f), ".toml")
@@ -88,5 +91,43 @@ func TestCheckGolden(t *testing.T) {
 			}
 			compareGolden(t, base+".json", out)
 		})
+	}
+}
+
+// The JSON output round-trips: decoding it and encoding it again gives the
+// same document (no NaN, no value that JSON cannot hold).
+func TestCheckJSONRoundTrip(t *testing.T) {
+	t.Chdir("../..")
+	files, _ := filepath.Glob("testdata/examples/*.toml")
+	for _, f := range files {
+		out, _, _ := runCLI(t, "check", "--json", f)
+		var doc any
+		if err := json.Unmarshal([]byte(out), &doc); err != nil {
+			t.Fatalf("%s: %v", f, err)
+		}
+		var b bytes.Buffer
+		enc := json.NewEncoder(&b)
+		enc.SetIndent("", "  ")
+		enc.SetEscapeHTML(false)
+		if err := enc.Encode(doc); err != nil {
+			t.Fatal(err)
+		}
+		var again any
+		if err := json.Unmarshal(b.Bytes(), &again); err != nil || !reflect.DeepEqual(doc, again) {
+			t.Errorf("%s: JSON does not round-trip", f)
+		}
+	}
+}
+
+// Identical input gives byte-identical text and JSON, run after run.
+func TestDeterministicOutput(t *testing.T) {
+	t.Chdir("../..")
+	for _, args := range [][]string{{"check", "testdata/examples/table-c.toml"}, {"check", "--json", "testdata/examples/splitter-tree.toml"}} {
+		first, _, _ := runCLI(t, args...)
+		for i := 0; i < 5; i++ {
+			if again, _, _ := runCLI(t, args...); again != first {
+				t.Fatalf("%v: run %d differs", args, i+2)
+			}
+		}
 	}
 }
