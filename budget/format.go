@@ -10,9 +10,9 @@ import (
 // Formatting of quantities for people. Every function takes SI base units.
 
 var siPrefixes = []struct {
-	exp    int
+	scale  float64
 	symbol string
-}{{12, "T"}, {9, "G"}, {6, "M"}, {3, "k"}, {0, ""}, {-3, "m"}, {-6, "µ"}, {-9, "n"}, {-12, "p"}, {-15, "f"}}
+}{{1e12, "T"}, {1e9, "G"}, {1e6, "M"}, {1e3, "k"}, {1, ""}, {1e-3, "m"}, {1e-6, "µ"}, {1e-9, "n"}, {1e-12, "p"}, {1e-15, "f"}}
 
 // FormatSI writes v with an SI prefix chosen so that the mantissa lies in
 // [1, 1000), with four significant digits: FormatSI(0.0012, "W") = "1.2 mW".
@@ -22,9 +22,8 @@ func FormatSI(v float64, unit string) string {
 	}
 	a := math.Abs(v)
 	for _, p := range siPrefixes {
-		scale := math.Pow(10, float64(p.exp))
-		if a >= scale*(1-5e-5) || p.exp == -15 {
-			return trimFloat(v/scale, 4) + " " + p.symbol + unit
+		if a >= p.scale*(1-5e-5) || p.symbol == "f" {
+			return trimFloat(v/p.scale, 4) + " " + p.symbol + unit
 		}
 	}
 	return trimFloat(v, 4) + " " + unit

@@ -90,7 +90,7 @@ type table struct {
 	loc     string // line-index key, e.g. "path[0].element[2]"
 	m       map[string]any
 	used    map[string]bool
-	hint    string // added to "unknown key" messages
+	hint    func() string // added to "unknown key" messages, built only when needed
 }
 
 func (l *loader) table(context, loc string, m map[string]any) *table {
@@ -127,8 +127,12 @@ func (t *table) done() {
 		}
 	}
 	sort.Strings(unknown)
+	hint := ""
+	if len(unknown) > 0 && t.hint != nil {
+		hint = t.hint()
+	}
 	for _, k := range unknown {
-		t.fail(k, "unknown key%s", t.hint)
+		t.fail(k, "unknown key%s", hint)
 	}
 }
 

@@ -394,7 +394,10 @@ func (l *loader) element(p *Path, pathContext, loc string, k int, m map[string]a
 		t.get("diffuse_reflectance")
 		t.fail("diffuse_reflectance", "only for a dump")
 	}
-	t.hint = fmt.Sprintf(" for a %s (it takes %s)", e.Type, strings.Join(append(elementKeys[e.Type], commonElementKeys...), ", "))
+	t.hint = func() string {
+		keys := append(append([]string{}, elementKeys[e.Type]...), commonElementKeys...)
+		return fmt.Sprintf(" for a %s (it takes %s)", e.Type, strings.Join(keys, ", "))
+	}
 	t.done()
 	return e
 }

@@ -3,7 +3,9 @@ package safety
 import (
 	"fmt"
 	"math"
+	"runtime"
 	"sort"
+	"sync"
 
 	"beamledger/budget"
 	"beamledger/limits"
@@ -178,88 +180,28 @@ func evaluateHazards(s *budget.Setup, b *budget.Budget) (*Hazards, error) {
 				Message: fmt.Sprintf("laser %q: class %s", las.Name, ll.ClassNote)})
 		}
 	}
+	// Paths are independent: evaluate them on all cores, then gather the
+	// results in the setup's order so the output does not depend on timing.
+	results := make([]pathHazardResult, len(b.Paths))
+	var wg sync.WaitGroup
+	sem := make(chan struct{}, runtime.GOMAXPROCS(0))
+	for i, pb := range b.Paths {
+		wg.Add(1)
+		sem <- struct{}{}
+		go func() {
+			defer wg.Done()
+			results[i] = pathHazards(pb, byLaser[pb.Laser])
+			<-sem
+		}()
+	}
+	wg.Wait()
 	strayDefault, diffuseDefault := 0, 0
-	for _, pb := range b.Paths {
-		ll := byLaser[pb.Laser]
-		max := pb.Laser.Power
-		for _, seg := range pb.Segments {
-			if seg.Access != budget.AccessOpen || seg.Fraction <= 0 {
-				continue
-			}
-			p := seg.Fraction * max
-			irr, at := maxAlong(seg.Beam, p, ll.EyeAperture, seg.To-seg.From)
-			skin, _ := maxAlong(seg.Beam, p, ll.SkinAperture, seg.To-seg.From)
-			e := &Exposure{Path: pb, Segment: seg, Laser: ll, At: seg.From + at, Power: p, Irradiance: irr,
-				Ratio: irr / ll.EyeIrradiance, SkinIrr: skin, SkinRatio: skin / ll.SkinIrradiance,
-				PeakIrr: seg.Beam.Propagate(at).PeakIrradiance(p), OpenEnd: math.IsInf(seg.To, 1)}
-			e.OD = limits.OpticalDensity(e.Ratio)
-			if e.OpenEnd {
-				e.NOHD = hazardDistance(seg.Beam, p, ll.EyeAperture, ll.EyeIrradiance)
-				wx, wy := seg.Beam.Radii()
-				w0 := math.Max(wx, wy)
-				div := 2 * math.Max(seg.Beam.X.Divergence(seg.Beam.Wavelength), seg.Beam.Y.Divergence(seg.Beam.Wavelength))
-				e.ClosedFormN = limits.NOHD(p, 2*w0, div, ll.EyeIrradiance)
-			}
-			h.Exposures = append(h.Exposures, e)
-			if e.Ratio > 1 || e.SkinRatio > 1 {
-				msg := fmt.Sprintf("%s: up to %s reaches %s × the eye MPE (%s averaged over %s, %s exposure) and %s × the skin MPE; eyewear needs OD %g at %s",
-					segmentName(seg), budget.FormatPower(p), fmtX(e.Ratio), budget.FormatIrradiance(irr), budget.FormatLength(ll.EyeAperture),
-					budget.FormatSI(ll.Duration, "s"), fmtX(e.SkinRatio), e.OD, fmtNM(pb.Laser.Wavelength))
-				if e.OpenEnd {
-					msg += fmt.Sprintf("; the escaping beam stays above the MPE for %s beyond the path's end (NOHD)", fmtDistance(e.NOHD))
-				}
-				h.Findings = append(h.Findings, budget.Finding{Severity: budget.SeverityAction, Kind: "exposure_above_mpe", Path: pb.Path.Name,
-					Element: seg.After, At: e.At, Message: msg})
-			}
-		}
-		// Stray and diffuse reflections, and damage, element by element.
-		for i := range pb.Rows {
-			r := &pb.Rows[i]
-			el := r.Element
-			in := precedingAccess(pb, i)
-			p := r.FractionIn * max
-			if surfaces := transmissiveSurfaces(el.Type); surfaces > 0 && in == budget.AccessOpen && p > 0 {
-				R, assumed := DefaultSurfaceReflectance, true
-				if el.SurfaceReflectance != nil {
-					R, assumed = *el.SurfaceReflectance, false
-				}
-				if assumed {
-					strayDefault++
-				}
-				pr := R * p
-				irr := apertureIrradiance(r.BeamIn, pr, ll.EyeAperture)
-				ref := &Reflection{Path: pb, Element: el, Kind: "stray", Reflectance: R, Assumed: assumed, Surfaces: surfaces,
-					Power: pr, Irradiance: irr, Ratio: irr / ll.EyeIrradiance, Laser: ll}
-				ref.OD = limits.OpticalDensity(ref.Ratio)
-				if ref.Ratio > 1 {
-					h.Reflections = append(h.Reflections, ref)
-					h.Findings = append(h.Findings, budget.Finding{Severity: budget.SeverityAction, Kind: "stray_reflection", Path: pb.Path.Name,
-						Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s): each of its %d surface(s) reflects %s (R = %g%s), %.3g × the eye MPE at the surface; block or enclose the back-reflection",
-							el.Index, el.Label(), surfaces, budget.FormatPower(pr), R, assumedNote(assumed), ref.Ratio)})
-				}
-			}
-			if el.Type == budget.TypeDump && in == budget.AccessOpen && p > 0 {
-				ρ, assumed := DefaultDiffuseReflectance, true
-				if el.DiffuseReflectance != nil {
-					ρ, assumed = *el.DiffuseReflectance, false
-				}
-				if assumed {
-					diffuseDefault++
-				}
-				h.Reflections = append(h.Reflections, diffuse(pb, el, ll, p, ρ, assumed))
-			}
-			h.Findings = append(h.Findings, damage(pb, r, p)...)
-		}
-		if pb.OpenEnd && pb.EndFraction > 0 {
-			// What the escaping beam hits may reflect diffusely.
-			n := len(pb.Rows)
-			var last *budget.Element
-			if n > 0 {
-				last = pb.Rows[n-1].Element
-			}
-			diffuseDefault++
-			h.Reflections = append(h.Reflections, diffuse(pb, last, ll, pb.EndFraction*max, DefaultDiffuseReflectance, true))
-		}
+	for _, r := range results {
+		h.Exposures = append(h.Exposures, r.exposures...)
+		h.Reflections = append(h.Reflections, r.reflections...)
+		h.Findings = append(h.Findings, r.findings...)
+		strayDefault += r.strayDefault
+		diffuseDefault += r.diffuseDefault
 	}
 	if strayDefault > 0 {
 		h.DefaultsAssumed = append(h.DefaultsAssumed, fmt.Sprintf("surface reflectance %g per surface (uncoated glass, common practice) at %d element(s) without surface_reflectance", DefaultSurfaceReflectance, strayDefault))
@@ -270,6 +212,100 @@ func evaluateHazards(s *budget.Setup, b *budget.Budget) (*Hazards, error) {
 	h.Eyewear = eyewearNeeds(h)
 	h.Findings = append(h.Findings, checkEyewear(s, h.Eyewear)...)
 	return h, nil
+}
+
+// pathHazardResult is what one path contributes to the hazards.
+type pathHazardResult struct {
+	exposures                    []*Exposure
+	reflections                  []*Reflection
+	findings                     []budget.Finding
+	strayDefault, diffuseDefault int
+}
+
+// pathHazards evaluates the open segments, reflections and damage of one
+// path at the laser's maximum power.
+func pathHazards(pb *budget.PathBudget, ll *LaserLimits) pathHazardResult {
+	var res pathHazardResult
+	max := pb.Laser.Power
+	for _, seg := range pb.Segments {
+		if seg.Access != budget.AccessOpen || seg.Fraction <= 0 {
+			continue
+		}
+		p := seg.Fraction * max
+		irr, at := maxAlong(seg.Beam, p, ll.EyeAperture, seg.To-seg.From)
+		skin, _ := maxAlong(seg.Beam, p, ll.SkinAperture, seg.To-seg.From)
+		e := &Exposure{Path: pb, Segment: seg, Laser: ll, At: seg.From + at, Power: p, Irradiance: irr,
+			Ratio: irr / ll.EyeIrradiance, SkinIrr: skin, SkinRatio: skin / ll.SkinIrradiance,
+			PeakIrr: seg.Beam.Propagate(at).PeakIrradiance(p), OpenEnd: math.IsInf(seg.To, 1)}
+		e.OD = limits.OpticalDensity(e.Ratio)
+		if e.OpenEnd {
+			e.NOHD = hazardDistance(seg.Beam, p, ll.EyeAperture, ll.EyeIrradiance)
+			wx, wy := seg.Beam.Radii()
+			w0 := math.Max(wx, wy)
+			div := 2 * math.Max(seg.Beam.X.Divergence(seg.Beam.Wavelength), seg.Beam.Y.Divergence(seg.Beam.Wavelength))
+			e.ClosedFormN = limits.NOHD(p, 2*w0, div, ll.EyeIrradiance)
+		}
+		res.exposures = append(res.exposures, e)
+		if e.Ratio > 1 || e.SkinRatio > 1 {
+			msg := fmt.Sprintf("%s: up to %s reaches %s × the eye MPE (%s averaged over %s, %s exposure) and %s × the skin MPE; eyewear needs OD %g at %s",
+				segmentName(seg), budget.FormatPower(p), fmtX(e.Ratio), budget.FormatIrradiance(irr), budget.FormatLength(ll.EyeAperture),
+				budget.FormatSI(ll.Duration, "s"), fmtX(e.SkinRatio), e.OD, fmtNM(pb.Laser.Wavelength))
+			if e.OpenEnd {
+				msg += fmt.Sprintf("; the escaping beam stays above the MPE for %s beyond the path's end (NOHD)", fmtDistance(e.NOHD))
+			}
+			res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: "exposure_above_mpe", Path: pb.Path.Name,
+				Element: seg.After, At: e.At, Message: msg})
+		}
+	}
+	// Stray and diffuse reflections, and damage, element by element.
+	for i := range pb.Rows {
+		r := &pb.Rows[i]
+		el := r.Element
+		in := precedingAccess(pb, i)
+		p := r.FractionIn * max
+		if surfaces := transmissiveSurfaces(el.Type); surfaces > 0 && in == budget.AccessOpen && p > 0 {
+			R, assumed := DefaultSurfaceReflectance, true
+			if el.SurfaceReflectance != nil {
+				R, assumed = *el.SurfaceReflectance, false
+			}
+			if assumed {
+				res.strayDefault++
+			}
+			pr := R * p
+			irr := apertureIrradiance(r.BeamIn, pr, ll.EyeAperture)
+			ref := &Reflection{Path: pb, Element: el, Kind: "stray", Reflectance: R, Assumed: assumed, Surfaces: surfaces,
+				Power: pr, Irradiance: irr, Ratio: irr / ll.EyeIrradiance, Laser: ll}
+			ref.OD = limits.OpticalDensity(ref.Ratio)
+			if ref.Ratio > 1 {
+				res.reflections = append(res.reflections, ref)
+				res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: "stray_reflection", Path: pb.Path.Name,
+					Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s): each of its %d surface(s) reflects %s (R = %g%s), %.3g × the eye MPE at the surface; block or enclose the back-reflection",
+						el.Index, el.Label(), surfaces, budget.FormatPower(pr), R, assumedNote(assumed), ref.Ratio)})
+			}
+		}
+		if el.Type == budget.TypeDump && in == budget.AccessOpen && p > 0 {
+			ρ, assumed := DefaultDiffuseReflectance, true
+			if el.DiffuseReflectance != nil {
+				ρ, assumed = *el.DiffuseReflectance, false
+			}
+			if assumed {
+				res.diffuseDefault++
+			}
+			res.reflections = append(res.reflections, diffuse(pb, el, ll, p, ρ, assumed))
+		}
+		res.findings = append(res.findings, damage(pb, r, p)...)
+	}
+	if pb.OpenEnd && pb.EndFraction > 0 {
+		// What the escaping beam hits may reflect diffusely.
+		n := len(pb.Rows)
+		var last *budget.Element
+		if n > 0 {
+			last = pb.Rows[n-1].Element
+		}
+		res.diffuseDefault++
+		res.reflections = append(res.reflections, diffuse(pb, last, ll, pb.EndFraction*max, DefaultDiffuseReflectance, true))
+	}
+	return res
 }
 
 func assumedNote(assumed bool) string {

@@ -213,3 +213,24 @@ func BenchmarkEvaluateDemo(b *testing.B) {
 		}
 	}
 }
+
+// For an astigmatic beam the search between the two waists finds the same
+// worst point as a dense scan of the whole stretch.
+func TestMaxAlongAstigmatic(t *testing.T) {
+	const λ = 780e-9
+	for _, c := range []struct{ wx, wy, zx, zy, p, d, L float64 }{
+		{3e-3, 0.5e-3, 0.4, 0.1, 1, 7e-3, 1},
+		{4e-3, 4e-3, 0.2, 0.3, 1, 7e-3, 1},
+		{1e-3, 6e-3, -0.2, 0.5, 1, 3.5e-3, 0.3},
+	} {
+		b := budget.Beam{Wavelength: λ, X: budget.NewPlane(c.wx, c.zx, 1.3, λ), Y: budget.NewPlane(c.wy, c.zy, 1.1, λ)}.Lens(0.3)
+		got, _ := maxAlong(b, c.p, c.d, c.L)
+		dense := 0.0
+		for i := 0; i <= 20000; i++ {
+			dense = math.Max(dense, apertureIrradiance(b.Propagate(c.L*float64(i)/20000), c.p, c.d))
+		}
+		if got < dense*(1-1e-6) {
+			t.Errorf("%+v: search %g, dense scan %g", c, got, dense)
+		}
+	}
+}
