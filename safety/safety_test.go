@@ -2,6 +2,8 @@ package safety
 
 import (
 	"math"
+	"os"
+	"time"
 	"strings"
 	"testing"
 
@@ -233,4 +235,46 @@ func TestMaxAlongAstigmatic(t *testing.T) {
 			t.Errorf("%+v: search %g, dense scan %g", c, got, dense)
 		}
 	}
+}
+
+// Any setup that loads evaluates without a panic, and every figure the
+// hazards report is a number (never NaN).
+func FuzzEvaluate(f *testing.F) {
+	for _, name := range []string{"table-c", "splitter-tree", "elliptical-diode", "clipped-telescope", "weak-probe"} {
+		if data, err := os.ReadFile("../testdata/examples/" + name + ".toml"); err == nil {
+			f.Add(data)
+		}
+	}
+	f.Fuzz(func(t *testing.T, data []byte) {
+		var a *Assessment
+		var err error
+		done := make(chan struct{})
+		go func() {
+			defer close(done)
+			var s *budget.Setup
+			if s, err = budget.Parse("fuzz.toml", data); err == nil {
+				a, err = Evaluate(s)
+			}
+		}()
+		select {
+		case <-done:
+		case <-time.After(5 * time.Second):
+			t.Fatalf("loading and evaluating took more than 5 s")
+		}
+		if err != nil {
+			return
+		}
+		for _, e := range a.Hazards.Exposures {
+			for _, v := range []float64{e.Irradiance, e.Ratio, e.OD, e.SkinRatio} {
+				if math.IsNaN(v) {
+					t.Fatalf("NaN in exposure %+v", e)
+				}
+			}
+		}
+		for _, r := range a.Hazards.Reflections {
+			if math.IsNaN(r.Ratio) || math.IsNaN(r.Radius) {
+				t.Fatalf("NaN in reflection %+v", r)
+			}
+		}
+	})
 }
