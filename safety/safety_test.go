@@ -3,9 +3,9 @@ package safety
 import (
 	"math"
 	"os"
-	"time"
 	"strings"
 	"testing"
+	"time"
 
 	"beamledger/budget"
 	"beamledger/budget/synth"
