@@ -49,14 +49,22 @@ func TestEyeMPETable(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			got, want := l.RadiantExposure, r.h
-			if r.h == 0 {
-				got, want = l.Irradiance, r.e
-			}
-			if got > want*(1+1e-5) || got < want*(1-r.maxLess-1e-5) {
-				t.Errorf("%g nm, %g s: %.6g, printed %.6g (may be at most %.1f %% lower, never higher); rule %q", r.nm, r.t, got, want, 100*r.maxLess, l.Rule)
-			}
+			checkPrinted(t, r.band, l, r.h, r.e, r.maxLess)
 		})
+	}
+}
+
+// checkPrinted compares a limit with a printed value, H (J/m²) when h > 0
+// else E (W/m²): never above it, and below it by at most maxLess (relative),
+// both to the printed precision of 1e-5.
+func checkPrinted(t *testing.T, band string, l Limit, h, e, maxLess float64) {
+	t.Helper()
+	got, want := l.RadiantExposure, h
+	if h == 0 {
+		got, want = l.Irradiance, e
+	}
+	if got > want*(1+1e-5) || got < want*(1-maxLess-1e-5) {
+		t.Errorf("%s: %.6g, printed %.6g (may be at most %.1f %% lower, never higher); rule %q", band, got, want, 100*maxLess, l.Rule)
 	}
 }
 
@@ -79,13 +87,7 @@ func TestSkinMPETable(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		got, want := l.RadiantExposure, r.h
-		if r.h == 0 {
-			got, want = l.Irradiance, r.e
-		}
-		if got > want*(1+1e-6) || got < want*(1-r.maxLess-1e-6) {
-			t.Errorf("%s: %.6g, printed %.6g", r.band, got, want)
-		}
+		checkPrinted(t, r.band, l, r.h, r.e, r.maxLess)
 	}
 }
 

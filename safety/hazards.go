@@ -5,6 +5,7 @@ import (
 	"math"
 	"runtime"
 	"sort"
+	"strings"
 	"sync"
 
 	"beamledger/budget"
@@ -417,6 +418,26 @@ func eyewearNeeds(h *Hazards) []*EyewearNeed {
 	}
 	sort.Slice(out, func(i, j int) bool { return out[i].Wavelength < out[j].Wavelength })
 	return out
+}
+
+// Coverage says in words whether the declared eyewear covers the need.
+func (n *EyewearNeed) Coverage() string {
+	switch {
+	case n.OD <= 0:
+		return "none needed"
+	case len(n.CoveredBy) == 0:
+		return "NOT covered by the declared eyewear"
+	}
+	return "covered by " + strings.Join(n.CoveredBy, ", ")
+}
+
+// EN207Label is the EN 207 scale number for continuous emission, "—" where
+// none is given.
+func (n *EyewearNeed) EN207Label() string {
+	if !n.LBValid {
+		return "—"
+	}
+	return fmt.Sprintf("D LB%d", n.LB)
 }
 
 func checkEyewear(s *budget.Setup, needs []*EyewearNeed) []budget.Finding {

@@ -140,21 +140,9 @@ func (w *writer) plot(p *report.Plot) {
 		s := label(t)
 		f.Text(x-f.GetStringWidth(s)/2, y1+3.2, s)
 	}
-	for _, t := range ay.ticks() {
-		y := ay.at(t)
-		f.Line(x0, y, x1, y)
-		s := label(t)
-		f.Text(x0-1.2-f.GetStringWidth(s), y+1, s)
-	}
-	f.SetDrawColor(0, 0, 0)
-	f.SetLineWidth(0.25)
-	f.Rect(x0, y0, x1-x0, y1-y0, "D")
+	w.yAxisAndFrame(ay, p.YLabel, x0, x1, y0, y1)
 	f.SetFont(font, "", 7.5)
 	f.Text((x0+x1)/2-f.GetStringWidth(p.XLabel)/2, y1+7, p.XLabel)
-	f.TransformBegin()
-	f.TransformRotate(90, marginLeft+3, (y0+y1)/2)
-	f.Text(marginLeft+3-f.GetStringWidth(p.YLabel)/2, (y0+y1)/2, p.YLabel)
-	f.TransformEnd()
 	f.ClipRect(x0, y0, x1-x0, y1-y0, false)
 	// Markers: dotted verticals with labels along them.
 	f.SetFont(font, "", 5.5)
@@ -234,23 +222,7 @@ func (w *writer) bars(p *report.Plot, x0, x1, y0, y1 float64) {
 	}
 	_, hi := dataRange(vals, false, true)
 	ay := axis{lo: 0, hi: hi, p0: y1, p1: y0}
-	f.SetFont(font, "", 6.5)
-	f.SetLineWidth(0.1)
-	f.SetDrawColor(200, 200, 200)
-	for _, t := range ay.ticks() {
-		y := ay.at(t)
-		f.Line(x0, y, x1, y)
-		s := label(t)
-		f.Text(x0-1.2-f.GetStringWidth(s), y+1, s)
-	}
-	f.SetDrawColor(0, 0, 0)
-	f.SetLineWidth(0.25)
-	f.Rect(x0, y0, x1-x0, y1-y0, "D")
-	f.TransformBegin()
-	f.TransformRotate(90, marginLeft+3, (y0+y1)/2)
-	f.SetFont(font, "", 7.5)
-	f.Text(marginLeft+3-f.GetStringWidth(p.YLabel)/2, (y0+y1)/2, p.YLabel)
-	f.TransformEnd()
+	w.yAxisAndFrame(ay, p.YLabel, x0, x1, y0, y1)
 	n := float64(len(p.Bars))
 	slot := (x1 - x0) / n
 	f.SetFillColor(170, 170, 170)
@@ -266,4 +238,27 @@ func (w *writer) bars(p *report.Plot, x0, x1, y0, y1 float64) {
 		f.Text(bx+slot*0.3-f.GetStringWidth(b.Label), y1+2, b.Label)
 		f.TransformEnd()
 	}
+}
+
+// yAxisAndFrame draws the horizontal grid lines with their tick labels, the
+// frame and the rotated y label.
+func (w *writer) yAxisAndFrame(ay axis, ylabel string, x0, x1, y0, y1 float64) {
+	f := w.f
+	f.SetFont(font, "", 6.5)
+	f.SetLineWidth(0.1)
+	f.SetDrawColor(200, 200, 200)
+	for _, t := range ay.ticks() {
+		y := ay.at(t)
+		f.Line(x0, y, x1, y)
+		s := label(t)
+		f.Text(x0-1.2-f.GetStringWidth(s), y+1, s)
+	}
+	f.SetDrawColor(0, 0, 0)
+	f.SetLineWidth(0.25)
+	f.Rect(x0, y0, x1-x0, y1-y0, "D")
+	f.SetFont(font, "", 7.5)
+	f.TransformBegin()
+	f.TransformRotate(90, marginLeft+3, (y0+y1)/2)
+	f.Text(marginLeft+3-f.GetStringWidth(ylabel)/2, (y0+y1)/2, ylabel)
+	f.TransformEnd()
 }

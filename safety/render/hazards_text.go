@@ -3,7 +3,6 @@ package render
 import (
 	"fmt"
 	"math"
-	"strings"
 
 	"beamledger/budget"
 	"beamledger/safety"
@@ -96,18 +95,7 @@ func writeHazards(ew *errWriter, a *safety.Assessment) {
 		ew.printf("    no open exposure to evaluate\n")
 	}
 	for _, n := range h.Eyewear {
-		lb := "—"
-		if n.LBValid {
-			lb = fmt.Sprintf("D LB%d", n.LB)
-		}
-		cov := "none needed"
-		if n.OD > 0 {
-			cov = "NOT covered by the declared eyewear"
-			if len(n.CoveredBy) > 0 {
-				cov = "covered by " + strings.Join(n.CoveredBy, ", ")
-			}
-		}
-		ew.printf("    %s: OD %g, %s; %s\n", fmtNMs(n.Wavelength), n.OD, lb, cov)
+		ew.printf("    %s: OD %g, %s; %s\n", fmtNMs(n.Wavelength), n.OD, n.EN207Label(), n.Coverage())
 	}
 	ew.printf("  Cautions\n")
 	for _, c := range Cautions {

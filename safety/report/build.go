@@ -393,21 +393,10 @@ func dist(d float64) string {
 }
 
 func eyewear(a *safety.Assessment) Section {
-	t := &Table{Header: []string{"wavelength", "OD needed", "EN 207 (cw)", "declared eyewear that covers it"}, Widths: []float64{1.3, 1.1, 1.2, 4},
+	t := &Table{Header: []string{"wavelength", "OD needed", "EN 207 (cw)", "declared eyewear"}, Widths: []float64{1.3, 1.1, 1.2, 4},
 		Right: []bool{true, true, false, false}}
 	for _, n := range a.Hazards.Eyewear {
-		lb := "—"
-		if n.LBValid {
-			lb = fmt.Sprintf("D LB%d", n.LB)
-		}
-		cov := "none needed"
-		if n.OD > 0 {
-			cov = "NONE: a gap"
-			if len(n.CoveredBy) > 0 {
-				cov = strings.Join(n.CoveredBy, ", ")
-			}
-		}
-		t.Rows = append(t.Rows, []string{nm(n.Wavelength), budget.FormatNumber(n.OD), lb, cov})
+		t.Rows = append(t.Rows, []string{nm(n.Wavelength), budget.FormatNumber(n.OD), n.EN207Label(), n.Coverage()})
 	}
 	sec := Section{Heading: "Eyewear"}
 	if len(t.Rows) == 0 {
