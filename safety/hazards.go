@@ -130,7 +130,7 @@ type Exposure struct {
 type Reflection struct {
 	Path        *budget.PathBudget
 	Element     *budget.Element
-	Kind        string // "stray" or "diffuse"
+	Kind        string // "stray", "escaping" (mirror leakage, AOM orders) or "diffuse"
 	Reflectance float64
 	Assumed     bool // the reflectance was a default
 	Surfaces    int
@@ -284,6 +284,33 @@ func pathHazards(pb *budget.PathBudget, ll *LaserLimits) pathHazardResult {
 						el.Index, el.Label(), surfaces, budget.FormatPower(pr), R, assumedNote(assumed), ref.Ratio)})
 			}
 		}
+		// Light that leaves the path as a beam: a mirror's leakage behind it
+		// and an AOM's undiffracted orders. Each is a beam of the arriving
+		// size that must end in a dump.
+		if in == budget.AccessOpen || followingAccess(pb, i) == budget.AccessOpen {
+			for _, l := range r.Losses {
+				var what string
+				switch l.Kind {
+				case budget.LossMirror:
+					what = "leaks through the mirror"
+				case budget.LossDiffraction:
+					what = "leaves in the undiffracted (and other) orders"
+				default:
+					continue
+				}
+				pl := l.Fraction * max
+				irr := apertureIrradiance(r.BeamIn, pl, ll.EyeAperture)
+				ref := &Reflection{Path: pb, Element: el, Kind: "escaping", Reflectance: l.Fraction / r.FractionIn, Surfaces: 1,
+					Power: pl, Irradiance: irr, Ratio: irr / ll.EyeIrradiance, Laser: ll}
+				ref.OD = limits.OpticalDensity(ref.Ratio)
+				if ref.Ratio > 1 {
+					res.reflections = append(res.reflections, ref)
+					res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: "escaping_beam", Path: pb.Path.Name,
+						Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s): %s %s, %s × the eye MPE; describe where it goes or end it in a rated dump",
+							el.Index, el.Label(), budget.FormatPower(pl), what, fmtX(ref.Ratio))})
+				}
+			}
+		}
 		if el.Type == budget.TypeDump && in == budget.AccessOpen && p > 0 {
 			ρ, assumed := DefaultDiffuseReflectance, true
 			if el.DiffuseReflectance != nil {
@@ -338,6 +365,15 @@ func transmissiveSurfaces(t string) int {
 		return 1
 	}
 	return 0
+}
+
+// followingAccess is the access of the segment leaving row i (the path's
+// last segment for the last element; a dump ends the path in no segment).
+func followingAccess(pb *budget.PathBudget, i int) budget.Access {
+	if i+1 < len(pb.Segments) {
+		return pb.Segments[i+1].Access
+	}
+	return budget.AccessEnclosed
 }
 
 // precedingAccess is the access of the segment arriving at row i.
@@ -406,7 +442,7 @@ func eyewearNeeds(h *Hazards) []*EyewearNeed {
 		n.Irradiance = math.Max(n.Irradiance, e.Irradiance)
 	}
 	for _, r := range h.Reflections {
-		if r.Kind == "stray" {
+		if r.Kind != "diffuse" {
 			n := get(r.Path.Laser.Wavelength)
 			n.OD = math.Max(n.OD, r.OD)
 		}

@@ -126,7 +126,7 @@ func hazardsJSON(a *safety.Assessment) jsonHazards {
 			i := r.Element.Index
 			jr.Element = &i
 		}
-		if r.Kind == "stray" {
+		if r.Kind != "diffuse" {
 			jr.ApertureIrradianceWM2, jr.Ratio, jr.ODRequired = finite(r.Irradiance), finite(r.Ratio), finite(r.OD)
 		} else {
 			jr.HazardRadiusM = finite(r.Radius)

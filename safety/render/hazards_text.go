@@ -62,11 +62,14 @@ func writeHazards(ew *errWriter, a *safety.Assessment) {
 		}
 		t.write(ew, "    ")
 	}
-	var stray, diffuse []*safety.Reflection
+	var stray, escaping, diffuse []*safety.Reflection
 	for _, r := range h.Reflections {
-		if r.Kind == "stray" {
+		switch r.Kind {
+		case "stray":
 			stray = append(stray, r)
-		} else {
+		case "escaping":
+			escaping = append(escaping, r)
+		default:
 			diffuse = append(diffuse, r)
 		}
 	}
@@ -78,6 +81,14 @@ func writeHazards(ew *errWriter, a *safety.Assessment) {
 		ew.printf("    path %q, element %d (%s): %d surface(s), R = %g%s, %s each, %s × the eye MPE, OD %g\n",
 			r.Path.Path.Name, r.Element.Index, r.Element.Label(), r.Surfaces, r.Reflectance, assumed(r.Assumed),
 			budget.FormatPower(r.Power), fmtRatio(r.Ratio), r.OD)
+	}
+	ew.printf("  Beams leaving the path above the eye MPE (mirror leakage, AOM orders other than the one used)\n")
+	if len(escaping) == 0 {
+		ew.printf("    none\n")
+	}
+	for _, r := range escaping {
+		ew.printf("    path %q, element %d (%s): %s (%s of the arriving power), %s × the eye MPE, OD %g\n",
+			r.Path.Path.Name, r.Element.Index, r.Element.Label(), budget.FormatPower(r.Power), fmtPct(r.Reflectance), fmtRatio(r.Ratio), r.OD)
 	}
 	ew.printf("  Diffuse reflections (nominal hazard zone r = √(ρP/(π MPE)) of a Lambertian reflector, viewed along its normal, small-source MPE: conservative)\n")
 	if len(diffuse) == 0 {
@@ -108,7 +119,7 @@ func writeHazards(ew *errWriter, a *safety.Assessment) {
 func classMeaning(c string) string {
 	switch c {
 	case "1":
-		return "safe under reasonably foreseeable conditions as emitted; the beam paths it feeds may still need controls"
+		return "as emitted, not expected to exceed the MPE under reasonably foreseeable conditions (the class's definition); the beam paths it feeds may still need controls"
 	case "2":
 		return "visible, low power; protection relies on the aversion response, do not stare into the beam"
 	case "3R":

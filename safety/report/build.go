@@ -335,7 +335,10 @@ func hazards(a *safety.Assessment) Section {
 		if r.Assumed {
 			R += " (assumed)"
 		}
-		if r.Kind == "stray" {
+		if r.Kind == "stray" || r.Kind == "escaping" {
+			if r.Kind == "escaping" {
+				R = "leaves the path: " + budget.FormatNumber(r.Reflectance)
+			}
 			st.Rows = append(st.Rows, []string{r.Path.Path.Name, fmt.Sprintf("%d %s", r.Element.Index, r.Element.Label()), fmt.Sprint(r.Surfaces), R,
 				budget.FormatPower(r.Power), budget.FormatNumber(r.Ratio), budget.FormatNumber(r.OD)})
 		} else {
@@ -346,7 +349,7 @@ func hazards(a *safety.Assessment) Section {
 			dt.Rows = append(dt.Rows, []string{r.Path.Path.Name, where, budget.FormatPower(r.Power), R, dist(r.Radius)})
 		}
 	}
-	sec.Blocks = append(sec.Blocks, Block{Subheading: "Stray reflections above the eye MPE (at the reflecting surface)"})
+	sec.Blocks = append(sec.Blocks, Block{Subheading: "Stray reflections and beams leaving the path above the eye MPE (at the element)"})
 	if len(st.Rows) == 0 {
 		sec.Blocks = append(sec.Blocks, Block{Paragraph: "None of the surfaces reached through open segments reflects above the MPE."})
 	} else {
