@@ -180,7 +180,7 @@ func Compute(s *Setup) (*Budget, error) {
 			pb.Start = row.BeamOut
 			pb.StartFraction = row.FractionIn * row.ClipFraction * (1 - *p.ParentPort.Transmission)
 		}
-		if err := pb.propagate(followed); err != nil {
+		if err := pb.propagate(s.File, followed); err != nil {
 			return nil, err
 		}
 		byPath[p] = pb
@@ -221,7 +221,7 @@ func (pb *PathBudget) row(e *Element) *Row {
 }
 
 // propagate walks the path's elements.
-func (pb *PathBudget) propagate(followed map[*Element]*Path) error {
+func (pb *PathBudget) propagate(file string, followed map[*Element]*Path) error {
 	p := pb.Path
 	beam := pb.Start
 	frac := pb.StartFraction
@@ -314,7 +314,7 @@ func (pb *PathBudget) propagate(followed map[*Element]*Path) error {
 			frac = 0
 		}
 		if !beam.Valid() {
-			return fmt.Errorf("%s: path %q, element %d (%s): the beam is no longer a Gaussian beam after this element", pb.Path.Name, p.Name, e.Index, e.Type)
+			return &InputError{[]string{fmt.Sprintf("%s:%d: path %q, element %d (%s): the beam is not a finite Gaussian beam after this element; check its numbers", file, e.Line, p.Name, e.Index, e.Type)}}
 		}
 		row.BeamOut = beam
 		row.FractionOut = frac

@@ -183,7 +183,38 @@ func (t *table) quantity(key string, dim Dimension, required bool) (float64, boo
 	return t.quantityValue(key, v, dim)
 }
 
+// fieldRange bounds the magnitude of a field's value, SI: wide enough for any
+// laboratory, narrow enough that no later computation overflows. A zero
+// value is left to the field's own checks.
+var fieldRange = map[string][2]float64{
+	"power": {0, 1e15}, "operating_power": {0, 1e15}, "rating": {0, 1e15},
+	"waist": {1e-9, 10}, "waist_at": {0, 1e5}, "at": {0, 1e5},
+	"focal_length": {1e-6, 1e5}, "radius_of_curvature": {1e-6, 1e5}, "thickness": {0, 10},
+	"aperture": {1e-9, 100}, "diameter": {1e-9, 100},
+	"mode_field_diameter": {1e-7, 1e-3}, "output_waist": {1e-7, 10}, "output_focal_length": {1e-6, 100},
+	"frequency": {0, 1e12}, "detuning": {0, 1e16}, "linewidth": {0, 1e12}, "collective_rate": {0, 1e15},
+	"saturation_intensity": {0, 1e15}, "mass": {1e-30, 1e-20}, "atoms": {0, 1e15}, "rms_size": {1e-9, 1},
+	"m2": {0, 1e4}, "goal_factor": {0, 1e6},
+	"repetition_rate":  {0, 1e15},
+	"damage_threshold": {0, 1e20}, "damage_pulse_duration": {0, 3e4},
+	"from": {0, 1e-3}, "to": {0, 1e-3}, "od": {0, 20},
+}
+
 func (t *table) quantityValue(key string, v any, dim Dimension) (float64, bool) {
+	q, ok := t.rawQuantity(key, v, dim)
+	if !ok {
+		return 0, false
+	}
+	if r, bounded := fieldRange[key]; bounded && q != 0 {
+		if a := math.Abs(q); a < r[0] || a > r[1] {
+			t.fail(key, "%s is outside what a setup may hold (magnitude %g to %g in SI units)", show(v), r[0], r[1])
+			return 0, false
+		}
+	}
+	return q, true
+}
+
+func (t *table) rawQuantity(key string, v any, dim Dimension) (float64, bool) {
 	switch x := v.(type) {
 	case string:
 		q, err := ParseAs(x, dim)
