@@ -323,3 +323,58 @@ access = "enclosed"
 		t.Errorf("escaping-beam findings: %q", kinds)
 	}
 }
+
+// Damage: a cw rating as linear power density P/(2W) (common practice) and
+// a pulsed fluence 2E/(πW²) against a threshold scaled by √(τ/τ_rated)
+// (common practice); by hand: 10 W over the 2 mm diameter of a 1 mm radius
+// beam is 5 W/mm = 50 W/cm against a 40 W/cm rating; 1 mJ pulses of 10 ns in the same beam
+// are 2·1e-3/(π·1e-6) = 637 J/m² = 0.0637 J/cm² against 0.5 J/cm² at 10 ns
+// scaled from 20 ns by √(10/20): 0.354 J/cm², below.
+func TestDamage(t *testing.T) {
+	cw := `
+[[laser]]
+name = "l"
+wavelength = "1064 nm"
+power = "10 W"
+waist = "1 mm"
+
+[[path]]
+name = "p"
+from = "l"
+access = "enclosed"
+  [[path.element]]
+  type = "mirror"
+  at = "0 m"
+  reflectivity = 1
+  damage_threshold = "40 W/cm"
+  access = "enclosed"
+  [[path.element]]
+  type = "dump"
+  at = "1 cm"
+  rating = "20 W"
+`
+	found := func(a *Assessment) []string {
+		var out []string
+		for _, f := range a.Findings {
+			if f.Kind == "damage" {
+				out = append(out, f.Message)
+			}
+		}
+		return out
+	}
+	if got := found(load(t, cw)); len(got) != 1 || !strings.Contains(got[0], "linear power density 50 W/cm exceeds its damage threshold 40 W/cm") {
+		t.Errorf("cw damage: %q", got)
+	}
+	if got := found(load(t, strings.Replace(cw, `"40 W/cm"`, `"60 W/cm"`, 1))); len(got) != 0 {
+		t.Errorf("cw below rating: %q", got)
+	}
+	pulsed := strings.Replace(cw, `waist = "1 mm"`, "waist = \"1 mm\"\nemission = \"pulsed\"\npulse_duration = \"10 ns\"\nrepetition_rate = \"10 kHz\"", 1)
+	pulsed = strings.Replace(pulsed, `damage_threshold = "40 W/cm"`, "damage_threshold = \"0.5 J/cm2\"\n  damage_pulse_duration = \"20 ns\"", 1)
+	if got := found(load(t, pulsed)); len(got) != 0 {
+		t.Errorf("pulsed below the scaled threshold: %q", got)
+	}
+	over := strings.Replace(pulsed, `"0.5 J/cm2"`, `"0.08 J/cm2"`, 1) // scaled: 0.0566 J/cm² < 0.0637
+	if got := found(load(t, over)); len(got) != 1 || !strings.Contains(got[0], "peak fluence 63.66 mJ/cm²") {
+		t.Errorf("pulsed above the scaled threshold: %q", got)
+	}
+}
