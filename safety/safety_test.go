@@ -105,6 +105,17 @@ func TestDiffuseRadius(t *testing.T) {
 	}
 }
 
+// messages lists the messages of the findings of one kind.
+func messages(a *Assessment, kind string) []string {
+	var out []string
+	for _, f := range a.Findings {
+		if f.Kind == kind {
+			out = append(out, f.Message)
+		}
+	}
+	return out
+}
+
 const eyewearLab = `
 [[laser]]
 name = "l"
@@ -125,14 +136,7 @@ from = "l"
 // at 1064 nm, 10 s: ratio 513, OD 3 (by hand).
 func TestEyewearCoverage(t *testing.T) {
 	a := load(t, eyewearLab)
-	gap := func(a *Assessment) string {
-		for _, f := range a.Findings {
-			if f.Kind == "eyewear_gap" {
-				return f.Message
-			}
-		}
-		return ""
-	}
+	gap := func(a *Assessment) string { return strings.Join(messages(a, "eyewear_gap"), "; ") }
 	if g := gap(a); !strings.Contains(g, "no eyewear is declared; OD 3 is needed at 1064 nm") {
 		t.Errorf("gap finding %q", g)
 	}
@@ -310,12 +314,7 @@ access = "enclosed"
   rating = "5 W"
 `
 	a := load(t, src)
-	var kinds []string
-	for _, f := range a.Findings {
-		if f.Kind == "escaping_beam" {
-			kinds = append(kinds, f.Message)
-		}
-	}
+	kinds := messages(a, "escaping_beam")
 	// 0.4 W undiffracted over the 7 mm aperture: 1.04e4 W/m² against
 	// 50.61 W/m²; 1 % of the diffracted 1.6 W, 16 mW, leaked: 416 W/m² (by
 	// hand).
@@ -353,15 +352,7 @@ access = "enclosed"
   at = "1 cm"
   rating = "20 W"
 `
-	found := func(a *Assessment) []string {
-		var out []string
-		for _, f := range a.Findings {
-			if f.Kind == "damage" {
-				out = append(out, f.Message)
-			}
-		}
-		return out
-	}
+	found := func(a *Assessment) []string { return messages(a, "damage") }
 	if got := found(load(t, cw)); len(got) != 1 || !strings.Contains(got[0], "linear power density 50 W/cm exceeds its damage threshold 40 W/cm") {
 		t.Errorf("cw damage: %q", got)
 	}
