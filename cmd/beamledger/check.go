@@ -17,14 +17,18 @@ func (e *env) newCheck() *cobra.Command {
 	o := &checkOptions{}
 	cmd := &cobra.Command{
 		Use:   "check FILE",
-		Short: "Print the power and beam budget of every path and the findings",
+		Short: "Print the budget, the light at the atoms, the hazards and the findings",
 		Long: `check loads a setup file and prints, for every beam path, the 1/e² radii,
-power in and out, peak irradiance and cumulative loss at every element, the
-power balance of each laser, and the findings.
+power in and out, peak irradiance and cumulative loss at every element; at
+each atom cloud the irradiance, saturation, Rabi frequency, optical depth,
+dipole trap and the power each goal needs at the laser; the hazards against
+IEC 60825-1:2014 (open segments, escaping beams, reflections, damage, classes,
+eyewear) with their assumptions; the power balance of each laser; and the
+findings.
 
-Powers in the table are at each laser's operating power; ratings and escaping
-beams are judged at its maximum power. Exit status: 0 no finding needs action,
-1 a finding needs action, 2 the setup could not be used.`,
+Powers in the budget are at each laser's operating power; hazards, ratings and
+escaping beams are judged at its maximum power. Exit status: 0 no finding
+needs action, 1 a finding needs action, 2 the setup could not be used.`,
 		Example: `  beamledger check testdata/examples/table-c.toml
   beamledger check --json testdata/examples/table-c.toml`,
 		Args: cobra.ExactArgs(1),

@@ -56,7 +56,9 @@ func (e *env) newRoot() *cobra.Command {
 		Short: "Check the light at the atoms and the hazards of a laser setup before alignment",
 		Long: `beamledger reads a TOML setup of lasers, beam paths, optics and atom clouds,
 propagates Gaussian beams (1/e² radii, M², x and y planes) through the optics,
-and reports the power budget element by element.
+and reports the power budget element by element, the light at the atoms and
+the drive goals against the lasers, and the hazards against the exposure
+limits of IEC 60825-1:2014; report writes the same as a sign-off PDF.
 
 Its figures support, and never replace, the evaluation of your laser safety
 officer under local regulations.`,
