@@ -42,15 +42,19 @@ func Parse(filename string, data []byte) (*Setup, error) {
 	if err := prescan(filename, string(data)); err != nil {
 		return nil, err
 	}
+	// Line numbers are indexed while the decoder runs; both only read.
+	src := string(data)
+	linesC := make(chan lineIndex, 1)
+	go func() { linesC <- indexLines(src) }()
 	var raw map[string]any
-	if _, err := toml.Decode(string(data), &raw); err != nil {
+	if _, err := toml.Decode(src, &raw); err != nil {
 		var pe toml.ParseError
 		if errors.As(err, &pe) {
 			return nil, &InputError{[]string{fmt.Sprintf("%s:%d: TOML syntax: %s", filename, pe.Position.Line, pe.Message)}}
 		}
 		return nil, &InputError{[]string{fmt.Sprintf("%s: TOML syntax: %v", filename, err)}}
 	}
-	l := &loader{file: filename, lines: indexLines(string(data))}
+	l := &loader{file: filename, lines: <-linesC}
 	s := l.setup(raw)
 	if len(l.problems) > 0 {
 		return nil, &InputError{l.problems}

@@ -36,7 +36,7 @@ func (t *table) write(w io.Writer, indent string) {
 	for _, r := range t.rows {
 		b.WriteString(indent)
 		for i, c := range r {
-			pad := strings.Repeat(" ", widths[i]-utf8.RuneCountInString(c))
+			pad := spaces(widths[i] - utf8.RuneCountInString(c))
 			if i > 0 {
 				b.WriteString("  ")
 			}
@@ -52,4 +52,14 @@ func (t *table) write(w io.Writer, indent string) {
 		b.WriteString("\n")
 	}
 	io.WriteString(w, b.String())
+}
+
+const blanks = "                                                                                "
+
+// spaces returns n spaces without allocating for the usual widths.
+func spaces(n int) string {
+	if n <= len(blanks) {
+		return blanks[:n]
+	}
+	return strings.Repeat(" ", n)
 }
