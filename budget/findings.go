@@ -106,8 +106,8 @@ func (b *Budget) Findings() []Finding {
 	}
 	for _, las := range b.Setup.Lasers {
 		if !used[las] {
-			out = append(out, Finding{SeverityAdvice, FindingUnusedLaser, "", 0, 0,
-				fmt.Sprintf("laser %q feeds no path; its beam is not evaluated", las.Name)})
+			out = append(out, Finding{SeverityAction, FindingUnusedLaser, "", 0, 0,
+				fmt.Sprintf("laser %q feeds no path, so its beam is not evaluated at all; describe where its beam goes", las.Name)})
 		}
 	}
 	if b.AssumedLossless > 0 {

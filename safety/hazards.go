@@ -110,20 +110,19 @@ func laserLimits(s *budget.Setup, las *budget.Laser) (*LaserLimits, error) {
 // Exposure is the worst aperture-averaged irradiance on one open segment, at
 // the laser's maximum power.
 type Exposure struct {
-	Path        *budget.PathBudget
-	Segment     budget.Segment
-	Laser       *LaserLimits
-	At          float64 // position of the worst point along the path, m
-	Power       float64 // W in the segment
-	Irradiance  float64 // eye-aperture-averaged, W/m²
-	Ratio       float64 // ÷ eye MPE
-	SkinIrr     float64 // skin-aperture-averaged, W/m²
-	SkinRatio   float64
-	OD          float64
-	PeakIrr     float64 // peak irradiance at the worst point, W/m²
-	OpenEnd     bool
-	NOHD        float64 // for an open end: distance beyond the last element, m
-	ClosedFormN float64 // NOHD from the far-field closed form, m (open ends)
+	Path       *budget.PathBudget
+	Segment    budget.Segment
+	Laser      *LaserLimits
+	At         float64 // position of the worst point along the path, m
+	Power      float64 // W in the segment
+	Irradiance float64 // eye-aperture-averaged, W/m²
+	Ratio      float64 // ÷ eye MPE
+	SkinIrr    float64 // skin-aperture-averaged, W/m²
+	SkinRatio  float64
+	OD         float64
+	PeakIrr    float64 // peak irradiance at the worst point, W/m²
+	OpenEnd    bool
+	NOHD       float64 // for an open end: distance beyond the last element, m
 }
 
 // Reflection is a stray reflection from a surface, or a diffuse hazard zone.
@@ -241,10 +240,6 @@ func pathHazards(pb *budget.PathBudget, ll *LaserLimits) pathHazardResult {
 		e.OD = limits.OpticalDensity(e.Ratio)
 		if e.OpenEnd {
 			e.NOHD = hazardDistance(seg.Beam, p, ll.EyeAperture, ll.EyeIrradiance)
-			wx, wy := seg.Beam.Radii()
-			w0 := math.Max(wx, wy)
-			div := 2 * math.Max(seg.Beam.X.Divergence(seg.Beam.Wavelength), seg.Beam.Y.Divergence(seg.Beam.Wavelength))
-			e.ClosedFormN = limits.NOHD(p, 2*w0, div, ll.EyeIrradiance)
 		}
 		res.exposures = append(res.exposures, e)
 		if e.Ratio > 1 || e.SkinRatio > 1 {

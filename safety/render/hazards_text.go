@@ -51,11 +51,11 @@ func writeHazards(ew *errWriter, a *safety.Assessment) {
 		ew.printf("    no open segment carries light\n")
 	} else {
 		t = &table{left: 1, lastLeft: true}
-		t.add("segment", "power", "eye irr.", "eye ratio", "OD", "skin ratio", "worst at", "hazard distance beyond the end")
+		t.add("segment", "power", "eye irr.", "eye ratio", "OD", "skin ratio", "worst at", "NOHD beyond the end (beam propagated)")
 		for _, e := range h.Exposures {
 			nohd := ""
 			if e.OpenEnd {
-				nohd = fmtDist(e.NOHD) + " (far-field closed form " + fmtDist(e.ClosedFormN) + ")"
+				nohd = fmtDist(e.NOHD)
 			}
 			t.add(segLabel(e), budget.FormatPower(e.Power), budget.FormatIrradiance(e.Irradiance), fmtRatio(e.Ratio), fmtG(e.OD), fmtRatio(e.SkinRatio),
 				budget.FormatLength(e.At), nohd)
