@@ -35,6 +35,7 @@ const (
 	FindingUnusedLaser   = "unused_laser"
 	FindingDumpUnrated   = "dump_unrated"
 	FindingLosslessGuess = "assumed_lossless"
+	FindingNotParaxial   = "not_paraxial"
 )
 
 // ClearApertureFactor: a clear aperture diameter under π·W (W the larger
@@ -71,6 +72,11 @@ func (b *Budget) Findings() []Finding {
 						fmt.Sprintf("%s: clear aperture %s is under π·W = %s for the beam there; %.2f %% of the power is clipped (included in the budget; diffraction from the edge is not modelled)",
 							where, FormatLength(clear), FormatLength(ClearApertureFactor*w), 100*(1-r.ClipFraction))})
 				}
+			}
+			if !r.BeamOut.Paraxial() {
+				out = append(out, Finding{SeverityAction, FindingNotParaxial, p.Name, e.Index, e.At,
+					fmt.Sprintf("%s: the beam leaving it diverges at a half-angle of %.3g rad, past the %g rad the Gaussian beam model holds to; the figures after it are not reliable (check the focal lengths and distances, or the optic's real aperture)",
+						where, r.BeamOut.HalfAngle(), MaxParaxialAngle)})
 			}
 			if r.Fiber != nil && !r.Fiber.Given && r.Fiber.Overlap < PoorModeOverlap {
 				out = append(out, Finding{SeverityAdvice, FindingModeMatch, p.Name, e.Index, e.At,

@@ -97,12 +97,31 @@ func (b Beam) PeakIrradiance(p float64) float64 {
 // RadiiAt returns the 1/e² radii a distance d (m) downstream.
 func (b Beam) RadiiAt(d float64) (float64, float64) { return b.Propagate(d).Radii() }
 
-// Valid reports whether both planes describe a real beam.
+// MaxParaxialAngle bounds the far-field half-angle θ = M² λ / (π W0) of a
+// beam the paraxial Gaussian model may describe, rad. Past about half a
+// radian the paraxial wave equation behind q and ABCD matrices no longer
+// holds (common practice; Siegman, Lasers (1986), §16.1 on the paraxial
+// approximation).
+const MaxParaxialAngle = 0.5
+
+// Valid reports whether both planes describe a real beam: a finite q with a
+// positive Rayleigh range and a finite positive radius.
 func (b Beam) Valid() bool {
 	for _, p := range []Plane{b.X, b.Y} {
 		if imag(p.Q) <= 0 || cmplx.IsNaN(p.Q) || cmplx.IsInf(p.Q) {
 			return false
 		}
+		if w := p.Radius(b.Wavelength); !(w > 0) || math.IsInf(w, 0) {
+			return false
+		}
 	}
 	return true
 }
+
+// HalfAngle is the larger far-field half-angle of the two planes, rad.
+func (b Beam) HalfAngle() float64 {
+	return math.Max(b.X.Divergence(b.Wavelength), b.Y.Divergence(b.Wavelength))
+}
+
+// Paraxial reports whether the beam's half-angle is within MaxParaxialAngle.
+func (b Beam) Paraxial() bool { return b.HalfAngle() <= MaxParaxialAngle }

@@ -12,6 +12,7 @@ func (l *loader) link(s *Setup) {
 	clouds := uniqueNames(l, "cloud", s.Clouds, func(x *Cloud) (string, int) { return x.Name, x.Line })
 	uniqueNames(l, "eyewear", s.Eyewear, func(x *Eyewear) (string, int) { return x.Name, x.Line })
 	paths := map[string]*Path{}
+	locs := pathLocs(s)
 	for _, p := range s.Paths {
 		ctx := fmt.Sprintf("path %q", p.Name)
 		if prev, dup := paths[p.Name]; dup {
@@ -29,14 +30,20 @@ func (l *loader) link(s *Setup) {
 				names[e.Name] = e
 			}
 			if e.At < prevAt {
-				l.addf(l.lines.line(fmt.Sprintf("%s.element[%d]", pathLoc(s, p), e.Index-1), "at"), ectx,
+				l.addf(l.lines.line(fmt.Sprintf("%s.element[%d]", pathLoc(locs, p), e.Index-1), "at"), ectx,
 					"at: %s comes before the previous element (%s); elements must be listed in order along the path",
 					FormatLength(e.At), FormatLength(prevAt))
+			}
+			if k := e.Index - 2; k >= 0 {
+				if w := p.Elements[k]; w.Type == TypeWindow && w.Thickness > e.At-w.At {
+					l.addf(w.Line, fmt.Sprintf("%s, element %d (window)", ctx, w.Index),
+						"thickness: %s is more than the %s to the next element; the window would hold it", FormatLength(w.Thickness), FormatLength(e.At-w.At))
+				}
 			}
 			prevAt = e.At
 			if e.Type == TypeAtoms && e.Cloud != "" {
 				if _, ok := clouds[e.Cloud]; !ok {
-					l.addf(l.lines.line(fmt.Sprintf("%s.element[%d]", pathLoc(s, p), e.Index-1), "cloud"), ectx,
+					l.addf(l.lines.line(fmt.Sprintf("%s.element[%d]", pathLoc(locs, p), e.Index-1), "cloud"), ectx,
 						"cloud: no cloud named %q (clouds: %s)", e.Cloud, listNames(len(s.Clouds), func(i int) string { return s.Clouds[i].Name }))
 				}
 			}
@@ -54,7 +61,7 @@ func (l *loader) link(s *Setup) {
 	fedBy := map[string]*Path{} // laser name or path:element -> path it feeds
 	for _, p := range s.Paths {
 		ctx := fmt.Sprintf("path %q", p.Name)
-		line := l.lines.line(pathLoc(s, p), "from")
+		line := l.lines.line(pathLoc(locs, p), "from")
 		if prev, dup := fedBy[p.From]; dup {
 			l.addf(line, ctx, "from: %q already feeds path %q; one output feeds one path", p.From, prev.Name)
 			continue
@@ -94,19 +101,48 @@ func (l *loader) link(s *Setup) {
 		return
 	}
 	// Follow each path's parents to its laser; a cycle never reaches one.
-	for _, p := range s.Paths {
-		seen := map[*Path]bool{}
-		q := p
-		for q.Laser == nil {
-			if seen[q] {
-				l.addf(l.lines.line(pathLoc(s, p), "from"), fmt.Sprintf("path %q", p.Name), "from: paths feed each other in a cycle (%s)", cycleNames(p))
-				break
-			}
-			seen[q] = true
+	// One walk over the parent links (each path has at most one parent), so
+	// the work is linear in the number of paths and each cycle is reported
+	// once, at the path of the cycle that comes first in the file.
+	const (
+		unvisited = iota
+		onWalk
+		finished
+	)
+	state := make(map[*Path]int, len(s.Paths))
+	for _, start := range s.Paths {
+		var walk []*Path
+		q := start
+		for q != nil && state[q] == unvisited && q.Laser == nil {
+			state[q] = onWalk
+			walk = append(walk, q)
 			q = q.Parent
 		}
-		if q.Laser != nil {
-			p.Laser = q.Laser
+		var las *Laser
+		switch {
+		case q == nil:
+		case q.Laser != nil && state[q] != onWalk:
+			las = q.Laser
+		case state[q] == onWalk:
+			// q is on this walk: the walk from q on is a cycle.
+			var cycle []*Path
+			for i := len(walk) - 1; i >= 0; i-- {
+				cycle = append(cycle, walk[i])
+				if walk[i] == q {
+					break
+				}
+			}
+			first := cycle[0]
+			for _, c := range cycle {
+				if locs[c] < locs[first] {
+					first = c
+				}
+			}
+			l.addf(l.lines.line(pathLoc(locs, first), "from"), fmt.Sprintf("path %q", first.Name), "from: paths feed each other in a cycle (%s)", cycleNames(first, len(cycle)))
+		}
+		for _, w := range walk {
+			state[w] = finished
+			w.Laser = las
 		}
 	}
 }
@@ -127,24 +163,34 @@ func uniqueNames[T any](l *loader, kind string, items []T, id func(T) (string, i
 	return out
 }
 
-func cycleNames(p *Path) string {
+// cycleNames writes the n paths of a cycle starting at p, following the
+// parent links; a long cycle is shortened to its first and last few names.
+func cycleNames(p *Path, n int) string {
+	const show = 4
 	var names []string
-	seen := map[*Path]bool{}
-	for q := p; q != nil && !seen[q]; q = q.Parent {
-		seen[q] = true
-		names = append(names, q.Name)
+	q := p
+	for i := 0; i < n; i++ {
+		if n <= 2*show || i < show || i >= n-show {
+			names = append(names, fmt.Sprintf("%q", q.Name))
+		} else if i == show {
+			names = append(names, fmt.Sprintf("… %d more …", n-2*show))
+		}
+		q = q.Parent
 	}
-	return strings.Join(names, " ← ")
+	return strings.Join(append(names, fmt.Sprintf("%q", p.Name)), " ← ")
 }
 
-func pathLoc(s *Setup, p *Path) string {
-	for i, q := range s.Paths {
-		if q == p {
-			return fmt.Sprintf("path[%d]", i)
-		}
+// pathLocs maps each path to its index in the setup file.
+func pathLocs(s *Setup) map[*Path]int {
+	m := make(map[*Path]int, len(s.Paths))
+	for i, p := range s.Paths {
+		m[p] = i
 	}
-	return ""
+	return m
 }
+
+// pathLoc is the line-index key of a path, e.g. "path[3]".
+func pathLoc(locs map[*Path]int, p *Path) string { return fmt.Sprintf("path[%d]", locs[p]) }
 
 func listNames(n int, name func(int) string) string {
 	if n == 0 {

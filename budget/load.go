@@ -3,10 +3,14 @@ package budget
 import (
 	"errors"
 	"fmt"
+	"io"
+	"io/fs"
 	"math"
 	"os"
 	"sort"
 	"strings"
+	"unicode"
+	"unicode/utf8"
 
 	"github.com/BurntSushi/toml"
 )
@@ -16,11 +20,40 @@ const MaxSetupBytes = 4 << 20
 
 // Load reads and checks a setup file.
 func Load(filename string) (*Setup, error) {
-	data, err := os.ReadFile(filename)
+	data, err := ReadSetupFile(filename)
+	if err != nil {
+		return nil, err
+	}
+	return Parse(filename, data)
+}
+
+// ReadSetupFile reads at most MaxSetupBytes+1 bytes of a setup file, so that
+// an endless source (a device such as /dev/zero) is refused quickly. Only
+// regular files and pipes are read: a directory or a device is an error.
+func ReadSetupFile(filename string) ([]byte, error) {
+	f, err := os.Open(filename)
 	if err != nil {
 		return nil, fmt.Errorf("reading setup: %w", err)
 	}
-	return Parse(filename, data)
+	defer f.Close()
+	fi, err := f.Stat()
+	if err != nil {
+		return nil, fmt.Errorf("reading setup: %w", err)
+	}
+	switch m := fi.Mode(); {
+	case m.IsDir():
+		return nil, &InputError{[]string{fmt.Sprintf("%s: is a directory, not a setup file", filename)}}
+	case !m.IsRegular() && m&fs.ModeNamedPipe == 0:
+		return nil, &InputError{[]string{fmt.Sprintf("%s: is not a regular file (%s); a setup is read from a file or a pipe", filename, m.Type())}}
+	}
+	data, err := io.ReadAll(io.LimitReader(f, MaxSetupBytes+1))
+	if err != nil {
+		return nil, fmt.Errorf("reading setup: %w", err)
+	}
+	if len(data) > MaxSetupBytes {
+		return nil, &InputError{[]string{fmt.Sprintf("%s: file is more than the %d bytes a setup may have", filename, MaxSetupBytes)}}
+	}
+	return data, nil
 }
 
 // InputError is a setup that cannot be used. It lists every problem found,
@@ -37,7 +70,7 @@ const maxProblems = 25
 // Parse reads a setup from its bytes; filename is used in messages.
 func Parse(filename string, data []byte) (*Setup, error) {
 	if len(data) > MaxSetupBytes {
-		return nil, &InputError{[]string{fmt.Sprintf("%s: file is %d bytes, more than the %d a setup may have", filename, len(data), MaxSetupBytes)}}
+		return nil, &InputError{[]string{fmt.Sprintf("%s: file is more than the %d bytes a setup may have", filename, MaxSetupBytes)}}
 	}
 	if err := prescan(filename, string(data)); err != nil {
 		return nil, err
@@ -156,6 +189,54 @@ func (t *table) str(key string, required bool) string {
 	if required && strings.TrimSpace(s) == "" {
 		t.fail(key, "empty")
 	}
+	if r, bad := unprintable(s); bad {
+		t.fail(key, "holds the control or direction character %U; text in a setup is printed in the sign-off and may hold no line breaks, tabs or control characters", r)
+		return ""
+	}
+	if n := utf8.RuneCountInString(s); n > MaxTextLength {
+		t.fail(key, "is %d characters long, more than the %d a setup's text may have", n, MaxTextLength)
+		return ""
+	}
+	return s
+}
+
+// MaxTextLength bounds a string in a setup (a title, a note), in characters;
+// MaxNameLength bounds a name (laser, path, element, cloud, eyewear).
+const (
+	MaxTextLength = 400
+	MaxNameLength = 80
+)
+
+// unprintable returns the first character of s that could break or forge a
+// line of the printed output: a control character (line breaks and tabs
+// included), a Unicode line or paragraph separator, or a direction override.
+func unprintable(s string) (rune, bool) {
+	for _, r := range s {
+		switch {
+		case unicode.IsControl(r), r == '\u2028', r == '\u2029',
+			r >= '\u202a' && r <= '\u202e', r >= '\u2066' && r <= '\u2069', r == '\u200e', r == '\u200f', r == '\ufeff':
+			return r, true
+		}
+	}
+	return 0, false
+}
+
+// name reads the name of a laser, path, element, cloud or pair of eyewear:
+// printable, at most MaxNameLength characters, without ":" (which joins a
+// path and an element name in a port reference such as "drive:pick").
+func (t *table) name(required bool) string {
+	s := t.str("name", required)
+	switch {
+	case strings.Contains(s, ":"):
+		t.fail("name", "%q holds \":\", which is reserved for port references (\"<path>:<element>\")", s)
+		return ""
+	case utf8.RuneCountInString(s) > MaxNameLength:
+		t.fail("name", "is %d characters long, more than the %d a name may have", utf8.RuneCountInString(s), MaxNameLength)
+		return ""
+	case s != strings.TrimSpace(s):
+		t.fail("name", "%q starts or ends with a space", s)
+		return ""
+	}
 	return s
 }
 
@@ -188,20 +269,34 @@ func (t *table) quantity(key string, dim Dimension, required bool) (float64, boo
 }
 
 // fieldRange bounds the magnitude of a field's value, SI: wide enough for any
-// laboratory, narrow enough that no later computation overflows. A zero
-// value is left to the field's own checks.
+// laboratory, narrow enough that no later computation overflows or
+// underflows. Every duration, rate and size has a physical lower bound above
+// zero: a value such as 1e-320 s is refused, never carried into a formula. A
+// zero value is left to the field's own checks (where zero means something,
+// as for a position or a detuning, it is allowed there).
 var fieldRange = map[string][2]float64{
-	"power": {0, 1e15}, "operating_power": {0, 1e15}, "rating": {0, 1e15},
-	"waist": {1e-9, 10}, "waist_at": {0, 1e5}, "at": {0, 1e5},
-	"focal_length": {1e-6, 1e5}, "radius_of_curvature": {1e-6, 1e5}, "thickness": {0, 10},
-	"aperture": {1e-9, 100}, "diameter": {1e-9, 100},
+	"power": {1e-15, 1e15}, "operating_power": {1e-15, 1e15}, "rating": {1e-9, 1e15},
+	"waist": {1e-7, 10}, "waist_at": {0, 1e5}, "at": {0, 1e5},
+	"focal_length": {1e-6, 1e5}, "radius_of_curvature": {1e-6, 1e5}, "thickness": {1e-6, 10},
+	"aperture": {1e-6, 100}, "diameter": {1e-6, 100},
 	"mode_field_diameter": {1e-7, 1e-3}, "output_waist": {1e-7, 10}, "output_focal_length": {1e-6, 100},
-	"frequency": {0, 1e12}, "detuning": {0, 1e16}, "linewidth": {0, 1e12}, "collective_rate": {0, 1e15},
-	"saturation_intensity": {0, 1e15}, "mass": {1e-30, 1e-20}, "atoms": {0, 1e15}, "rms_size": {1e-9, 1},
-	"m2": {0, 1e4}, "goal_factor": {0, 1e6},
-	"repetition_rate":  {0, 1e15},
-	"damage_threshold": {0, 1e20}, "damage_pulse_duration": {0, 3e4},
-	"from": {0, 1e-3}, "to": {0, 1e-3}, "od": {0, 20},
+	"frequency": {1e3, 1e11}, "detuning": {0, 1e15}, "linewidth": {1e-3, 1e10}, "collective_rate": {1e-3, 1e15},
+	"saturation_intensity": {1e-12, 1e12}, "mass": {1e-30, 1e-20}, "atoms": {1, 1e15}, "rms_size": {1e-7, 1},
+	"m2": {0, 1e4}, "goal_factor": {1e-3, 1e3}, "goal_value": {1e-12, 1e12},
+	"repetition_rate":  {1e-4, 1e12},
+	"damage_threshold": {1e-6, 1e20}, "damage_pulse_duration": {1e-15, 3e4},
+	"from": {MinWavelength, MaxWavelength}, "to": {MinWavelength, MaxWavelength}, "od": {0, 20},
+}
+
+// MinFraction is the smallest non-zero fraction a setup may state (an
+// optical density of 20).
+const MinFraction = 1e-20
+
+// percentKeys are the fractions, the only bare numbers that may be written
+// as a percentage ("82 %"); an optical density, M² or atom number may not.
+var percentKeys = map[string]bool{
+	"transmission": true, "reflectivity": true, "efficiency": true, "alignment": true,
+	"coupling": true, "surface_reflectance": true, "diffuse_reflectance": true,
 }
 
 func (t *table) quantityValue(key string, v any, dim Dimension) (float64, bool) {
@@ -221,6 +316,10 @@ func (t *table) quantityValue(key string, v any, dim Dimension) (float64, bool) 
 func (t *table) rawQuantity(key string, v any, dim Dimension) (float64, bool) {
 	switch x := v.(type) {
 	case string:
+		if dim == Dimensionless && !percentKeys[key] && strings.Contains(x, "%") {
+			t.fail(key, "%q: a bare number is wanted here; only fractions (transmission, efficiency, …) may be written as a percentage", x)
+			return 0, false
+		}
 		q, err := ParseAs(x, dim)
 		if err != nil {
 			t.fail(key, "%v", err)
@@ -262,6 +361,10 @@ func (t *table) fraction(key string, lo, hi float64) *float64 {
 	}
 	if q < lo || q > hi {
 		t.fail(key, "%s is outside [%g, %g]", show(t.m[key]), lo, hi)
+		return nil
+	}
+	if q != 0 && q < MinFraction {
+		t.fail(key, "%s is below %g, no measured value; write 0 for none", show(t.m[key]), MinFraction)
 		return nil
 	}
 	return &q

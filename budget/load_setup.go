@@ -24,10 +24,19 @@ func (l *loader) setup(raw map[string]any) *Setup {
 		s.Meta.PreparedBy = t.str("prepared_by", false)
 		s.Meta.Revision = t.str("revision", false)
 		s.Meta.Exposure = t.positive("exposure", Time, false)
-		if e := s.Meta.Exposure; e > 0 && (e < 1e-13 || e > 3e4) {
-			t.fail("exposure", "%s is outside 1e-13 s to 3e4 s, the span of the exposure limits", show(m["exposure"]))
+		s.Meta.ExposureReason = t.str("exposure_reason", false)
+		switch e := s.Meta.Exposure; {
+		case e > 0 && (e < MinExposure || e > 3e4):
+			t.fail("exposure", "%s is outside %g s to 3e4 s: no viewing of a beam is shorter than %g s here, and the limits end at 3e4 s", show(m["exposure"]), MinExposure, MinExposure)
+		case e > 0 && e < AversionExposure && strings.TrimSpace(s.Meta.ExposureReason) == "":
+			t.fail("exposure", "%s is shorter than the %g s aversion response; a shorter viewing duration needs exposure_reason, saying why the laser safety officer accepts it", show(m["exposure"]), AversionExposure)
+		case e == 0 && t.has("exposure_reason"):
+			t.fail("exposure_reason", "given without exposure")
 		}
 		t.done()
+	}
+	if !top.has("laser") {
+		l.addf(0, "", "the setup describes no laser ([[laser]] with name, wavelength, power and waist); there is nothing to evaluate")
 	}
 	for i, m := range top.tables("laser") {
 		s.Lasers = append(s.Lasers, l.laser(i, m))
@@ -56,7 +65,7 @@ func (l *loader) named(kind string, i int, m map[string]any) (*table, string) {
 
 func (l *loader) laser(i int, m map[string]any) *Laser {
 	t, loc := l.named("laser", i, m)
-	las := &Laser{Line: l.lines[loc], Name: t.str("name", true)}
+	las := &Laser{Line: l.lines[loc], Name: t.name(true)}
 	if las.Name != "" {
 		t.context = fmt.Sprintf("laser %q", las.Name)
 	}
@@ -76,6 +85,15 @@ func (l *loader) laser(i int, m map[string]any) *Laser {
 	las.M2 = [2]float64{1, 1}
 	if t.has("m2") {
 		las.M2, _ = t.pair("m2", Dimensionless, true, 1)
+	}
+	for k, w := range las.Waist {
+		if w > 0 && las.Wavelength > 0 {
+			if θ := NewPlane(w, 0, las.M2[k], las.Wavelength).Divergence(las.Wavelength); θ > MaxParaxialAngle {
+				t.fail("waist", "%s at %s with M² %g diverges at a half-angle of %.3g rad; the Gaussian beam model needs at most %g rad (a waist of at least %s)",
+					FormatLength(w), FormatLength(las.Wavelength), las.M2[k], θ, MaxParaxialAngle, FormatLength(las.M2[k]*las.Wavelength/(math.Pi*MaxParaxialAngle)))
+				break
+			}
+		}
 	}
 	las.WaistAt, _ = t.quantity("waist_at", Length, false)
 	las.Emission = t.enum("emission", EmissionCW, EmissionCW, EmissionPulsed)
@@ -103,14 +121,17 @@ func (l *loader) laser(i int, m map[string]any) *Laser {
 
 func (l *loader) cloud(i int, m map[string]any) *Cloud {
 	t, loc := l.named("cloud", i, m)
-	c := &Cloud{Line: l.lines[loc], Name: t.str("name", true)}
+	c := &Cloud{Line: l.lines[loc], Name: t.name(true)}
 	if c.Name != "" {
 		t.context = fmt.Sprintf("cloud %q", c.Name)
 	}
 	c.Transition = t.str("transition", true)
 	c.Atoms, _ = t.quantity("atoms", Dimensionless, true)
-	if t.has("atoms") && c.Atoms <= 0 {
+	switch {
+	case t.has("atoms") && c.Atoms <= 0:
 		t.fail("atoms", "must be positive, got %s", show(m["atoms"]))
+	case c.Atoms != math.Trunc(c.Atoms):
+		t.fail("atoms", "%s is not a whole number of atoms", show(m["atoms"]))
 	}
 	if v, ok := t.get("rms_size"); ok {
 		arr, isArr := v.([]any)
@@ -167,7 +188,7 @@ func (l *loader) cloud(i int, m map[string]any) *Cloud {
 
 func (l *loader) eyewear(i int, m map[string]any) *Eyewear {
 	t, loc := l.named("eyewear", i, m)
-	e := &Eyewear{Line: l.lines[loc], Name: t.str("name", true)}
+	e := &Eyewear{Line: l.lines[loc], Name: t.name(true)}
 	if e.Name != "" {
 		t.context = fmt.Sprintf("eyewear %q", e.Name)
 	}
@@ -197,7 +218,7 @@ func (l *loader) eyewear(i int, m map[string]any) *Eyewear {
 
 func (l *loader) path(i int, m map[string]any) *Path {
 	t, loc := l.named("path", i, m)
-	p := &Path{Line: l.lines[loc], Name: t.str("name", true)}
+	p := &Path{Line: l.lines[loc], Name: t.name(true)}
 	if p.Name != "" {
 		t.context = fmt.Sprintf("path %q", p.Name)
 	}
@@ -244,7 +265,7 @@ func (l *loader) element(p *Path, pathContext, loc string, k int, m map[string]a
 		return e
 	}
 	t.context = fmt.Sprintf("%s, element %d (%s)", pathContext, k+1, e.Type)
-	e.Name = t.str("name", e.Type == TypeSplitter)
+	e.Name = t.name(e.Type == TypeSplitter)
 	if e.Name != "" {
 		t.context = fmt.Sprintf("%s, element %d (%s %q)", pathContext, k+1, e.Type, e.Name)
 	}
@@ -292,7 +313,11 @@ func (l *loader) element(p *Path, pathContext, loc string, k int, m map[string]a
 		e.FocalLength = f
 	case TypeMirror:
 		e.Reflectivity = t.fraction("reflectivity", 0, 1)
-		e.RadiusOfCurvature, _ = t.quantity("radius_of_curvature", Length, false)
+		var ok bool
+		e.RadiusOfCurvature, ok = t.quantity("radius_of_curvature", Length, false)
+		if ok && e.RadiusOfCurvature == 0 {
+			t.fail("radius_of_curvature", "must not be zero (leave it out for a flat mirror)")
+		}
 	case TypeWindow:
 		e.Thickness = t.positive("thickness", Length, false)
 		if t.has("index") {
@@ -309,7 +334,7 @@ func (l *loader) element(p *Path, pathContext, loc string, k int, m map[string]a
 		}
 	case TypeAOM:
 		e.Efficiency = t.fraction("efficiency", 0, 1)
-		e.Frequency, _ = t.quantity("frequency", Frequency, false)
+		e.Frequency = t.positive("frequency", Frequency, false)
 		e.Order = t.integer("order", 1, -10, 10)
 		e.Passes = t.integer("passes", 1, 1, 4)
 		if e.Order == 0 && t.has("order") {

@@ -97,7 +97,7 @@ func TestLoadErrors(t *testing.T) {
 			`bad.toml:17: path "p", element 2 (lens): at: 500 mm comes before the previous element (1 m)`},
 		{"cycle", okLaser + "[[path]]\nname = \"a\"\nfrom = \"b:s\"\n  [[path.element]]\n  type = \"splitter\"\n  name = \"s\"\n  at = \"1 m\"\n  transmission = 0.5\n" +
 			"[[path]]\nname = \"b\"\nfrom = \"a:s\"\n  [[path.element]]\n  type = \"splitter\"\n  name = \"s\"\n  at = \"1 m\"\n  transmission = 0.5\n",
-			`bad.toml:9: path "a": from: paths feed each other in a cycle (a ← b)`},
+			`bad.toml:9: path "a": from: paths feed each other in a cycle ("a" ← "b" ← "a")`},
 		{"two paths one laser", okLaser + okPath + strings.Replace(okPath, `name = "p"`, `name = "q"`, 1), `path "q": from: "l" already feeds path "p"`},
 		{"atoms without cloud ref", okLaser + "\n[[path]]\nname = \"p\"\nfrom = \"l\"\n  [[path.element]]\n  type = \"atoms\"\n  at = \"1 m\"\n  cloud = \"ghost\"\n",
 			`bad.toml:14: path "p", element 1 (atoms): cloud: no cloud named "ghost" (clouds: none)`},

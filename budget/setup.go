@@ -19,7 +19,20 @@ type Meta struct {
 	// Exposure overrides the assumed viewing duration for every wavelength,
 	// s; zero means the default durations are used.
 	Exposure float64
+	// ExposureReason says why a viewing duration shorter than the aversion
+	// response is accepted; required for one.
+	ExposureReason string
 }
+
+// Bounds on a stated viewing duration, s: AversionExposure is the shortest a
+// setup may state without a reason (the aversion response of IEC
+// 60825-1:2014, 0.25 s); MinExposure the shortest it may state at all (no
+// viewing of a beam on a table is shorter; shorter figures would only make a
+// limit look generous).
+const (
+	AversionExposure = 0.25
+	MinExposure      = 1e-3
+)
 
 // Emission kinds.
 const (

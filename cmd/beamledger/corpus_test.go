@@ -55,7 +55,7 @@ func TestEnormousSetup(t *testing.T) {
 		t.Fatal(err)
 	}
 	_, errOut, code := runCLI(t, "check", f)
-	if code != exitBadInput || !strings.Contains(errOut, "more than the 4194304 a setup may have") {
+	if code != exitBadInput || !strings.Contains(errOut, "more than the 4194304 bytes a setup may have") {
 		t.Errorf("exit %d, %q", code, errOut)
 	}
 }

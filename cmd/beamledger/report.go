@@ -84,9 +84,9 @@ func (e *env) runReport(o *reportOptions) error {
 	} else if err != nil && !errors.Is(err, fs.ErrNotExist) {
 		return err
 	}
-	data, err := os.ReadFile(o.file)
+	data, err := budget.ReadSetupFile(o.file)
 	if err != nil {
-		return fmt.Errorf("reading setup: %w", err)
+		return err
 	}
 	s, err := budget.Parse(o.file, data)
 	if err != nil {
