@@ -14,6 +14,19 @@ const (
 	MaxWavelength = 1e-3
 )
 
+// Size limits of a setup. A real table holds a few lasers and some hundreds
+// of elements; these are far above that and keep the largest accepted setup
+// within seconds for check and a minute for report (measured figures in
+// README).
+const (
+	MaxLasers        = 500
+	MaxClouds        = 500
+	MaxPaths         = 5000
+	MaxEyewear       = 200
+	MaxElements      = 20000
+	MaxAtomsElements = 2000
+)
+
 func (l *loader) setup(raw map[string]any) *Setup {
 	s := &Setup{File: l.file}
 	top := l.table("", "", raw)
@@ -38,16 +51,50 @@ func (l *loader) setup(raw map[string]any) *Setup {
 	if !top.has("laser") {
 		l.addf(0, "", "the setup describes no laser ([[laser]] with name, wavelength, power and waist); there is nothing to evaluate")
 	}
-	for i, m := range top.tables("laser") {
+	lasers, clouds, paths, eyewear := top.tables("laser"), top.tables("cloud"), top.tables("path"), top.tables("eyewear")
+	elements, atomsElements := 0, 0
+	for _, m := range paths {
+		switch els := m["element"].(type) {
+		case []map[string]any:
+			elements += len(els)
+			for _, e := range els {
+				if e["type"] == TypeAtoms {
+					atomsElements++
+				}
+			}
+		case []any:
+			elements += len(els)
+			for _, e := range els {
+				if em, ok := e.(map[string]any); ok && em["type"] == TypeAtoms {
+					atomsElements++
+				}
+			}
+		}
+	}
+	for _, c := range []struct {
+		what   string
+		n, max int
+	}{
+		{"lasers", len(lasers), MaxLasers}, {"clouds", len(clouds), MaxClouds}, {"paths", len(paths), MaxPaths},
+		{"eyewear entries", len(eyewear), MaxEyewear}, {"elements", elements, MaxElements}, {"atoms elements", atomsElements, MaxAtomsElements},
+	} {
+		if c.n > c.max {
+			l.addf(0, "", "the setup has %d %s, more than the %d a setup may have (the limits keep check within seconds and report within a minute; see README)", c.n, c.what, c.max)
+		}
+	}
+	if len(l.problems) > 0 {
+		return s
+	}
+	for i, m := range lasers {
 		s.Lasers = append(s.Lasers, l.laser(i, m))
 	}
-	for i, m := range top.tables("cloud") {
+	for i, m := range clouds {
 		s.Clouds = append(s.Clouds, l.cloud(i, m))
 	}
-	for i, m := range top.tables("path") {
+	for i, m := range paths {
 		s.Paths = append(s.Paths, l.path(i, m))
 	}
-	for i, m := range top.tables("eyewear") {
+	for i, m := range eyewear {
 		s.Eyewear = append(s.Eyewear, l.eyewear(i, m))
 	}
 	top.done()

@@ -1,9 +1,14 @@
 package budget
 
 import (
+	"fmt"
 	"strings"
 	"testing"
 )
+
+func deep(line int) string {
+	return fmt.Sprintf("t.toml:%d: tables and values are nested more than 32 deep (counting each part of a dotted key)", line)
+}
 
 func TestPrescan(t *testing.T) {
 	ok := []string{
@@ -13,7 +18,9 @@ func TestPrescan(t *testing.T) {
 		"s = \"[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[\"\n",
 		"s = '''\n[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[\n'''\n",
 		"# [[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[\nx = 1\n",
-		"x = " + strings.Repeat("[", 32) + strings.Repeat("]", 32) + "\n",
+		"x = " + strings.Repeat("[", 31) + strings.Repeat("]", 31) + "\n",
+		"[[path.element]]\ntransmission = { a = 0.9 }\n",
+		"x = {" + strings.Repeat("a.", 14) + "a = {" + strings.Repeat("b.", 14) + "b = 1}}\n", // 1 + 15 + 15 = 31
 		"a.b.c.d.e.f.g = 1\n",
 	}
 	for _, src := range ok {
@@ -22,10 +29,14 @@ func TestPrescan(t *testing.T) {
 		}
 	}
 	bad := map[string]string{
-		"x = " + strings.Repeat("[", 33) + strings.Repeat("]", 33) + "\n":             "t.toml:1: values are nested more than 32 deep",
-		"\nx = " + strings.Repeat("{a = ", 40) + "1" + strings.Repeat("}", 40) + "\n": "t.toml:2: values are nested more than 32 deep",
-		"[" + strings.Repeat("a.", 20) + "a]\n":                                       "t.toml:1: a key or table name has more than 16 dotted parts",
-		strings.Repeat("a.", 20) + "a = 1\n":                                          "t.toml:1: a key or table name has more than 16 dotted parts",
+		"x = " + strings.Repeat("[", 32) + strings.Repeat("]", 32) + "\n":             deep(1),
+		"\nx = " + strings.Repeat("{a = ", 40) + "1" + strings.Repeat("}", 40) + "\n": deep(2),
+		// depth and dotted-key length together, each within its own limit
+		"x = {" + strings.Repeat("a.", 14) + "a = {" + strings.Repeat("b.", 14) + "b = {c.d = 1}}}\n": deep(1),
+		"[" + strings.Repeat("a.", 14) + "a]\n" + strings.Repeat("b.", 14) + "b = {c.d.e = 1}\n":      deep(2),
+		strings.Repeat("[a.b]\n", MaxKeyDots+1):                                                       "t.toml:100001: the keys and table names of the file hold more than 100000 dots together",
+		"[" + strings.Repeat("a.", 20) + "a]\n":                                                       "t.toml:1: a key or table name has more than 16 dotted parts",
+		strings.Repeat("a.", 20) + "a = 1\n":                                                          "t.toml:1: a key or table name has more than 16 dotted parts",
 	}
 	for src, want := range bad {
 		if err := prescan("t.toml", src); err == nil || err.Error() != want {
