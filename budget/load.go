@@ -72,13 +72,11 @@ func Parse(filename string, data []byte) (*Setup, error) {
 	if len(data) > MaxSetupBytes {
 		return nil, &InputError{[]string{fmt.Sprintf("%s: file is more than the %d bytes a setup may have", filename, MaxSetupBytes)}}
 	}
-	if err := prescan(filename, string(data)); err != nil {
+	src := string(data)
+	lines, err := prescan(filename, src)
+	if err != nil {
 		return nil, err
 	}
-	// Line numbers are indexed while the decoder runs; both only read.
-	src := string(data)
-	linesC := make(chan lineIndex, 1)
-	go func() { linesC <- indexLines(src) }()
 	var raw map[string]any
 	if _, err := toml.Decode(src, &raw); err != nil {
 		var pe toml.ParseError
@@ -87,7 +85,7 @@ func Parse(filename string, data []byte) (*Setup, error) {
 		}
 		return nil, &InputError{[]string{fmt.Sprintf("%s: TOML syntax: %v", filename, err)}}
 	}
-	l := &loader{file: filename, lines: <-linesC}
+	l := &loader{file: filename, lines: lines}
 	s := l.setup(raw)
 	if len(l.problems) > 0 {
 		return nil, &InputError{l.problems}

@@ -24,7 +24,7 @@ func TestPrescan(t *testing.T) {
 		"a.b.c.d.e.f.g = 1\n",
 	}
 	for _, src := range ok {
-		if err := prescan("t.toml", src); err != nil {
+		if _, err := prescan("t.toml", src); err != nil {
 			t.Errorf("%q: %v", src, err)
 		}
 	}
@@ -39,8 +39,46 @@ func TestPrescan(t *testing.T) {
 		strings.Repeat("a.", 20) + "a = 1\n":                                                          "t.toml:1: a key or table name has more than 16 dotted parts",
 	}
 	for src, want := range bad {
-		if err := prescan("t.toml", src); err == nil || err.Error() != want {
+		if _, err := prescan("t.toml", src); err == nil || err.Error() != want {
 			t.Errorf("%.40q: %v, want %q", src, err, want)
+		}
+	}
+}
+
+// Line numbers come from the same pass that reads the file's structure, so
+// comments, strings and inline tables cannot shift them.
+func TestLineIndex(t *testing.T) {
+	src := `# a comment with ''' and """ in it
+[setup]
+title = """two
+lines""" # and ''' again
+[[laser]]
+name = "l"
+[[path]]
+name = "p"
+element = [
+  { type = "lens", at = "1 m", focal_length = "x" },
+  { type = "mirror",
+    at = "2 m" },
+]
+[[path]]
+name = "q"
+  [[path.element]]
+  type = "dump"
+  "at" = "1 m"
+`
+	idx, err := prescan("t.toml", src)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for key, want := range map[string]int{
+		"setup.title": 3, "laser[0].name": 6, "path[0]": 7, "path[0].element": 9,
+		"path[0].element[0]": 10, "path[0].element[0].focal_length": 10,
+		"path[0].element[1]": 11, "path[0].element[1].at": 12,
+		"path[1].name": 15, "path[1].element[0]": 16, "path[1].element[0].at": 18,
+	} {
+		if got := idx[key]; got != want {
+			t.Errorf("%s: line %d, want %d", key, got, want)
 		}
 	}
 }
