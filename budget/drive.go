@@ -7,10 +7,13 @@ import (
 	"beamledger/budget/atoms"
 )
 
-// FarDetuningFactor: a beam counts as far detuned when |Δ| exceeds this many
-// natural linewidths of the driven transition (for the alkalis, 1000 Γ is a
-// few GHz, well beyond the excited-state hyperfine structure, so the D1/D2
-// treatment of Grimm et al. (2000), §2.3, applies). Our threshold.
+// FarDetuningFactor: a beam counts as far detuned when its detuning from
+// every line of the ground state that the dipole potential sums exceeds this
+// many of that line's natural linewidths (for the alkalis, 1000 Γ is a few
+// GHz, well beyond the excited-state hyperfine structure, so the D1/D2
+// treatment of Grimm et al. (2000), §2.3, applies). Our threshold. Light
+// within it of a line other than the driven one fits neither the far-detuned
+// formula nor the two-level figures of the driven line, and is refused.
 const FarDetuningFactor = 1000
 
 // Detuning sources.
@@ -51,12 +54,25 @@ type AtomsResult struct {
 	CrossSection   float64 // σ0, m²
 	OpticalDepth   float64 // b0
 	FarDetuned     bool
-	Dipole         *DipoleResult
-	Goal           *GoalResult
+	// NearLine names another line of the ground state within
+	// FarDetuningFactor of its linewidths of the light ("" when none); the
+	// dipole and two-level figures are then not computed.
+	NearLine string
+	// NearLineDetuning is the detuning from that line, rad/s.
+	NearLineDetuning float64
+	Dipole           *DipoleResult
+	Goal             *GoalResult
 }
+
+// NoLightAtAtoms is why a goal cannot be met when no power reaches the cloud.
+const NoLightAtAtoms = "no light reaches the atoms: all of the beam is blocked or lost before this element"
 
 // DipoleResult is the far-detuned trap of one beam at the cloud.
 type DipoleResult struct {
+	// PerIntensity is U/I at the cloud centre, J per W/m² (negative:
+	// attractive); its sign says red or blue detuning even when no power
+	// arrives.
+	PerIntensity float64
 	// Depth is U at the cloud centre, J (negative: attractive).
 	Depth float64
 	// RWARatio is U with counter-rotating terms over the rotating-wave U.
@@ -121,17 +137,28 @@ func (b *Budget) atomsAt(pb *PathBudget, r *Row, c *Cloud) *AtomsResult {
 		a.EndRadii[k] = [2]float64{ex, ey}
 	}
 	a.FocusOffset = [2]float64{beam.X.WaistDistance(), beam.Y.WaistDistance()}
-	a.Detuning, a.DetuningSource = b.detuning(pb, r, tr)
+	a.Detuning, a.DetuningSource = detuningAt(pb.Path, r.Element, tr)
 	a.Isat, a.IsatNote, _ = tr.Isat(c.Saturation)
 	a.Saturation = atoms.Saturation(a.PeakIrradiance, a.Isat)
 	a.Rabi = atoms.Rabi(tr.Gamma, a.Saturation)
 	a.CrossSection = atoms.CrossSection(tr.Wavelength, tr.Gamma, a.Isat)
 	a.OpticalDepth = atoms.OpticalDepth(a.CrossSection, c.Atoms, c.RMSSize[0], c.RMSSize[1])
-	a.FarDetuned = math.Abs(a.Detuning) > FarDetuningFactor*tr.Gamma
-	if a.FarDetuned {
-		ω := tr.Frequency() + a.Detuning
+	ω := tr.Frequency() + a.Detuning
+	near, δ := tr.NearestLine(ω)
+	nearDriven := math.Abs(a.Detuning) <= FarDetuningFactor*tr.Gamma
+	switch {
+	case nearDriven:
+	case math.Abs(δ) <= FarDetuningFactor*near.Gamma:
+		a.NearLine, a.NearLineDetuning = near.Name, δ
+	default:
+		a.FarDetuned = true
+	}
+	switch {
+	case a.NearLine != "":
+		a.ScatteringRate = math.NaN()
+	case a.FarDetuned:
 		d := atoms.FarDetuned(tr.Lines, ω)
-		dr := &DipoleResult{Depth: d.PotentialPerIntensity * a.PeakIrradiance, RWARatio: d.PotentialPerIntensity / d.RWAPotentialPerIntensity,
+		dr := &DipoleResult{PerIntensity: d.PotentialPerIntensity, Depth: d.PotentialPerIntensity * a.PeakIrradiance, RWARatio: d.PotentialPerIntensity / d.RWAPotentialPerIntensity,
 			TrapX: math.NaN(), TrapY: math.NaN(), TrapAxial: math.NaN()}
 		a.ScatteringRate = d.ScatteringPerIntensity * a.PeakIrradiance
 		if dr.Depth < 0 && tr.Mass > 0 {
@@ -144,7 +171,7 @@ func (b *Budget) atomsAt(pb *PathBudget, r *Row, c *Cloud) *AtomsResult {
 			}
 		}
 		a.Dipole = dr
-	} else {
+	default:
 		a.ScatteringRate = atoms.ScatteringRate(tr.Gamma, a.Saturation, a.Detuning)
 	}
 	if e := r.Element; e.Goal != "" {
@@ -164,13 +191,10 @@ func axialCurvature(beam Beam) float64 {
 	return (g(h) - 2*g(0) + g(-h)) / (h * h * g(0))
 }
 
-// detuning finds Δ at the atoms element r of path pb.
-func (b *Budget) detuning(pb *PathBudget, r *Row, tr *atoms.Transition) (float64, string) {
-	if d := r.Element.Detuning; d != nil {
-		return 2 * math.Pi * *d, DetuningFromElement
-	}
-	shift := 0.0 // Hz
-	p, upTo := pb.Path, r.Element
+// aomShift is the frequency shift of the AOMs before element upTo on path p
+// and, through the splitters that feed it, on its parent paths, Hz.
+func aomShift(p *Path, upTo *Element) float64 {
+	shift := 0.0
 	for p != nil {
 		for _, e := range p.Elements {
 			if upTo != nil && e == upTo {
@@ -183,18 +207,66 @@ func (b *Budget) detuning(pb *PathBudget, r *Row, tr *atoms.Transition) (float64
 		upTo = p.ParentPort
 		p = p.Parent
 	}
-	las := pb.Laser
-	if las.DetuningSet {
+	return shift
+}
+
+// LightFrequency is the optical frequency of laser las after AOM shifts
+// totalling shift (Hz), from its vacuum wavelength, Hz.
+func LightFrequency(las *Laser, shift float64) float64 { return atoms.C/las.Wavelength + shift }
+
+// detuningAt finds Δ = ω_laser − ω_atom at atoms element e of path p, rad/s,
+// and where it came from: the element's stated detuning, the laser's stated
+// detuning plus the AOM shifts, or the wavelengths plus the AOM shifts.
+func detuningAt(p *Path, e *Element, tr *atoms.Transition) (float64, string) {
+	if d := e.Detuning; d != nil {
+		return 2 * math.Pi * *d, DetuningFromElement
+	}
+	shift := aomShift(p, e)
+	if las := p.Laser; las.DetuningSet {
 		return 2 * math.Pi * (las.Detuning + shift), DetuningFromLaser
 	}
-	base := atoms.C/las.Wavelength - atoms.C/tr.Wavelength
-	return 2 * math.Pi * (base + shift), DetuningFromWavelengths
+	return 2 * math.Pi * (LightFrequency(p.Laser, shift) - atoms.C/tr.Wavelength), DetuningFromWavelengths
+}
+
+// DetuningTolerance is how far a stated detuning may sit from the one the
+// wavelengths give, as a fraction of the transition frequency: 0.1 %, about
+// 0.8 nm at 780 nm, so that a wavelength written to the nearest nanometre
+// passes while a laser on another line, or a stated detuning that belongs
+// to another laser, does not (our threshold).
+const DetuningTolerance = 1e-3
+
+// checkDetuning refuses, at atoms element e of path p, light whose
+// frequency after the AOM shifts is not positive, and a stated detuning
+// (on the element or the laser) that disagrees with the wavelengths by more
+// than DetuningTolerance. It returns the problem, or "".
+func checkDetuning(p *Path, e *Element, tr *atoms.Transition) string {
+	shift := aomShift(p, e)
+	ν := LightFrequency(p.Laser, shift)
+	if !(ν > 0) {
+		return fmt.Sprintf("the AOM shifts (%s in all) take laser %q at %s to a frequency of %s, which is not positive",
+			FormatFrequency(shift), p.Laser.Name, FormatLength(p.Laser.Wavelength), FormatFrequency(ν))
+	}
+	Δ, source := detuningAt(p, e, tr)
+	if source == DetuningFromWavelengths {
+		return ""
+	}
+	ν0 := atoms.C / tr.Wavelength
+	stated := ν0 + Δ/(2*math.Pi)
+	if diff := math.Abs(stated - ν); diff > DetuningTolerance*ν0 {
+		return fmt.Sprintf("the stated detuning (%s) puts the light at %s, %s from %s, but laser %q at %s (with %s of AOM shifts) is at %s; they differ by %s, more than the %.1f %% of the transition frequency allowed; correct the wavelength or the detuning",
+			source, FormatFrequency(stated), FormatFrequency(Δ/(2*math.Pi)), tr.Name, p.Laser.Name, FormatLength(p.Laser.Wavelength), FormatFrequency(shift), FormatFrequency(ν), FormatFrequency(diff), 100*DetuningTolerance)
+	}
+	return ""
 }
 
 // goal works out the power a goal needs at the atoms and at the laser.
 func (b *Budget) goal(a *AtomsResult, e *Element) *GoalResult {
 	tr := a.Transition
 	g := &GoalResult{Kind: e.Goal, Available: a.Path.Laser.OperatingPower, Factor: 1}
+	if a.NearLine != "" {
+		g.Impossible = fmt.Sprintf("the light is %s from the line %s, within %d of its linewidths; neither the far-detuned dipole formula nor the two-level figures of %s apply there",
+			FormatFrequency(a.NearLineDetuning/(2*math.Pi)), a.NearLine, FarDetuningFactor, tr.Name)
+	}
 	switch e.Goal {
 	case GoalSaturation:
 		g.Target = *e.GoalValue
@@ -205,13 +277,13 @@ func (b *Budget) goal(a *AtomsResult, e *Element) *GoalResult {
 	case GoalTrapDepth:
 		g.Target = *e.GoalValue
 		switch {
+		case g.Impossible != "":
 		case !a.FarDetuned:
 			g.Impossible = fmt.Sprintf("the beam is %s from the transition, not far detuned (more than %d Γ); the trap-depth formula does not apply", FormatFrequency(a.Detuning/(2*math.Pi)), FarDetuningFactor)
-		case a.Dipole.Depth >= 0:
+		case a.Dipole.PerIntensity >= 0:
 			g.Impossible = "the beam is blue detuned: a single beam repels the atoms and makes no trap"
 		default:
-			perI := a.Dipole.Depth / a.PeakIrradiance
-			g.Intensity = g.Target * atoms.KB / -perI
+			g.Intensity = g.Target * atoms.KB / -a.Dipole.PerIntensity
 		}
 	case GoalCollective:
 		g.Factor = e.GoalFactor
@@ -225,18 +297,17 @@ func (b *Budget) goal(a *AtomsResult, e *Element) *GoalResult {
 		g.Target = g.Factor * col.OmegaC
 		g.Intensity = atoms.SaturationForRabi(tr.Gamma, g.Target) * a.Isat
 	}
+	if g.Impossible == "" && !(a.Row.FractionIn > 0) {
+		g.Impossible = NoLightAtAtoms
+	}
 	if g.Impossible != "" {
-		g.PowerAtAtoms, g.SourcePower, g.MarginDB = math.Inf(1), math.Inf(1), math.Inf(-1)
+		// No figure: the needed powers are not finite numbers.
+		g.Intensity, g.PowerAtAtoms, g.SourcePower, g.MarginDB = 0, 0, 0, 0
 		return g
 	}
-	wx, wy := a.Row.BeamIn.Radii()
-	g.PowerAtAtoms = g.Intensity * math.Pi * wx * wy / 2
-	if a.Row.FractionIn > 0 {
-		g.SourcePower = g.PowerAtAtoms / a.Row.FractionIn
-		g.MarginDB = Decibels(g.Available / g.SourcePower)
-	} else {
-		g.SourcePower, g.MarginDB = math.Inf(1), math.Inf(-1)
-	}
+	g.PowerAtAtoms = a.Row.BeamIn.PowerForPeakIrradiance(g.Intensity)
+	g.SourcePower = g.PowerAtAtoms / a.Row.FractionIn
+	g.MarginDB = Decibels(g.Available / g.SourcePower)
 	g.Met = g.Available >= g.SourcePower
 	return g
 }
@@ -247,6 +318,8 @@ const (
 	FindingGoalImpossible   = "goal_impossible"
 	FindingDetuningGuess    = "detuning_from_wavelengths"
 	FindingCollectiveDetune = "collective_detuned"
+	FindingNearOtherLine    = "near_other_line"
+	FindingNoLight          = "no_light_at_atoms"
 )
 
 // DriveFindings lists goals not met and doubtful inputs at the atoms.
@@ -272,7 +345,16 @@ func DriveFindings(results []*AtomsResult) []Finding {
 						where, FormatFrequency(a.Detuning/(2*math.Pi)))})
 			}
 		}
-		if a.DetuningSource == DetuningFromWavelengths && !a.FarDetuned {
+		switch {
+		case a.NearLine != "" && a.Goal == nil:
+			out = append(out, Finding{SeverityAction, FindingNearOtherLine, p, e.Index, e.At,
+				fmt.Sprintf("%s: the light is %s from the line %s, within %d of its linewidths; the drive there is not evaluated (neither the far-detuned dipole formula nor the two-level figures of %s apply)",
+					where, FormatFrequency(a.NearLineDetuning/(2*math.Pi)), a.NearLine, FarDetuningFactor, a.Transition.Name)})
+		case !(a.Power > 0) && a.Goal == nil:
+			out = append(out, Finding{SeverityAdvice, FindingNoLight, p, e.Index, e.At,
+				fmt.Sprintf("%s: %s", where, NoLightAtAtoms)})
+		}
+		if a.DetuningSource == DetuningFromWavelengths && !a.FarDetuned && a.NearLine == "" {
 			out = append(out, Finding{SeverityAdvice, FindingDetuningGuess, p, e.Index, e.At,
 				fmt.Sprintf("%s: the detuning %s comes from the wavelengths, which are not precise enough near resonance; state detuning on laser %q",
 					where, FormatFrequency(a.Detuning/(2*math.Pi)), a.Path.Laser.Name)})

@@ -94,6 +94,12 @@ func (b Beam) PeakIrradiance(p float64) float64 {
 	return 2 * p / (math.Pi * wx * wy)
 }
 
+// PowerForPeakIrradiance inverts PeakIrradiance: P = I₀ π Wx Wy / 2, W.
+func (b Beam) PowerForPeakIrradiance(i0 float64) float64 {
+	wx, wy := b.Radii()
+	return i0 * math.Pi * wx * wy / 2
+}
+
 // RadiiAt returns the 1/e² radii a distance d (m) downstream.
 func (b Beam) RadiiAt(d float64) (float64, float64) { return b.Propagate(d).Radii() }
 

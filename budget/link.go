@@ -145,6 +145,26 @@ func (l *loader) link(s *Setup) {
 			w.Laser = las
 		}
 	}
+	if len(l.problems) > 0 {
+		return
+	}
+	laserLocs := make(map[*Laser]int, len(s.Lasers))
+	for i, las := range s.Lasers {
+		laserLocs[las] = i
+	}
+	for _, p := range s.Paths {
+		for _, e := range p.Elements {
+			if c := clouds[e.Cloud]; e.Type == TypeAtoms && c != nil && c.Data != nil {
+				if msg := checkDetuning(p, e, c.Data); msg != "" {
+					line, ctx := l.lines.line(fmt.Sprintf("%s.element[%d]", pathLoc(locs, p), e.Index-1), "detuning"), fmt.Sprintf("path %q, element %d (atoms, cloud %q)", p.Name, e.Index, e.Cloud)
+					if e.Detuning == nil && p.Laser.DetuningSet {
+						line, ctx = l.lines.line(fmt.Sprintf("laser[%d]", laserLocs[p.Laser]), "detuning"), fmt.Sprintf("laser %q, at path %q, element %d (atoms, cloud %q)", p.Laser.Name, p.Name, e.Index, e.Cloud)
+					}
+					l.addf(line, ctx, "detuning: %s", msg)
+				}
+			}
+		}
+	}
 }
 
 // uniqueNames maps names to items and reports each duplicate name.

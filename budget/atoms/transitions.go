@@ -240,3 +240,18 @@ func (t *Transition) LineNames() []string {
 	}
 	return out
 }
+
+// NearestLine returns the line of the ground state nearest to light of
+// angular frequency ω, measured in its own linewidths, with the detuning
+// ω − ω_i from it (rad/s).
+func (t *Transition) NearestLine(ω float64) (Line, float64) {
+	var best Line
+	bestΔ, bestN := 0.0, math.Inf(1)
+	for _, l := range t.Lines {
+		δ := ω - 2*math.Pi*C/l.Wavelength
+		if n := math.Abs(δ) / l.Gamma; n < bestN {
+			best, bestΔ, bestN = l, δ, n
+		}
+	}
+	return best, bestΔ
+}

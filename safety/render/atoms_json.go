@@ -25,10 +25,12 @@ type jsonAtoms struct {
 	SaturationIntensityIs string        `json:"saturation_intensity_kind"`
 	Saturation            float64       `json:"saturation"`
 	RabiHz                float64       `json:"rabi_frequency_hz"`
-	ScatteringPerS        float64       `json:"scattering_rate_per_s"`
+	ScatteringPerS        *float64      `json:"scattering_rate_per_s"`
 	CrossSectionM2        float64       `json:"cross_section_m2"`
 	OpticalDepth          float64       `json:"optical_depth"`
 	FarDetuned            bool          `json:"far_detuned"`
+	NearLine              string        `json:"near_line,omitempty"`
+	NearLineDetuningHz    *float64      `json:"near_line_detuning_hz,omitempty"`
 	PotentialK            *float64      `json:"dipole_potential_k"`
 	PotentialHz           *float64      `json:"dipole_potential_hz"`
 	TrapDepthK            *float64      `json:"trap_depth_k"`
@@ -68,8 +70,11 @@ func atomsJSON(a *budget.AtomsResult) jsonAtoms {
 		EdgeRelativeX: a.EdgeRelative[0], EdgeRelativeY: a.EdgeRelative[1], EndRadiiM: a.EndRadii,
 		DetuningHz: a.Detuning / (2 * math.Pi), DetuningSource: a.DetuningSource,
 		SaturationIntensity: a.Isat, SaturationIntensityIs: a.IsatNote,
-		Saturation: a.Saturation, RabiHz: a.Rabi / (2 * math.Pi), ScatteringPerS: a.ScatteringRate,
+		Saturation: a.Saturation, RabiHz: a.Rabi / (2 * math.Pi), ScatteringPerS: finite(a.ScatteringRate),
 		CrossSectionM2: a.CrossSection, OpticalDepth: a.OpticalDepth, FarDetuned: a.FarDetuned,
+	}
+	if a.NearLine != "" {
+		j.NearLine, j.NearLineDetuningHz = a.NearLine, toHz(a.NearLineDetuning)
 	}
 	if d := a.Dipole; d != nil {
 		j.PotentialK, j.PotentialHz = finite(d.Depth/kB), finite(d.Depth/hPlanck)

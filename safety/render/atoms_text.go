@@ -23,12 +23,16 @@ func writeAtoms(ew *errWriter, a *budget.AtomsResult) {
 		budget.FormatLength(a.EndRadii[0][0]), budget.FormatLength(a.EndRadii[0][1]), budget.FormatLength(a.EndRadii[1][0]), budget.FormatLength(a.EndRadii[1][1]))
 	ew.printf("    detuning Δ/2π = %s (%s)\n", hz(a.Detuning), a.DetuningSource)
 	ew.printf("    I_sat = %s (%s)\n", budget.FormatIrradiance(a.Isat), a.IsatNote)
-	if a.FarDetuned {
+	switch {
+	case a.NearLine != "":
+		ew.printf("    the light is %s from the line %s, within %d of its linewidths: neither the far-detuned dipole formula nor the two-level figures of %s apply; not evaluated\n",
+			hz(a.NearLineDetuning), a.NearLine, budget.FarDetuningFactor, tr.Name)
+	case a.FarDetuned:
 		d := a.Dipole
 		ew.printf("    far detuned (|Δ| > %d Γ): dipole potential from the lines %s with counter-rotating terms (Grimm et al. 2000)\n",
 			budget.FarDetuningFactor, lineNames(tr))
 		kind := "attractive: a trap this deep"
-		if d.Depth >= 0 {
+		if d.PerIntensity >= 0 {
 			kind = "repulsive: blue detuned, no trap"
 		}
 		ew.printf("    dipole potential at the cloud centre U/k_B = %s, U/h = %s (%s; %.3f × the rotating-wave value); scattering rate %s photons/s\n",
@@ -41,7 +45,7 @@ func writeAtoms(ew *errWriter, a *budget.AtomsResult) {
 			ew.printf("    trap frequencies (harmonic, this beam alone): x %s, y %s, axial %s\n", hz(d.TrapX), hz(d.TrapY), ax)
 		}
 		ew.printf("    for reference: s = I/I_sat = %s, Ω/2π = %s on %s\n", fmtG(a.Saturation), hz(a.Rabi), tr.Name)
-	} else {
+	default:
 		ew.printf("    s = I/I_sat = %s, Ω/2π = %s, scattering rate %s photons/s (two-level)\n", fmtG(a.Saturation), hz(a.Rabi), fmtG(a.ScatteringRate))
 	}
 	ew.printf("    resonant optical depth along the beam b0 = σ0 N/(2π σx σy) = %s (σ0 = %s m²)\n", fmtG(a.OpticalDepth), fmtG(a.CrossSection))

@@ -241,18 +241,27 @@ func atomsSection(a *safety.Assessment) Section {
 		add("I_sat", budget.FormatIrradiance(at.Isat)+" ("+at.IsatNote+")")
 		add("s = I/I_sat", budget.FormatNumber(at.Saturation))
 		add("Ω/2π", hz(at.Rabi))
-		add("scattering rate", budget.FormatNumber(at.ScatteringRate)+" photons/s")
+		if at.NearLine != "" {
+			add("nearby line", fmt.Sprintf("%s from %s, within %d linewidths: the dipole formula and the two-level figures do not apply; not evaluated",
+				hz(at.NearLineDetuning), at.NearLine, budget.FarDetuningFactor))
+		} else {
+			add("scattering rate", budget.FormatNumber(at.ScatteringRate)+" photons/s")
+		}
 		add("optical depth b0", budget.FormatNumber(at.OpticalDepth))
 		if d := at.Dipole; d != nil {
 			add("dipole potential U/k_B", budget.FormatSI(d.Depth/atoms.KB, "K")+" (counter-rotating terms kept)")
 			if !math.IsNaN(d.TrapX) {
-				add("trap frequencies x, y, axial", hz(d.TrapX)+", "+hz(d.TrapY)+", "+hz(d.TrapAxial))
+				axial := "none along the beam"
+				if !math.IsNaN(d.TrapAxial) {
+					axial = hz(d.TrapAxial)
+				}
+				add("trap frequencies x, y, axial", hz(d.TrapX)+", "+hz(d.TrapY)+", "+axial)
 			}
 		}
 		sec.Blocks = append(sec.Blocks, Block{Subheading: fmt.Sprintf("Path %q, element %d at %s", at.Path.Path.Name, e.Index, budget.FormatLength(e.At))}, Block{Table: t})
 		if g := at.Goal; g != nil {
 			sec.Blocks = append(sec.Blocks, Block{Paragraph: goalSentence(at, g)})
-			if g.Collective != nil {
+			if g.Collective != nil && g.Impossible == "" {
 				sec.Blocks = append(sec.Blocks, Block{Plot: collectivePlot(at, g)})
 			}
 		}
