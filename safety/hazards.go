@@ -18,7 +18,7 @@ const Standard = "IEC 60825-1:2014 (Edition 3)"
 // Default viewing durations for unintended exposure, s: the aversion response
 // in the visible, 10 s elsewhere.
 const (
-	DurationVisible = 0.25
+	DurationVisible = budget.AversionExposure
 	DurationOther   = 10
 )
 
@@ -63,6 +63,19 @@ func ViewingDuration(s *budget.Setup, λ float64) float64 {
 		return DurationVisible
 	}
 	return DurationOther
+}
+
+// DurationAssumption says in words which viewing durations the evaluation
+// used, and why a stated one was accepted.
+func DurationAssumption(s *budget.Setup) string {
+	if s.Meta.Exposure == 0 {
+		return "0.25 s in 400–700 nm (aversion response) and 10 s elsewhere, for unintended viewing"
+	}
+	d := budget.FormatSI(s.Meta.Exposure, "s") + " at every wavelength, as the setup states"
+	if s.Meta.ExposureReason != "" {
+		d += " (reason given: " + s.Meta.ExposureReason + ")"
+	}
+	return d
 }
 
 func laserLimits(s *budget.Setup, las *budget.Laser) (*LaserLimits, error) {

@@ -85,7 +85,7 @@ func hazardsJSON(a *safety.Assessment) jsonHazards {
 			"intrabeam viewing of a small source (angular subtense at most 1.5 mrad)",
 			"each laser at its maximum power",
 			"irradiance averaged over the limiting aperture of the eye or skin",
-			"exposure duration per laser as duration_s",
+			"exposure duration per laser as duration_s: " + safety.DurationAssumption(a.Setup),
 		},
 		Cautions:        Cautions,
 		Lasers:          []jsonLaser{},

@@ -19,10 +19,7 @@ var Cautions = []string{
 func writeHazards(ew *errWriter, a *safety.Assessment) {
 	h := a.Hazards
 	ew.printf("\nHazards (%s)\n", safety.Standard)
-	dur := "0.25 s in 400–700 nm (aversion response) and 10 s elsewhere, for unintended viewing"
-	if a.Setup.Meta.Exposure > 0 {
-		dur = budget.FormatSI(a.Setup.Meta.Exposure, "s") + " at every wavelength (the setup's exposure)"
-	}
+	dur := safety.DurationAssumption(a.Setup)
 	ew.printf("  assumptions: intrabeam viewing of a small source (α ≤ 1.5 mrad); each laser at its maximum power; exposure %s;\n", dur)
 	ew.printf("    irradiance averaged over the limiting aperture of the eye or skin; reflections evaluated where the beam arrives through an open segment\n")
 	for _, d := range h.DefaultsAssumed {

@@ -420,10 +420,7 @@ func eyewear(a *safety.Assessment) Section {
 }
 
 func assumptions(a *safety.Assessment) Section {
-	dur := "0.25 s in 400–700 nm (aversion response) and 10 s elsewhere, for unintended viewing"
-	if a.Setup.Meta.Exposure > 0 {
-		dur = budget.FormatSI(a.Setup.Meta.Exposure, "s") + " at every wavelength, as the setup states"
-	}
+	dur := safety.DurationAssumption(a.Setup)
 	b := []string{
 		"Standard: " + safety.Standard + ", Annex A, MPE at the cornea and for the skin; limits transcribed from memory of the standard's tables, to be checked against its text (see SAFETY.md).",
 		"Exposure duration: " + dur + ".",
