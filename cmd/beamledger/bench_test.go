@@ -39,7 +39,7 @@ func BenchmarkCheckLargeLab(b *testing.B) { benchCheck(b, "../../testdata/scale/
 
 func BenchmarkReportDemo(b *testing.B) {
 	dir := b.TempDir()
-	e := &env{stdout: io.Discard, stderr: io.Discard, now: time.Now, getenv: func(string) string { return "" }}
+	e := &env{stdout: io.Discard, stderr: io.Discard, now: time.Now, getenv: func(string) string { return "" }, interrupts: noInterrupts}
 	for i := 0; i < b.N; i++ {
 		e.execute([]string{"report", "../../testdata/examples/table-c.toml", "-o", dir + "/r.pdf", "--force", "--date", "2026-01-01"})
 	}

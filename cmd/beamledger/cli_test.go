@@ -3,6 +3,7 @@ package main
 import (
 	"bytes"
 	"encoding/json"
+	"errors"
 	"math"
 	"os"
 	"path/filepath"
@@ -143,7 +144,7 @@ func runCLIEnv(t *testing.T, vars map[string]string, args ...string) (string, st
 	var out, errOut bytes.Buffer
 	e := &env{stdout: &out, stderr: &errOut,
 		now:    func() time.Time { return time.Date(2026, 1, 2, 3, 4, 5, 0, time.UTC) },
-		getenv: func(k string) string { return vars[k] }}
+		getenv: func(k string) string { return vars[k] }, interrupts: noInterrupts}
 	code := e.execute(args)
 	return out.String(), errOut.String(), code
 }
@@ -199,5 +200,98 @@ func TestReportBadInputWritesNothing(t *testing.T) {
 	entries, _ := os.ReadDir(dir)
 	if len(entries) != 1 {
 		t.Errorf("files written on bad input: %v", entries)
+	}
+}
+
+// The report never replaces its own setup, a directory or a device; an
+// existing name, a dangling link included, needs --force; a long output name
+// still works.
+func TestReportOutputTargets(t *testing.T) {
+	dir := t.TempDir()
+	setup := filepath.Join(dir, "setup.toml")
+	src, err := os.ReadFile("../../testdata/examples/weak-probe.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(setup, src, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	link := filepath.Join(dir, "to-setup.pdf")
+	if err := os.Symlink(setup, link); err != nil {
+		t.Fatal(err)
+	}
+	dangling := filepath.Join(dir, "dangling.pdf")
+	if err := os.Symlink(filepath.Join(dir, "nowhere"), dangling); err != nil {
+		t.Fatal(err)
+	}
+	long := filepath.Join(dir, strings.Repeat("r", 251)+".pdf") // 255 bytes, the usual limit of a name
+	tests := []struct {
+		name   string
+		args   []string
+		code   int
+		stderr string
+	}{
+		{"setup as its own output", []string{"-o", setup, "--force"}, exitBadInput, "is the setup file"},
+		{"link to the setup", []string{"-o", link, "--force"}, exitBadInput, "is the setup file"},
+		{"directory", []string{"-o", dir, "--force"}, exitBadInput, "is a directory; give the name of the PDF to write"},
+		{"device", []string{"-o", os.DevNull, "--force"}, exitBadInput, "is not a regular file"},
+		{"dangling link without --force", []string{"-o", dangling}, exitBadInput, "use --force to replace the link"},
+		{"dangling link with --force", []string{"-o", dangling, "--force"}, exitOK, ""},
+		{"255-byte name", []string{"-o", long}, exitOK, ""},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			_, errOut, code := runCLI(t, append([]string{"report", setup, "--date", "2026-01-02"}, tc.args...)...)
+			if code != tc.code || !strings.Contains(errOut, tc.stderr) {
+				t.Errorf("exit %d, stderr %q; want exit %d with %q", code, errOut, tc.code, tc.stderr)
+			}
+		})
+	}
+	if got, _ := os.ReadFile(setup); !bytes.Equal(got, src) {
+		t.Error("the setup file was changed")
+	}
+	if fi, err := os.Lstat(dangling); err != nil || !fi.Mode().IsRegular() {
+		t.Errorf("the dangling link was not replaced by the PDF: %v", err)
+	}
+	entries, _ := os.ReadDir(dir)
+	for _, e := range entries {
+		if strings.HasPrefix(e.Name(), ".") {
+			t.Errorf("temporary file left: %s", e.Name())
+		}
+	}
+}
+
+// A signal while the report is written removes the temporary file and
+// writes nothing.
+func TestReportInterrupted(t *testing.T) {
+	dir := t.TempDir()
+	out := filepath.Join(dir, "r.pdf")
+	sig := make(chan os.Signal, 1)
+	started, release := make(chan struct{}), make(chan struct{})
+	go func() {
+		<-started
+		sig <- os.Interrupt
+	}()
+	err := writeAtomically(out, func() (<-chan os.Signal, func()) { return sig, func() {} }, func(f *os.File) error {
+		close(started)
+		<-release
+		_, err := f.WriteString("%PDF-")
+		return err
+	})
+	close(release)
+	if !errors.Is(err, errInterrupted) {
+		t.Fatalf("got %v, want errInterrupted", err)
+	}
+	if entries, _ := os.ReadDir(dir); len(entries) != 0 {
+		t.Errorf("left behind: %v", entries)
+	}
+}
+
+// SOURCE_DATE_EPOCH past the year 9999 is refused, as --date is.
+func TestSourceDateEpochRange(t *testing.T) {
+	out := filepath.Join(t.TempDir(), "r.pdf")
+	_, errOut, code := runCLIEnv(t, map[string]string{"SOURCE_DATE_EPOCH": "253402300800"}, "report", "../../testdata/examples/weak-probe.toml", "-o", out)
+	if code != exitBadInput || !strings.Contains(errOut, "after the year 9999") {
+		t.Errorf("exit %d, %q", code, errOut)
 	}
 }

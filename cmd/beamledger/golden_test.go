@@ -20,10 +20,13 @@ func runCLI(t *testing.T, args ...string) (stdout, stderr string, code int) {
 	var out, errOut bytes.Buffer
 	e := &env{stdout: &out, stderr: &errOut,
 		now:    func() time.Time { return time.Date(2026, 1, 2, 3, 4, 5, 0, time.UTC) },
-		getenv: func(string) string { return "" }}
+		getenv: func(string) string { return "" }, interrupts: noInterrupts}
 	code = e.execute(args)
 	return out.String(), errOut.String(), code
 }
+
+// noInterrupts delivers no signal.
+func noInterrupts() (<-chan os.Signal, func()) { return nil, func() {} }
 
 // compareGolden checks got against testdata/golden/name, or rewrites it with
 // -update. A missing golden file is a failure, never a pass.

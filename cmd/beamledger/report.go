@@ -66,6 +66,9 @@ func (e *env) reportDate(flag string) (time.Time, error) {
 		if err != nil || n < 0 {
 			return time.Time{}, fmt.Errorf("SOURCE_DATE_EPOCH: %q is not a count of seconds since 1970", s)
 		}
+		if n > maxEpoch {
+			return time.Time{}, fmt.Errorf("SOURCE_DATE_EPOCH: %q is after the year 9999; a document date has four digits of year", s)
+		}
 		return time.Unix(n, 0).UTC(), nil
 	}
 	return e.now().UTC(), nil
@@ -79,9 +82,7 @@ func (e *env) runReport(o *reportOptions) error {
 	if err != nil {
 		return err
 	}
-	if _, err := os.Stat(o.output); err == nil && !o.force {
-		return fmt.Errorf("%s exists; use --force to replace it", o.output)
-	} else if err != nil && !errors.Is(err, fs.ErrNotExist) {
+	if err := checkOutput(o.file, o.output, o.force); err != nil {
 		return err
 	}
 	data, err := budget.ReadSetupFile(o.file)
@@ -97,7 +98,7 @@ func (e *env) runReport(o *reportOptions) error {
 		return err
 	}
 	doc := report.Build(a, report.Meta{Date: date.Format("2006-01-02"), ToolVersion: version, SetupBytes: data})
-	if err := writeAtomically(o.output, func(f *os.File) error {
+	if err := writeAtomically(o.output, e.interrupts, func(f *os.File) error {
 		return pdf.Write(f, doc, pdf.Options{Date: date, Compress: true})
 	}); err != nil {
 		return err
@@ -111,20 +112,72 @@ func (e *env) runReport(o *reportOptions) error {
 	return nil
 }
 
+// maxEpoch is the last second of the year 9999, UTC.
+const maxEpoch = 253402300799
+
+// checkOutput refuses an output that would replace the setup file itself,
+// or anything but a regular file, and an existing output (a dangling link
+// included) without --force.
+func checkOutput(setup, output string, force bool) error {
+	fi, err := os.Lstat(output)
+	if errors.Is(err, fs.ErrNotExist) {
+		return nil
+	}
+	if err != nil {
+		return fmt.Errorf("-o %s: %w", output, err)
+	}
+	if si, err := os.Stat(setup); err == nil {
+		if oi, err := os.Stat(output); err == nil && os.SameFile(si, oi) {
+			return fmt.Errorf("-o %s is the setup file %s itself; the report never replaces its own setup", output, setup)
+		}
+	}
+	switch m := fi.Mode(); {
+	case m.IsDir():
+		return fmt.Errorf("-o %s is a directory; give the name of the PDF to write", output)
+	case m&fs.ModeSymlink != 0:
+		if !force {
+			return fmt.Errorf("-o %s exists (a symbolic link); use --force to replace the link with the PDF", output)
+		}
+	case !m.IsRegular():
+		return fmt.Errorf("-o %s is not a regular file (%s); the report is written only to a regular file", output, m.Type())
+	case !force:
+		return fmt.Errorf("%s exists; use --force to replace it", output)
+	}
+	return nil
+}
+
+// errInterrupted is returned when a signal stops a report being written.
+var errInterrupted = errors.New("interrupted; no report was written")
+
 // writeAtomically writes through a temporary file beside name and renames it
-// into place, so no half-written file is ever left at name.
-func writeAtomically(name string, write func(*os.File) error) error {
-	tmp, err := os.CreateTemp(filepath.Dir(name), "."+filepath.Base(name)+".tmp-*")
+// into place, so no half-written file is ever left at name. The temporary
+// name is short (a long output name still fits the file system's limit); a
+// signal arriving on interrupts removes it and returns errInterrupted.
+func writeAtomically(name string, interrupts func() (<-chan os.Signal, func()), write func(*os.File) error) error {
+	tmp, err := os.CreateTemp(filepath.Dir(name), ".beamledger-*.tmp")
 	if err != nil {
 		return err
 	}
 	defer os.Remove(tmp.Name()) // no-op after a successful rename
-	if err := write(tmp); err != nil {
+	sig, stop := interrupts()
+	defer stop()
+	done := make(chan error, 1)
+	go func() {
+		err := write(tmp)
+		if cerr := tmp.Close(); err == nil {
+			err = cerr
+		}
+		done <- err
+	}()
+	select {
+	case <-sig:
 		tmp.Close()
-		return err
-	}
-	if err := tmp.Close(); err != nil {
-		return err
+		os.Remove(tmp.Name())
+		return errInterrupted
+	case err := <-done:
+		if err != nil {
+			return err
+		}
 	}
 	if err := os.Chmod(tmp.Name(), 0o644); err != nil {
 		return err

@@ -5,6 +5,8 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"os/signal"
+	"syscall"
 	"time"
 
 	"github.com/spf13/cobra"
@@ -28,10 +30,20 @@ type env struct {
 	stdout, stderr io.Writer
 	now            func() time.Time
 	getenv         func(string) string
+	// interrupts delivers the signals that stop a run (SIGINT, SIGTERM),
+	// and a function that stops delivering them.
+	interrupts func() (<-chan os.Signal, func())
+}
+
+// osInterrupts delivers the process's SIGINT and SIGTERM.
+func osInterrupts() (<-chan os.Signal, func()) {
+	c := make(chan os.Signal, 1)
+	signal.Notify(c, os.Interrupt, syscall.SIGTERM)
+	return c, func() { signal.Stop(c) }
 }
 
 func run(args []string, stdout, stderr io.Writer) int {
-	e := &env{stdout: stdout, stderr: stderr, now: time.Now, getenv: os.Getenv}
+	e := &env{stdout: stdout, stderr: stderr, now: time.Now, getenv: os.Getenv, interrupts: osInterrupts}
 	return e.execute(args)
 }
 

@@ -42,10 +42,29 @@ type writer struct {
 	doc   *report.Document
 	pageW float64
 	textW float64
+	// pages is the page count for the footers (0 while counting);
+	// replaced the number of characters printed as Missing.
+	pages, replaced int
 }
 
-// Write draws the document to w.
+// Write draws the document to w. Characters the embedded font cannot draw
+// are printed as Missing, and the title block says how many. The document
+// is drawn twice: once to count its pages, then with "page N of M" in every
+// footer (no page-count placeholder that a setup's text could imitate).
 func Write(w io.Writer, doc *report.Document, o Options) error {
+	doc, replaced := drawableCopy(doc)
+	counted, err := draw(doc, o, replaced, 0)
+	if err != nil {
+		return err
+	}
+	f, err := draw(doc, o, replaced, counted.PageCount())
+	if err != nil {
+		return err
+	}
+	return f.Output(w)
+}
+
+func draw(doc *report.Document, o Options, replaced, pages int) (*fpdf.Fpdf, error) {
 	f := fpdf.New("P", "mm", "A4", "")
 	f.SetCompression(o.Compress)
 	f.SetCatalogSort(true)
@@ -61,9 +80,8 @@ func Write(w io.Writer, doc *report.Document, o Options) error {
 	f.AddUTF8FontFromBytes(font, "I", goitalic.TTF)
 	f.SetMargins(marginLeft, marginTop, marginRight)
 	f.SetAutoPageBreak(true, bottomSpace)
-	f.AliasNbPages("{nb}")
 	pw, _ := f.GetPageSize()
-	wr := &writer{f: f, doc: doc, pageW: pw, textW: pw - marginLeft - marginRight}
+	wr := &writer{f: f, doc: doc, pageW: pw, textW: pw - marginLeft - marginRight, pages: pages, replaced: replaced}
 	f.SetFooterFunc(wr.footer)
 	f.AddPage()
 	wr.titleBlock()
@@ -71,9 +89,9 @@ func Write(w io.Writer, doc *report.Document, o Options) error {
 		wr.section(i+1, s)
 	}
 	if err := f.Error(); err != nil {
-		return fmt.Errorf("drawing the PDF: %w", err)
+		return nil, fmt.Errorf("drawing the PDF: %w", err)
 	}
-	return f.Output(w)
+	return f, nil
 }
 
 func (w *writer) footer() {
@@ -86,7 +104,7 @@ func (w *writer) footer() {
 		rev = ", revision " + w.doc.Revision
 	}
 	f.CellFormat(w.textW*0.78, 4, fmt.Sprintf("%s%s — setup SHA-256 %s", w.doc.Title, rev, w.doc.SetupSHA256), "T", 0, "L", false, 0, "")
-	f.CellFormat(w.textW*0.22, 4, fmt.Sprintf("page %d of {nb}", f.PageNo()), "T", 0, "R", false, 0, "")
+	f.CellFormat(w.textW*0.22, 4, fmt.Sprintf("page %d of %d", f.PageNo(), w.pages), "T", 0, "R", false, 0, "")
 	f.SetTextColor(0, 0, 0)
 }
 
@@ -108,6 +126,9 @@ func (w *writer) titleBlock() {
 	rows := [][2]string{
 		{"Site", d.Site}, {"Revision", d.Revision}, {"Prepared by", d.PreparedBy}, {"Date", d.Date},
 		{"Tool", "beamledger " + d.ToolVersion}, {"Setup file", d.SetupFile}, {"Setup SHA-256", d.SetupSHA256},
+	}
+	if w.replaced > 0 {
+		rows = append(rows, [2]string{"Note", fmt.Sprintf("%d character(s) of the setup's text that the embedded font cannot draw are printed as %q; the setup file itself is unchanged", w.replaced, Missing)})
 	}
 	for _, r := range rows {
 		f.SetFont(font, "B", 9)

@@ -2,6 +2,7 @@ package pdf
 
 import (
 	"bytes"
+	"fmt"
 	"io"
 	"os"
 	"strings"
@@ -181,5 +182,38 @@ func TestPDFMetadata(t *testing.T) {
 func BenchmarkReportDemo(b *testing.B) {
 	for i := 0; i < b.N; i++ {
 		demoPDF(b, true)
+	}
+}
+
+// A title or name the font cannot draw (an emoji) is printed with Missing in
+// its place, and said so; a title that looks like a page-count placeholder
+// is printed as written.
+func TestUndrawableAndPlaceholderText(t *testing.T) {
+	data, err := os.ReadFile("../../testdata/examples/weak-probe.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := budget.Parse("weak-probe.toml", data)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s.Meta.Title = "Table {nb} \U0001F52C probe"
+	a, err := safety.Evaluate(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	doc := report.Build(a, report.Meta{Date: "2026-01-02", ToolVersion: "test", SetupBytes: data})
+	var b bytes.Buffer
+	if err := Write(&b, doc, Options{Date: time.Date(2026, 1, 2, 0, 0, 0, 0, time.UTC)}); err != nil {
+		t.Fatal(err)
+	}
+	if doc.Title != "Table {nb} \U0001F52C probe" {
+		t.Errorf("Write changed the caller's document: %q", doc.Title)
+	}
+	text, pages := pdfText(t, b.Bytes())
+	for _, want := range []string{"Table {nb} ? probe", "1 character(s) of the setup's text that the embedded font cannot draw are printed as \"?\"", fmt.Sprintf("page 1 of %d", pages)} {
+		if !strings.Contains(text, want) {
+			t.Errorf("PDF text lacks %q", want)
+		}
 	}
 }
