@@ -36,12 +36,20 @@ const (
 	FindingDumpUnrated   = "dump_unrated"
 	FindingLosslessGuess = "assumed_lossless"
 	FindingNotParaxial   = "not_paraxial"
+	FindingClippedPower  = "clipped_power"
 )
 
 // ClearApertureFactor: a clear aperture diameter under π·W (W the larger
 // 1/e² radius) clips about 1 % or more of a round Gaussian beam; common
 // practice sizes optics to at least this.
 const ClearApertureFactor = math.Pi
+
+// ClippedPowerAction is the clipped power, at the laser's maximum power,
+// from which the light that an aperture or mount stops is an action finding,
+// W: 0.5 W, the boundary of Class 4 for continuous emission, above which a
+// beam is treated as a fire and burn hazard (our threshold, after IEC
+// 60825-1:2014, the Class 3B limit).
+const ClippedPowerAction = 0.5
 
 // PoorModeOverlap is the computed fibre mode overlap below which the coupling
 // optics, not the alignment, limit the coupling (our threshold).
@@ -67,7 +75,11 @@ func (b *Budget) Findings() []Finding {
 			if clear > 0 {
 				wx, wy := r.BeamIn.Radii()
 				w := math.Max(wx, wy)
-				if clear < ClearApertureFactor*w {
+				if clipped := r.FractionIn * (1 - r.ClipFraction) * max; clipped >= ClippedPowerAction {
+					out = append(out, Finding{SeverityAction, FindingClippedPower, p.Name, e.Index, e.At,
+						fmt.Sprintf("%s: up to %s (%.1f %% of the arriving beam, at the laser's maximum power) falls outside its %s clear aperture onto the mount or iris; that much absorbed power can burn, melt or start a fire: enlarge the aperture, or make the part a rated dump",
+							where, FormatPower(clipped), 100*(1-r.ClipFraction), FormatLength(clear))})
+				} else if clear < ClearApertureFactor*w {
 					out = append(out, Finding{SeverityAdvice, FindingClipping, p.Name, e.Index, e.At,
 						fmt.Sprintf("%s: clear aperture %s is under π·W = %s for the beam there; %.2f %% of the power is clipped (included in the budget; diffraction from the edge is not modelled)",
 							where, FormatLength(clear), FormatLength(ClearApertureFactor*w), 100*(1-r.ClipFraction))})

@@ -73,6 +73,19 @@ func (d Dimension) add(o Dimension, sign int8) Dimension {
 	}
 }
 
+// maxExponent bounds the power of each base unit in a unit, far above any
+// the setup format uses, so that the int8 exponents never wrap.
+const maxExponent = 12
+
+func (d Dimension) outOfRange() bool {
+	for _, e := range []int8{d.Length, d.Mass, d.Time, d.Temperature, d.Angle} {
+		if e > maxExponent || e < -maxExponent {
+			return true
+		}
+	}
+	return false
+}
+
 func (d Dimension) scale(n int8) Dimension {
 	return Dimension{d.Length * n, d.Mass * n, d.Time * n, d.Temperature * n, d.Angle * n}
 }
@@ -209,6 +222,9 @@ func parseUnit(u string) (float64, Dimension, error) {
 			factor /= f
 		}
 		dim = dim.add(d, sign)
+		if dim.outOfRange() {
+			return 0, Dimension{}, fmt.Errorf("unknown unit %q: its powers of the base units pass ±%d", u, maxExponent)
+		}
 		if i == len(u) {
 			break
 		}

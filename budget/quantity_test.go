@@ -104,3 +104,15 @@ func FuzzParseQuantity(f *testing.F) {
 		}
 	})
 }
+
+// A unit with many factors cannot wrap the exponent counters around to a
+// plain length.
+func TestUnitExponentOverflow(t *testing.T) {
+	u := "780 nm" + strings.Repeat("*m^4", 64)
+	if _, _, err := ParseQuantity(u); err == nil || !strings.Contains(err.Error(), "powers of the base units pass") {
+		t.Errorf("%q: %v", u[:20], err)
+	}
+	if v, err := ParseAs("1 m^4*m^4/m^4*m^3", Length); err != nil || v != 1 {
+		t.Errorf("got %v, %v", v, err)
+	}
+}

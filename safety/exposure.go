@@ -107,5 +107,6 @@ func hazardDistance(b budget.Beam, p, d, mpe float64) float64 {
 	return limits.RoundUp(hi, 3)
 }
 
-// MaxHazardDistance bounds the search for a hazard distance, m.
-const MaxHazardDistance = 1e7
+// MaxHazardDistance bounds the search for a hazard distance, m: 100 km, past
+// which a figure does not matter on any site (it is reported as "beyond").
+const MaxHazardDistance = 1e5

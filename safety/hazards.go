@@ -260,7 +260,7 @@ func pathHazards(pb *budget.PathBudget, ll *LaserLimits) pathHazardResult {
 				segmentName(seg), budget.FormatPower(p), fmtX(e.Ratio), budget.FormatIrradiance(irr), budget.FormatLength(ll.EyeAperture),
 				budget.FormatSI(ll.Duration, "s"), fmtX(e.SkinRatio), e.OD, fmtNM(pb.Laser.Wavelength))
 			if e.OpenEnd {
-				msg += fmt.Sprintf("; the escaping beam stays above the MPE for %s beyond the path's end (NOHD)", fmtDistance(e.NOHD))
+				msg += fmt.Sprintf("; the escaping beam stays above the MPE for %s beyond the path's end (NOHD)", FormatDistance(e.NOHD))
 			}
 			res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: "exposure_above_mpe", Path: pb.Path.Name,
 				Element: seg.After, At: e.At, Message: msg})
@@ -524,9 +524,14 @@ func fmtX(r float64) string { return budget.FormatNumber(limits.RoundUp(r, 3)) }
 
 func fmtNM(λ float64) string { return fmt.Sprintf("%s nm", budget.FormatNumber(λ*1e9)) }
 
-func fmtDistance(d float64) string {
-	if math.IsInf(d, 1) {
-		return fmt.Sprintf("more than %s", budget.FormatLength(MaxHazardDistance))
+// FormatDistance writes a hazard distance, m; one past MaxHazardDistance
+// (+Inf) is "beyond 100 km": too far to matter on any site.
+func FormatDistance(d float64) string {
+	if math.IsInf(d, 1) || d > MaxHazardDistance {
+		return fmt.Sprintf("beyond %s", budget.FormatLength(MaxHazardDistance))
+	}
+	if d == 0 {
+		return "0 m"
 	}
 	return budget.FormatLength(d)
 }

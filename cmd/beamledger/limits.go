@@ -57,6 +57,20 @@ and never replace, your laser safety officer's evaluation.`,
 	return cmd
 }
 
+// flagRange is the physical range of each flag, SI. A value outside it is
+// refused: a divergence of 1e-320 rad or a power of 1e300 W describes no
+// beam, and would only give a meaningless figure.
+var flagRange = map[string][2]float64{
+	"wavelength":       {budget.MinWavelength, budget.MaxWavelength},
+	"duration":         {1e-13, 3e4}, // the span of the exposure limits
+	"pulse-duration":   {1e-13, 3e4},
+	"repetition-rate":  {1e-4, 1e12},
+	"angular-subtense": {0, 1}, // past α_max = 0.1 rad nothing changes
+	"power":            {1e-15, 1e15},
+	"beam-diameter":    {1e-6, 10},
+	"divergence":       {1e-7, 1},
+}
+
 // flagQuantity reads a flag's quantity; an empty flag gives ok = false.
 func flagQuantity(name, v string, dim budget.Dimension) (float64, bool, error) {
 	if v == "" {
@@ -68,6 +82,9 @@ func flagQuantity(name, v string, dim budget.Dimension) (float64, bool, error) {
 	}
 	if q < 0 || (q == 0 && name != "angular-subtense") {
 		return 0, false, fmt.Errorf("--%s: must be positive, got %q", name, v)
+	}
+	if r, ok := flagRange[name]; ok && (q < r[0] || q > r[1]) && q != 0 {
+		return 0, false, fmt.Errorf("--%s: %q is outside %g to %g in SI units, the range this flag takes", name, v, r[0], r[1])
 	}
 	return q, true, nil
 }
@@ -85,6 +102,7 @@ type limitsResult struct {
 	Pulsed      *limitsPulsed      `json:"pulsed,omitempty"`
 	Class       *string            `json:"class,omitempty"`
 	NOHDM       *float64           `json:"nohd_m,omitempty"`
+	NOHDBeyondM *float64           `json:"nohd_beyond_m,omitempty"`
 	ODRequired  *float64           `json:"od_required,omitempty"`
 	ExitIrr     *float64           `json:"exit_aperture_irradiance_w_m2,omitempty"`
 	Cautions    []string           `json:"cautions"`
@@ -187,6 +205,12 @@ func computeLimits(o *limitsOptions) (*limitsResult, error) {
 	if hasτ != hasF {
 		return nil, fmt.Errorf("--pulse-duration and --repetition-rate go together")
 	}
+	if hasτ && τ*f > 1 {
+		return nil, fmt.Errorf("--repetition-rate %q with --pulse-duration %q is a duty cycle above 1", o.repetitionRate, o.pulseDuration)
+	}
+	if hasτ && τ > t {
+		return nil, fmt.Errorf("--pulse-duration %q is longer than the exposure %s", o.pulseDuration, budget.FormatSI(t, "s"))
+	}
 	if hasτ {
 		p, err := limits.PulsedEyeMPE(λ, τ, f, t, α)
 		if err != nil {
@@ -215,11 +239,12 @@ func computeLimits(o *limitsOptions) (*limitsResult, error) {
 			c := limits.ClassOf(p, ael)
 			res.Class = &c
 		}
-		n := limits.NOHD(p, d, φ, limitIrr)
-		if math.IsInf(n, 1) {
-			n = safety.MaxHazardDistance
+		if n := limits.NOHD(p, d, φ, limitIrr); n > safety.MaxHazardDistance {
+			beyond := safety.MaxHazardDistance
+			res.NOHDBeyondM = &beyond
+		} else {
+			res.NOHDM = &n
 		}
-		res.NOHDM = &n
 		exit := limits.ApertureAverage(p, d/2, eyeAp)
 		od := limits.OpticalDensity(exit / limitIrr)
 		res.ExitIrr, res.ODRequired = &exit, &od
@@ -277,14 +302,18 @@ func writeLimits(w io.Writer, r *limitsResult) error {
 	}
 	p("  AEL for continuous emission (MPE at the time base × aperture area; Class 1 time base %s): Class 1/1M %s, Class 2/2M %s, Class 3R %s, Class 3B %s\n",
 		budget.FormatSI(r.AELTimeBase, "s"), budget.FormatPower(r.AEL.Class1), opt(r.AEL.Class2), opt(r.AEL.Class3R), budget.FormatPower(r.AEL.Class3B))
-	if r.NOHDM != nil {
+	if r.ExitIrr != nil {
 		if r.Class != nil {
 			p("  class %s (whole beam through the aperture; 1M/2M not distinguished)\n", *r.Class)
 		} else {
 			p("  class: not assessed for pulsed emission\n")
 		}
+		nohd := safety.FormatDistance(math.Inf(1))
+		if r.NOHDM != nil {
+			nohd = safety.FormatDistance(*r.NOHDM)
+		}
 		p("  at the exit: %s over the eye aperture, OD %g needed; NOHD %s (rounded up)\n",
-			budget.FormatIrradiance(*r.ExitIrr), *r.ODRequired, budget.FormatLength(*r.NOHDM))
+			budget.FormatIrradiance(*r.ExitIrr), *r.ODRequired, nohd)
 	}
 	for _, c := range r.Cautions {
 		p("  - %s\n", c)

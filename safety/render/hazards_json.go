@@ -53,6 +53,9 @@ type jsonExposure struct {
 	SkinRatio             float64  `json:"skin_ratio"`
 	OpenEnd               bool     `json:"open_end"`
 	NOHDM                 *float64 `json:"nohd_m"`
+	// NOHDBeyondM is set, and nohd_m null, when the distance is past the
+	// search's end.
+	NOHDBeyondM *float64 `json:"nohd_beyond_m,omitempty"`
 }
 
 type jsonReflection struct {
@@ -111,11 +114,11 @@ func hazardsJSON(a *safety.Assessment) jsonHazards {
 			ApertureIrradianceWM2: e.Irradiance, MPEIrradianceWM2: e.Laser.EyeIrradiance, Ratio: e.Ratio, ODRequired: e.OD,
 			SkinIrradianceWM2: e.SkinIrr, SkinRatio: e.SkinRatio, OpenEnd: e.OpenEnd}
 		if e.OpenEnd {
-			n := e.NOHD
-			if math.IsInf(n, 1) {
-				n = safety.MaxHazardDistance
+			if math.IsInf(e.NOHD, 1) {
+				je.NOHDBeyondM = finite(safety.MaxHazardDistance)
+			} else {
+				je.NOHDM = finite(e.NOHD)
 			}
-			je.NOHDM = &n
 		}
 		out.Exposures = append(out.Exposures, je)
 	}

@@ -52,7 +52,7 @@ func writeHazards(ew *errWriter, a *safety.Assessment) {
 		for _, e := range h.Exposures {
 			nohd := ""
 			if e.OpenEnd {
-				nohd = fmtDist(e.NOHD)
+				nohd = safety.FormatDistance(e.NOHD)
 			}
 			t.add(segLabel(e), budget.FormatPower(e.Power), budget.FormatIrradiance(e.Irradiance), fmtRatio(e.Ratio), fmtG(e.OD), fmtRatio(e.SkinRatio),
 				budget.FormatLength(e.At), nohd)
@@ -96,7 +96,7 @@ func writeHazards(ew *errWriter, a *safety.Assessment) {
 		if r.Element != nil && r.Element.Type == budget.TypeDump {
 			where = fmt.Sprintf("element %d (%s)", r.Element.Index, r.Element.Label())
 		}
-		ew.printf("    path %q, %s: %s, ρ = %g%s: hazard zone radius %s\n", r.Path.Path.Name, where, budget.FormatPower(r.Power), r.Reflectance, assumed(r.Assumed), fmtDist(r.Radius))
+		ew.printf("    path %q, %s: %s, ρ = %g%s: hazard zone radius %s\n", r.Path.Path.Name, where, budget.FormatPower(r.Power), r.Reflectance, assumed(r.Assumed), safety.FormatDistance(r.Radius))
 	}
 	ew.printf("  Eyewear (OD rounded up; EN 207 scale number for continuous emission, 315–1400 nm)\n")
 	if len(h.Eyewear) == 0 {
@@ -141,16 +141,6 @@ func fmtRatio(r float64) string {
 		return "<0.001"
 	}
 	return budget.FormatNumber(r)
-}
-
-func fmtDist(d float64) string {
-	if math.IsInf(d, 1) {
-		return fmt.Sprintf("more than %s", budget.FormatLength(safety.MaxHazardDistance))
-	}
-	if d == 0 {
-		return "0 m"
-	}
-	return budget.FormatLength(d)
 }
 
 func fmtNMs(λ float64) string { return budget.FormatNumber(λ*1e9) + " nm" }

@@ -324,7 +324,7 @@ func hazards(a *safety.Assessment) Section {
 		nohd := ""
 		if e.OpenEnd {
 			seg = fmt.Sprintf("after %d (open end)", e.Segment.After)
-			nohd = dist(e.NOHD)
+			nohd = safety.FormatDistance(e.NOHD)
 		}
 		t.Rows = append(t.Rows, []string{e.Path.Path.Name, seg, budget.FormatPower(e.Power), budget.FormatIrradiance(e.Irradiance),
 			budget.FormatNumber(e.Ratio), budget.FormatNumber(e.OD), budget.FormatNumber(e.SkinRatio), budget.FormatLength(e.At), nohd})
@@ -355,7 +355,7 @@ func hazards(a *safety.Assessment) Section {
 			if r.Element != nil && r.Element.Type == budget.TypeDump {
 				where = fmt.Sprintf("%d %s", r.Element.Index, r.Element.Label())
 			}
-			dt.Rows = append(dt.Rows, []string{r.Path.Path.Name, where, budget.FormatPower(r.Power), R, dist(r.Radius)})
+			dt.Rows = append(dt.Rows, []string{r.Path.Path.Name, where, budget.FormatPower(r.Power), R, safety.FormatDistance(r.Radius)})
 		}
 	}
 	sec.Blocks = append(sec.Blocks, Block{Subheading: "Stray reflections and beams leaving the path above the eye MPE (at the element)"})
@@ -395,13 +395,6 @@ func actionFirst(fs []string) []string {
 		}
 	}
 	return append(a, b...)
-}
-
-func dist(d float64) string {
-	if math.IsInf(d, 1) {
-		return "more than " + budget.FormatLength(safety.MaxHazardDistance)
-	}
-	return budget.FormatLength(d)
 }
 
 func eyewear(a *safety.Assessment) Section {
