@@ -3,6 +3,7 @@ package safety
 import (
 	"math"
 	"os"
+	"path/filepath"
 	"strings"
 	"testing"
 	"time"
@@ -249,6 +250,12 @@ func FuzzEvaluate(f *testing.F) {
 			f.Add(data)
 		}
 	}
+	hostile, _ := filepath.Glob("../testdata/hostile/*.toml")
+	for _, h := range hostile {
+		if data, err := os.ReadFile(h); err == nil {
+			f.Add(data)
+		}
+	}
 	f.Fuzz(func(t *testing.T, data []byte) {
 		var a *Assessment
 		var err error
@@ -268,16 +275,42 @@ func FuzzEvaluate(f *testing.F) {
 		if err != nil {
 			return
 		}
+		// Every hazard figure is a finite number (a hazard distance past the
+		// search is +Inf by design and printed as "beyond").
 		for _, e := range a.Hazards.Exposures {
-			for _, v := range []float64{e.Irradiance, e.Ratio, e.OD, e.SkinRatio} {
-				if math.IsNaN(v) {
-					t.Fatalf("NaN in exposure %+v", e)
+			for _, v := range []float64{e.Power, e.Irradiance, e.Ratio, e.OD, e.SkinIrr, e.SkinRatio, e.PeakIrr, e.At} {
+				if math.IsNaN(v) || math.IsInf(v, 0) {
+					t.Fatalf("non-finite figure in exposure %+v", e)
 				}
+			}
+			if math.IsNaN(e.NOHD) || e.NOHD < 0 {
+				t.Fatalf("bad NOHD in exposure %+v", e)
 			}
 		}
 		for _, r := range a.Hazards.Reflections {
-			if math.IsNaN(r.Ratio) || math.IsNaN(r.Radius) {
-				t.Fatalf("NaN in reflection %+v", r)
+			for _, v := range []float64{r.Power, r.Irradiance, r.Ratio, r.OD, r.Radius} {
+				if math.IsNaN(v) || math.IsInf(v, 0) {
+					t.Fatalf("non-finite figure in reflection %+v", r)
+				}
+			}
+		}
+		for _, at := range a.Atoms {
+			for _, v := range []float64{at.Power, at.PeakIrradiance, at.Saturation, at.Rabi, at.OpticalDepth, at.Detuning} {
+				if math.IsNaN(v) || math.IsInf(v, 0) {
+					t.Fatalf("non-finite drive figure at %s element %d: %v", at.Path.Path.Name, at.Row.Element.Index, v)
+				}
+			}
+			if g := at.Goal; g != nil {
+				for _, v := range []float64{g.Intensity, g.PowerAtAtoms, g.SourcePower, g.MarginDB} {
+					if math.IsNaN(v) || math.IsInf(v, 0) {
+						t.Fatalf("non-finite goal figure %+v", g)
+					}
+				}
+			}
+		}
+		for _, f := range a.Findings {
+			if strings.Contains(f.Message, "NaN") || strings.Contains(f.Message, "Inf") {
+				t.Fatalf("finding prints a non-finite number: %s", f.Message)
 			}
 		}
 	})

@@ -2,8 +2,11 @@ package render
 
 import (
 	"encoding/json"
+	"fmt"
 	"io"
 	"math"
+	"reflect"
+	"strings"
 
 	"beamledger/budget"
 	"beamledger/safety"
@@ -175,8 +178,51 @@ func JSON(w io.Writer, a *safety.Assessment) error {
 	for _, f := range a.Findings {
 		doc.Findings = append(doc.Findings, jsonFinding{string(f.Severity), f.Kind, f.Path, f.Element, f.At, f.Message})
 	}
+	if err := nonFinite(reflect.ValueOf(doc), "$"); err != nil {
+		return err
+	}
 	enc := json.NewEncoder(w)
 	enc.SetIndent("", "  ")
 	enc.SetEscapeHTML(false)
 	return enc.Encode(doc)
+}
+
+// nonFinite walks a value and reports the first float that is NaN or
+// infinite, by its place in the document: JSON must carry a value that does
+// not exist as null, never as a number that no reader can take.
+func nonFinite(v reflect.Value, at string) error {
+	switch v.Kind() {
+	case reflect.Float64, reflect.Float32:
+		if f := v.Float(); math.IsNaN(f) || math.IsInf(f, 0) {
+			return fmt.Errorf("internal error: %s is %v; a figure of the assessment is not a finite number", at, f)
+		}
+	case reflect.Pointer, reflect.Interface:
+		if !v.IsNil() {
+			return nonFinite(v.Elem(), at)
+		}
+	case reflect.Struct:
+		for i := 0; i < v.NumField(); i++ {
+			name := v.Type().Field(i).Tag.Get("json")
+			if name == "" {
+				name = v.Type().Field(i).Name
+			}
+			if err := nonFinite(v.Field(i), at+"."+strings.Split(name, ",")[0]); err != nil {
+				return err
+			}
+		}
+	case reflect.Slice, reflect.Array:
+		for i := 0; i < v.Len(); i++ {
+			if err := nonFinite(v.Index(i), fmt.Sprintf("%s[%d]", at, i)); err != nil {
+				return err
+			}
+		}
+	case reflect.Map:
+		iter := v.MapRange()
+		for iter.Next() {
+			if err := nonFinite(iter.Value(), fmt.Sprintf("%s[%v]", at, iter.Key())); err != nil {
+				return err
+			}
+		}
+	}
+	return nil
 }
