@@ -1,6 +1,7 @@
 package budget
 
 import (
+	"fmt"
 	"math"
 	"strings"
 	"testing"
@@ -207,4 +208,97 @@ func TestUnusedLaserNeedsAction(t *testing.T) {
 		}
 	}
 	t.Error("no finding for the unused laser")
+}
+
+// The Rb-87 lines are 7.12 THz apart (Steck, Rubidium 87 D Line Data, rev.
+// 2.2.1, tables 3 and 5: D2 384.230 484 THz, D1 377.107 463 THz). Light 500
+// MHz from D1 is near D1 for a cloud driven on D2, refused; 1064 nm light is
+// far from both; light 10 MHz from D2 is near-resonant on D2.
+func TestNearAnotherLine(t *testing.T) {
+
+	d1 := 377.107463380e12 // Hz, Steck Rb-87 table 5
+	tests := []struct {
+		name        string
+		ν           float64 // Hz
+		far         bool
+		nearLine    string
+		nearLineΔHz float64
+	}{
+		{"500 MHz from D1", d1 + 500e6, false, "Rb87 D1", 500e6},
+		{"1064 nm", atoms.C / 1064e-9, true, "", 0},
+		{"10 MHz from D2", 384.230484468e12 + 10e6, false, "", 0},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			λ := atoms.C / tc.ν
+			src := strings.Replace(okLaser, `"780 nm"`, fmt.Sprintf(`"%.9f nm"`, λ*1e9), 1) + `
+[[cloud]]
+name = "c"
+transition = "Rb87 D2"
+atoms = 1e4
+rms_size = ["10 um", "10 um", "100 um"]
+[[path]]
+name = "p"
+from = "l"
+  [[path.element]]
+  type = "atoms"
+  at = "100 mm"
+  cloud = "c"
+  [[path.element]]
+  type = "dump"
+  at = "300 mm"
+`
+			s, err := Parse("n.toml", []byte(src))
+			if err != nil {
+				t.Fatal(err)
+			}
+			b, err := Compute(s)
+			if err != nil {
+				t.Fatal(err)
+			}
+			a := b.Drive()[0]
+			if a.FarDetuned != tc.far || a.NearLine != tc.nearLine || (tc.nearLine != "" && !near(a.NearLineDetuning/(2*math.Pi), tc.nearLineΔHz, 1e-3)) {
+				t.Errorf("far %v, near %q at %g Hz; want far %v, near %q at %g Hz", a.FarDetuned, a.NearLine, a.NearLineDetuning/(2*math.Pi), tc.far, tc.nearLine, tc.nearLineΔHz)
+			}
+			if (a.Dipole != nil) != tc.far {
+				t.Errorf("dipole figures %v, want %v", a.Dipole != nil, tc.far)
+			}
+		})
+	}
+}
+
+// A stated detuning must agree with the wavelengths to DetuningTolerance of
+// the transition frequency: Rb-87 D2 at 384.230 THz (Steck, table 3) allows
+// 384 GHz; a wavelength written to the nearest nanometre (780 nm, 118 GHz
+// off) passes, 1 nm further (780.24 → 781.24 nm, 492 GHz off) does not.
+func TestStatedDetuningAgainstWavelengths(t *testing.T) {
+	for _, tc := range []struct {
+		wavelength string
+		ok         bool
+	}{{"780 nm", true}, {"780.241 nm", true}, {"781.24 nm", false}, {"1064 nm", false}} {
+		src := strings.Replace(okLaser, `"780 nm"`, `"`+tc.wavelength+`"`, 1) + `detuning = "-20 MHz"
+[[cloud]]
+name = "c"
+transition = "Rb87 D2"
+atoms = 1e4
+rms_size = ["10 um", "10 um", "100 um"]
+[[path]]
+name = "p"
+from = "l"
+  [[path.element]]
+  type = "atoms"
+  at = "100 mm"
+  cloud = "c"
+  [[path.element]]
+  type = "dump"
+  at = "300 mm"
+`
+		_, err := Parse("d.toml", []byte(src))
+		if (err == nil) != tc.ok {
+			t.Errorf("%s: error %v, want accepted %v", tc.wavelength, err, tc.ok)
+		}
+		if err != nil && !strings.Contains(err.Error(), "d.toml:7: laser \"l\"") {
+			t.Errorf("%s: message names no laser line: %v", tc.wavelength, err)
+		}
+	}
 }
