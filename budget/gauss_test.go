@@ -109,3 +109,23 @@ func BenchmarkPropagate(b *testing.B) {
 		_, _ = x.RadiiAt(0.3)
 	}
 }
+
+// A beam whose radius is not a finite positive number is not valid, even
+// when its q looks finite (its 1/q underflows); a beam past the paraxial
+// half-angle is valid but not paraxial.
+func TestBeamValidity(t *testing.T) {
+	λ := 1e-6
+	huge := Beam{Wavelength: λ, X: Plane{Q: complex(-1e200, 1e-200), M2: 1}, Y: NewPlane(1e-3, 0, 1, λ)}
+	if w, _ := huge.Radii(); !math.IsInf(w, 1) && !math.IsNaN(w) {
+		t.Fatalf("test beam has radius %g, want +Inf or NaN", w)
+	}
+	if huge.Valid() {
+		t.Error("a beam of infinite radius passed as valid")
+	}
+	// θ = M² λ / (π W0) (Siegman, Lasers (1986), §17.1): W0 = 0.5 µm at 1 µm
+	// gives 0.637 rad, past the 0.5 rad bound; W0 = 1 µm gives 0.318 rad.
+	tight := Beam{Wavelength: λ, X: NewPlane(0.5e-6, 0, 1, λ), Y: NewPlane(1e-6, 0, 1, λ)}
+	if !tight.Valid() || tight.Paraxial() || !near(tight.HalfAngle(), 1/(2*math.Pi)*4, 1e-9) {
+		t.Errorf("valid %v, paraxial %v, half-angle %g", tight.Valid(), tight.Paraxial(), tight.HalfAngle())
+	}
+}

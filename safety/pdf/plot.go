@@ -70,12 +70,19 @@ func label(v float64) string {
 	return strings.Replace(strings.Replace(s, "e+0", "e", 1), "e+", "e", 1)
 }
 
+// plottable reports whether v can be drawn: a finite number, and positive
+// on a log axis. Other points are left out, never drawn as NaN or Inf
+// operands, which PDF readers refuse.
+func plottable(v float64, log bool) bool {
+	return !math.IsNaN(v) && !math.IsInf(v, 0) && (!log || v > 0)
+}
+
 // dataRange finds the extent of the values, padded; for a log axis only
 // positive values count.
 func dataRange(vals []float64, log, fromZero bool) (float64, float64) {
 	lo, hi := math.Inf(1), math.Inf(-1)
 	for _, v := range vals {
-		if math.IsNaN(v) || math.IsInf(v, 0) || (log && v <= 0) {
+		if !plottable(v, log) {
 			continue
 		}
 		lo, hi = math.Min(lo, v), math.Max(hi, v)
@@ -147,6 +154,9 @@ func (w *writer) plot(p *report.Plot) {
 	// Markers: dotted verticals with labels along them.
 	f.SetFont(font, "", 5.5)
 	for _, m := range p.Markers {
+		if !plottable(m.X, p.LogX) {
+			continue
+		}
 		x := ax.at(m.X)
 		f.SetDashPattern([]float64{0.4, 0.8}, 0)
 		f.SetLineWidth(0.15)
@@ -159,6 +169,9 @@ func (w *writer) plot(p *report.Plot) {
 	}
 	f.SetDrawColor(0, 0, 0)
 	for _, h := range p.HLines {
+		if !plottable(h.Y, p.LogY) {
+			continue
+		}
 		y := ay.at(h.Y)
 		f.SetDashPattern([]float64{2, 0.8, 0.4, 0.8}, 0)
 		f.SetLineWidth(0.3)
@@ -175,7 +188,7 @@ func (w *writer) plot(p *report.Plot) {
 		f.SetLineWidth(0.35)
 		first := true
 		for i := range s.X {
-			if (p.LogX && s.X[i] <= 0) || (p.LogY && s.Y[i] <= 0) || math.IsNaN(s.Y[i]) {
+			if !plottable(s.X[i], p.LogX) || !plottable(s.Y[i], p.LogY) {
 				first = true
 				continue
 			}
@@ -227,6 +240,9 @@ func (w *writer) bars(p *report.Plot, x0, x1, y0, y1 float64) {
 	slot := (x1 - x0) / n
 	f.SetFillColor(170, 170, 170)
 	for i, b := range p.Bars {
+		if !plottable(b.Value, false) {
+			continue
+		}
 		bx := x0 + slot*float64(i) + slot*0.2
 		top := ay.at(b.Value)
 		f.Rect(bx, top, slot*0.6, y1-top, "FD")
