@@ -210,6 +210,28 @@ func TestUnusedLaserNeedsAction(t *testing.T) {
 	t.Error("no finding for the unused laser")
 }
 
+// rbCloudSetup is laser "l" at the given wavelength (with extra keys) on an
+// Rb-87 D2 cloud, then a dump.
+func rbCloudSetup(wavelength, laserExtra string) string {
+	return strings.Replace(okLaser, `"780 nm"`, `"`+wavelength+`"`, 1) + laserExtra + `
+[[cloud]]
+name = "c"
+transition = "Rb87 D2"
+atoms = 1e4
+rms_size = ["10 um", "10 um", "100 um"]
+[[path]]
+name = "p"
+from = "l"
+  [[path.element]]
+  type = "atoms"
+  at = "100 mm"
+  cloud = "c"
+  [[path.element]]
+  type = "dump"
+  at = "300 mm"
+`
+}
+
 // The Rb-87 lines are 7.12 THz apart (Steck, Rubidium 87 D Line Data, rev.
 // 2.2.1, tables 3 and 5: D2 384.230 484 THz, D1 377.107 463 THz). Light 500
 // MHz from D1 is near D1 for a cloud driven on D2, refused; 1064 nm light is
@@ -231,23 +253,7 @@ func TestNearAnotherLine(t *testing.T) {
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
 			λ := atoms.C / tc.ν
-			src := strings.Replace(okLaser, `"780 nm"`, fmt.Sprintf(`"%.9f nm"`, λ*1e9), 1) + `
-[[cloud]]
-name = "c"
-transition = "Rb87 D2"
-atoms = 1e4
-rms_size = ["10 um", "10 um", "100 um"]
-[[path]]
-name = "p"
-from = "l"
-  [[path.element]]
-  type = "atoms"
-  at = "100 mm"
-  cloud = "c"
-  [[path.element]]
-  type = "dump"
-  at = "300 mm"
-`
+			src := rbCloudSetup(fmt.Sprintf("%.9f nm", λ*1e9), "")
 			s, err := Parse("n.toml", []byte(src))
 			if err != nil {
 				t.Fatal(err)
@@ -276,23 +282,7 @@ func TestStatedDetuningAgainstWavelengths(t *testing.T) {
 		wavelength string
 		ok         bool
 	}{{"780 nm", true}, {"780.241 nm", true}, {"781.24 nm", false}, {"1064 nm", false}} {
-		src := strings.Replace(okLaser, `"780 nm"`, `"`+tc.wavelength+`"`, 1) + `detuning = "-20 MHz"
-[[cloud]]
-name = "c"
-transition = "Rb87 D2"
-atoms = 1e4
-rms_size = ["10 um", "10 um", "100 um"]
-[[path]]
-name = "p"
-from = "l"
-  [[path.element]]
-  type = "atoms"
-  at = "100 mm"
-  cloud = "c"
-  [[path.element]]
-  type = "dump"
-  at = "300 mm"
-`
+		src := rbCloudSetup(tc.wavelength, `detuning = "-20 MHz"`)
 		_, err := Parse("d.toml", []byte(src))
 		if (err == nil) != tc.ok {
 			t.Errorf("%s: error %v, want accepted %v", tc.wavelength, err, tc.ok)
