@@ -241,10 +241,7 @@ func (pb *PathBudget) propagate(file string, followed map[*Element]*Path) error 
 			}
 		}
 		// Clipping at the clear aperture (or the iris of an aperture element).
-		clear := e.Aperture
-		if e.Type == TypeAperture && (clear == 0 || e.Diameter < clear) {
-			clear = e.Diameter
-		}
+		clear := e.ClearAperture()
 		if clear > 0 {
 			wx, wy := beam.Radii()
 			row.ClipFraction = CircleFraction(wx, wy, clear/2)

@@ -163,12 +163,9 @@ func (b *Budget) atomsAt(pb *PathBudget, r *Row, c *Cloud) *AtomsResult {
 		a.ScatteringRate = d.ScatteringPerIntensity * a.PeakIrradiance
 		if dr.Depth < 0 && tr.Mass > 0 {
 			u0 := -dr.Depth
-			dr.TrapX = math.Sqrt(4 * u0 / (tr.Mass * wx * wx))
-			dr.TrapY = math.Sqrt(4 * u0 / (tr.Mass * wy * wy))
-			if k := axialCurvature(beam); k < 0 {
-				// U(z) = U0 g(z)/g(0) with g = 1/(Wx Wy); ω_z² = −U0 g''/(g m).
-				dr.TrapAxial = math.Sqrt(-u0 * k / tr.Mass)
-			}
+			dr.TrapX = atoms.RadialTrapFrequency(u0, wx, tr.Mass)
+			dr.TrapY = atoms.RadialTrapFrequency(u0, wy, tr.Mass)
+			dr.TrapAxial = atoms.AxialTrapFrequency(u0, axialCurvature(beam), tr.Mass)
 		}
 		a.Dipole = dr
 	default:
@@ -180,8 +177,11 @@ func (b *Budget) atomsAt(pb *PathBudget, r *Row, c *Cloud) *AtomsResult {
 	return a
 }
 
-// axialCurvature is g”(0)/g(0) for g(z) = 1/(Wx(z) Wy(z)), 1/m², by a
-// central difference on the scale of the shorter Rayleigh range.
+// axialCurvature is κ = g”(0)/g(0) for the on-axis peak irradiance
+// g(z) ∝ 1/(Wx(z) Wy(z)) of the beam at this point, 1/m², by a central
+// difference on the scale of the shorter Rayleigh range. At the focus of a
+// round beam, W² = W0²(1 + z²/z_R²) (Siegman, Lasers (1986), §17.1) gives
+// κ = −2/z_R²; off it, (6u² − 2)/((1 + u²)² z_R²) with u = z/z_R.
 func axialCurvature(beam Beam) float64 {
 	h := 1e-3 * math.Min(beam.X.RayleighRange(), beam.Y.RayleighRange())
 	g := func(z float64) float64 {

@@ -292,3 +292,36 @@ func TestStatedDetuningAgainstWavelengths(t *testing.T) {
 		}
 	}
 }
+
+// The axial curvature of the on-axis irradiance, and the axial trap
+// frequency the drive reports from it: at the focus of a round beam
+// κ = −2/z_R², so ω_z = √(2U0/(m z_R²)) (Grimm et al. (2000), eq. (37));
+// at z = z_R/2, with W² = W0²(1 + z²/z_R²) (Siegman, Lasers (1986), §17.1),
+// κ = (6u² − 2)/((1 + u²)² z_R²) = −0.32/z_R²; past z_R/√3 there is none.
+func TestAxialTrapFrequencyAtAndOffFocus(t *testing.T) {
+	const w0, λ, u0, m = 25e-6, 1064e-9, 1e-27, 1.443160648e-25
+	zR := math.Pi * w0 * w0 / λ
+	focus := Beam{Wavelength: λ, X: NewPlane(w0, 0, 1, λ), Y: NewPlane(w0, 0, 1, λ)}
+	for _, tc := range []struct {
+		name string
+		z    float64 // distance of the atoms past the focus, m
+		κ    float64 // 1/m²
+	}{
+		{"at the focus", 0, -2 / (zR * zR)},
+		{"half a Rayleigh range off", zR / 2, -0.32 / (zR * zR)},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			b := focus.Propagate(tc.z)
+			if got := axialCurvature(b); !near(got, tc.κ, 1e-5) {
+				t.Errorf("κ = %g, want %g", got, tc.κ)
+			}
+			want := math.Sqrt(-u0 * tc.κ / m)
+			if got := atoms.AxialTrapFrequency(u0, axialCurvature(b), m); !near(got, want, 1e-5) {
+				t.Errorf("ω_z = %g, want %g", got, want)
+			}
+		})
+	}
+	if κ := axialCurvature(focus.Propagate(zR)); κ <= 0 || !math.IsNaN(atoms.AxialTrapFrequency(u0, κ, m)) {
+		t.Errorf("one Rayleigh range off the focus: κ = %g, want positive and no frequency", κ)
+	}
+}

@@ -68,10 +68,7 @@ func (b *Budget) Findings() []Finding {
 		for _, r := range pb.Rows {
 			e := r.Element
 			where := fmt.Sprintf("%s %d (%s)", "element", e.Index, e.Label())
-			clear := e.Aperture
-			if e.Type == TypeAperture && (clear == 0 || e.Diameter < clear) {
-				clear = e.Diameter
-			}
+			clear := e.ClearAperture()
 			if clear > 0 {
 				wx, wy := r.BeamIn.Radii()
 				w := math.Max(wx, wy)

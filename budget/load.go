@@ -13,6 +13,8 @@ import (
 	"unicode/utf8"
 
 	"github.com/BurntSushi/toml"
+
+	"beamledger/limits"
 )
 
 // MaxSetupBytes bounds the size of a setup file the loader reads.
@@ -282,7 +284,7 @@ var fieldRange = map[string][2]float64{
 	"saturation_intensity": {1e-12, 1e12}, "mass": {1e-30, 1e-20}, "atoms": {1, 1e15}, "rms_size": {1e-7, 1},
 	"m2": {0, 1e4}, "goal_factor": {1e-3, 1e3}, "goal_value": {1e-12, 1e12},
 	"repetition_rate":  {1e-4, 1e12},
-	"damage_threshold": {1e-6, 1e20}, "damage_pulse_duration": {1e-15, 3e4},
+	"damage_threshold": {1e-6, 1e20}, "damage_pulse_duration": {1e-15, limits.MaxDuration},
 	"from": {MinWavelength, MaxWavelength}, "to": {MinWavelength, MaxWavelength}, "od": {0, 20},
 }
 

@@ -6,12 +6,13 @@ import (
 	"strings"
 
 	"beamledger/budget/atoms"
+	"beamledger/limits"
 )
 
 // Wavelength range a setup may use: the span of the exposure limits, m.
 const (
-	MinWavelength = 180e-9
-	MaxWavelength = 1e-3
+	MinWavelength = limits.MinWavelength
+	MaxWavelength = limits.MaxWavelength
 )
 
 // Size limits of a setup. A real table holds a few lasers and some hundreds
@@ -39,7 +40,7 @@ func (l *loader) setup(raw map[string]any) *Setup {
 		s.Meta.Exposure = t.positive("exposure", Time, false)
 		s.Meta.ExposureReason = t.str("exposure_reason", false)
 		switch e := s.Meta.Exposure; {
-		case e > 0 && (e < MinExposure || e > 3e4):
+		case e > 0 && (e < MinExposure || e > limits.MaxDuration):
 			t.fail("exposure", "%s is outside %g s to 3e4 s: no viewing of a beam is shorter than %g s here, and the limits end at 3e4 s", show(m["exposure"]), MinExposure, MinExposure)
 		case e > 0 && e < AversionExposure && strings.TrimSpace(s.Meta.ExposureReason) == "":
 			t.fail("exposure", "%s is shorter than the %g s aversion response; a shorter viewing duration needs exposure_reason, saying why the laser safety officer accepts it", show(m["exposure"]), AversionExposure)
@@ -146,7 +147,7 @@ func (l *loader) laser(i int, m map[string]any) *Laser {
 	las.Emission = t.enum("emission", EmissionCW, EmissionCW, EmissionPulsed)
 	if las.Emission == EmissionPulsed {
 		las.PulseDuration = t.positive("pulse_duration", Time, true)
-		if d := las.PulseDuration; d > 0 && (d < 1e-13 || d > 3e4) {
+		if d := las.PulseDuration; d > 0 && (d < limits.MinDuration || d > limits.MaxDuration) {
 			t.fail("pulse_duration", "%s is outside 1e-13 s to 3e4 s, the span of the exposure limits", show(m["pulse_duration"]))
 		}
 		las.RepetitionRate = t.positive("repetition_rate", Frequency, true)

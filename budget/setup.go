@@ -161,6 +161,16 @@ type Element struct {
 	DamageIsFluence     bool
 }
 
+// ClearAperture is the diameter that limits the beam at the element, m (0:
+// none): its stated clear aperture, or an iris's diameter when smaller.
+func (e *Element) ClearAperture() float64 {
+	clear := e.Aperture
+	if e.Type == TypeAperture && (clear == 0 || e.Diameter < clear) {
+		clear = e.Diameter
+	}
+	return clear
+}
+
 // Label is how the element is named in output: its name, else its type.
 func (e *Element) Label() string {
 	if e.Name != "" {

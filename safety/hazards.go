@@ -59,6 +59,13 @@ func ViewingDuration(s *budget.Setup, λ float64) float64 {
 	if s.Meta.Exposure > 0 {
 		return s.Meta.Exposure
 	}
+	return DefaultDuration(λ)
+}
+
+// DefaultDuration is the viewing duration assumed for unintended exposure at
+// wavelength λ (m) when the setup states none: the 0.25 s aversion response
+// in 400–700 nm, 10 s elsewhere, s.
+func DefaultDuration(λ float64) float64 {
 	if λ >= 400e-9 && λ <= 700e-9 {
 		return DurationVisible
 	}
@@ -355,7 +362,7 @@ func assumedNote(assumed bool) string {
 // power p: r = √(ρ P cos θ / (π MPE)) at θ = 0, with the small-source MPE
 // (conservative).
 func diffuse(pb *budget.PathBudget, el *budget.Element, ll *LaserLimits, p, ρ float64, assumed bool) *Reflection {
-	r := limits.RoundUp(math.Sqrt(ρ*p/(math.Pi*ll.EyeIrradiance)), 3)
+	r := limits.RoundUp(DiffuseHazardRadius(ρ, p, 1, ll.EyeIrradiance), 3)
 	return &Reflection{Path: pb, Element: el, Kind: "diffuse", Reflectance: ρ, Assumed: assumed, Surfaces: 1, Power: p, Radius: r, Laser: ll}
 }
 
@@ -413,7 +420,7 @@ func damage(pb *budget.PathBudget, r *budget.Row, p float64) []budget.Finding {
 			}
 		case el.DamageIsFluence && las.Emission == budget.EmissionPulsed:
 			ep := p / las.RepetitionRate
-			f := 2 * ep / (math.Pi * wx * wy)
+			f := r.BeamIn.PeakIrradiance(ep) // peak fluence 2E/(πWxWy), same form as the irradiance
 			// Scale the rated fluence by √(τ/τ_rated) (common practice).
 			thr := el.DamageThreshold * math.Sqrt(las.PulseDuration/el.DamagePulseDuration)
 			if f > thr {

@@ -153,7 +153,8 @@ func TestRb1064(t *testing.T) {
 	if ratio < 1.13 || ratio > 1.18 {
 		t.Errorf("full/RWA = %.3f, want about 1.15", ratio)
 	}
-	if α := d.Polarizability(); math.Abs(α-687)/687 > 0.03 {
+	// U = −α I/(2 ε0 c) (Grimm et al. (2000), eq. (4)), α in atomic units.
+	if α := -d.PotentialPerIntensity * 2 * Eps0 * C / AUPol; math.Abs(α-687)/687 > 0.03 {
 		t.Errorf("α(1064 nm) = %.1f a.u., want ≈ 687 a.u. within 3 %%", α)
 	}
 	// A red-detuned beam attracts; a blue one (532 nm) repels.
@@ -165,7 +166,7 @@ func TestRb1064(t *testing.T) {
 // Trap frequencies of a single focused beam: ω_r = √(4U0/(m w0²)),
 // ω_z = √(2U0/(m z_R²)) (Grimm et al. (2000), eq. (37)); here against
 // the curvature of U(r, z) = −U0 (w0/w(z))² exp(−2r²/w(z)²) by finite
-// differences.
+// differences, with κ = −2/z_R² at the focus.
 func TestTrapFrequencies(t *testing.T) {
 	const u0, w0, λ = 1e-27, 30e-6, 1064e-9
 	m := 1.443160648e-25
@@ -178,9 +179,12 @@ func TestTrapFrequencies(t *testing.T) {
 	kr := (U(h, 0) - 2*U(0, 0) + U(-h, 0)) / (h * h)
 	hz := 1e-6
 	kz := (U(0, hz) - 2*U(0, 0) + U(0, -hz)) / (hz * hz)
-	ωx, _, ωz := TrapFrequencies(u0, w0, w0, zR, m)
-	if !close(ωx, math.Sqrt(kr/m), 1e-4) || !close(ωz, math.Sqrt(kz/m), 1e-4) {
-		t.Errorf("ω_r = %g (curvature %g), ω_z = %g (curvature %g)", ωx, math.Sqrt(kr/m), ωz, math.Sqrt(kz/m))
+	ωr, ωz := RadialTrapFrequency(u0, w0, m), AxialTrapFrequency(u0, -2/(zR*zR), m)
+	if !close(ωr, math.Sqrt(kr/m), 1e-4) || !close(ωz, math.Sqrt(kz/m), 1e-4) {
+		t.Errorf("ω_r = %g (curvature %g), ω_z = %g (curvature %g)", ωr, math.Sqrt(kr/m), ωz, math.Sqrt(kz/m))
+	}
+	if !math.IsNaN(AxialTrapFrequency(u0, 1/(zR*zR), m)) {
+		t.Error("a positive curvature (past z_R/√3 from the focus) must give no axial frequency")
 	}
 }
 

@@ -57,16 +57,20 @@ func FarDetuned(lines []Line, ω float64) Dipole {
 	return d
 }
 
-// Polarizability is the ground-state dynamic polarizability in atomic units
-// implied by U = −α I / (2 ε0 c) (Grimm et al. (2000), eq. (4)).
-func (d Dipole) Polarizability() float64 {
-	return -d.PotentialPerIntensity * 2 * Eps0 * C / AUPol
-}
+// RadialTrapFrequency is the harmonic trap frequency across a Gaussian
+// beam of depth U0 (J, > 0) and 1/e² radius w (m) at the atoms, for mass m
+// (kg): ω_r = √(4U0/(m w²)), rad/s (Grimm, Weidemüller and Ovchinnikov
+// (2000), eq. (37)).
+func RadialTrapFrequency(u0, w, m float64) float64 { return math.Sqrt(4 * u0 / (m * w * w)) }
 
-// TrapFrequencies of a single focused Gaussian beam of depth U0 (J, > 0),
-// 1/e² waist radii wx, wy and Rayleigh range zR (m) for mass m (kg): the
-// harmonic approximations ω_r = √(4U0/(m w²)) and ω_z = √(2U0/(m zR²)),
-// rad/s (Grimm et al. (2000), §4.1.1).
-func TrapFrequencies(u0, wx, wy, zR, m float64) (ωx, ωy, ωz float64) {
-	return math.Sqrt(4 * u0 / (m * wx * wx)), math.Sqrt(4 * u0 / (m * wy * wy)), math.Sqrt(2 * u0 / (m * zR * zR))
+// AxialTrapFrequency is the harmonic trap frequency along a beam of depth U0
+// (J, > 0) for mass m (kg), from the relative curvature κ = I''(z)/I(z) of
+// the on-axis intensity at the atoms (1/m²): ω_z = √(−U0 κ/m), rad/s; NaN
+// where κ ≥ 0 (no confinement along the beam there). At the focus of a round
+// beam κ = −2/z_R² and ω_z = √(2U0/(m z_R²)) (Grimm et al. (2000), eq. (37)).
+func AxialTrapFrequency(u0, κ, m float64) float64 {
+	if κ >= 0 {
+		return math.NaN()
+	}
+	return math.Sqrt(-u0 * κ / m)
 }

@@ -62,8 +62,8 @@ and never replace, your laser safety officer's evaluation.`,
 // beam, and would only give a meaningless figure.
 var flagRange = map[string][2]float64{
 	"wavelength":       {budget.MinWavelength, budget.MaxWavelength},
-	"duration":         {1e-13, 3e4}, // the span of the exposure limits
-	"pulse-duration":   {1e-13, 3e4},
+	"duration":         {limits.MinDuration, limits.MaxDuration},
+	"pulse-duration":   {limits.MinDuration, limits.MaxDuration},
 	"repetition-rate":  {1e-4, 1e12},
 	"angular-subtense": {0, 1}, // past α_max = 0.1 rad nothing changes
 	"power":            {1e-15, 1e15},
@@ -160,10 +160,7 @@ func computeLimits(o *limitsOptions) (*limitsResult, error) {
 		return nil, err
 	}
 	if !ok {
-		t = safety.DurationOther
-		if λ >= 400e-9 && λ <= 700e-9 {
-			t = safety.DurationVisible
-		}
+		t = safety.DefaultDuration(λ)
 	}
 	α, _, err := flagQuantity("angular-subtense", o.angularSubtense, budget.Angle)
 	if err != nil {
