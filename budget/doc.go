@@ -20,4 +20,31 @@
 //   - Power budget: every element's loss is named; an element whose loss is
 //     not stated is lossless, and counted as such. For each laser, dumps +
 //     open ends + losses = the source power.
+//
+// # Formulas
+//
+// Every figure the package computes: its expression, the source it is
+// checked against, the one function that computes it and the test that
+// checks that function (TestFormulaIndex keeps this table true: each
+// function exists and is called by production code, each test exists and
+// calls it).
+//
+//	| quantity | expression | source | function | test |
+//	| --- | --- | --- | --- | --- |
+//	| beam radius W(z) | 1/q = 1/R − i M²λ/(πW²) | Saleh & Teich (2007) eqs. (3.1-8)–(3.1-19); Siegman (1986) §17.4 | Plane.Radius | TestPlaneTextbookHeNe |
+//	| Rayleigh range | z_R = πW0²/(M²λ) | Saleh & Teich (2007) eq. (3.1-11) | Plane.RayleighRange | TestPlaneM2 |
+//	| far-field half-angle | θ = M²λ/(πW0) | Saleh & Teich (2007) eq. (3.1-19) | Plane.Divergence | TestPlaneTextbookHeNe |
+//	| thin lens | ABCD (1, 0; −1/f, 1) | Self, Appl. Opt. 22, 658 (1983) | Plane.Lens | TestLensSelf1983 |
+//	| plate focus shift | t(1 − 1/n) | Siegman (1986) §15.1 | Beam.Slab | TestSlabFocusShift |
+//	| peak irradiance | I₀ = 2P/(π Wx Wy) | Siegman (1986) §17.1 | Beam.PeakIrradiance | TestPeakIrradiance |
+//	| power for a peak irradiance | P = I₀ π Wx Wy / 2 | Siegman (1986) §17.1 | Beam.PowerForPeakIrradiance | TestPeakIrradiance |
+//	| paraxial bound | θ ≤ 0.5 rad | Siegman (1986) §16.1 (common practice) | Beam.HalfAngle | TestBeamValidity |
+//	| clipped fraction | ∬ over a centred circle of an elliptical Gaussian | 1 − exp(−2a²/W²); gonum quadrature | CircleFraction | TestCircleFractionEllipticalQuadrature |
+//	| fibre mode overlap | Marcuse overlap per plane, GSM lowest mode 2/(M²+1) | Marcuse (1977); Starikov & Wolf (1982) | ModeOverlap1D | TestModeOverlapGSMLowestMode |
+//	| fibre coupling of a beam | product of the x and y overlaps | Marcuse (1977) | FiberOverlap | TestFiberOverlapRoundMarcuse |
+//	| ideal coupling lens | f matching the mode to the beam | Marcuse (1977), thin lens | IdealCouplingFocalLength | TestIdealCouplingFocalLength |
+//	| fibre output waist | W = λf/(π MFD/2) | Gaussian far field, common practice | FiberOutputWaist | TestFiberOutputWaist |
+//	| axial curvature of I | κ = g''/g, g = 1/(Wx Wy) | Siegman (1986) §17.1 (κ = −2/z_R² at a focus) | axialCurvature | TestAxialTrapFrequencyAtAndOffFocus |
+//	| light frequency | ν = c/λ + AOM shifts | CODATA c; Steck Rb-87 table 3 | LightFrequency | TestLightFrequency |
+//	| loss in dB | 10 log10(ratio) | common practice | Decibels | TestDecibels |
 package budget

@@ -325,3 +325,13 @@ func TestAxialTrapFrequencyAtAndOffFocus(t *testing.T) {
 		t.Errorf("one Rayleigh range off the focus: κ = %g, want positive and no frequency", κ)
 	}
 }
+
+// The light's frequency is c/λ plus the AOM shifts, with c = 299 792 458 m/s
+// (CODATA, exact): 780.241 209 686 nm is 384.230 484 THz, the Rb-87 D2 line
+// (Steck, Rubidium 87 D Line Data, rev. 2.2.1, table 3: 384.230 484 468 5 THz).
+func TestLightFrequency(t *testing.T) {
+	las := &Laser{Wavelength: 780.241209686e-9}
+	if got := LightFrequency(las, -80e6); !near(got, 384.2304844685e12-80e6, 1e-10) {
+		t.Errorf("ν = %.6f THz", got/1e12)
+	}
+}

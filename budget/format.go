@@ -62,6 +62,5 @@ func FormatIrradiance(wm2 float64) string { return FormatSI(wm2*1e-4, "W/cm²") 
 // FormatFrequency writes a frequency in Hz with a prefix.
 func FormatFrequency(hz float64) string { return FormatSI(hz, "Hz") }
 
-
 // Decibels of a power ratio out/in (negative for a loss).
 func Decibels(ratio float64) float64 { return 10 * math.Log10(ratio) }

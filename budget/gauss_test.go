@@ -129,3 +129,28 @@ func TestBeamValidity(t *testing.T) {
 		t.Errorf("valid %v, paraxial %v, half-angle %g", tight.Valid(), tight.Paraxial(), tight.HalfAngle())
 	}
 }
+
+// Peak irradiance of a Gaussian beam, I₀ = 2P/(π Wx Wy) (Siegman, Lasers
+// (1986), §17.1, the on-axis value of I(r) = (2P/πW²) exp(−2r²/W²)): 1 mW
+// in a round 1 mm beam is 636.62 W/m²; PowerForPeakIrradiance inverts it.
+func TestPeakIrradiance(t *testing.T) {
+	λ := 780e-9
+	b := Beam{Wavelength: λ, X: NewPlane(1e-3, 0, 1, λ), Y: NewPlane(0.5e-3, 0, 1, λ)}
+	round := Beam{Wavelength: λ, X: NewPlane(1e-3, 0, 1, λ), Y: NewPlane(1e-3, 0, 1, λ)}
+	if got := round.PeakIrradiance(1e-3); !near(got, 636.6198, 1e-6) {
+		t.Errorf("I0 = %g W/m², want 636.62", got)
+	}
+	if got := b.PeakIrradiance(1e-3); !near(got, 2*636.6198, 1e-6) {
+		t.Errorf("elliptical I0 = %g W/m², want 1273.24", got)
+	}
+	if got := b.PowerForPeakIrradiance(b.PeakIrradiance(0.37)); !near(got, 0.37, 1e-12) {
+		t.Errorf("inverse gives %g W", got)
+	}
+}
+
+// Decibels: 10 log10 of a power ratio (common practice): 0.5 is −3.0103 dB.
+func TestDecibels(t *testing.T) {
+	if got := Decibels(0.5); !near(got, -3.0103, 1e-5) {
+		t.Errorf("got %g", got)
+	}
+}

@@ -343,3 +343,12 @@ func BenchmarkEyeMPE(b *testing.B) {
 		EyeMPE(780e-9, 10, 0)
 	}
 }
+
+// The 1/e diameter of a Gaussian beam is the 1/e² diameter over √2 (the
+// intensity falls to 1/e at r = W/√2; IEC 60825-1:2014 defines beam
+// diameters and divergences at 1/e, common practice): a 2 mm beam is
+// 1.414 mm at 1/e.
+func ExampleOneOverEDiameter() {
+	fmt.Printf("%.4f mm\n", OneOverEDiameter(2e-3)*1e3)
+	// Output: 1.4142 mm
+}

@@ -4,4 +4,20 @@
 //
 // Conventions: SI base units throughout (m, W, s, W/m²); beam sizes are
 // 1/e² intensity radii. Hazard figures use each laser's maximum power.
+//
+// # Formulas
+//
+// Every figure the package computes: its expression, the source it is
+// checked against, the one function that computes it and the test that
+// checks that function (TestFormulaIndex keeps this table true: each
+// function exists and is called by production code, each test exists and
+// calls it).
+//
+//	| quantity | expression | source | function | test |
+//	| --- | --- | --- | --- | --- |
+//	| aperture-averaged irradiance | P·fraction(circle of D)/(πD²/4), exact elliptical fraction | IEC 60825-1:2014 limiting apertures; 1 − exp(−2a²/W²) | apertureIrradiance | TestApertureIrradianceRound |
+//	| worst point of a segment | maximum between the x and y waists | golden-section search | maxAlong | TestMaxAlongFindsFocus |
+//	| hazard distance | propagated until below the MPE | IEC closed form for a diverging beam | hazardDistance | TestHazardDistanceMatchesClosedForm |
+//	| diffuse hazard zone | r = √(ρP cos θ/(π MPE)) | Lambertian reflector, by hand | DiffuseHazardRadius | ExampleDiffuseHazardRadius |
+//	| default viewing duration | 0.25 s in 400–700 nm, else 10 s | IEC 60825-1:2014 (from memory) | DefaultDuration | TestDefaultDuration |
 package safety

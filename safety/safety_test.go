@@ -1,6 +1,7 @@
 package safety
 
 import (
+	"fmt"
 	"math"
 	"os"
 	"path/filepath"
@@ -99,11 +100,14 @@ func TestHazardDistanceMatchesClosedForm(t *testing.T) {
 }
 
 // A Lambertian reflector's hazard zone r = √(ρP cos θ/(π E_MPE)): 1 W,
-// ρ = 1, θ = 0, MPE 10 W/m² gives 0.1784 m (evaluated by hand).
-func TestDiffuseRadius(t *testing.T) {
-	if got := DiffuseHazardRadius(1, 1, 1, 10); math.Abs(got-0.178412) > 1e-6 {
-		t.Errorf("r = %g", got)
-	}
+// ρ = 1, θ = 0, MPE 10 W/m² gives 0.1784 m (evaluated by hand); at θ = 60°
+// the zone shrinks by √cos θ = 0.7071.
+func ExampleDiffuseHazardRadius() {
+	fmt.Printf("%.4f m\n", DiffuseHazardRadius(1, 1, 1, 10))
+	fmt.Printf("%.4f m\n", DiffuseHazardRadius(1, 1, 0.5, 10))
+	// Output:
+	// 0.1784 m
+	// 0.1262 m
 }
 
 // messages lists the messages of the findings of one kind.
@@ -400,5 +404,16 @@ access = "enclosed"
 	over := strings.Replace(pulsed, `"0.5 J/cm2"`, `"0.08 J/cm2"`, 1) // scaled: 0.0566 J/cm² < 0.0637
 	if got := found(load(t, over)); len(got) != 1 || !strings.Contains(got[0], "peak fluence 63.66 mJ/cm²") {
 		t.Errorf("pulsed above the scaled threshold: %q", got)
+	}
+}
+
+// Default viewing durations: the 0.25 s aversion response for visible light
+// (400–700 nm) and 10 s elsewhere for unintended viewing (IEC 60825-1:2014,
+// the time bases of classification, from memory).
+func TestDefaultDuration(t *testing.T) {
+	for _, tc := range []struct{ λ, want float64 }{{400e-9, 0.25}, {633e-9, 0.25}, {700e-9, 0.25}, {399e-9, 10}, {780e-9, 10}, {10.6e-6, 10}} {
+		if got := DefaultDuration(tc.λ); got != tc.want {
+			t.Errorf("%g m: %g s, want %g s", tc.λ, got, tc.want)
+		}
 	}
 }

@@ -108,6 +108,10 @@ func TestRabiAndScattering(t *testing.T) {
 	if got := SaturationForRabi(Γ, Rabi(Γ, 3.7)); !close(got, 3.7, 1e-14) {
 		t.Errorf("round trip s = %g", got)
 	}
+	// s = I/I_sat: 1.66933 mW/cm² on Rb-87 D2 (Steck, table 3) is s = 1.
+	if got := Saturation(16.6933, 16.6933); got != 1 {
+		t.Errorf("s(I = I_sat) = %g", got)
+	}
 }
 
 // Dipole potential for one line against Grimm et al. (2000) directly:
@@ -206,5 +210,37 @@ func BenchmarkFarDetuned(b *testing.B) {
 	ω := 2 * math.Pi * C / 1064e-9
 	for i := 0; i < b.N; i++ {
 		FarDetuned(tr.Lines, ω)
+	}
+}
+
+// Line weights in the ground-state polarizability, (2J′+1)/(3(2J+1)) for
+// linear polarization (Grimm et al. (2000), eq. (19)): an alkali D2 line
+// 2/3, D1 1/3, a J = 0 → 1 line 1.
+func TestLineWeights(t *testing.T) {
+	rb, _ := Lookup("Rb87 D2")
+	sr, _ := Lookup("Sr88 461 nm")
+	for _, tc := range []struct {
+		l    Line
+		want float64
+	}{{rb.Lines[0], 2.0 / 3}, {rb.Lines[1], 1.0 / 3}, {sr.Lines[0], 1}} {
+		if got := tc.l.Weight(); !close(got, tc.want, 1e-12) {
+			t.Errorf("%s: weight %g, want %g", tc.l.Name, got, tc.want)
+		}
+	}
+}
+
+// The nearest line, in linewidths, to light 1 GHz above the Rb-87 D1 line
+// (Steck, Rubidium 87 D Line Data, rev. 2.2.1, table 5: 377.107 463 380 THz)
+// is D1, 1 GHz away; to 1064 nm light it is D1 as well (the closer line in
+// linewidths: 95.3 THz from D1 against 102.5 THz from D2, with Γ_D1 < Γ_D2).
+func TestNearestLine(t *testing.T) {
+	rb, _ := Lookup("Rb87 D2")
+	ν := 377.107463380e12 + 1e9
+	l, δ := rb.NearestLine(2 * math.Pi * ν)
+	if l.Name != "Rb87 D1" || !close(δ/(2*math.Pi), 1e9, 1e-5) {
+		t.Errorf("nearest %s at %g Hz", l.Name, δ/(2*math.Pi))
+	}
+	if l, _ := rb.NearestLine(2 * math.Pi * C / 1064e-9); l.Name != "Rb87 D1" {
+		t.Errorf("nearest to 1064 nm: %s", l.Name)
 	}
 }

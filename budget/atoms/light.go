@@ -64,7 +64,7 @@ func FarDetuned(lines []Line, ω float64) Dipole {
 func RadialTrapFrequency(u0, w, m float64) float64 { return math.Sqrt(4 * u0 / (m * w * w)) }
 
 // AxialTrapFrequency is the harmonic trap frequency along a beam of depth U0
-// (J, > 0) for mass m (kg), from the relative curvature κ = I''(z)/I(z) of
+// (J, > 0) for mass m (kg), from the relative curvature κ = I”(z)/I(z) of
 // the on-axis intensity at the atoms (1/m²): ω_z = √(−U0 κ/m), rad/s; NaN
 // where κ ≥ 0 (no confinement along the beam there). At the focus of a round
 // beam κ = −2/z_R² and ω_z = √(2U0/(m z_R²)) (Grimm et al. (2000), eq. (37)).

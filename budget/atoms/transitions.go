@@ -5,6 +5,31 @@
 //
 // Units are SI: Γ and Ω in rad/s, intensities in W/m², masses in kg.
 // Constants come from gonum's CODATA values.
+//
+// # Formulas
+//
+// Every figure the package computes: its expression, the source it is
+// checked against, the one function that computes it and the test that
+// checks that function (TestFormulaIndex keeps this table true: each
+// function exists and is called by production code, each test exists and
+// calls it).
+//
+//	| quantity | expression | source | function | test |
+//	| --- | --- | --- | --- | --- |
+//	| two-level I_sat | π h c Γ/(3λ³) | Steck D-line data sheets | TwoLevelIsat | TestTwoLevelIsatReproducesDataSheets |
+//	| resonant cross-section | σ0 = ħωΓ/(2 I_sat) | Steck D-line data sheets | CrossSection | TestTwoLevelIsatReproducesDataSheets |
+//	| saturation parameter | s = I/I_sat | Steck D-line data sheets | Saturation | TestRabiAndScattering |
+//	| Rabi frequency | Ω = Γ√(s/2) | Steck D-line data sheets | Rabi | TestRabiAndScattering |
+//	| saturation for a Rabi frequency | s = 2(Ω/Γ)² | Steck D-line data sheets | SaturationForRabi | TestRabiAndScattering |
+//	| scattering rate | (Γ/2) s/(1 + s + (2Δ/Γ)²) | Steck Rb-87 sheet eq. (48) | ScatteringRate | TestRabiAndScattering |
+//	| resonant optical depth | b0 = σ0 N/(2π σx σy) | column density, gonum quadrature | OpticalDepth | TestOpticalDepthColumn |
+//	| dipole potential and scattering | Grimm eqs. (9), (10), lines summed | Grimm et al. (2000) | FarDetuned | TestDipolePotentialGrimm |
+//	| line weight | (2J′+1)/(3(2J+1)) | Grimm et al. (2000) eq. (19) | Line.Weight | TestLineWeights |
+//	| radial trap frequency | ω_r = √(4U0/(m W²)) | Grimm et al. (2000) eq. (37) | RadialTrapFrequency | TestTrapFrequencies |
+//	| axial trap frequency | ω_z = √(−U0 κ/m) | Grimm et al. (2000) eq. (37) | AxialTrapFrequency | TestTrapFrequencies |
+//	| nearest line | min over lines of abs(ω − ω_i)/Γ_i | Steck Rb-87 tables 3 and 5 | Transition.NearestLine | TestNearestLine |
+//	| collective threshold | Ω_c = DΓ/8, s_c = D²/32 | Drummond & Carmichael (1978); Carmichael (1980) | CollectiveThreshold | TestCollectiveThresholdBand |
+//	| threshold from a stated rate | Ω_c = NΓ_c/2 | Carmichael (1980) | CollectiveFromRate | TestCollectiveThresholdBand |
 package atoms
 
 import (
