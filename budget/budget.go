@@ -248,68 +248,10 @@ func (pb *PathBudget) propagate(file string, followed map[*Element]*Path) error 
 			lose(LossClipping, frac*(1-row.ClipFraction))
 			frac *= row.ClipFraction
 		}
-		stated := func(kind string, t *float64) {
-			if t != nil {
-				lose(kind, frac*(1-*t))
-				frac *= *t
-			}
-		}
-		switch e.Type {
-		case TypeLens:
-			beam = beam.Lens(e.FocalLength)
-			stated(LossAbsorption, e.Transmission)
-			row.AssumedLossless = e.Transmission == nil
-			lastLens = i
-		case TypeMirror:
-			if e.RadiusOfCurvature != 0 {
-				beam = beam.Lens(e.RadiusOfCurvature / 2)
-			}
-			stated(LossMirror, e.Reflectivity)
-			row.AssumedLossless = e.Reflectivity == nil
-		case TypeWindow:
-			if e.Thickness > 0 {
-				beam = beam.Slab(e.Thickness, e.RefractiveIndex)
-			}
-			stated(LossAbsorption, e.Transmission)
-			row.AssumedLossless = e.Transmission == nil
-		case TypeAOM:
-			stated(LossAbsorption, e.Transmission)
-			if e.Efficiency != nil {
-				t := math.Pow(*e.Efficiency, float64(e.Passes))
-				stated(LossDiffraction, &t)
-			}
-			row.AssumedLossless = e.Transmission == nil && e.Efficiency == nil
-		case TypeFilter:
-			stated(LossAbsorption, e.Transmission)
-			if e.OpticalDensity != nil {
-				t := math.Pow(10, -*e.OpticalDensity)
-				stated(LossFilter, &t)
-			}
-		case TypeAperture, TypeAtoms:
-			stated(LossAbsorption, e.Transmission)
-		case TypeSplitter:
-			if followed[e] == nil {
-				lose(LossSplitterPort, frac*(1-*e.Transmission))
-				pb.UnfollowedPorts = append(pb.UnfollowedPorts, e)
-			}
-			frac *= *e.Transmission
-		case TypeFiber:
-			fc := pb.couple(e, beam, lastLens)
-			row.Fiber = fc
-			lose(LossCoupling, frac*(1-fc.Coupling))
-			frac *= fc.Coupling
-			stated(LossAbsorption, e.Transmission)
-			w := e.OutputWaist
-			if w == 0 {
-				w = FiberOutputWaist(beam.Wavelength, e.OutputFocalLength, e.ModeFieldDiameter)
-			}
-			beam = Beam{Wavelength: beam.Wavelength, X: NewPlane(w, 0, 1, beam.Wavelength), Y: NewPlane(w, 0, 1, beam.Wavelength)}
-			lastLens = -1
-		case TypeDump:
-			stated(LossAbsorption, e.Transmission)
-			lose(LossDump, frac)
-			frac = 0
-		}
+		st := &stage{pb: pb, followed: followed, index: i, lastLens: lastLens, beam: beam, frac: frac, row: &row}
+		kind, _ := KindOf(e.Type)
+		kind.apply(st, e)
+		beam, frac, lastLens = st.beam, st.frac, st.lastLens
 		if !beam.Valid() {
 			return &InputError{[]string{fmt.Sprintf("%s:%d: path %q, element %d (%s): the beam is not a finite Gaussian beam after this element; check its numbers", file, e.Line, p.Name, e.Index, e.Type)}}
 		}

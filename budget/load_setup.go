@@ -279,33 +279,26 @@ func (l *loader) path(i int, m map[string]any) *Path {
 	return p
 }
 
-// elementKeys lists the keys each element type takes besides the common ones.
-var elementKeys = map[string][]string{
-	TypeLens:     {"focal_length"},
-	TypeMirror:   {"reflectivity", "radius_of_curvature"},
-	TypeWindow:   {"thickness", "index"},
-	TypeAOM:      {"efficiency", "frequency", "order", "passes"},
-	TypeFilter:   {"optical_density"},
-	TypeAperture: {"diameter"},
-	TypeSplitter: {},
-	TypeFiber:    {"mode_field_diameter", "alignment", "coupling", "output_waist", "output_focal_length"},
-	TypeAtoms:    {"cloud", "goal", "goal_value", "goal_factor", "detuning"},
-	TypeDump:     {"rating", "diffuse_reflectance"},
-}
-
 // commonElementKeys are taken by every element type.
 var commonElementKeys = []string{"type", "name", "at", "aperture", "transmission", "access", "surface_reflectance", "damage_threshold", "damage_pulse_duration"}
 
-// ElementTypes lists the element types in a fixed order.
-var ElementTypes = []string{TypeLens, TypeMirror, TypeWindow, TypeAOM, TypeFilter, TypeAperture, TypeSplitter, TypeFiber, TypeAtoms, TypeDump}
+// typeNames lists the element types for messages.
+func typeNames() string {
+	names := make([]string, len(Kinds))
+	for i, k := range Kinds {
+		names[i] = string(k.Type)
+	}
+	return strings.Join(names, ", ")
+}
 
 func (l *loader) element(p *Path, pathContext, loc string, k int, m map[string]any) *Element {
 	t := l.table(fmt.Sprintf("%s, element %d", pathContext, k+1), loc, m)
 	e := &Element{Index: k + 1, Line: l.lines[loc]}
-	e.Type = t.str("type", true)
-	if _, ok := elementKeys[e.Type]; !ok {
+	e.Type = ElementType(t.str("type", true))
+	kind, ok := KindOf(e.Type)
+	if !ok {
 		if e.Type != "" {
-			t.fail("type", "unknown element type %q (want one of %s)", e.Type, strings.Join(ElementTypes, ", "))
+			t.fail("type", "unknown element type %q (want one of %s)", e.Type, typeNames())
 		}
 		for key := range m {
 			t.get(key) // the type is wrong; do not also list its keys as unknown
@@ -352,123 +345,13 @@ func (l *loader) element(p *Path, pathContext, loc string, k int, m map[string]a
 	}
 	e.DamagePulseDuration = t.positive("damage_pulse_duration", Time, e.DamageIsFluence)
 
-	switch e.Type {
-	case TypeLens:
-		f, ok := t.quantity("focal_length", Length, true)
-		if ok && f == 0 {
-			t.fail("focal_length", "must not be zero")
-		}
-		e.FocalLength = f
-	case TypeMirror:
-		e.Reflectivity = t.fraction("reflectivity", 0, 1)
-		var ok bool
-		e.RadiusOfCurvature, ok = t.quantity("radius_of_curvature", Length, false)
-		if ok && e.RadiusOfCurvature == 0 {
-			t.fail("radius_of_curvature", "must not be zero (leave it out for a flat mirror)")
-		}
-	case TypeWindow:
-		e.Thickness = t.positive("thickness", Length, false)
-		if t.has("index") {
-			n, ok := t.quantity("index", Dimensionless, true)
-			if ok && (n < 1 || n > 5) {
-				t.fail("index", "%s is outside [1, 5]", show(m["index"]))
-			}
-			if !t.has("thickness") {
-				t.fail("index", "needs thickness")
-			}
-			e.RefractiveIndex = n
-		} else if t.has("thickness") {
-			t.fail("thickness", "needs index (the refractive index)")
-		}
-	case TypeAOM:
-		e.Efficiency = t.fraction("efficiency", 0, 1)
-		e.Frequency = t.positive("frequency", Frequency, false)
-		e.Order = t.integer("order", 1, -10, 10)
-		e.Passes = t.integer("passes", 1, 1, 4)
-		if e.Order == 0 && t.has("order") {
-			t.fail("order", "0 is the undiffracted beam; give the order used (e.g. 1 or -1)")
-		}
-	case TypeFilter:
-		if !t.has("optical_density") && !t.has("transmission") {
-			t.fail("optical_density", "missing (a filter needs optical_density or transmission)")
-		}
-		if od, ok := t.quantity("optical_density", Dimensionless, false); ok {
-			if od < 0 || od > 20 {
-				t.fail("optical_density", "%s is outside [0, 20]", show(m["optical_density"]))
-			} else {
-				e.OpticalDensity = &od
-			}
-		}
-	case TypeAperture:
-		e.Diameter = t.positive("diameter", Length, true)
-	case TypeSplitter:
-		if !t.has("transmission") {
-			t.fail("transmission", "missing (a splitter needs the fraction sent on along this path)")
-		}
-	case TypeFiber:
-		e.Coupling = t.fraction("coupling", 0, 1)
-		e.ModeFieldDiameter = t.positive("mode_field_diameter", Length, e.Coupling == nil && !t.has("coupling"))
-		e.Alignment = t.fraction("alignment", 0, 1)
-		if e.Coupling != nil && e.Alignment != nil {
-			t.fail("alignment", "coupling is given, which already includes alignment")
-		}
-		e.OutputWaist = t.positive("output_waist", Length, false)
-		e.OutputFocalLength = t.positive("output_focal_length", Length, false)
-		switch {
-		case t.has("output_waist") && t.has("output_focal_length"):
-			t.fail("output_focal_length", "give output_waist or output_focal_length, not both")
-		case !t.has("output_waist") && !t.has("output_focal_length"):
-			t.fail("output_waist", "missing (a fiber needs output_waist or output_focal_length)")
-		case t.has("output_focal_length") && !t.has("mode_field_diameter"):
-			t.fail("output_focal_length", "needs mode_field_diameter to size the output beam")
-		}
-	case TypeAtoms:
-		e.Cloud = t.str("cloud", true)
-		e.Goal = t.enum("goal", "", GoalCollective, GoalSaturation, GoalRabi, GoalTrapDepth)
-		e.GoalFactor = 1
-		switch e.Goal {
-		case GoalSaturation:
-			e.GoalValue = t.positivePtr("goal_value", Dimensionless, "a saturation parameter s")
-		case GoalRabi:
-			e.GoalValue = t.positivePtr("goal_value", Frequency, "a Rabi frequency Ω/2π")
-		case GoalTrapDepth:
-			e.GoalValue = t.positivePtr("goal_value", Temperature, "a trap depth U/k_B")
-		case GoalCollective:
-			if t.has("goal_value") {
-				t.get("goal_value")
-				t.fail("goal_value", "a collective goal has no value; use goal_factor for a multiple of the threshold")
-			}
-		default:
-			if t.has("goal_value") {
-				t.get("goal_value")
-				t.fail("goal_value", "given without goal")
-			}
-		}
-		if t.has("goal_factor") {
-			if e.Goal != GoalCollective {
-				t.get("goal_factor")
-				t.fail("goal_factor", "only for goal = \"collective\"")
-			} else if f, ok := t.quantity("goal_factor", Dimensionless, true); ok {
-				if f <= 0 {
-					t.fail("goal_factor", "must be positive, got %s", show(m["goal_factor"]))
-				} else {
-					e.GoalFactor = f
-				}
-			}
-		}
-		if d, ok := t.quantity("detuning", Frequency, false); ok {
-			e.Detuning = &d
-		}
-	case TypeDump:
-		e.Rating = t.positive("rating", Power, false)
-		e.DiffuseReflectance = t.fraction("diffuse_reflectance", 0, 1)
-	}
+	kind.read(t, e, m)
 	if e.Type != TypeDump && t.has("diffuse_reflectance") {
 		t.get("diffuse_reflectance")
 		t.fail("diffuse_reflectance", "only for a dump")
 	}
 	t.hint = func() string {
-		keys := append(append([]string{}, elementKeys[e.Type]...), commonElementKeys...)
+		keys := append(append([]string{}, kind.Keys...), commonElementKeys...)
 		return fmt.Sprintf(" for a %s (it takes %s)", e.Type, strings.Join(keys, ", "))
 	}
 	t.done()

@@ -28,7 +28,7 @@ func generated(t testing.TB, seed uint64, o synth.Options) *budget.Budget {
 // budget must keep whatever the optics).
 func TestBudgetCloses(t *testing.T) {
 	for seed := uint64(1); seed <= 300; seed++ {
-		b := generated(t, seed, synth.Options{Lasers: 2, ElementsPerPath: 8, Splits: 2, OpenEnds: seed%2 == 0})
+		b := generated(t, seed, synth.Options{Lasers: 2, ElementsPerPath: 8, Splits: 2, OpenEnds: seed%2 == 0, Fibers: seed%3 == 0})
 		for _, bal := range b.Balances {
 			if got := bal.Total(); math.Abs(got-1) > 1e-9 {
 				t.Fatalf("seed %d, laser %q: balance sums to %.12f of the source", seed, bal.Laser.Name, got)
@@ -41,7 +41,7 @@ func TestBudgetCloses(t *testing.T) {
 // branch of a splitter never carries more than arrived at it.
 func TestAttenuatorsNeverAddPower(t *testing.T) {
 	for seed := uint64(1); seed <= 200; seed++ {
-		b := generated(t, seed, synth.Options{Lasers: 1, ElementsPerPath: 10, Splits: 1})
+		b := generated(t, seed, synth.Options{Lasers: 1, ElementsPerPath: 10, Splits: 1, Fibers: seed%2 == 1})
 		for _, pb := range b.Paths {
 			for _, r := range pb.Rows {
 				if r.FractionOut > r.FractionIn*(1+1e-12) {

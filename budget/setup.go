@@ -92,26 +92,12 @@ type Path struct {
 	ParentPort *Element // that splitter
 }
 
-// Element types.
-const (
-	TypeLens     = "lens"
-	TypeMirror   = "mirror"
-	TypeWindow   = "window"
-	TypeAOM      = "aom"
-	TypeFilter   = "filter"
-	TypeAperture = "aperture"
-	TypeSplitter = "splitter"
-	TypeFiber    = "fiber"
-	TypeAtoms    = "atoms"
-	TypeDump     = "dump"
-)
-
 // Element is one optic, cloud or dump along a path. Optional numbers are
 // pointers: nil means the setup did not state them.
 type Element struct {
 	Index int // 1-based position in the path
 	Line  int
-	Type  string
+	Type  ElementType
 	Name  string
 	// At is the free-space distance from the start of the path, m.
 	At float64
@@ -176,7 +162,7 @@ func (e *Element) Label() string {
 	if e.Name != "" {
 		return e.Name
 	}
-	return e.Type
+	return string(e.Type)
 }
 
 // Goals at an atoms element.

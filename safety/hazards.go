@@ -372,14 +372,11 @@ func DiffuseHazardRadius(ρ, p, cosθ, mpe float64) float64 {
 	return math.Sqrt(ρ * p * cosθ / (math.Pi * mpe))
 }
 
-func transmissiveSurfaces(t string) int {
-	switch t {
-	case budget.TypeLens, budget.TypeWindow, budget.TypeFilter, budget.TypeAOM, budget.TypeSplitter:
-		return 2
-	case budget.TypeFiber:
-		return 1
-	}
-	return 0
+// transmissiveSurfaces is the number of an element's surfaces that reflect
+// part of the beam, from the element kinds' table.
+func transmissiveSurfaces(t budget.ElementType) int {
+	k, _ := budget.KindOf(t)
+	return k.Surfaces
 }
 
 // followingAccess is the access of the segment leaving row i (the path's

@@ -14,6 +14,9 @@ type Options struct {
 	ElementsPerPath int // elements on each path before its dump
 	Splits          int // extra branch paths per laser, fed by splitters
 	OpenEnds        bool
+	// Fibers starts every path with a fibre (left out of the older labs, so
+	// that their seeds still give the same files).
+	Fibers bool
 }
 
 // Lab returns the text of a setup file drawn from the seeded generator.
@@ -39,6 +42,10 @@ func Lab(seed uint64, o Options) string {
 		for pi, name := range paths {
 			fmt.Fprintf(&b, "[[path]]\nname = %q\nfrom = %q\n", name, froms[pi])
 			at := 0.0
+			if o.Fibers {
+				at += 0.05 + 0.1*r.Float64()
+				fmt.Fprintf(&b, "  [[path.element]]\n  type = \"fiber\"\n  at = \"%.6g m\"\n  coupling = %.4g\n  output_waist = \"%.4g mm\"\n", at, 0.4+0.4*r.Float64(), 0.5+1.5*r.Float64())
+			}
 			for e := 0; e < o.ElementsPerPath; e++ {
 				at += 0.02 + 0.2*r.Float64()
 				if pi < len(paths)-1 && e == o.ElementsPerPath/2 {

@@ -137,7 +137,7 @@ func JSON(w io.Writer, a *safety.Assessment) error {
 			e := r.Element
 			wx, wy := r.BeamIn.Radii()
 			je := jsonElement{
-				Index: e.Index, Name: e.Name, Type: e.Type, AtM: e.At, RadiusXM: wx, RadiusYM: wy,
+				Index: e.Index, Name: e.Name, Type: string(e.Type), AtM: e.At, RadiusXM: wx, RadiusYM: wy,
 				CurvatureXPerM: r.BeamIn.X.Curvature(), CurvatureYPerM: r.BeamIn.Y.Curvature(),
 				PowerInW: r.FractionIn * op, PowerOutW: r.FractionOut * op,
 				PeakIrradianceWM2: r.BeamIn.PeakIrradiance(r.FractionIn * op),

@@ -71,7 +71,7 @@ func writePath(ew *errWriter, pb *budget.PathBudget) {
 	for _, r := range pb.Rows {
 		e := r.Element
 		wx, wy := r.BeamIn.Radii()
-		label := e.Type
+		label := string(e.Type)
 		if e.Name != "" {
 			label += " " + e.Name
 		}

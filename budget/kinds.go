@@ -1,0 +1,297 @@
+package budget
+
+import "math"
+
+// ElementType names an element kind in a setup file ("lens", "mirror", …).
+type ElementType string
+
+// Element types.
+const (
+	TypeLens     ElementType = "lens"
+	TypeMirror   ElementType = "mirror"
+	TypeWindow   ElementType = "window"
+	TypeAOM      ElementType = "aom"
+	TypeFilter   ElementType = "filter"
+	TypeAperture ElementType = "aperture"
+	TypeSplitter ElementType = "splitter"
+	TypeFiber    ElementType = "fiber"
+	TypeAtoms    ElementType = "atoms"
+	TypeDump     ElementType = "dump"
+)
+
+// ElementKind describes one element type in one place: the keys it takes
+// besides the common ones, how those are read and checked, what it does to
+// the beam and its power, and how many of its surfaces can reflect a stray
+// beam back. A new element type is one more entry in Kinds (DEVELOPERS.md
+// gives the recipe); TestElementKindsComplete checks that every entry is
+// whole.
+type ElementKind struct {
+	Type ElementType
+	// Does says in words what the element does to the beam and its power.
+	Does string
+	// Keys are the keys it takes besides commonElementKeys.
+	Keys []string
+	// Surfaces is the number of transmissive surfaces that reflect part of
+	// the beam (the stray-reflection check); 0 for none.
+	Surfaces int
+	// read reads and checks the kind's own keys.
+	read func(t *table, e *Element, m map[string]any)
+	// apply changes the beam and the power at the element, naming each loss.
+	apply func(s *stage, e *Element)
+}
+
+// Kinds lists the element kinds in a fixed order.
+var Kinds = []*ElementKind{
+	{Type: TypeLens, Does: "a thin lens: the ABCD matrix (1, 0; −1/f, 1) in both planes; loss: its stated transmission", Keys: []string{"focal_length"}, Surfaces: 2, read: readLens, apply: applyLens},
+	{Type: TypeMirror, Does: "a mirror, flat or curved (a lens of focal length R/2); loss: 1 − reflectivity, which leaks through it", Keys: []string{"reflectivity", "radius_of_curvature"}, Surfaces: 0, read: readMirror, apply: applyMirror},
+	{Type: TypeWindow, Does: "a window or plate; a thick one shifts the focus by t(1 − 1/n); loss: its stated transmission", Keys: []string{"thickness", "index"}, Surfaces: 2, read: readWindow, apply: applyWindow},
+	{Type: TypeAOM, Does: "an acousto-optic modulator: efficiency^passes goes on in the order used, the rest leaves in the other orders; its order × frequency × passes shifts the light", Keys: []string{"efficiency", "frequency", "order", "passes"}, Surfaces: 2, read: readAOM, apply: applyAOM},
+	{Type: TypeFilter, Does: "a filter: 10^−OD and its stated transmission", Keys: []string{"optical_density"}, Surfaces: 2, read: readFilter, apply: applyFilter},
+	{Type: TypeAperture, Does: "an iris: clips the beam at its diameter", Keys: []string{"diameter"}, Surfaces: 0, read: readAperture, apply: applyAperture},
+	{Type: TypeSplitter, Does: "a splitter: transmission goes on along this path, the rest feeds the path whose from names it (or is lost)", Keys: []string{}, Surfaces: 2, read: readSplitter, apply: applySplitter},
+	{Type: TypeFiber, Does: "a single-mode fibre: couples the beam's mode overlap × alignment (or the stated coupling) and launches a new Gaussian beam", Keys: []string{"mode_field_diameter", "alignment", "coupling", "output_waist", "output_focal_length"}, Surfaces: 1, read: readFiber, apply: applyFiber},
+	{Type: TypeAtoms, Does: "an atom cloud: the drive is evaluated here; the beam passes unchanged", Keys: []string{"cloud", "goal", "goal_value", "goal_factor", "detuning"}, Surfaces: 0, read: readAtoms, apply: applyAtoms},
+	{Type: TypeDump, Does: "a beam dump: absorbs everything and ends the path", Keys: []string{"rating", "diffuse_reflectance"}, Surfaces: 0, read: readDump, apply: applyDump},
+}
+
+// KindOf returns the description of an element type.
+func KindOf(t ElementType) (*ElementKind, bool) {
+	for _, k := range Kinds {
+		if k.Type == t {
+			return k, true
+		}
+	}
+	return nil, false
+}
+
+// stage is one element's step of the walk along a path: the beam and the
+// power fraction it changes, and the row it fills.
+type stage struct {
+	pb       *PathBudget
+	followed map[*Element]*Path // splitters whose other port a path follows
+	index    int                // the element's index in the path, 0-based
+	lastLens int                // index of the last lens since the start or the last fibre, -1 if none
+	beam     Beam
+	frac     float64 // power fraction of the source
+	row      *Row
+}
+
+// lose records a named loss of a fraction f of the source's power.
+func (s *stage) lose(kind string, f float64) {
+	if f > 0 {
+		s.row.Losses = append(s.row.Losses, Loss{kind, f})
+	}
+}
+
+// stated applies a stated transmission t (nil: none stated).
+func (s *stage) stated(kind string, t *float64) {
+	if t != nil {
+		s.lose(kind, s.frac*(1-*t))
+		s.frac *= *t
+	}
+}
+
+func readLens(t *table, e *Element, m map[string]any) {
+	f, ok := t.quantity("focal_length", Length, true)
+	if ok && f == 0 {
+		t.fail("focal_length", "must not be zero")
+	}
+	e.FocalLength = f
+}
+
+func readMirror(t *table, e *Element, m map[string]any) {
+	e.Reflectivity = t.fraction("reflectivity", 0, 1)
+	var ok bool
+	e.RadiusOfCurvature, ok = t.quantity("radius_of_curvature", Length, false)
+	if ok && e.RadiusOfCurvature == 0 {
+		t.fail("radius_of_curvature", "must not be zero (leave it out for a flat mirror)")
+	}
+}
+
+func readWindow(t *table, e *Element, m map[string]any) {
+	e.Thickness = t.positive("thickness", Length, false)
+	if t.has("index") {
+		n, ok := t.quantity("index", Dimensionless, true)
+		if ok && (n < 1 || n > 5) {
+			t.fail("index", "%s is outside [1, 5]", show(m["index"]))
+		}
+		if !t.has("thickness") {
+			t.fail("index", "needs thickness")
+		}
+		e.RefractiveIndex = n
+	} else if t.has("thickness") {
+		t.fail("thickness", "needs index (the refractive index)")
+	}
+}
+
+func readAOM(t *table, e *Element, m map[string]any) {
+	e.Efficiency = t.fraction("efficiency", 0, 1)
+	e.Frequency = t.positive("frequency", Frequency, false)
+	e.Order = t.integer("order", 1, -10, 10)
+	e.Passes = t.integer("passes", 1, 1, 4)
+	if e.Order == 0 && t.has("order") {
+		t.fail("order", "0 is the undiffracted beam; give the order used (e.g. 1 or -1)")
+	}
+}
+
+func readFilter(t *table, e *Element, m map[string]any) {
+	if !t.has("optical_density") && !t.has("transmission") {
+		t.fail("optical_density", "missing (a filter needs optical_density or transmission)")
+	}
+	if od, ok := t.quantity("optical_density", Dimensionless, false); ok {
+		if od < 0 || od > 20 {
+			t.fail("optical_density", "%s is outside [0, 20]", show(m["optical_density"]))
+		} else {
+			e.OpticalDensity = &od
+		}
+	}
+}
+
+func readAperture(t *table, e *Element, m map[string]any) {
+	e.Diameter = t.positive("diameter", Length, true)
+}
+
+func readSplitter(t *table, e *Element, m map[string]any) {
+	if !t.has("transmission") {
+		t.fail("transmission", "missing (a splitter needs the fraction sent on along this path)")
+	}
+}
+
+func readFiber(t *table, e *Element, m map[string]any) {
+	e.Coupling = t.fraction("coupling", 0, 1)
+	e.ModeFieldDiameter = t.positive("mode_field_diameter", Length, e.Coupling == nil && !t.has("coupling"))
+	e.Alignment = t.fraction("alignment", 0, 1)
+	if e.Coupling != nil && e.Alignment != nil {
+		t.fail("alignment", "coupling is given, which already includes alignment")
+	}
+	e.OutputWaist = t.positive("output_waist", Length, false)
+	e.OutputFocalLength = t.positive("output_focal_length", Length, false)
+	switch {
+	case t.has("output_waist") && t.has("output_focal_length"):
+		t.fail("output_focal_length", "give output_waist or output_focal_length, not both")
+	case !t.has("output_waist") && !t.has("output_focal_length"):
+		t.fail("output_waist", "missing (a fiber needs output_waist or output_focal_length)")
+	case t.has("output_focal_length") && !t.has("mode_field_diameter"):
+		t.fail("output_focal_length", "needs mode_field_diameter to size the output beam")
+	}
+}
+
+func readAtoms(t *table, e *Element, m map[string]any) {
+	e.Cloud = t.str("cloud", true)
+	e.Goal = t.enum("goal", "", GoalCollective, GoalSaturation, GoalRabi, GoalTrapDepth)
+	e.GoalFactor = 1
+	switch e.Goal {
+	case GoalSaturation:
+		e.GoalValue = t.positivePtr("goal_value", Dimensionless, "a saturation parameter s")
+	case GoalRabi:
+		e.GoalValue = t.positivePtr("goal_value", Frequency, "a Rabi frequency Ω/2π")
+	case GoalTrapDepth:
+		e.GoalValue = t.positivePtr("goal_value", Temperature, "a trap depth U/k_B")
+	case GoalCollective:
+		if t.has("goal_value") {
+			t.get("goal_value")
+			t.fail("goal_value", "a collective goal has no value; use goal_factor for a multiple of the threshold")
+		}
+	default:
+		if t.has("goal_value") {
+			t.get("goal_value")
+			t.fail("goal_value", "given without goal")
+		}
+	}
+	if t.has("goal_factor") {
+		if e.Goal != GoalCollective {
+			t.get("goal_factor")
+			t.fail("goal_factor", "only for goal = \"collective\"")
+		} else if f, ok := t.quantity("goal_factor", Dimensionless, true); ok {
+			if f <= 0 {
+				t.fail("goal_factor", "must be positive, got %s", show(m["goal_factor"]))
+			} else {
+				e.GoalFactor = f
+			}
+		}
+	}
+	if d, ok := t.quantity("detuning", Frequency, false); ok {
+		e.Detuning = &d
+	}
+}
+
+func readDump(t *table, e *Element, m map[string]any) {
+	e.Rating = t.positive("rating", Power, false)
+	e.DiffuseReflectance = t.fraction("diffuse_reflectance", 0, 1)
+}
+
+func applyLens(s *stage, e *Element) {
+	s.beam = s.beam.Lens(e.FocalLength)
+	s.stated(LossAbsorption, e.Transmission)
+	s.row.AssumedLossless = e.Transmission == nil
+	s.lastLens = s.index
+}
+
+func applyMirror(s *stage, e *Element) {
+	if e.RadiusOfCurvature != 0 {
+		s.beam = s.beam.Lens(e.RadiusOfCurvature / 2)
+	}
+	s.stated(LossMirror, e.Reflectivity)
+	s.row.AssumedLossless = e.Reflectivity == nil
+}
+
+func applyWindow(s *stage, e *Element) {
+	if e.Thickness > 0 {
+		s.beam = s.beam.Slab(e.Thickness, e.RefractiveIndex)
+	}
+	s.stated(LossAbsorption, e.Transmission)
+	s.row.AssumedLossless = e.Transmission == nil
+}
+
+func applyAOM(s *stage, e *Element) {
+	s.stated(LossAbsorption, e.Transmission)
+	if e.Efficiency != nil {
+		t := math.Pow(*e.Efficiency, float64(e.Passes))
+		s.stated(LossDiffraction, &t)
+	}
+	s.row.AssumedLossless = e.Transmission == nil && e.Efficiency == nil
+}
+
+func applyFilter(s *stage, e *Element) {
+	s.stated(LossAbsorption, e.Transmission)
+	if e.OpticalDensity != nil {
+		t := math.Pow(10, -*e.OpticalDensity)
+		s.stated(LossFilter, &t)
+	}
+}
+
+func applyAperture(s *stage, e *Element) {
+	s.stated(LossAbsorption, e.Transmission)
+}
+
+func applyAtoms(s *stage, e *Element) {
+	s.stated(LossAbsorption, e.Transmission)
+}
+
+func applySplitter(s *stage, e *Element) {
+	if s.followed[e] == nil {
+		s.lose(LossSplitterPort, s.frac*(1-*e.Transmission))
+		s.pb.UnfollowedPorts = append(s.pb.UnfollowedPorts, e)
+	}
+	s.frac *= *e.Transmission
+}
+
+func applyFiber(s *stage, e *Element) {
+	fc := s.pb.couple(e, s.beam, s.lastLens)
+	s.row.Fiber = fc
+	s.lose(LossCoupling, s.frac*(1-fc.Coupling))
+	s.frac *= fc.Coupling
+	s.stated(LossAbsorption, e.Transmission)
+	w := e.OutputWaist
+	if w == 0 {
+		w = FiberOutputWaist(s.beam.Wavelength, e.OutputFocalLength, e.ModeFieldDiameter)
+	}
+	s.beam = Beam{Wavelength: s.beam.Wavelength, X: NewPlane(w, 0, 1, s.beam.Wavelength), Y: NewPlane(w, 0, 1, s.beam.Wavelength)}
+	s.lastLens = -1
+}
+
+func applyDump(s *stage, e *Element) {
+	s.stated(LossAbsorption, e.Transmission)
+	s.lose(LossDump, s.frac)
+	s.frac = 0
+}
