@@ -314,12 +314,12 @@ func (b *Budget) goal(a *AtomsResult, e *Element) *GoalResult {
 
 // Finding kinds of the drive.
 const (
-	FindingGoalShort        = "goal_short"
-	FindingGoalImpossible   = "goal_impossible"
-	FindingDetuningGuess    = "detuning_from_wavelengths"
-	FindingCollectiveDetune = "collective_detuned"
-	FindingNearOtherLine    = "near_other_line"
-	FindingNoLight          = "no_light_at_atoms"
+	FindingGoalShort        FindingKind = "goal_short"
+	FindingGoalImpossible   FindingKind = "goal_impossible"
+	FindingDetuningGuess    FindingKind = "detuning_from_wavelengths"
+	FindingCollectiveDetune FindingKind = "collective_detuned"
+	FindingNearOtherLine    FindingKind = "near_other_line"
+	FindingNoLight          FindingKind = "no_light_at_atoms"
 )
 
 // DriveFindings lists goals not met and doubtful inputs at the atoms.
@@ -332,32 +332,26 @@ func DriveFindings(results []*AtomsResult) []Finding {
 		if g := a.Goal; g != nil {
 			switch {
 			case g.Impossible != "":
-				out = append(out, Finding{SeverityAction, FindingGoalImpossible, p, e.Index, e.At,
-					fmt.Sprintf("%s: goal %s cannot be met: %s", where, g.Kind, g.Impossible)})
+				out = append(out, Finding{Severity: SeverityAction, Kind: FindingGoalImpossible, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: goal %s cannot be met: %s", where, g.Kind, g.Impossible)})
 			case !g.Met:
-				out = append(out, Finding{SeverityAction, FindingGoalShort, p, e.Index, e.At,
-					fmt.Sprintf("%s: goal %s is short by %.1f dB at the laser: it needs %s from laser %q, whose operating power is %s",
-						where, g.Kind, -g.MarginDB, FormatPower(g.SourcePower), a.Path.Laser.Name, FormatPower(g.Available))})
+				out = append(out, Finding{Severity: SeverityAction, Kind: FindingGoalShort, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: goal %s is short by %.1f dB at the laser: it needs %s from laser %q, whose operating power is %s",
+					where, g.Kind, -g.MarginDB, FormatPower(g.SourcePower), a.Path.Laser.Name, FormatPower(g.Available))}.Figure(g.Available, g.SourcePower, "W"))
 			}
 			if g.Kind == GoalCollective && math.Abs(a.Detuning) > a.Transition.Gamma/2 {
-				out = append(out, Finding{SeverityAdvice, FindingCollectiveDetune, p, e.Index, e.At,
-					fmt.Sprintf("%s: the drive is %s from resonance (more than Γ/2); the collective threshold model assumes a resonant drive",
-						where, FormatFrequency(a.Detuning/(2*math.Pi)))})
+				out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingCollectiveDetune, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the drive is %s from resonance (more than Γ/2); the collective threshold model assumes a resonant drive",
+					where, FormatFrequency(a.Detuning/(2*math.Pi)))})
 			}
 		}
 		switch {
 		case a.NearLine != "" && a.Goal == nil:
-			out = append(out, Finding{SeverityAction, FindingNearOtherLine, p, e.Index, e.At,
-				fmt.Sprintf("%s: the light is %s from the line %s, within %d of its linewidths; the drive there is not evaluated (neither the far-detuned dipole formula nor the two-level figures of %s apply)",
-					where, FormatFrequency(a.NearLineDetuning/(2*math.Pi)), a.NearLine, FarDetuningFactor, a.Transition.Name)})
+			out = append(out, Finding{Severity: SeverityAction, Kind: FindingNearOtherLine, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the light is %s from the line %s, within %d of its linewidths; the drive there is not evaluated (neither the far-detuned dipole formula nor the two-level figures of %s apply)",
+				where, FormatFrequency(a.NearLineDetuning/(2*math.Pi)), a.NearLine, FarDetuningFactor, a.Transition.Name)})
 		case !(a.Power > 0) && a.Goal == nil:
-			out = append(out, Finding{SeverityAdvice, FindingNoLight, p, e.Index, e.At,
-				fmt.Sprintf("%s: %s", where, NoLightAtAtoms)})
+			out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingNoLight, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: %s", where, NoLightAtAtoms)})
 		}
 		if a.DetuningSource == DetuningFromWavelengths && !a.FarDetuned && a.NearLine == "" {
-			out = append(out, Finding{SeverityAdvice, FindingDetuningGuess, p, e.Index, e.At,
-				fmt.Sprintf("%s: the detuning %s comes from the wavelengths, which are not precise enough near resonance; state detuning on laser %q",
-					where, FormatFrequency(a.Detuning/(2*math.Pi)), a.Path.Laser.Name)})
+			out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingDetuningGuess, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the detuning %s comes from the wavelengths, which are not precise enough near resonance; state detuning on laser %q",
+				where, FormatFrequency(a.Detuning/(2*math.Pi)), a.Path.Laser.Name)})
 		}
 	}
 	return out

@@ -15,28 +15,51 @@ const (
 	SeverityAdvice Severity = "advice"
 )
 
+// FindingKind is the short machine-readable kind of a finding, e.g.
+// "clipping".
+type FindingKind string
+
 // Finding is something the evaluation found that a person should look at.
 type Finding struct {
 	Severity Severity
-	Kind     string // short machine-readable kind, e.g. "clipping"
+	Kind     FindingKind
 	Path     string // path name, "" when not on a path
 	Element  int    // 1-based element index, 0 when not at an element
 	At       float64
 	Message  string
+	// Value is the figure the finding is about and Limit the one it is
+	// judged against, both in Unit (SI, e.g. "W", "W/m2"); Unit is "" when
+	// the finding has no figure.
+	Value, Limit float64
+	Unit         string
+}
+
+// Ratio is Value over Limit, 0 when the finding has no figure.
+func (f Finding) Ratio() float64 {
+	if f.Unit == "" || f.Limit == 0 {
+		return 0
+	}
+	return f.Value / f.Limit
+}
+
+// Figure sets the finding's figure: value and limit in unit.
+func (f Finding) Figure(value, limit float64, unit string) Finding {
+	f.Value, f.Limit, f.Unit = value, limit, unit
+	return f
 }
 
 // Finding kinds of the budget.
 const (
-	FindingClipping      = "clipping"
-	FindingModeMatch     = "fibre_mode_match"
-	FindingDumpRating    = "dump_rating"
-	FindingOpenEnd       = "open_end"
-	FindingUnfollowed    = "unfollowed_splitter_port"
-	FindingUnusedLaser   = "unused_laser"
-	FindingDumpUnrated   = "dump_unrated"
-	FindingLosslessGuess = "assumed_lossless"
-	FindingNotParaxial   = "not_paraxial"
-	FindingClippedPower  = "clipped_power"
+	FindingClipping      FindingKind = "clipping"
+	FindingModeMatch     FindingKind = "fibre_mode_match"
+	FindingDumpRating    FindingKind = "dump_rating"
+	FindingOpenEnd       FindingKind = "open_end"
+	FindingUnfollowed    FindingKind = "unfollowed_splitter_port"
+	FindingUnusedLaser   FindingKind = "unused_laser"
+	FindingDumpUnrated   FindingKind = "dump_unrated"
+	FindingLosslessGuess FindingKind = "assumed_lossless"
+	FindingNotParaxial   FindingKind = "not_paraxial"
+	FindingClippedPower  FindingKind = "clipped_power"
 )
 
 // ClearApertureFactor: a clear aperture diameter under π·W (W the larger
@@ -73,61 +96,51 @@ func (b *Budget) Findings() []Finding {
 				wx, wy := r.BeamIn.Radii()
 				w := math.Max(wx, wy)
 				if clipped := r.FractionIn * (1 - r.ClipFraction) * max; clipped >= ClippedPowerAction {
-					out = append(out, Finding{SeverityAction, FindingClippedPower, p.Name, e.Index, e.At,
-						fmt.Sprintf("%s: up to %s (%.1f %% of the arriving beam, at the laser's maximum power) falls outside its %s clear aperture onto the mount or iris; that much absorbed power can burn, melt or start a fire: enlarge the aperture, or make the part a rated dump",
-							where, FormatPower(clipped), 100*(1-r.ClipFraction), FormatLength(clear))})
+					out = append(out, Finding{Severity: SeverityAction, Kind: FindingClippedPower, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: up to %s (%.1f %% of the arriving beam, at the laser's maximum power) falls outside its %s clear aperture onto the mount or iris; that much absorbed power can burn, melt or start a fire: enlarge the aperture, or make the part a rated dump",
+						where, FormatPower(clipped), 100*(1-r.ClipFraction), FormatLength(clear))}.Figure(clipped, ClippedPowerAction, "W"))
 				} else if clear < ClearApertureFactor*w {
-					out = append(out, Finding{SeverityAdvice, FindingClipping, p.Name, e.Index, e.At,
-						fmt.Sprintf("%s: clear aperture %s is under π·W = %s for the beam there; %.2f %% of the power is clipped (included in the budget; diffraction from the edge is not modelled)",
-							where, FormatLength(clear), FormatLength(ClearApertureFactor*w), 100*(1-r.ClipFraction))})
+					out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingClipping, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: clear aperture %s is under π·W = %s for the beam there; %.2f %% of the power is clipped (included in the budget; diffraction from the edge is not modelled)",
+						where, FormatLength(clear), FormatLength(ClearApertureFactor*w), 100*(1-r.ClipFraction))}.Figure(clear, ClearApertureFactor*w, "m"))
 				}
 			}
 			if !r.BeamOut.Paraxial() {
-				out = append(out, Finding{SeverityAction, FindingNotParaxial, p.Name, e.Index, e.At,
-					fmt.Sprintf("%s: the beam leaving it diverges at a half-angle of %.3g rad, past the %g rad the Gaussian beam model holds to; the figures after it are not reliable (check the focal lengths and distances, or the optic's real aperture)",
-						where, r.BeamOut.HalfAngle(), MaxParaxialAngle)})
+				out = append(out, Finding{Severity: SeverityAction, Kind: FindingNotParaxial, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the beam leaving it diverges at a half-angle of %.3g rad, past the %g rad the Gaussian beam model holds to; the figures after it are not reliable (check the focal lengths and distances, or the optic's real aperture)",
+					where, r.BeamOut.HalfAngle(), MaxParaxialAngle)}.Figure(r.BeamOut.HalfAngle(), MaxParaxialAngle, "rad"))
 			}
 			if r.Fiber != nil && !r.Fiber.Given && r.Fiber.Overlap < PoorModeOverlap {
-				out = append(out, Finding{SeverityAdvice, FindingModeMatch, p.Name, e.Index, e.At,
-					fmt.Sprintf("%s: mode overlap with the fibre is only %.1f %%; the coupling optics do not match the beam to the mode (ideal coupling-lens focal length %s)",
-						where, 100*r.Fiber.Overlap, formatFocalPair(r.Fiber.IdealFocalLength))})
+				out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingModeMatch, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: mode overlap with the fibre is only %.1f %%; the coupling optics do not match the beam to the mode (ideal coupling-lens focal length %s)",
+					where, 100*r.Fiber.Overlap, formatFocalPair(r.Fiber.IdealFocalLength))}.Figure(r.Fiber.Overlap, PoorModeOverlap, "1"))
 			}
 			if e.Type == TypeDump {
 				pw := r.FractionIn * max
 				if e.Rating == 0 {
-					out = append(out, Finding{SeverityAdvice, FindingDumpUnrated, p.Name, e.Index, e.At,
-						fmt.Sprintf("%s: no rating stated; it receives up to %s at the laser's maximum power", where, FormatPower(pw))})
+					out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingDumpUnrated, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: no rating stated; it receives up to %s at the laser's maximum power", where, FormatPower(pw))})
 				} else if pw > e.Rating {
-					out = append(out, Finding{SeverityAction, FindingDumpRating, p.Name, e.Index, e.At,
-						fmt.Sprintf("%s: receives up to %s at the laser's maximum power, above its rating of %s", where, FormatPower(pw), FormatPower(e.Rating))})
+					out = append(out, Finding{Severity: SeverityAction, Kind: FindingDumpRating, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: receives up to %s at the laser's maximum power, above its rating of %s", where, FormatPower(pw), FormatPower(e.Rating))}.Figure(pw, e.Rating, "W"))
 				}
 			}
 		}
 		for _, e := range pb.UnfollowedPorts {
 			r := pb.row(e)
 			pw := r.FractionIn * r.ClipFraction * (1 - *e.Transmission) * max
-			out = append(out, Finding{SeverityAction, FindingUnfollowed, p.Name, e.Index, e.At,
-				fmt.Sprintf("element %d (%s): up to %s leaves the other port and no path follows it; describe where it goes (a path from %q) or block it",
-					e.Index, e.Label(), FormatPower(pw), p.Name+":"+e.Name)})
+			out = append(out, Finding{Severity: SeverityAction, Kind: FindingUnfollowed, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("element %d (%s): up to %s leaves the other port and no path follows it; describe where it goes (a path from %q) or block it",
+				e.Index, e.Label(), FormatPower(pw), p.Name+":"+e.Name)})
 		}
 		if pb.OpenEnd {
 			at := 0.0
 			if n := len(p.Elements); n > 0 {
 				at = p.Elements[n-1].At
 			}
-			out = append(out, Finding{SeverityAction, FindingOpenEnd, p.Name, 0, at,
-				fmt.Sprintf("the path ends without a dump: up to %s leaves it at %s; end it in a rated dump", FormatPower(pb.EndFraction*max), FormatLength(at))})
+			out = append(out, Finding{Severity: SeverityAction, Kind: FindingOpenEnd, Path: p.Name, Element: 0, At: at, Message: fmt.Sprintf("the path ends without a dump: up to %s leaves it at %s; end it in a rated dump", FormatPower(pb.EndFraction*max), FormatLength(at))})
 		}
 	}
 	for _, las := range b.Setup.Lasers {
 		if !used[las] {
-			out = append(out, Finding{SeverityAction, FindingUnusedLaser, "", 0, 0,
-				fmt.Sprintf("laser %q feeds no path, so its beam is not evaluated at all; describe where its beam goes", las.Name)})
+			out = append(out, Finding{Severity: SeverityAction, Kind: FindingUnusedLaser, Path: "", Element: 0, At: 0, Message: fmt.Sprintf("laser %q feeds no path, so its beam is not evaluated at all; describe where its beam goes", las.Name)})
 		}
 	}
 	if b.AssumedLossless > 0 {
-		out = append(out, Finding{SeverityAdvice, FindingLosslessGuess, "", 0, 0,
-			fmt.Sprintf("%d element(s) have no stated loss and were assumed lossless; the budget is optimistic by their real losses", b.AssumedLossless)})
+		out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingLosslessGuess, Path: "", Element: 0, At: 0, Message: fmt.Sprintf("%d element(s) have no stated loss and were assumed lossless; the budget is optimistic by their real losses", b.AssumedLossless)})
 	}
 	return out
 }

@@ -145,11 +145,35 @@ type Exposure struct {
 	NOHD       float64 // for an open end: distance beyond the last element, m
 }
 
+// ReflectionKind says how light leaves a path at a surface.
+type ReflectionKind string
+
+// Reflection kinds: a surface's stray reflection, a beam escaping through a
+// mirror or in an AOM's unused orders, and the diffuse zone around a dump or
+// a path's end.
+const (
+	ReflectionStray    ReflectionKind = "stray"
+	ReflectionEscaping ReflectionKind = "escaping"
+	ReflectionDiffuse  ReflectionKind = "diffuse"
+)
+
+// Finding kinds of the hazard evaluation.
+const (
+	FindingClassNotAssessed budget.FindingKind = "class_not_assessed"
+	FindingExposure         budget.FindingKind = "exposure_above_mpe"
+	FindingStray            budget.FindingKind = "stray_reflection"
+	FindingEscaping         budget.FindingKind = "escaping_beam"
+	FindingEyewearGap       budget.FindingKind = "eyewear_gap"
+	FindingDamage           budget.FindingKind = "damage"
+	FindingDamageUnchecked  budget.FindingKind = "damage_unchecked"
+	FindingFibreFace        budget.FindingKind = "fibre_face"
+)
+
 // Reflection is a stray reflection from a surface, or a diffuse hazard zone.
 type Reflection struct {
 	Path        *budget.PathBudget
 	Element     *budget.Element
-	Kind        string // "stray", "escaping" (mirror leakage, AOM orders) or "diffuse"
+	Kind        ReflectionKind
 	Reflectance float64
 	Assumed     bool // the reflectance was a default
 	Surfaces    int
@@ -196,7 +220,7 @@ func evaluateHazards(s *budget.Setup, b *budget.Budget) (*Hazards, error) {
 		byLaser[las] = ll
 		h.Lasers = append(h.Lasers, ll)
 		if ll.Class == "" {
-			h.Findings = append(h.Findings, budget.Finding{Severity: budget.SeverityAdvice, Kind: "class_not_assessed",
+			h.Findings = append(h.Findings, budget.Finding{Severity: budget.SeverityAdvice, Kind: FindingClassNotAssessed,
 				Message: fmt.Sprintf("laser %q: class %s", las.Name, ll.ClassNote)})
 		}
 	}
@@ -269,8 +293,8 @@ func pathHazards(pb *budget.PathBudget, ll *LaserLimits) pathHazardResult {
 			if e.OpenEnd {
 				msg += fmt.Sprintf("; the escaping beam stays above the MPE for %s beyond the path's end (NOHD)", FormatDistance(e.NOHD))
 			}
-			res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: "exposure_above_mpe", Path: pb.Path.Name,
-				Element: seg.After, At: e.At, Message: msg})
+			res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingExposure, Path: pb.Path.Name,
+				Element: seg.After, At: e.At, Message: msg}.Figure(irr, ll.EyeIrradiance, "W/m2"))
 		}
 	}
 	// Stray and diffuse reflections, and damage, element by element.
@@ -289,14 +313,14 @@ func pathHazards(pb *budget.PathBudget, ll *LaserLimits) pathHazardResult {
 			}
 			pr := R * p
 			irr := apertureIrradiance(r.BeamIn, pr, ll.EyeAperture)
-			ref := &Reflection{Path: pb, Element: el, Kind: "stray", Reflectance: R, Assumed: assumed, Surfaces: surfaces,
+			ref := &Reflection{Path: pb, Element: el, Kind: ReflectionStray, Reflectance: R, Assumed: assumed, Surfaces: surfaces,
 				Power: pr, Irradiance: irr, Ratio: irr / ll.EyeIrradiance, Laser: ll}
 			ref.OD = limits.OpticalDensity(ref.Ratio)
 			if ref.Ratio > 1 {
 				res.reflections = append(res.reflections, ref)
-				res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: "stray_reflection", Path: pb.Path.Name,
+				res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingStray, Path: pb.Path.Name,
 					Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s): each of its %d surface(s) reflects %s (R = %g%s), %.3g × the eye MPE at the surface; block or enclose the back-reflection",
-						el.Index, el.Label(), surfaces, budget.FormatPower(pr), R, assumedNote(assumed), ref.Ratio)})
+						el.Index, el.Label(), surfaces, budget.FormatPower(pr), R, assumedNote(assumed), ref.Ratio)}.Figure(irr, ll.EyeIrradiance, "W/m2"))
 			}
 		}
 		// Light that leaves the path as a beam: a mirror's leakage behind it
@@ -315,14 +339,14 @@ func pathHazards(pb *budget.PathBudget, ll *LaserLimits) pathHazardResult {
 				}
 				pl := l.Fraction * max
 				irr := apertureIrradiance(r.BeamIn, pl, ll.EyeAperture)
-				ref := &Reflection{Path: pb, Element: el, Kind: "escaping", Reflectance: l.Fraction / r.FractionIn, Surfaces: 1,
+				ref := &Reflection{Path: pb, Element: el, Kind: ReflectionEscaping, Reflectance: l.Fraction / r.FractionIn, Surfaces: 1,
 					Power: pl, Irradiance: irr, Ratio: irr / ll.EyeIrradiance, Laser: ll}
 				ref.OD = limits.OpticalDensity(ref.Ratio)
 				if ref.Ratio > 1 {
 					res.reflections = append(res.reflections, ref)
-					res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: "escaping_beam", Path: pb.Path.Name,
+					res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingEscaping, Path: pb.Path.Name,
 						Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s): %s %s, %s × the eye MPE; describe where it goes or end it in a rated dump",
-							el.Index, el.Label(), budget.FormatPower(pl), what, fmtX(ref.Ratio))})
+							el.Index, el.Label(), budget.FormatPower(pl), what, fmtX(ref.Ratio))}.Figure(irr, ll.EyeIrradiance, "W/m2"))
 				}
 			}
 		}
@@ -363,7 +387,7 @@ func assumedNote(assumed bool) string {
 // (conservative).
 func diffuse(pb *budget.PathBudget, el *budget.Element, ll *LaserLimits, p, ρ float64, assumed bool) *Reflection {
 	r := limits.RoundUp(DiffuseHazardRadius(ρ, p, 1, ll.EyeIrradiance), 3)
-	return &Reflection{Path: pb, Element: el, Kind: "diffuse", Reflectance: ρ, Assumed: assumed, Surfaces: 1, Power: p, Radius: r, Laser: ll}
+	return &Reflection{Path: pb, Element: el, Kind: ReflectionDiffuse, Reflectance: ρ, Assumed: assumed, Surfaces: 1, Power: p, Radius: r, Laser: ll}
 }
 
 // DiffuseHazardRadius is r = √(ρ P cos θ/(π E_MPE)), m (the nominal hazard
@@ -401,9 +425,9 @@ func damage(pb *budget.PathBudget, r *budget.Row, p float64) []budget.Finding {
 	las := pb.Laser
 	var out []budget.Finding
 	wx, wy := r.BeamIn.Radii()
-	add := func(sev budget.Severity, kind, msg string) {
+	add := func(sev budget.Severity, kind budget.FindingKind, msg string, value, limit float64, unit string) {
 		out = append(out, budget.Finding{Severity: sev, Kind: kind, Path: pb.Path.Name, Element: el.Index, At: el.At,
-			Message: fmt.Sprintf("element %d (%s): %s", el.Index, el.Label(), msg)})
+			Message: fmt.Sprintf("element %d (%s): %s", el.Index, el.Label(), msg)}.Figure(value, limit, unit))
 	}
 	if el.DamageThreshold > 0 && p > 0 {
 		switch {
@@ -412,8 +436,8 @@ func damage(pb *budget.PathBudget, r *budget.Row, p float64) []budget.Finding {
 			// axis (the larger density; common practice for CW ratings).
 			lpd := p / (2 * math.Min(wx, wy))
 			if lpd > el.DamageThreshold {
-				add(budget.SeverityAction, "damage", fmt.Sprintf("linear power density %s/cm exceeds its damage threshold %s/cm at the laser's maximum power",
-					budget.FormatPower(lpd/100), budget.FormatPower(el.DamageThreshold/100)))
+				add(budget.SeverityAction, FindingDamage, fmt.Sprintf("linear power density %s/cm exceeds its damage threshold %s/cm at the laser's maximum power",
+					budget.FormatPower(lpd/100), budget.FormatPower(el.DamageThreshold/100)), lpd, el.DamageThreshold, "W/m")
 			}
 		case el.DamageIsFluence && las.Emission == budget.EmissionPulsed:
 			ep := p / las.RepetitionRate
@@ -421,18 +445,18 @@ func damage(pb *budget.PathBudget, r *budget.Row, p float64) []budget.Finding {
 			// Scale the rated fluence by √(τ/τ_rated) (common practice).
 			thr := el.DamageThreshold * math.Sqrt(las.PulseDuration/el.DamagePulseDuration)
 			if f > thr {
-				add(budget.SeverityAction, "damage", fmt.Sprintf("peak fluence %s exceeds its damage threshold scaled to the pulse length, %s",
-					budget.FormatSI(f*1e-4, "J/cm²"), budget.FormatSI(thr*1e-4, "J/cm²")))
+				add(budget.SeverityAction, FindingDamage, fmt.Sprintf("peak fluence %s exceeds its damage threshold scaled to the pulse length, %s",
+					budget.FormatSI(f*1e-4, "J/cm²"), budget.FormatSI(thr*1e-4, "J/cm²")), f, thr, "J/m2")
 			}
 		default:
-			add(budget.SeverityAdvice, "damage_unchecked", "its damage threshold is for the other kind of emission (a linear power density for cw, a fluence for pulses); not checked")
+			add(budget.SeverityAdvice, FindingDamageUnchecked, "its damage threshold is for the other kind of emission (a linear power density for cw, a fluence for pulses); not checked", 0, 0, "")
 		}
 	}
 	if el.Type == budget.TypeFiber && p > 0 {
 		peak := r.BeamIn.PeakIrradiance(p)
 		if peak > FiberFaceLimit {
-			add(budget.SeverityAction, "fibre_face", fmt.Sprintf("the focused beam on the input face reaches %s at the laser's maximum power, above the %s that common practice allows a clean silica face",
-				budget.FormatIrradiance(peak), budget.FormatIrradiance(FiberFaceLimit)))
+			add(budget.SeverityAction, FindingFibreFace, fmt.Sprintf("the focused beam on the input face reaches %s at the laser's maximum power, above the %s that common practice allows a clean silica face",
+				budget.FormatIrradiance(peak), budget.FormatIrradiance(FiberFaceLimit)), peak, FiberFaceLimit, "W/m2")
 		}
 	}
 	return out
@@ -454,7 +478,7 @@ func eyewearNeeds(h *Hazards) []*EyewearNeed {
 		n.Irradiance = math.Max(n.Irradiance, e.Irradiance)
 	}
 	for _, r := range h.Reflections {
-		if r.Kind != "diffuse" {
+		if r.Kind != ReflectionDiffuse {
 			n := get(r.Path.Laser.Wavelength)
 			n.OD = math.Max(n.OD, r.OD)
 		}
@@ -507,7 +531,7 @@ func checkEyewear(s *budget.Setup, needs []*EyewearNeed) []budget.Finding {
 			if len(s.Eyewear) == 0 {
 				msg = fmt.Sprintf("no eyewear is declared; OD %g is needed at %s", n.OD, fmtNM(n.Wavelength))
 			}
-			out = append(out, budget.Finding{Severity: budget.SeverityAction, Kind: "eyewear_gap", Message: msg})
+			out = append(out, budget.Finding{Severity: budget.SeverityAction, Kind: FindingEyewearGap, Message: msg})
 		}
 	}
 	return out

@@ -123,13 +123,13 @@ func hazardsJSON(a *safety.Assessment) jsonHazards {
 		out.Exposures = append(out.Exposures, je)
 	}
 	for _, r := range h.Reflections {
-		jr := jsonReflection{Path: r.Path.Path.Name, Kind: r.Kind, WavelengthM: r.Path.Laser.Wavelength, Reflectance: r.Reflectance,
+		jr := jsonReflection{Path: r.Path.Path.Name, Kind: string(r.Kind), WavelengthM: r.Path.Laser.Wavelength, Reflectance: r.Reflectance,
 			ReflectanceAssumed: r.Assumed, Surfaces: r.Surfaces, PowerW: r.Power}
 		if r.Element != nil {
 			i := r.Element.Index
 			jr.Element = &i
 		}
-		if r.Kind != "diffuse" {
+		if r.Kind != safety.ReflectionDiffuse {
 			jr.ApertureIrradianceWM2, jr.Ratio, jr.ODRequired = finite(r.Irradiance), finite(r.Ratio), finite(r.OD)
 		} else {
 			jr.HazardRadiusM = finite(r.Radius)

@@ -62,9 +62,9 @@ func writeHazards(ew *errWriter, a *safety.Assessment) {
 	var stray, escaping, diffuse []*safety.Reflection
 	for _, r := range h.Reflections {
 		switch r.Kind {
-		case "stray":
+		case safety.ReflectionStray:
 			stray = append(stray, r)
-		case "escaping":
+		case safety.ReflectionEscaping:
 			escaping = append(escaping, r)
 		default:
 			diffuse = append(diffuse, r)

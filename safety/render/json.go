@@ -101,6 +101,12 @@ type jsonFinding struct {
 	Element  int     `json:"element"`
 	AtM      float64 `json:"at_m"`
 	Message  string  `json:"message"`
+	// The figure of the finding, when it has one: its value and the limit
+	// it is judged against, in unit (SI), and their ratio.
+	ValueSI *float64 `json:"value_si,omitempty"`
+	LimitSI *float64 `json:"limit_si,omitempty"`
+	Unit    string   `json:"unit,omitempty"`
+	Ratio   *float64 `json:"ratio,omitempty"`
 }
 
 func finite(v float64) *float64 {
@@ -176,7 +182,11 @@ func JSON(w io.Writer, a *safety.Assessment) error {
 		doc.Balances = append(doc.Balances, jb)
 	}
 	for _, f := range a.Findings {
-		doc.Findings = append(doc.Findings, jsonFinding{string(f.Severity), f.Kind, f.Path, f.Element, f.At, f.Message})
+		jf := jsonFinding{Severity: string(f.Severity), Kind: string(f.Kind), Path: f.Path, Element: f.Element, AtM: f.At, Message: f.Message}
+		if f.Unit != "" {
+			jf.ValueSI, jf.LimitSI, jf.Unit, jf.Ratio = finite(f.Value), finite(f.Limit), f.Unit, finite(f.Ratio())
+		}
+		doc.Findings = append(doc.Findings, jf)
 	}
 	if err := nonFinite(reflect.ValueOf(doc), "$"); err != nil {
 		return err

@@ -344,8 +344,8 @@ func hazards(a *safety.Assessment) Section {
 		if r.Assumed {
 			R += " (assumed)"
 		}
-		if r.Kind == "stray" || r.Kind == "escaping" {
-			if r.Kind == "escaping" {
+		if r.Kind == safety.ReflectionStray || r.Kind == safety.ReflectionEscaping {
+			if r.Kind == safety.ReflectionEscaping {
 				R = "leaves the path: " + budget.FormatNumber(r.Reflectance)
 			}
 			st.Rows = append(st.Rows, []string{r.Path.Path.Name, fmt.Sprintf("%d %s", r.Element.Index, r.Element.Label()), fmt.Sprint(r.Surfaces), R,
