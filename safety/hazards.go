@@ -270,97 +270,11 @@ type pathHazardResult struct {
 // path at the laser's maximum power.
 func pathHazards(pb *budget.PathBudget, ll *LaserLimits) pathHazardResult {
 	var res pathHazardResult
-	max := pb.Laser.Power
 	for _, seg := range pb.Segments {
-		if seg.Access != budget.AccessOpen || seg.Fraction <= 0 {
-			continue
-		}
-		p := seg.Fraction * max
-		irr, at := maxAlong(seg.Beam, p, ll.EyeAperture, seg.To-seg.From)
-		skin, _ := maxAlong(seg.Beam, p, ll.SkinAperture, seg.To-seg.From)
-		e := &Exposure{Path: pb, Segment: seg, Laser: ll, At: seg.From + at, Power: p, Irradiance: irr,
-			Ratio: irr / ll.EyeIrradiance, SkinIrr: skin, SkinRatio: skin / ll.SkinIrradiance,
-			PeakIrr: seg.Beam.Propagate(at).PeakIrradiance(p), OpenEnd: math.IsInf(seg.To, 1)}
-		e.OD = limits.OpticalDensity(e.Ratio)
-		if e.OpenEnd {
-			e.NOHD = hazardDistance(seg.Beam, p, ll.EyeAperture, ll.EyeIrradiance)
-		}
-		res.exposures = append(res.exposures, e)
-		if e.Ratio > 1 || e.SkinRatio > 1 {
-			msg := fmt.Sprintf("%s: up to %s reaches %s × the eye MPE (%s averaged over %s, %s exposure) and %s × the skin MPE; eyewear needs OD %g at %s",
-				segmentName(seg), budget.FormatPower(p), fmtX(e.Ratio), budget.FormatIrradiance(irr), budget.FormatLength(ll.EyeAperture),
-				budget.FormatSI(ll.Duration, "s"), fmtX(e.SkinRatio), e.OD, fmtNM(pb.Laser.Wavelength))
-			if e.OpenEnd {
-				msg += fmt.Sprintf("; the escaping beam stays above the MPE for %s beyond the path's end (NOHD)", FormatDistance(e.NOHD))
-			}
-			res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingExposure, Path: pb.Path.Name,
-				Element: seg.After, At: e.At, Message: msg}.Figure(irr, ll.EyeIrradiance, "W/m2"))
-		}
+		res.segment(pb, ll, seg)
 	}
-	// Stray and diffuse reflections, and damage, element by element.
 	for i := range pb.Rows {
-		r := &pb.Rows[i]
-		el := r.Element
-		in := precedingAccess(pb, i)
-		p := r.FractionIn * max
-		if surfaces := transmissiveSurfaces(el.Type); surfaces > 0 && in == budget.AccessOpen && p > 0 {
-			R, assumed := DefaultSurfaceReflectance, true
-			if el.SurfaceReflectance != nil {
-				R, assumed = *el.SurfaceReflectance, false
-			}
-			if assumed {
-				res.strayDefault++
-			}
-			pr := R * p
-			irr := apertureIrradiance(r.BeamIn, pr, ll.EyeAperture)
-			ref := &Reflection{Path: pb, Element: el, Kind: ReflectionStray, Reflectance: R, Assumed: assumed, Surfaces: surfaces,
-				Power: pr, Irradiance: irr, Ratio: irr / ll.EyeIrradiance, Laser: ll}
-			ref.OD = limits.OpticalDensity(ref.Ratio)
-			if ref.Ratio > 1 {
-				res.reflections = append(res.reflections, ref)
-				res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingStray, Path: pb.Path.Name,
-					Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s): each of its %d surface(s) reflects %s (R = %g%s), %.3g × the eye MPE at the surface; block or enclose the back-reflection",
-						el.Index, el.Label(), surfaces, budget.FormatPower(pr), R, assumedNote(assumed), ref.Ratio)}.Figure(irr, ll.EyeIrradiance, "W/m2"))
-			}
-		}
-		// Light that leaves the path as a beam: a mirror's leakage behind it
-		// and an AOM's undiffracted orders. Each is a beam of the arriving
-		// size that must end in a dump.
-		if in == budget.AccessOpen || followingAccess(pb, i) == budget.AccessOpen {
-			for _, l := range r.Losses {
-				var what string
-				switch l.Kind {
-				case budget.LossMirror:
-					what = "leaks through the mirror"
-				case budget.LossDiffraction:
-					what = "leaves in the undiffracted (and other) orders"
-				default:
-					continue
-				}
-				pl := l.Fraction * max
-				irr := apertureIrradiance(r.BeamIn, pl, ll.EyeAperture)
-				ref := &Reflection{Path: pb, Element: el, Kind: ReflectionEscaping, Reflectance: l.Fraction / r.FractionIn, Surfaces: 1,
-					Power: pl, Irradiance: irr, Ratio: irr / ll.EyeIrradiance, Laser: ll}
-				ref.OD = limits.OpticalDensity(ref.Ratio)
-				if ref.Ratio > 1 {
-					res.reflections = append(res.reflections, ref)
-					res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingEscaping, Path: pb.Path.Name,
-						Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s): %s %s, %s × the eye MPE; describe where it goes or end it in a rated dump",
-							el.Index, el.Label(), budget.FormatPower(pl), what, fmtX(ref.Ratio))}.Figure(irr, ll.EyeIrradiance, "W/m2"))
-				}
-			}
-		}
-		if el.Type == budget.TypeDump && in == budget.AccessOpen && p > 0 {
-			ρ, assumed := DefaultDiffuseReflectance, true
-			if el.DiffuseReflectance != nil {
-				ρ, assumed = *el.DiffuseReflectance, false
-			}
-			if assumed {
-				res.diffuseDefault++
-			}
-			res.reflections = append(res.reflections, diffuse(pb, el, ll, p, ρ, assumed))
-		}
-		res.findings = append(res.findings, damage(pb, r, p)...)
+		res.element(pb, ll, i)
 	}
 	if pb.OpenEnd && pb.EndFraction > 0 {
 		// What the escaping beam hits may reflect diffusely.
@@ -370,9 +284,119 @@ func pathHazards(pb *budget.PathBudget, ll *LaserLimits) pathHazardResult {
 			last = pb.Rows[n-1].Element
 		}
 		res.diffuseDefault++
-		res.reflections = append(res.reflections, diffuse(pb, last, ll, pb.EndFraction*max, DefaultDiffuseReflectance, true))
+		res.reflections = append(res.reflections, diffuse(pb, last, ll, pb.EndFraction*pb.Laser.Power, DefaultDiffuseReflectance, true))
 	}
 	return res
+}
+
+// segment evaluates one open segment at its worst point, with the NOHD of
+// an open end.
+func (res *pathHazardResult) segment(pb *budget.PathBudget, ll *LaserLimits, seg budget.Segment) {
+	if seg.Access != budget.AccessOpen || seg.Fraction <= 0 {
+		return
+	}
+	p := seg.Fraction * pb.Laser.Power
+	irr, at := maxAlong(seg.Beam, p, ll.EyeAperture, seg.To-seg.From)
+	skin, _ := maxAlong(seg.Beam, p, ll.SkinAperture, seg.To-seg.From)
+	e := &Exposure{Path: pb, Segment: seg, Laser: ll, At: seg.From + at, Power: p, Irradiance: irr,
+		Ratio: irr / ll.EyeIrradiance, SkinIrr: skin, SkinRatio: skin / ll.SkinIrradiance,
+		PeakIrr: seg.Beam.Propagate(at).PeakIrradiance(p), OpenEnd: math.IsInf(seg.To, 1)}
+	e.OD = limits.OpticalDensity(e.Ratio)
+	if e.OpenEnd {
+		e.NOHD = hazardDistance(seg.Beam, p, ll.EyeAperture, ll.EyeIrradiance)
+	}
+	res.exposures = append(res.exposures, e)
+	if e.Ratio > 1 || e.SkinRatio > 1 {
+		msg := fmt.Sprintf("%s: up to %s reaches %s × the eye MPE (%s averaged over %s, %s exposure) and %s × the skin MPE; eyewear needs OD %g at %s",
+			segmentName(seg), budget.FormatPower(p), fmtX(e.Ratio), budget.FormatIrradiance(irr), budget.FormatLength(ll.EyeAperture),
+			budget.FormatSI(ll.Duration, "s"), fmtX(e.SkinRatio), e.OD, fmtNM(pb.Laser.Wavelength))
+		if e.OpenEnd {
+			msg += fmt.Sprintf("; the escaping beam stays above the MPE for %s beyond the path's end (NOHD)", FormatDistance(e.NOHD))
+		}
+		res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingExposure, Path: pb.Path.Name,
+			Element: seg.After, At: e.At, Message: msg}.Figure(irr, ll.EyeIrradiance, "W/m2"))
+	}
+}
+
+// element evaluates the surfaces of row i: its stray reflections, the beams
+// leaving the path there, a dump's diffuse zone, and damage.
+func (res *pathHazardResult) element(pb *budget.PathBudget, ll *LaserLimits, i int) {
+	r := &pb.Rows[i]
+	el := r.Element
+	in := precedingAccess(pb, i)
+	p := r.FractionIn * pb.Laser.Power
+	if surfaces := transmissiveSurfaces(el.Type); surfaces > 0 && in == budget.AccessOpen && p > 0 {
+		res.stray(pb, ll, r, surfaces, p)
+	}
+	// Light that leaves the path as a beam: a mirror's leakage behind it
+	// and an AOM's undiffracted orders. Each is a beam of the arriving
+	// size that must end in a dump.
+	if in == budget.AccessOpen || followingAccess(pb, i) == budget.AccessOpen {
+		res.escaping(pb, ll, r)
+	}
+	if el.Type == budget.TypeDump && in == budget.AccessOpen && p > 0 {
+		ρ, assumed := DefaultDiffuseReflectance, true
+		if el.DiffuseReflectance != nil {
+			ρ, assumed = *el.DiffuseReflectance, false
+		}
+		if assumed {
+			res.diffuseDefault++
+		}
+		res.reflections = append(res.reflections, diffuse(pb, el, ll, p, ρ, assumed))
+	}
+	res.findings = append(res.findings, damage(pb, r, p)...)
+}
+
+// stray evaluates the reflection of each of an element's surfaces, at the
+// surface, for power p arriving.
+func (res *pathHazardResult) stray(pb *budget.PathBudget, ll *LaserLimits, r *budget.Row, surfaces int, p float64) {
+	el := r.Element
+	R, assumed := DefaultSurfaceReflectance, true
+	if el.SurfaceReflectance != nil {
+		R, assumed = *el.SurfaceReflectance, false
+	}
+	if assumed {
+		res.strayDefault++
+	}
+	pr := R * p
+	irr := apertureIrradiance(r.BeamIn, pr, ll.EyeAperture)
+	ref := &Reflection{Path: pb, Element: el, Kind: ReflectionStray, Reflectance: R, Assumed: assumed, Surfaces: surfaces,
+		Power: pr, Irradiance: irr, Ratio: irr / ll.EyeIrradiance, Laser: ll}
+	ref.OD = limits.OpticalDensity(ref.Ratio)
+	if ref.Ratio > 1 {
+		res.reflections = append(res.reflections, ref)
+		res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingStray, Path: pb.Path.Name,
+			Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s): each of its %d surface(s) reflects %s (R = %g%s), %.3g × the eye MPE at the surface; block or enclose the back-reflection",
+				el.Index, el.Label(), surfaces, budget.FormatPower(pr), R, assumedNote(assumed), ref.Ratio)}.Figure(irr, ll.EyeIrradiance, "W/m2"))
+	}
+}
+
+// escaping evaluates the beams that leave the path at an element: a
+// mirror's leakage and an AOM's unused orders.
+func (res *pathHazardResult) escaping(pb *budget.PathBudget, ll *LaserLimits, r *budget.Row) {
+	el := r.Element
+	for _, l := range r.Losses {
+		var what string
+		switch l.Kind {
+		case budget.LossMirror:
+			what = "leaks through the mirror"
+		case budget.LossDiffraction:
+			what = "leaves in the undiffracted (and other) orders"
+		default:
+			continue
+		}
+		pl := l.Fraction * pb.Laser.Power
+		irr := apertureIrradiance(r.BeamIn, pl, ll.EyeAperture)
+		ref := &Reflection{Path: pb, Element: el, Kind: ReflectionEscaping, Reflectance: l.Fraction / r.FractionIn, Surfaces: 1,
+			Power: pl, Irradiance: irr, Ratio: irr / ll.EyeIrradiance, Laser: ll}
+		ref.OD = limits.OpticalDensity(ref.Ratio)
+		if ref.Ratio > 1 {
+			res.reflections = append(res.reflections, ref)
+			res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingEscaping, Path: pb.Path.Name,
+				Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s): %s %s, %s × the eye MPE; describe where it goes or end it in a rated dump",
+					el.Index, el.Label(), budget.FormatPower(pl), what, fmtX(ref.Ratio))}.Figure(irr, ll.EyeIrradiance, "W/m2"))
+		}
+	}
 }
 
 func assumedNote(assumed bool) string {
