@@ -1,6 +1,7 @@
 package budget
 
 import (
+	"fmt"
 	"math"
 	"testing"
 
@@ -16,9 +17,11 @@ func TestCircleFractionRound(t *testing.T) {
 		{0.5, 0.3934693403},         // a = w/2: 1 − e^(−1/2)
 		{1.5, 0.9888910034},         // a = 1.5 w: 1 − e^(−4.5)
 	} {
-		if got := CircleFraction(1, 1, c.a); !near(got, c.want, 1e-9) {
-			t.Errorf("T(a=%g w) = %.10f, want %.10f", c.a, got, c.want)
-		}
+		t.Run(fmt.Sprint(c), func(t *testing.T) {
+			if got := CircleFraction(1, 1, c.a); !near(got, c.want, 1e-9) {
+				t.Errorf("T(a=%g w) = %.10f, want %.10f", c.a, got, c.want)
+			}
+		})
 	}
 }
 
@@ -28,10 +31,12 @@ func TestCircleFractionEllipticalQuadrature(t *testing.T) {
 	for _, c := range []struct{ wx, wy, a float64 }{
 		{1, 0.6, 0.8}, {1, 0.6, 1.25}, {1, 0.1, 0.5}, {2, 0.5, 3}, {1, 0.02, 0.3}, {0.3, 1, 0.4},
 	} {
-		ref := diskIntegral(c.wx, c.wy, c.a)
-		if got := CircleFraction(c.wx, c.wy, c.a); math.Abs(got-ref) > 1e-9 {
-			t.Errorf("T(wx=%g, wy=%g, a=%g) = %.12f, quadrature %.12f", c.wx, c.wy, c.a, got, ref)
-		}
+		t.Run(fmt.Sprint(c), func(t *testing.T) {
+			ref := diskIntegral(c.wx, c.wy, c.a)
+			if got := CircleFraction(c.wx, c.wy, c.a); math.Abs(got-ref) > 1e-9 {
+				t.Errorf("T(wx=%g, wy=%g, a=%g) = %.12f, quadrature %.12f", c.wx, c.wy, c.a, got, ref)
+			}
+		})
 	}
 }
 

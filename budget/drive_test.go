@@ -282,14 +282,16 @@ func TestStatedDetuningAgainstWavelengths(t *testing.T) {
 		wavelength string
 		ok         bool
 	}{{"780 nm", true}, {"780.241 nm", true}, {"781.24 nm", false}, {"1064 nm", false}} {
-		src := rbCloudSetup(tc.wavelength, `detuning = "-20 MHz"`)
-		_, err := Parse("d.toml", []byte(src))
-		if (err == nil) != tc.ok {
-			t.Errorf("%s: error %v, want accepted %v", tc.wavelength, err, tc.ok)
-		}
-		if err != nil && !strings.Contains(err.Error(), "d.toml:7: laser \"l\"") {
-			t.Errorf("%s: message names no laser line: %v", tc.wavelength, err)
-		}
+		t.Run(tc.wavelength, func(t *testing.T) {
+			src := rbCloudSetup(tc.wavelength, `detuning = "-20 MHz"`)
+			_, err := Parse("d.toml", []byte(src))
+			if (err == nil) != tc.ok {
+				t.Errorf("%s: error %v, want accepted %v", tc.wavelength, err, tc.ok)
+			}
+			if err != nil && !strings.Contains(err.Error(), "d.toml:7: laser \"l\"") {
+				t.Errorf("%s: message names no laser line: %v", tc.wavelength, err)
+			}
+		})
 	}
 }
 

@@ -1,6 +1,7 @@
 package budget
 
 import (
+	"fmt"
 	"math"
 	"math/cmplx"
 	"testing"
@@ -19,10 +20,12 @@ func TestFiberOverlapRoundMarcuse(t *testing.T) {
 		{5.3e-6, 2.65e-6, 0.64},
 		{1.325e-6, 2.65e-6, 0.64},
 	} {
-		b := Beam{Wavelength: λ, X: NewPlane(c.w, 0, 1, λ), Y: NewPlane(c.w, 0, 1, λ)}
-		if got := FiberOverlap(b, 2*c.wf); !near(got, c.want, 1e-9) {
-			t.Errorf("η(w=%g, wf=%g) = %.10f, want %.10f", c.w, c.wf, got, c.want)
-		}
+		t.Run(fmt.Sprint(c), func(t *testing.T) {
+			b := Beam{Wavelength: λ, X: NewPlane(c.w, 0, 1, λ), Y: NewPlane(c.w, 0, 1, λ)}
+			if got := FiberOverlap(b, 2*c.wf); !near(got, c.want, 1e-9) {
+				t.Errorf("η(w=%g, wf=%g) = %.10f, want %.10f", c.w, c.wf, got, c.want)
+			}
+		})
 	}
 }
 
@@ -33,20 +36,22 @@ func TestModeOverlapCurvedQuadrature(t *testing.T) {
 	for _, c := range []struct{ w, invR, wf float64 }{
 		{3e-6, 0, 2.65e-6}, {4e-6, 1 / 2e-3, 2.65e-6}, {2e-6, -1 / 0.5e-3, 2.65e-6}, {10e-6, 1 / 1e-4, 3e-6},
 	} {
-		k := 2 * math.Pi / λ
-		field := func(x float64) complex128 {
-			e1 := cmplx.Exp(complex(-x*x/(c.w*c.w), -k*x*x*c.invR/2))
-			return e1 * complex(math.Exp(-x*x/(c.wf*c.wf)), 0)
-		}
-		L := 8 * math.Max(c.w, c.wf)
-		re := quad.Fixed(func(x float64) float64 { return real(field(x)) }, -L, L, 400, quad.Legendre{}, 0)
-		im := quad.Fixed(func(x float64) float64 { return imag(field(x)) }, -L, L, 400, quad.Legendre{}, 0)
-		n1 := math.Sqrt(math.Pi/2) * c.w
-		n2 := math.Sqrt(math.Pi/2) * c.wf
-		ref := (re*re + im*im) / (n1 * n2)
-		if got := ModeOverlap1D(c.w, c.invR, 1, c.wf, λ); !near(got, ref, 1e-9) {
-			t.Errorf("η₁(w=%g, 1/R=%g) = %.12f, quadrature %.12f", c.w, c.invR, got, ref)
-		}
+		t.Run(fmt.Sprint(c), func(t *testing.T) {
+			k := 2 * math.Pi / λ
+			field := func(x float64) complex128 {
+				e1 := cmplx.Exp(complex(-x*x/(c.w*c.w), -k*x*x*c.invR/2))
+				return e1 * complex(math.Exp(-x*x/(c.wf*c.wf)), 0)
+			}
+			L := 8 * math.Max(c.w, c.wf)
+			re := quad.Fixed(func(x float64) float64 { return real(field(x)) }, -L, L, 400, quad.Legendre{}, 0)
+			im := quad.Fixed(func(x float64) float64 { return imag(field(x)) }, -L, L, 400, quad.Legendre{}, 0)
+			n1 := math.Sqrt(math.Pi/2) * c.w
+			n2 := math.Sqrt(math.Pi/2) * c.wf
+			ref := (re*re + im*im) / (n1 * n2)
+			if got := ModeOverlap1D(c.w, c.invR, 1, c.wf, λ); !near(got, ref, 1e-9) {
+				t.Errorf("η₁(w=%g, 1/R=%g) = %.12f, quadrature %.12f", c.w, c.invR, got, ref)
+			}
+		})
 	}
 }
 
@@ -80,19 +85,21 @@ func TestModeOverlapGSMQuadrature(t *testing.T) {
 	for _, c := range []struct{ w, invR, m2, wf float64 }{
 		{5e-6, 0, 1.6, 3e-6}, {5e-6, 1 / 1e-3, 1.3, 4e-6}, {8e-6, -1 / 5e-4, 2.5, 4e-6},
 	} {
-		s2 := c.w * c.w / (c.m2*c.m2 - 1)
-		L := 8 * math.Max(c.w, c.wf)
-		inner := func(x1 float64) float64 {
-			return quad.Fixed(func(x2 float64) float64 {
-				g := math.Exp(-(x1*x1+x2*x2)/(c.w*c.w) - (x1-x2)*(x1-x2)/(2*s2) - (x1*x1+x2*x2)/(c.wf*c.wf))
-				return g * math.Cos(k*(x1*x1-x2*x2)*c.invR/2)
-			}, -L, L, 200, quad.Legendre{}, 0)
-		}
-		num := quad.Fixed(inner, -L, L, 200, quad.Legendre{}, 0)
-		ref := num / (math.Sqrt(math.Pi/2) * c.w * math.Sqrt(math.Pi/2) * c.wf)
-		if got := ModeOverlap1D(c.w, c.invR, c.m2, c.wf, λ); !near(got, ref, 1e-8) {
-			t.Errorf("η₁(W=%g, 1/R=%g, M²=%g) = %.10f, quadrature %.10f", c.w, c.invR, c.m2, got, ref)
-		}
+		t.Run(fmt.Sprint(c), func(t *testing.T) {
+			s2 := c.w * c.w / (c.m2*c.m2 - 1)
+			L := 8 * math.Max(c.w, c.wf)
+			inner := func(x1 float64) float64 {
+				return quad.Fixed(func(x2 float64) float64 {
+					g := math.Exp(-(x1*x1+x2*x2)/(c.w*c.w) - (x1-x2)*(x1-x2)/(2*s2) - (x1*x1+x2*x2)/(c.wf*c.wf))
+					return g * math.Cos(k*(x1*x1-x2*x2)*c.invR/2)
+				}, -L, L, 200, quad.Legendre{}, 0)
+			}
+			num := quad.Fixed(inner, -L, L, 200, quad.Legendre{}, 0)
+			ref := num / (math.Sqrt(math.Pi/2) * c.w * math.Sqrt(math.Pi/2) * c.wf)
+			if got := ModeOverlap1D(c.w, c.invR, c.m2, c.wf, λ); !near(got, ref, 1e-8) {
+				t.Errorf("η₁(W=%g, 1/R=%g, M²=%g) = %.10f, quadrature %.10f", c.w, c.invR, c.m2, got, ref)
+			}
+		})
 	}
 }
 

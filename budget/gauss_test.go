@@ -27,13 +27,15 @@ func TestPlaneTextbookHeNe(t *testing.T) {
 		{1.241147540, 7.071067812e-4, 2.482295080}, // W(z_R) = √2 W0, R(z_R) = 2 z_R
 		{5.0, 2.075394740e-3, 5.308089443},
 	} {
-		q := p.Propagate(c.z)
-		if got := q.Radius(λ); !near(got, c.w, 1e-8) {
-			t.Errorf("W(%g m) = %.10g m, want %.10g m", c.z, got, c.w)
-		}
-		if got := 1 / q.Curvature(); !near(got, c.r, 1e-8) {
-			t.Errorf("R(%g m) = %.10g m, want %.10g m", c.z, got, c.r)
-		}
+		t.Run(fmt.Sprint(c), func(t *testing.T) {
+			q := p.Propagate(c.z)
+			if got := q.Radius(λ); !near(got, c.w, 1e-8) {
+				t.Errorf("W(%g m) = %.10g m, want %.10g m", c.z, got, c.w)
+			}
+			if got := 1 / q.Curvature(); !near(got, c.r, 1e-8) {
+				t.Errorf("R(%g m) = %.10g m, want %.10g m", c.z, got, c.r)
+			}
+		})
 	}
 }
 

@@ -77,8 +77,10 @@ name = "q"
 		"path[0].element[1]": 11, "path[0].element[1].at": 12,
 		"path[1].name": 15, "path[1].element[0]": 16, "path[1].element[0].at": 18,
 	} {
-		if got := idx[key]; got != want {
-			t.Errorf("%s: line %d, want %d", key, got, want)
-		}
+		t.Run(key, func(t *testing.T) {
+			if got := idx[key]; got != want {
+				t.Errorf("%s: line %d, want %d", key, got, want)
+			}
+		})
 	}
 }

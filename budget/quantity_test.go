@@ -48,17 +48,20 @@ func TestParseQuantity(t *testing.T) {
 		{"1 W*s", 1, Energy},
 	}
 	for _, tc := range tests {
-		got, dim, err := ParseQuantity(tc.in)
-		if err != nil {
-			t.Errorf("ParseQuantity(%q): %v", tc.in, err)
-			continue
-		}
-		if dim != tc.dim {
-			t.Errorf("ParseQuantity(%q) dimension %v, want %v", tc.in, dim, tc.dim)
-		}
-		if math.Abs(got-tc.want) > 1e-12*math.Abs(tc.want) {
-			t.Errorf("ParseQuantity(%q) = %g, want %g", tc.in, got, tc.want)
-		}
+		t.Run(tc.in, func(t *testing.T) {
+			got, dim, err := ParseQuantity(tc.in)
+			if err != nil {
+				t.Errorf("ParseQuantity(%q): %v", tc.in, err)
+				return
+
+			}
+			if dim != tc.dim {
+				t.Errorf("ParseQuantity(%q) dimension %v, want %v", tc.in, dim, tc.dim)
+			}
+			if math.Abs(got-tc.want) > 1e-12*math.Abs(tc.want) {
+				t.Errorf("ParseQuantity(%q) = %g, want %g", tc.in, got, tc.want)
+			}
+		})
 	}
 }
 
@@ -76,10 +79,12 @@ func TestParseQuantityErrors(t *testing.T) {
 		{"5 mmin", "unknown unit"},
 	}
 	for _, tc := range tests {
-		_, _, err := ParseQuantity(tc.in)
-		if err == nil || !strings.Contains(err.Error(), tc.want) {
-			t.Errorf("ParseQuantity(%q) error %v, want it to contain %q", tc.in, err, tc.want)
-		}
+		t.Run(tc.in, func(t *testing.T) {
+			_, _, err := ParseQuantity(tc.in)
+			if err == nil || !strings.Contains(err.Error(), tc.want) {
+				t.Errorf("ParseQuantity(%q) error %v, want it to contain %q", tc.in, err, tc.want)
+			}
+		})
 	}
 }
 

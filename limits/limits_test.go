@@ -83,11 +83,13 @@ func TestSkinMPETable(t *testing.T) {
 		{"1500–1800 nm, 10 s to 3e4 s: 1000 W/m²", 1550, 100, 0, 1000, 0},
 	}
 	for _, r := range rows {
-		l, err := SkinMPE(r.nm*1e-9, r.t)
-		if err != nil {
-			t.Fatal(err)
-		}
-		checkPrinted(t, r.band, l, r.h, r.e, r.maxLess)
+		t.Run(r.band, func(t *testing.T) {
+			l, err := SkinMPE(r.nm*1e-9, r.t)
+			if err != nil {
+				t.Fatal(err)
+			}
+			checkPrinted(t, r.band, l, r.h, r.e, r.maxLess)
+		})
 	}
 }
 
@@ -116,9 +118,11 @@ func TestFactors(t *testing.T) {
 		{"C5(16 pulses) = 16^−0.25", C5(16), 0.5},
 	}
 	for _, c := range checks {
-		if math.Abs(c.got-c.want) > 1e-6*math.Abs(c.want) {
-			t.Errorf("%s = %.7g, want %.7g", c.name, c.got, c.want)
-		}
+		t.Run(c.name, func(t *testing.T) {
+			if math.Abs(c.got-c.want) > 1e-6*math.Abs(c.want) {
+				t.Errorf("%s = %.7g, want %.7g", c.name, c.got, c.want)
+			}
+		})
 	}
 }
 
@@ -181,15 +185,18 @@ func TestMPEContinuity(t *testing.T) {
 
 func TestOutsideTablesIsAnError(t *testing.T) {
 	for _, c := range []struct{ λ, t float64 }{{179e-9, 1}, {1.1e-3, 1}, {633e-9, 1e-14}, {633e-9, 4e4}, {math.NaN(), 1}, {633e-9, math.Inf(1)}} {
-		_, err := EyeMPE(c.λ, c.t, 0)
-		var re *RangeError
-		if !errors.As(err, &re) {
-			t.Errorf("EyeMPE(%g, %g): %v, want a RangeError", c.λ, c.t, err)
-		}
-		if _, err := SkinMPE(c.λ, c.t); err == nil {
-			t.Errorf("SkinMPE(%g, %g): no error", c.λ, c.t)
-		}
+		t.Run(fmt.Sprint(c), func(t *testing.T) {
+			_, err := EyeMPE(c.λ, c.t, 0)
+			var re *RangeError
+			if !errors.As(err, &re) {
+				t.Errorf("EyeMPE(%g, %g): %v, want a RangeError", c.λ, c.t, err)
+			}
+			if _, err := SkinMPE(c.λ, c.t); err == nil {
+				t.Errorf("SkinMPE(%g, %g): no error", c.λ, c.t)
+			}
+		})
 	}
+
 	if _, err := EyeMPE(633e-9, 1, -1); err == nil {
 		t.Error("negative angular subtense accepted")
 	}
@@ -201,10 +208,13 @@ func TestApertures(t *testing.T) {
 	for _, c := range []struct {
 		nm, t, want float64
 	}{{300, 1, 1e-3}, {633, 0.25, 7e-3}, {1064, 10, 7e-3}, {1550, 0.1, 1e-3}, {1550, 1, 1.5e-3}, {1550, 100, 3.5e-3}, {2e5, 1, 11e-3}} {
-		if got, _ := EyeAperture(c.nm*1e-9, c.t); math.Abs(got-c.want) > 1e-12 {
-			t.Errorf("eye aperture at %g nm, %g s = %g, want %g", c.nm, c.t, got, c.want)
-		}
+		t.Run(fmt.Sprint(c), func(t *testing.T) {
+			if got, _ := EyeAperture(c.nm*1e-9, c.t); math.Abs(got-c.want) > 1e-12 {
+				t.Errorf("eye aperture at %g nm, %g s = %g, want %g", c.nm, c.t, got, c.want)
+			}
+		})
 	}
+
 	if got, _ := SkinAperture(1064e-9, 10); got != 3.5e-3 {
 		t.Errorf("skin aperture %g", got)
 	}
@@ -241,9 +251,11 @@ func TestContinuousAEL(t *testing.T) {
 		p    float64
 		want string
 	}{{1e-4, Class1}, {9e-4, Class2}, {4e-3, Class3R}, {0.3, Class3B}, {1.5, Class4}} {
-		if got := ClassOf(cl.p, a); got != cl.want {
-			t.Errorf("class of %g W at 633 nm = %s, want %s", cl.p, got, cl.want)
-		}
+		t.Run(fmt.Sprint(cl), func(t *testing.T) {
+			if got := ClassOf(cl.p, a); got != cl.want {
+				t.Errorf("class of %g W at 633 nm = %s, want %s", cl.p, got, cl.want)
+			}
+		})
 	}
 }
 

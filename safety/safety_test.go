@@ -234,15 +234,17 @@ func TestMaxAlongAstigmatic(t *testing.T) {
 		{4e-3, 4e-3, 0.2, 0.3, 1, 7e-3, 1},
 		{1e-3, 6e-3, -0.2, 0.5, 1, 3.5e-3, 0.3},
 	} {
-		b := budget.Beam{Wavelength: λ, X: budget.NewPlane(c.wx, c.zx, 1.3, λ), Y: budget.NewPlane(c.wy, c.zy, 1.1, λ)}.Lens(0.3)
-		got, _ := maxAlong(b, c.p, c.d, c.L)
-		dense := 0.0
-		for i := 0; i <= 20000; i++ {
-			dense = math.Max(dense, apertureIrradiance(b.Propagate(c.L*float64(i)/20000), c.p, c.d))
-		}
-		if got < dense*(1-1e-6) {
-			t.Errorf("%+v: search %g, dense scan %g", c, got, dense)
-		}
+		t.Run(fmt.Sprint(c), func(t *testing.T) {
+			b := budget.Beam{Wavelength: λ, X: budget.NewPlane(c.wx, c.zx, 1.3, λ), Y: budget.NewPlane(c.wy, c.zy, 1.1, λ)}.Lens(0.3)
+			got, _ := maxAlong(b, c.p, c.d, c.L)
+			dense := 0.0
+			for i := 0; i <= 20000; i++ {
+				dense = math.Max(dense, apertureIrradiance(b.Propagate(c.L*float64(i)/20000), c.p, c.d))
+			}
+			if got < dense*(1-1e-6) {
+				t.Errorf("%+v: search %g, dense scan %g", c, got, dense)
+			}
+		})
 	}
 }
 
@@ -425,8 +427,10 @@ access = "enclosed"
 // the time bases of classification, from memory).
 func TestDefaultDuration(t *testing.T) {
 	for _, tc := range []struct{ λ, want float64 }{{400e-9, 0.25}, {633e-9, 0.25}, {700e-9, 0.25}, {399e-9, 10}, {780e-9, 10}, {10.6e-6, 10}} {
-		if got := DefaultDuration(tc.λ); got != tc.want {
-			t.Errorf("%g m: %g s, want %g s", tc.λ, got, tc.want)
-		}
+		t.Run(fmt.Sprint(tc), func(t *testing.T) {
+			if got := DefaultDuration(tc.λ); got != tc.want {
+				t.Errorf("%g m: %g s, want %g s", tc.λ, got, tc.want)
+			}
+		})
 	}
 }

@@ -30,27 +30,31 @@ func TestTransitionData(t *testing.T) {
 		{"Yb174 556 nm", 555.8025, 0.1824, 0, 0, 1e-6},             // NIST ASD (from memory)
 	}
 	for _, c := range tests {
-		tr, ok := Lookup(c.name)
-		if !ok {
-			t.Errorf("%s missing", c.name)
-			continue
-		}
-		if !close(tr.Wavelength, c.λnm*1e-9, 1e-11) {
-			t.Errorf("%s: λ = %.9g nm, want %.9g", c.name, tr.Wavelength*1e9, c.λnm)
-		}
-		if !close(tr.Gamma/(2*math.Pi), c.Γ2πMHz*1e6, c.rel) {
-			t.Errorf("%s: Γ/2π = %.6g MHz, want %.6g", c.name, tr.Gamma/(2*math.Pi)/1e6, c.Γ2πMHz)
-		}
-		if c.isat > 0 && !close(tr.IsatCycling, c.isat*10, 1e-9) {
-			t.Errorf("%s: I_sat = %g mW/cm², want %g", c.name, tr.IsatCycling/10, c.isat)
-		}
-		if c.isatIs > 0 && !close(tr.IsatIsotropic, c.isatIs*10, 1e-9) {
-			t.Errorf("%s: isotropic I_sat = %g mW/cm², want %g", c.name, tr.IsatIsotropic/10, c.isatIs)
-		}
-		if tr.Mass <= 0 || tr.Source == "" || len(tr.Lines) == 0 {
-			t.Errorf("%s: mass, source and lines are required", c.name)
-		}
+		t.Run(c.name, func(t *testing.T) {
+			tr, ok := Lookup(c.name)
+			if !ok {
+				t.Errorf("%s missing", c.name)
+				return
+
+			}
+			if !close(tr.Wavelength, c.λnm*1e-9, 1e-11) {
+				t.Errorf("%s: λ = %.9g nm, want %.9g", c.name, tr.Wavelength*1e9, c.λnm)
+			}
+			if !close(tr.Gamma/(2*math.Pi), c.Γ2πMHz*1e6, c.rel) {
+				t.Errorf("%s: Γ/2π = %.6g MHz, want %.6g", c.name, tr.Gamma/(2*math.Pi)/1e6, c.Γ2πMHz)
+			}
+			if c.isat > 0 && !close(tr.IsatCycling, c.isat*10, 1e-9) {
+				t.Errorf("%s: I_sat = %g mW/cm², want %g", c.name, tr.IsatCycling/10, c.isat)
+			}
+			if c.isatIs > 0 && !close(tr.IsatIsotropic, c.isatIs*10, 1e-9) {
+				t.Errorf("%s: isotropic I_sat = %g mW/cm², want %g", c.name, tr.IsatIsotropic/10, c.isatIs)
+			}
+			if tr.Mass <= 0 || tr.Source == "" || len(tr.Lines) == 0 {
+				t.Errorf("%s: mass, source and lines are required", c.name)
+			}
+		})
 	}
+
 	if len(Names()) != len(tests) {
 		t.Errorf("table has %d transitions, test covers %d", len(Names()), len(tests))
 	}
@@ -74,11 +78,14 @@ func TestTwoLevelIsatReproducesDataSheets(t *testing.T) {
 		{"K39 D2", 1.75, 0.5e-2 / 1.75},
 		{"Li6 D2", 2.54, 0.5e-2 / 2.54},
 	} {
-		tr, _ := Lookup(c.name)
-		if got := TwoLevelIsat(tr.Wavelength, tr.Gamma) / 10; !close(got, c.want, c.rel) {
-			t.Errorf("%s: πhcΓ/(3λ³) = %.6g mW/cm², data sheet %g", c.name, got, c.want)
-		}
+		t.Run(c.name, func(t *testing.T) {
+			tr, _ := Lookup(c.name)
+			if got := TwoLevelIsat(tr.Wavelength, tr.Gamma) / 10; !close(got, c.want, c.rel) {
+				t.Errorf("%s: πhcΓ/(3λ³) = %.6g mW/cm², data sheet %g", c.name, got, c.want)
+			}
+		})
 	}
+
 	// Resonant cross-section of the cycling transition: Steck Rb-87 table 3,
 	// σ0 = 2.906 692 × 10⁻⁹ cm² = 3λ²/(2π).
 	tr, _ := Lookup("Rb87 D2")
@@ -223,9 +230,11 @@ func TestLineWeights(t *testing.T) {
 		l    Line
 		want float64
 	}{{rb.Lines[0], 2.0 / 3}, {rb.Lines[1], 1.0 / 3}, {sr.Lines[0], 1}} {
-		if got := tc.l.Weight(); !close(got, tc.want, 1e-12) {
-			t.Errorf("%s: weight %g, want %g", tc.l.Name, got, tc.want)
-		}
+		t.Run(tc.l.Name, func(t *testing.T) {
+			if got := tc.l.Weight(); !close(got, tc.want, 1e-12) {
+				t.Errorf("%s: weight %g, want %g", tc.l.Name, got, tc.want)
+			}
+		})
 	}
 }
 

@@ -3,16 +3,15 @@ package main
 import (
 	"bytes"
 	"encoding/json"
-	"flag"
 	"os"
 	"path/filepath"
 	"reflect"
 	"strings"
 	"testing"
 	"time"
-)
 
-var update = flag.Bool("update", false, "rewrite the golden files under testdata/golden")
+	"beamledger/safety/safetytest"
+)
 
 // runCLI runs the command line from the repository root with a pinned clock.
 func runCLI(t *testing.T, args ...string) (stdout, stderr string, code int) {
@@ -28,41 +27,9 @@ func runCLI(t *testing.T, args ...string) (stdout, stderr string, code int) {
 // noInterrupts delivers no signal.
 func noInterrupts() (<-chan os.Signal, func()) { return nil, func() {} }
 
-// compareGolden checks got against testdata/golden/name, or rewrites it with
-// -update. A missing golden file is a failure, never a pass.
-func compareGolden(t *testing.T, name, got string) {
-	t.Helper()
-	path := filepath.Join("testdata", "golden", name)
-	if *update {
-		if err := os.WriteFile(path, []byte(got), 0o644); err != nil {
-			t.Fatal(err)
-		}
-		return
-	}
-	want, err := os.ReadFile(path)
-	if err != nil {
-		t.Fatalf("golden file: %v (run go test ./cmd/beamledger -update to create it)", err)
-	}
-	if got == string(want) {
-		return
-	}
-	gl, wl := strings.Split(got, "\n"), strings.Split(string(want), "\n")
-	for i := 0; i < len(gl) || i < len(wl); i++ {
-		var g, w string
-		if i < len(gl) {
-			g = gl[i]
-		}
-		if i < len(wl) {
-			w = wl[i]
-		}
-		if g != w {
-			t.Fatalf("%s differs first at line %d:\n got: %q\nwant: %q", path, i+1, g, w)
-		}
-	}
-}
-
-// Every shipped example has a text and a JSON golden file and a known exit
-// status.
+// Every shipped example has a known exit status, and check prints exactly
+// the renderer's golden text and JSON (safety/render/testdata/golden, which
+// go test ./safety/render -update rewrites).
 func TestCheckGolden(t *testing.T) {
 	t.Chdir("../..")
 	files, err := filepath.Glob("testdata/examples/*.toml")
@@ -83,16 +50,17 @@ func TestCheckGolden(t *testing.T) {
 			if !known {
 				t.Fatalf("no expected exit status for %s; add it to wantCode", base)
 			}
-			out, errOut, got := runCLI(t, "check", f)
-			if got != code {
-				t.Errorf("check %s: exit %d, want %d (stderr %q)", f, got, code, errOut)
+			for _, c := range []struct{ flag, ext string }{{"", ".txt"}, {"--json", ".json"}} {
+				args := []string{"check", f}
+				if c.flag != "" {
+					args = []string{"check", c.flag, f}
+				}
+				out, errOut, got := runCLI(t, args...)
+				if got != code {
+					t.Errorf("%v: exit %d, want %d (stderr %q)", args, got, code, errOut)
+				}
+				safetytest.Golden(t, filepath.Join("safety", "render", "testdata", "golden", base+c.ext), out, false)
 			}
-			compareGolden(t, base+".txt", out)
-			out, _, got = runCLI(t, "check", "--json", f)
-			if got != code {
-				t.Errorf("check --json %s: exit %d, want %d", f, got, code)
-			}
-			compareGolden(t, base+".json", out)
 		})
 	}
 }

@@ -14,11 +14,11 @@ import (
 	"github.com/pdfcpu/pdfcpu/pkg/api"
 	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu/model"
 
-	"beamledger/budget"
 	"beamledger/budget/synth"
 	"beamledger/safety"
 	"beamledger/safety/render"
 	"beamledger/safety/report"
+	"beamledger/safety/safetytest"
 )
 
 // Every file in testdata/hostile is a setup that must be accepted and must
@@ -121,15 +121,7 @@ func TestNoNonFiniteOutput(t *testing.T) {
 	}
 	for name, data := range sources {
 		t.Run(name, func(t *testing.T) {
-			s, err := budget.Parse(name, data)
-			if err != nil {
-				t.Fatal(err)
-			}
-			a, err := safety.Evaluate(s)
-			if err != nil {
-				t.Fatal(err)
-			}
-			checkFiniteOutputs(t, a, data)
+			checkFiniteOutputs(t, safetytest.Evaluate(t, name, data), data)
 		})
 	}
 }

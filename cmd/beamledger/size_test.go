@@ -101,20 +101,22 @@ func TestUnreadableSources(t *testing.T) {
 		{"/dev/zero", "is not a regular file"},
 		{t.TempDir(), "is a directory, not a setup file"},
 	} {
-		done := make(chan struct{})
-		var errOut string
-		var code int
-		go func() {
-			defer close(done)
-			_, errOut, code = runCLI(t, "check", tc.file)
-		}()
-		select {
-		case <-done:
-		case <-time.After(10 * time.Second):
-			t.Fatalf("%s: check did not return", tc.file)
-		}
-		if code != exitBadInput || !strings.Contains(errOut, tc.want) {
-			t.Errorf("%s: exit %d, %q", tc.file, code, errOut)
-		}
+		t.Run(tc.file, func(t *testing.T) {
+			done := make(chan struct{})
+			var errOut string
+			var code int
+			go func() {
+				defer close(done)
+				_, errOut, code = runCLI(t, "check", tc.file)
+			}()
+			select {
+			case <-done:
+			case <-time.After(10 * time.Second):
+				t.Fatalf("%s: check did not return", tc.file)
+			}
+			if code != exitBadInput || !strings.Contains(errOut, tc.want) {
+				t.Errorf("%s: exit %d, %q", tc.file, code, errOut)
+			}
+		})
 	}
 }

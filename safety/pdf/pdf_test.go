@@ -16,25 +16,13 @@ import (
 	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu"
 	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu/model"
 
-	"beamledger/budget"
-	"beamledger/safety"
 	"beamledger/safety/report"
+	"beamledger/safety/safetytest"
 )
 
 func demoPDF(t testing.TB, compress bool) ([]byte, *report.Document) {
 	t.Helper()
-	data, err := os.ReadFile("../../testdata/examples/table-c.toml")
-	if err != nil {
-		t.Fatal(err)
-	}
-	s, err := budget.Parse("table-c.toml", data)
-	if err != nil {
-		t.Fatal(err)
-	}
-	a, err := safety.Evaluate(s)
-	if err != nil {
-		t.Fatal(err)
-	}
+	a, data := safetytest.EvaluateFile(t, "../../testdata/examples/table-c.toml")
 	doc := report.Build(a, report.Meta{Date: "2026-01-02", ToolVersion: "test", SetupBytes: data})
 	var b bytes.Buffer
 	if err := Write(&b, doc, Options{Date: time.Date(2026, 1, 2, 0, 0, 0, 0, time.UTC), Compress: compress}); err != nil {
@@ -195,15 +183,8 @@ func TestUndrawableAndPlaceholderText(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	s, err := budget.Parse("weak-probe.toml", data)
-	if err != nil {
-		t.Fatal(err)
-	}
-	s.Meta.Title = "Table {nb} \U0001F52C probe"
-	a, err := safety.Evaluate(s)
-	if err != nil {
-		t.Fatal(err)
-	}
+	a := safetytest.Evaluate(t, "weak-probe.toml", data)
+	a.Setup.Meta.Title = "Table {nb} \U0001F52C probe"
 	doc := report.Build(a, report.Meta{Date: "2026-01-02", ToolVersion: "test", SetupBytes: data})
 	var b bytes.Buffer
 	if err := Write(&b, doc, Options{Date: time.Date(2026, 1, 2, 0, 0, 0, 0, time.UTC)}); err != nil {

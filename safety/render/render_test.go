@@ -2,6 +2,7 @@ package render
 
 import (
 	"encoding/json"
+	"flag"
 	"io"
 	"math"
 	"os"
@@ -13,6 +14,7 @@ import (
 
 	"beamledger/budget"
 	"beamledger/safety"
+	"beamledger/safety/safetytest"
 )
 
 // Any setup that loads renders as text and as valid JSON: no NaN or Inf
@@ -75,5 +77,36 @@ func TestJSONRefusesNonFinite(t *testing.T) {
 	doc.A[1].V, doc.M = 2, map[string]float64{"k": math.NaN()}
 	if err := nonFinite(reflect.ValueOf(doc), "$"); err == nil || !strings.Contains(err.Error(), "$.m[k] is NaN") {
 		t.Errorf("got %v", err)
+	}
+}
+
+var update = flag.Bool("update", false, "rewrite the golden files under testdata/golden")
+
+// The text and JSON of every shipped example against their golden files
+// (go test ./safety/render -update rewrites them; read the diff).
+func TestGolden(t *testing.T) {
+	files, _ := filepath.Glob("../../testdata/examples/*.toml")
+	if len(files) < 4 {
+		t.Fatalf("%d examples", len(files))
+	}
+	for _, f := range files {
+		base := strings.TrimSuffix(filepath.Base(f), ".toml")
+		t.Run(base, func(t *testing.T) {
+			data, err := os.ReadFile(f)
+			if err != nil {
+				t.Fatal(err)
+			}
+			// The name is the one `check` prints when run from the repository.
+			a := safetytest.Evaluate(t, "testdata/examples/"+base+".toml", data)
+			var text, js strings.Builder
+			if err := Text(&text, a); err != nil {
+				t.Fatal(err)
+			}
+			if err := JSON(&js, a); err != nil {
+				t.Fatal(err)
+			}
+			safetytest.Golden(t, filepath.Join("testdata", "golden", base+".txt"), text.String(), *update)
+			safetytest.Golden(t, filepath.Join("testdata", "golden", base+".json"), js.String(), *update)
+		})
 	}
 }

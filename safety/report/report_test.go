@@ -3,18 +3,19 @@ package report
 import (
 	"bytes"
 	"flag"
-	"os"
 	"path/filepath"
 	"strings"
 	"testing"
 
 	"beamledger/budget"
 	"beamledger/safety"
+	"beamledger/safety/safetytest"
 )
 
 var update = flag.Bool("update", false, "rewrite the golden files")
 
-// The model of every shipped example against its golden text.
+// The model of every shipped example against its golden text (go test
+// ./safety/report -update rewrites them; read the diff).
 func TestModelGolden(t *testing.T) {
 	files, _ := filepath.Glob("../../testdata/examples/*.toml")
 	if len(files) < 4 {
@@ -28,46 +29,14 @@ func TestModelGolden(t *testing.T) {
 			if err := doc.WriteText(&b); err != nil {
 				t.Fatal(err)
 			}
-			golden := filepath.Join("../../testdata/golden", base+".report.txt")
-			if *update {
-				os.WriteFile(golden, b.Bytes(), 0o644)
-				return
-			}
-			want, err := os.ReadFile(golden)
-			if err != nil {
-				t.Fatalf("%v (go test ./safety/report -update writes it)", err)
-			}
-			if got := b.String(); got != string(want) {
-				gl, wl := strings.Split(got, "\n"), strings.Split(string(want), "\n")
-				for i := range gl {
-					if i >= len(wl) || gl[i] != wl[i] {
-						w := ""
-						if i < len(wl) {
-							w = wl[i]
-						}
-						t.Fatalf("%s differs at line %d:\n got: %q\nwant: %q", golden, i+1, gl[i], w)
-					}
-				}
-				t.Fatalf("%s: golden has more lines", golden)
-			}
+			safetytest.Golden(t, filepath.Join("testdata", "golden", base+".txt"), b.String(), *update)
 		})
 	}
 }
 
 func buildFor(t *testing.T, f string) *Document {
 	t.Helper()
-	data, err := os.ReadFile(f)
-	if err != nil {
-		t.Fatal(err)
-	}
-	s, err := budget.Parse(filepath.Base(f), data)
-	if err != nil {
-		t.Fatal(err)
-	}
-	a, err := safety.Evaluate(s)
-	if err != nil {
-		t.Fatal(err)
-	}
+	a, data := safetytest.EvaluateFile(t, f)
 	return Build(a, Meta{Date: "2026-01-02", ToolVersion: "test", SetupBytes: data})
 }
 

@@ -1,0 +1,91 @@
+// Package safetytest holds the helpers that tests of the output packages
+// share, in the manner of the standard library's httptest: evaluating a
+// setup held in a test or read from testdata, and comparing an output with
+// its golden file. Production code never imports it.
+package safetytest
+
+import (
+	"os"
+	"path/filepath"
+	"strconv"
+	"strings"
+	"testing"
+
+	"beamledger/budget"
+	"beamledger/safety"
+)
+
+// Evaluate loads a setup from its bytes (name is used in messages) and
+// evaluates it; any error fails the test.
+func Evaluate(t testing.TB, name string, src []byte) *safety.Assessment {
+	t.Helper()
+	s, err := budget.Parse(name, src)
+	if err != nil {
+		t.Fatal(err)
+	}
+	a, err := safety.Evaluate(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return a
+}
+
+// EvaluateFile reads and evaluates a setup file, returning the assessment
+// and the file's bytes.
+func EvaluateFile(t testing.TB, path string) (*safety.Assessment, []byte) {
+	t.Helper()
+	data, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return Evaluate(t, filepath.Base(path), data), data
+}
+
+// Golden compares got with the golden file at path, or rewrites the file
+// when update is set (a failed write fails the test). A missing golden file
+// is a failure, never a pass; a difference is shown as the first differing
+// line with the lines around it.
+func Golden(t testing.TB, path, got string, update bool) {
+	t.Helper()
+	if update {
+		if err := os.MkdirAll(filepath.Dir(path), 0o755); err != nil {
+			t.Fatal(err)
+		}
+		if err := os.WriteFile(path, []byte(got), 0o644); err != nil {
+			t.Fatalf("writing the golden file: %v", err)
+		}
+		return
+	}
+	want, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatalf("golden file: %v (run the test with -update to write it)", err)
+	}
+	if got == string(want) {
+		return
+	}
+	t.Fatalf("%s differs:\n%s", path, Diff(string(want), got))
+}
+
+// Diff shows where two texts first differ: the differing line of each, with
+// two lines of context before it, numbered.
+func Diff(want, got string) string {
+	wl, gl := strings.Split(want, "\n"), strings.Split(got, "\n")
+	i := 0
+	for i < len(wl) && i < len(gl) && wl[i] == gl[i] {
+		i++
+	}
+	var b strings.Builder
+	for k := max(0, i-2); k < i; k++ {
+		b.WriteString("  " + strconv.Itoa(k+1) + "  " + wl[k] + "\n")
+	}
+	line := func(mark string, lines []string) {
+		if i < len(lines) {
+			b.WriteString(mark + strconv.Itoa(i+1) + "  " + lines[i] + "\n")
+		} else {
+			b.WriteString(mark + strconv.Itoa(i+1) + "  (end of text)\n")
+		}
+	}
+	line("- ", wl)
+	line("+ ", gl)
+	return b.String()
+}
