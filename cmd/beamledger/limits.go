@@ -11,7 +11,7 @@ import (
 	"beamledger/budget"
 	"beamledger/limits"
 	"beamledger/safety"
-	"beamledger/safety/render"
+	"beamledger/safety/view"
 )
 
 type limitsOptions struct {
@@ -185,7 +185,7 @@ func computeLimits(o *limitsOptions) (*limitsResult, error) {
 		Eye:         limitsSide{eye.Irradiance, eye.RadiantExposure, eyeAp, eye.Rule, eye.Effect},
 		Skin:        limitsSide{skin.Irradiance, skin.RadiantExposure, skinAp, skin.Rule, skin.Effect},
 		AEL:         limitsAEL{ael.Class1, nonNaN(ael.Class2), nonNaN(ael.Class3R), ael.Class3B},
-		AELTimeBase: ael.TimeBase, Cautions: render.Cautions, Factors: eye.Factors,
+		AELTimeBase: ael.TimeBase, Cautions: view.Cautions, Factors: eye.Factors,
 	}
 	if res.Factors == nil {
 		res.Factors = map[string]float64{}

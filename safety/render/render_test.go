@@ -4,10 +4,8 @@ import (
 	"encoding/json"
 	"flag"
 	"io"
-	"math"
 	"os"
 	"path/filepath"
-	"reflect"
 	"regexp"
 	"strings"
 	"testing"
@@ -59,26 +57,6 @@ func FuzzRender(f *testing.F) {
 
 // nonFiniteWord finds a number printed as NaN or infinity.
 var nonFiniteWord = regexp.MustCompile(`\b(NaN|[+-]?Inf)\b`)
-
-// The JSON writer refuses a non-finite figure and names where it is, rather
-// than write a document no reader can take.
-func TestJSONRefusesNonFinite(t *testing.T) {
-	type inner struct {
-		V float64 `json:"v_w"`
-	}
-	doc := struct {
-		A []inner            `json:"a"`
-		M map[string]float64 `json:"m"`
-	}{A: []inner{{1}, {math.Inf(1)}}}
-	err := nonFinite(reflect.ValueOf(doc), "$")
-	if err == nil || !strings.Contains(err.Error(), "$.a[1].v_w is +Inf") {
-		t.Errorf("got %v", err)
-	}
-	doc.A[1].V, doc.M = 2, map[string]float64{"k": math.NaN()}
-	if err := nonFinite(reflect.ValueOf(doc), "$"); err == nil || !strings.Contains(err.Error(), "$.m[k] is NaN") {
-		t.Errorf("got %v", err)
-	}
-}
 
 var update = flag.Bool("update", false, "rewrite the golden files under testdata/golden")
 

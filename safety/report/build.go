@@ -12,7 +12,7 @@ import (
 	"beamledger/budget/atoms"
 	"beamledger/limits"
 	"beamledger/safety"
-	"beamledger/safety/render"
+	"beamledger/safety/view"
 )
 
 // Meta is what the document takes from outside the assessment.
@@ -429,7 +429,7 @@ func assumptions(a *safety.Assessment) Section {
 }
 
 func cautions() Section {
-	return Section{Heading: "Cautions", Blocks: []Block{{Bullets: render.Cautions},
+	return Section{Heading: "Cautions", Blocks: []Block{{Bullets: view.Cautions},
 		{Paragraph: "Alignment practice (common practice): reduce the power for alignment, use viewing cards and cameras rather than eyes, keep beams horizontal at table height and below eye level, terminate every beam in a rated dump, remove reflective jewellery and watches, and wear the specified eyewear. Follow the laser safety officer, local regulations and the institution's procedures where they say otherwise."}}}
 }
 

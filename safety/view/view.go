@@ -1,0 +1,196 @@
+// Package view builds, once, what the outputs of an assessment show: every
+// figure with its JSON key, its label, its SI value and its text for people,
+// grouped into the records and lists the outputs share. The text writer, the
+// JSON writer and the sign-off document all draw this one model, so a figure
+// shown in one is shown in the others, and a field added to a result type
+// must be placed here or listed as hidden on purpose (TestFieldCoverage).
+//
+// Conventions: values are SI (m, W, s, Hz, K, W/m², J/m²); JSON keys carry
+// the unit as a suffix; a value that does not exist is null in JSON and left
+// out (or written "—") for people. No NaN or infinity reaches an output.
+package view
+
+import (
+	"math"
+	"strings"
+)
+
+// Kind says what a field holds.
+type Kind int
+
+// Field kinds.
+const (
+	Number Kind = iota // a finite SI value, or null when absent
+	Int                // a whole number
+	String
+	Bool
+	Strings // a list of strings
+	Matrix  // rows of numbers
+)
+
+// Field is one figure or word, as every output shows it.
+type Field struct {
+	// Key is the JSON key: snake_case with the unit as a suffix.
+	Key string
+	// Label names it for people (a column header or a line's label).
+	Label string
+	Kind  Kind
+	// SI is the value of a Number (NaN: it does not exist, null in JSON);
+	// Int holds a whole number.
+	SI  float64
+	Int int
+	// Absent marks an Int, String or Bool that does not exist (null in
+	// JSON); OmitEmpty leaves an absent field out of JSON altogether.
+	Absent, OmitEmpty bool
+	Str               string
+	Bool              bool
+	List              []string
+	Rows              [][]float64
+	// Text is the value written for people, with its unit.
+	Text string
+	// Source names the result field it shows, "Type.Field", for the
+	// coverage test.
+	Source string
+	// People marks a field for people only (a combined cell such as
+	// "lens L1", or a share in percent): JSON leaves it out.
+	People bool
+}
+
+// Num is a number field with its text for people; a non-finite value is
+// absent (null in JSON) and its text "—".
+func Num(key, label string, si float64, text, source string) Field {
+	if math.IsNaN(si) || math.IsInf(si, 0) {
+		return Field{Key: key, Label: label, Kind: Number, SI: math.NaN(), Text: "—", Source: source}
+	}
+	return Field{Key: key, Label: label, Kind: Number, SI: si, Text: text, Source: source}
+}
+
+// Whole is an integer field.
+func Whole(key, label string, n int, text, source string) Field {
+	return Field{Key: key, Label: label, Kind: Int, Int: n, Text: text, Source: source}
+}
+
+// Str is a string field.
+func Str(key, label, s, source string) Field {
+	return Field{Key: key, Label: label, Kind: String, Str: s, Text: s, Source: source}
+}
+
+// Flag is a boolean field with its text for people.
+func Flag(key, label string, b bool, text, source string) Field {
+	return Field{Key: key, Label: label, Kind: Bool, Bool: b, Text: text, Source: source}
+}
+
+// Absent is a field that does not exist here: null in JSON (or left out
+// with omit), "—" for people.
+func Absent(key, label string, omit bool, source string) Field {
+	return Field{Key: key, Label: label, Kind: Number, SI: math.NaN(), Absent: true, OmitEmpty: omit, Text: "—", Source: source}
+}
+
+// Member is one member of a record: a field, a list of records, or a nested
+// record (a JSON object). Exactly one is set.
+type Member struct {
+	Field  *Field
+	List   *List
+	Object *Object
+}
+
+// Object is a named nested record; a nil Record is null in JSON (or left out
+// with OmitEmpty).
+type Object struct {
+	Key       string
+	Record    *Record
+	OmitEmpty bool
+}
+
+// Record is one JSON object, and for people one row of a table or one block
+// of lines.
+type Record struct {
+	Members []Member
+	// Lines are sentences for people built from the record's fields (the
+	// text and the sign-off print them; JSON has the fields): Lines before
+	// the record's lists, After them. Each is a template whose {key} (or
+	// {object.key}) is replaced by that field's text.
+	Lines, After []string
+}
+
+// List is an array of records: a JSON array, and for people a table with
+// the columns named (keys of the records' fields) or the records' lines.
+type List struct {
+	Key     string
+	Heading string
+	Records []Record
+	// Columns are the keys of the fields shown as table columns, in order;
+	// none: the records are written as their lines.
+	Columns []string
+	// Empty is written for people when the list has no record.
+	Empty string
+	// Left is the number of table columns set flush left (at least 1).
+	Left int
+	// Lead is a row shown to people before the records (not in JSON), such
+	// as a path's start.
+	Lead *Record
+	// Gap puts a blank line before each record for people.
+	Gap bool
+	// Indent is the extra indentation of the list for people, in levels of
+	// two spaces.
+	Indent int
+}
+
+// F adds a field to the record.
+func (r *Record) F(f Field) *Record {
+	r.Members = append(r.Members, Member{Field: &f})
+	return r
+}
+
+// L adds a list to the record.
+func (r *Record) L(l *List) *Record {
+	r.Members = append(r.Members, Member{List: l})
+	return r
+}
+
+// O adds a nested record.
+func (r *Record) O(key string, rec *Record, omitEmpty bool) *Record {
+	r.Members = append(r.Members, Member{Object: &Object{Key: key, Record: rec, OmitEmpty: omitEmpty}})
+	return r
+}
+
+// Line adds a sentence for people.
+func (r *Record) Line(s string) *Record {
+	r.Lines = append(r.Lines, s)
+	return r
+}
+
+// Field returns the record's field with the key, or nil; "goal.margin_db"
+// looks in the nested record "goal".
+func (r *Record) Field(key string) *Field {
+	if obj, rest, nested := strings.Cut(key, "."); nested {
+		for _, m := range r.Members {
+			if m.Object != nil && m.Object.Key == obj && m.Object.Record != nil {
+				return m.Object.Record.Field(rest)
+			}
+		}
+		return nil
+	}
+	for _, m := range r.Members {
+		if m.Field != nil && m.Field.Key == key {
+			return m.Field
+		}
+	}
+	return nil
+}
+
+// Walk calls f for every field of the record and of the records inside it.
+func (r *Record) Walk(f func(*Field)) {
+	for _, m := range r.Members {
+		switch {
+		case m.Field != nil:
+			f(m.Field)
+		case m.List != nil:
+			for i := range m.List.Records {
+				m.List.Records[i].Walk(f)
+			}
+		case m.Object != nil && m.Object.Record != nil:
+			m.Object.Record.Walk(f)
+		}
+	}
+}
