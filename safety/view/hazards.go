@@ -28,8 +28,8 @@ func Assumptions(s *budget.Setup) []string {
 }
 
 type hazardView struct {
-	json    *Record // the members the JSON document takes at its top level
-	section Section
+	json                                    *Record // the members the JSON document takes at its top level
+	section                                 Section
 	lasers, exposures, reflections, eyewear *List
 	stray, escaping, diffuse                *List // the reflections by kind, for people
 }
