@@ -7,9 +7,9 @@ import (
 	"math"
 	"sort"
 	"strings"
+	"unicode/utf8"
 
 	"beamledger/budget"
-	"beamledger/budget/atoms"
 	"beamledger/limits"
 	"beamledger/safety"
 	"beamledger/safety/view"
@@ -34,12 +34,100 @@ func Build(a *safety.Assessment, m Meta) *Document {
 		Date: m.Date, ToolVersion: m.ToolVersion, SetupFile: s.File, SetupSHA256: hex.EncodeToString(sum[:]),
 	}
 	d.Summary = summary(a)
-	d.Sections = append(d.Sections, sources(a), paths(a))
-	if len(a.Atoms) > 0 {
-		d.Sections = append(d.Sections, atomsSection(a))
+	v := view.Build(a)
+	lists := map[string]*view.List{}
+	for _, m := range v.JSON.Members {
+		if m.List != nil {
+			lists[m.List.Key] = m.List
+		}
 	}
-	d.Sections = append(d.Sections, hazards(a), eyewear(a), assumptions(a), cautions(), signOff())
+	d.Sections = append(d.Sections, sources(lists["lasers"]), paths(a, lists["paths"]))
+	if len(a.Atoms) > 0 {
+		d.Sections = append(d.Sections, atomsSection(a, lists["atoms"]))
+	}
+	d.Sections = append(d.Sections, hazards(lists), eyewear(lists["eyewear"]), assumptions(a), cautions(), signOff())
 	return d
+}
+
+// table draws a view's list as a table: its columns' labels as the header,
+// the fields' texts as cells (numbers flush right), with the lead row first;
+// widths follow the longest text of each column.
+func table(l *view.List) *Table {
+	t := &Table{}
+	var recs []*view.Record
+	if l.Lead != nil {
+		recs = append(recs, l.Lead)
+	}
+	for i := range l.Records {
+		recs = append(recs, &l.Records[i])
+	}
+	for _, k := range l.Columns {
+		label, right, width := k, false, 3
+		for _, r := range recs {
+			if f := r.Field(k); f != nil {
+				label = f.Label
+				right = right || f.Kind == view.Number || f.Kind == view.Int
+				width = max(width, utf8.RuneCountInString(f.Text))
+			}
+		}
+		t.Header = append(t.Header, label)
+		t.Right = append(t.Right, right)
+		t.Widths = append(t.Widths, float64(min(max(width, utf8.RuneCountInString(label)), 40)))
+	}
+	for _, r := range recs {
+		var row []string
+		for _, k := range l.Columns {
+			if f := r.Field(k); f != nil {
+				row = append(row, f.Text)
+			} else {
+				row = append(row, "")
+			}
+		}
+		t.Rows = append(t.Rows, row)
+	}
+	return t
+}
+
+// lines are a record's sentences for people, its lists' records' sentences
+// after them (without the records' own table rows).
+func lines(r *view.Record) []string {
+	var out []string
+	for _, l := range r.Lines {
+		out = append(out, strings.TrimSpace(r.Expand(l)))
+	}
+	for _, m := range r.Members {
+		if m.List != nil {
+			for i := range m.List.Records {
+				out = append(out, lines(&m.List.Records[i])...)
+			}
+		}
+	}
+	for _, l := range r.After {
+		out = append(out, strings.TrimSpace(r.Expand(l)))
+	}
+	return out
+}
+
+// ownLines are a record's own sentences, joined.
+func ownLines(r *view.Record) string {
+	var out []string
+	for _, l := range r.Lines {
+		out = append(out, strings.TrimSpace(r.Expand(l)))
+	}
+	return strings.Join(out, "; ")
+}
+
+// listLines are the sentences of every record of a list, or its note when
+// it is empty.
+func listLines(l *view.List) []string {
+	if len(l.Records) == 0 {
+		return []string{l.Empty}
+	}
+	var out []string
+	for i := range l.Records {
+		out = append(out, lines(&l.Records[i])...)
+	}
+	return out
 }
 
 func orDefault(s, def string) string {
@@ -102,41 +190,38 @@ func summary(a *safety.Assessment) string {
 	return b.String()
 }
 
-func sources(a *safety.Assessment) Section {
-	t := &Table{Header: []string{"laser", "λ", "max power", "operating", "emission", "class", "eye MPE", "duration"},
-		Widths: []float64{2.2, 1.4, 1.3, 1.3, 1.1, 0.9, 1.6, 1.1}, Right: []bool{false, true, true, true, false, false, true, true}}
-	var notes []string
-	for _, ll := range a.Hazards.Lasers {
-		l := ll.Laser
-		cl := ll.Class
-		if cl == "" {
-			cl = "—"
-		}
-		t.Rows = append(t.Rows, []string{l.Name, nm(l.Wavelength), budget.FormatPower(l.Power), budget.FormatPower(l.OperatingPower), l.Emission, cl,
-			budget.FormatIrradiance(ll.EyeIrradiance), budget.FormatSI(ll.Duration, "s")})
-		notes = append(notes, fmt.Sprintf("%s: eye MPE by %s (%s); class %s.", l.Name, ll.EyeRule, ll.Eye.Effect, ll.ClassNote))
-	}
-	return Section{Heading: "Sources", Blocks: []Block{{Table: t}, {Bullets: notes}}}
+func sources(l *view.List) Section {
+	return Section{Heading: "Sources", Blocks: []Block{{Table: table(l)}, {Bullets: listLines(l)}}}
 }
 
 func nm(λ float64) string { return budget.FormatNumber(λ*1e9) + " nm" }
 
-func paths(a *safety.Assessment) Section {
+func paths(a *safety.Assessment, l *view.List) Section {
 	sec := Section{Heading: "Beam paths"}
-	for _, pb := range a.Budget.Paths {
-		p, las := pb.Path, pb.Laser
-		op := las.OperatingPower
-		from := fmt.Sprintf("laser %q", las.Name)
-		if p.Parent != nil {
-			from = fmt.Sprintf("the other port of %q on path %q", p.ParentPort.Name, p.Parent.Name)
+	for i, pb := range a.Budget.Paths {
+		r := &l.Records[i]
+		var els *view.List
+		for _, m := range r.Members {
+			if m.List != nil && m.List.Key == "elements" {
+				els = m.List
+			}
 		}
 		sec.Blocks = append(sec.Blocks,
-			Block{Subheading: fmt.Sprintf("Path %q", p.Name)},
-			Block{Paragraph: fmt.Sprintf("From %s at %s; powers at the operating power %s (maximum %s). W is the 1/e² radius arriving at each element.",
-				from, nm(las.Wavelength), budget.FormatPower(op), budget.FormatPower(las.Power))},
+			Block{Subheading: fmt.Sprintf("Path %q", pb.Path.Name)},
+			Block{Paragraph: ownLines(r)},
 			Block{Plot: beamPlot(pb)},
 			Block{Plot: waterfall(pb)},
-			Block{Table: budgetTable(pb)})
+			Block{Table: table(els)})
+		var notes []string
+		for k := range els.Records {
+			notes = append(notes, lines(&els.Records[k])...)
+		}
+		for _, x := range r.After {
+			notes = append(notes, strings.TrimSpace(r.Expand(x)))
+		}
+		if len(notes) > 0 {
+			sec.Blocks = append(sec.Blocks, Block{Bullets: notes})
+		}
 	}
 	return sec
 }
@@ -196,103 +281,19 @@ func waterfall(pb *budget.PathBudget) *Plot {
 	return pl
 }
 
-func budgetTable(pb *budget.PathBudget) *Table {
-	op := pb.Laser.OperatingPower
-	t := &Table{Header: []string{"#", "element", "at", "Wx", "Wy", "power in", "power out", "peak irr.", "loss dB", "losses here"},
-		Widths: []float64{0.3, 1.2, 1.0, 1.25, 1.25, 1.25, 1.25, 1.6, 0.75, 2.6},
-		Right:  []bool{true, false, true, true, true, true, true, true, true, false}}
-	for _, r := range pb.Rows {
-		e := r.Element
-		wx, wy := r.BeamIn.Radii()
-		var losses []string
-		for _, l := range r.Losses {
-			if l.Fraction >= 1e-9 {
-				losses = append(losses, fmt.Sprintf("%s %s", l.Kind, budget.FormatPower(l.Fraction*op)))
-			}
-		}
-		if r.AssumedLossless {
-			losses = append(losses, "lossless (assumed)")
-		}
-		db := "—"
-		if r.FractionOut > 0 {
-			db = fmt.Sprintf("%.2f", math.Abs(budget.Decibels(r.FractionOut)))
-		}
-		t.Rows = append(t.Rows, []string{fmt.Sprint(e.Index), e.Label(), budget.FormatLength(e.At), budget.FormatLength(wx), budget.FormatLength(wy),
-			budget.FormatPower(r.FractionIn * op), budget.FormatPower(r.FractionOut * op), budget.FormatIrradiance(r.BeamIn.PeakIrradiance(r.FractionIn * op)),
-			db, strings.Join(losses, ", ")})
-	}
-	return t
-}
-
 func hz(ω float64) string { return budget.FormatFrequency(ω / (2 * math.Pi)) }
 
-func atomsSection(a *safety.Assessment) Section {
+func atomsSection(a *safety.Assessment, l *view.List) Section {
 	sec := Section{Heading: "At the atoms"}
-	for _, at := range a.Atoms {
+	for i, at := range a.Atoms {
 		e := at.Row.Element
-		wx, wy := at.Row.BeamIn.Radii()
-		t := &Table{Header: []string{"quantity", "value"}, Widths: []float64{3, 5}}
-		add := func(k, v string) { t.Rows = append(t.Rows, []string{k, v}) }
-		add("cloud, transition", fmt.Sprintf("%s, %s (%s atoms)", at.Cloud.Name, at.Transition.Name, budget.FormatNumber(at.Cloud.Atoms)))
-		add("power at the cloud", budget.FormatPower(at.Power))
-		add("beam radius Wx, Wy", budget.FormatLength(wx)+", "+budget.FormatLength(wy))
-		add("peak irradiance", budget.FormatIrradiance(at.PeakIrradiance))
-		add("detuning Δ/2π", hz(at.Detuning)+" ("+at.DetuningSource+")")
-		add("I_sat", budget.FormatIrradiance(at.Isat)+" ("+at.IsatNote+")")
-		add("s = I/I_sat", budget.FormatNumber(at.Saturation))
-		add("Ω/2π", hz(at.Rabi))
-		if at.NearLine != "" {
-			add("nearby line", fmt.Sprintf("%s from %s, within %d linewidths: the dipole formula and the two-level figures do not apply; not evaluated",
-				hz(at.NearLineDetuning), at.NearLine, budget.FarDetuningFactor))
-		} else {
-			add("scattering rate", budget.FormatNumber(at.ScatteringRate)+" photons/s")
-		}
-		add("optical depth b0", budget.FormatNumber(at.OpticalDepth))
-		if d := at.Dipole; d != nil {
-			add("dipole potential U/k_B", budget.FormatSI(d.Depth/atoms.KB, "K")+" (counter-rotating terms kept)")
-			if !math.IsNaN(d.TrapX) {
-				axial := "none along the beam"
-				if !math.IsNaN(d.TrapAxial) {
-					axial = hz(d.TrapAxial)
-				}
-				add("trap frequencies x, y, axial", hz(d.TrapX)+", "+hz(d.TrapY)+", "+axial)
-			}
-		}
-		sec.Blocks = append(sec.Blocks, Block{Subheading: fmt.Sprintf("Path %q, element %d at %s", at.Path.Path.Name, e.Index, budget.FormatLength(e.At))}, Block{Table: t})
-		if g := at.Goal; g != nil {
-			sec.Blocks = append(sec.Blocks, Block{Paragraph: goalSentence(at, g)})
-			if g.Collective != nil && g.Impossible == "" {
-				sec.Blocks = append(sec.Blocks, Block{Plot: collectivePlot(at, g)})
-			}
+		sec.Blocks = append(sec.Blocks, Block{Subheading: fmt.Sprintf("Path %q, element %d at %s", at.Path.Path.Name, e.Index, budget.FormatLength(e.At))},
+			Block{Bullets: lines(&l.Records[i])})
+		if g := at.Goal; g != nil && g.Collective != nil && g.Impossible == "" {
+			sec.Blocks = append(sec.Blocks, Block{Plot: collectivePlot(at, g)})
 		}
 	}
 	return sec
-}
-
-func goalSentence(at *budget.AtomsResult, g *budget.GoalResult) string {
-	var what string
-	switch g.Kind {
-	case budget.GoalSaturation:
-		what = "saturation s = " + budget.FormatNumber(g.Target)
-	case budget.GoalRabi:
-		what = "Rabi frequency Ω/2π = " + hz(g.Target)
-	case budget.GoalTrapDepth:
-		what = "trap depth U/k_B = " + budget.FormatSI(g.Target, "K")
-	case budget.GoalCollective:
-		c := g.Collective
-		what = fmt.Sprintf("collective drive at %s × the threshold of cooperative resonance fluorescence, Ω_c/2π = %s (D = b0 = %s) to %s (D = b0/2), s_c = %s; photon-budget scale s = D = %s",
-			budget.FormatNumber(g.Factor), hz(c.OmegaC), budget.FormatNumber(c.D), hz(c.OmegaCLow), budget.FormatNumber(c.SatC), budget.FormatNumber(c.PhotonBudgetSat))
-	}
-	if g.Impossible != "" {
-		return fmt.Sprintf("Goal: %s. It cannot be met: %s.", what, g.Impossible)
-	}
-	verdict := "met"
-	if !g.Met {
-		verdict = "not met"
-	}
-	return fmt.Sprintf("Goal: %s. Needs %s at the cloud centre, %s at the atoms and %s at laser %q; operating power %s; margin %+.1f dB: %s.",
-		what, budget.FormatIrradiance(g.Intensity), budget.FormatPower(g.PowerAtAtoms), budget.FormatPower(g.SourcePower), at.Path.Laser.Name,
-		budget.FormatPower(g.Available), g.MarginDB, verdict)
 }
 
 // collectivePlot shows the source power needed against the multiple of the
@@ -314,73 +315,44 @@ func collectivePlot(at *budget.AtomsResult, g *budget.GoalResult) *Plot {
 	return pl
 }
 
-func hazards(a *safety.Assessment) Section {
-	h := a.Hazards
+func hazards(lists map[string]*view.List) Section {
 	sec := Section{Heading: "Hazards"}
-	t := &Table{Header: []string{"path", "segment", "power", "eye irr.", "× MPE", "OD", "× skin MPE", "worst at", "NOHD"},
-		Widths: []float64{1.3, 1.6, 1.1, 1.3, 1, 0.5, 1, 1, 1.6}, Right: []bool{false, false, true, true, true, true, true, true, true}}
-	for _, e := range h.Exposures {
-		seg := fmt.Sprintf("%d → %d", e.Segment.After, e.Segment.After+1)
-		nohd := ""
-		if e.OpenEnd {
-			seg = fmt.Sprintf("after %d (open end)", e.Segment.After)
-			nohd = safety.FormatDistance(e.NOHD)
-		}
-		t.Rows = append(t.Rows, []string{e.Path.Path.Name, seg, budget.FormatPower(e.Power), budget.FormatIrradiance(e.Irradiance),
-			budget.FormatNumber(e.Ratio), budget.FormatNumber(e.OD), budget.FormatNumber(e.SkinRatio), budget.FormatLength(e.At), nohd})
-	}
+	ex := lists["exposures"]
 	sec.Blocks = append(sec.Blocks, Block{Subheading: "Open segments (worst point of each; irradiance averaged over the limiting aperture, at maximum power)"})
-	if len(t.Rows) == 0 {
-		sec.Blocks = append(sec.Blocks, Block{Paragraph: "No open segment carries light."})
+	if len(ex.Records) == 0 {
+		sec.Blocks = append(sec.Blocks, Block{Paragraph: ex.Empty})
 	} else {
-		sec.Blocks = append(sec.Blocks, Block{Table: t})
+		sec.Blocks = append(sec.Blocks, Block{Table: table(ex)})
 	}
-	st := &Table{Header: []string{"path", "element", "surfaces", "R", "power each", "× MPE", "OD"}, Widths: []float64{1.4, 2, 1, 1.2, 1.3, 1, 0.6},
-		Right: []bool{false, false, true, true, true, true, true}}
-	dt := &Table{Header: []string{"path", "where", "power", "ρ", "hazard zone radius"}, Widths: []float64{1.4, 2.4, 1.3, 1.2, 1.8},
-		Right: []bool{false, false, true, true, true}}
-	for _, r := range h.Reflections {
-		R := budget.FormatNumber(r.Reflectance)
-		if r.Assumed {
-			R += " (assumed)"
+	var stray, escaping, diffuse []string
+	refl := lists["reflections"]
+	for k := range refl.Records {
+		r := &refl.Records[k]
+		switch r.Field("kind").Str {
+		case string(safety.ReflectionStray):
+			stray = append(stray, lines(r)...)
+		case string(safety.ReflectionEscaping):
+			escaping = append(escaping, lines(r)...)
+		default:
+			diffuse = append(diffuse, lines(r)...)
 		}
-		if r.Kind == safety.ReflectionStray || r.Kind == safety.ReflectionEscaping {
-			if r.Kind == safety.ReflectionEscaping {
-				R = "leaves the path: " + budget.FormatNumber(r.Reflectance)
-			}
-			st.Rows = append(st.Rows, []string{r.Path.Path.Name, fmt.Sprintf("%d %s", r.Element.Index, r.Element.Label()), fmt.Sprint(r.Surfaces), R,
-				budget.FormatPower(r.Power), budget.FormatNumber(r.Ratio), budget.FormatNumber(r.OD)})
+	}
+	for _, g := range []struct {
+		head, none string
+		items      []string
+	}{
+		{"Stray reflections above the eye MPE (at the reflecting surface)", "None of the surfaces reached through open segments reflects above the MPE.", stray},
+		{"Beams leaving the path above the eye MPE (mirror leakage, AOM orders other than the one used)", "None.", escaping},
+		{"Diffuse reflections (Lambertian, viewed along the normal, small-source MPE: conservative)", "No dump or path end is reached through an open segment.", diffuse},
+	} {
+		sec.Blocks = append(sec.Blocks, Block{Subheading: g.head})
+		if len(g.items) == 0 {
+			sec.Blocks = append(sec.Blocks, Block{Paragraph: g.none})
 		} else {
-			where := "open end"
-			if r.Element != nil && r.Element.Type == budget.TypeDump {
-				where = fmt.Sprintf("%d %s", r.Element.Index, r.Element.Label())
-			}
-			dt.Rows = append(dt.Rows, []string{r.Path.Path.Name, where, budget.FormatPower(r.Power), R, safety.FormatDistance(r.Radius)})
+			sec.Blocks = append(sec.Blocks, Block{Bullets: g.items})
 		}
 	}
-	sec.Blocks = append(sec.Blocks, Block{Subheading: "Stray reflections and beams leaving the path above the eye MPE (at the element)"})
-	if len(st.Rows) == 0 {
-		sec.Blocks = append(sec.Blocks, Block{Paragraph: "None of the surfaces reached through open segments reflects above the MPE."})
-	} else {
-		sec.Blocks = append(sec.Blocks, Block{Table: st})
-	}
-	sec.Blocks = append(sec.Blocks, Block{Subheading: "Diffuse reflections (Lambertian, viewed along the normal, small-source MPE: conservative)"})
-	if len(dt.Rows) == 0 {
-		sec.Blocks = append(sec.Blocks, Block{Paragraph: "No dump or path end is reached through an open segment."})
-	} else {
-		sec.Blocks = append(sec.Blocks, Block{Table: dt})
-	}
-	var findings []string
-	for _, f := range a.Findings {
-		where := ""
-		if f.Path != "" {
-			where = fmt.Sprintf("path %q: ", f.Path)
-		}
-		findings = append(findings, fmt.Sprintf("[%s] %s%s", f.Severity, where, f.Message))
-	}
-	if len(findings) == 0 {
-		findings = []string{"No findings in what was evaluated, under the stated assumptions."}
-	}
+	findings := listLines(lists["findings"])
 	sec.Blocks = append(sec.Blocks, Block{Subheading: "All findings (damage, ratings, goals and exposures), action first"}, Block{Bullets: actionFirst(findings)})
 	return sec
 }
@@ -397,31 +369,26 @@ func actionFirst(fs []string) []string {
 	return append(a, b...)
 }
 
-func eyewear(a *safety.Assessment) Section {
-	t := &Table{Header: []string{"wavelength", "OD needed", "EN 207 (cw)", "declared eyewear"}, Widths: []float64{1.3, 1.1, 1.2, 4},
-		Right: []bool{true, true, false, false}}
-	for _, n := range a.Hazards.Eyewear {
-		t.Rows = append(t.Rows, []string{nm(n.Wavelength), budget.FormatNumber(n.OD), n.EN207Label(), n.Coverage()})
-	}
+func eyewear(l *view.List) Section {
 	sec := Section{Heading: "Eyewear"}
-	if len(t.Rows) == 0 {
+	if len(l.Records) == 0 {
 		sec.Blocks = []Block{{Paragraph: "No open exposure was found to set an optical density."}}
 	} else {
-		sec.Blocks = []Block{{Table: t}, {Paragraph: "OD is log10 of the largest exposure ratio at the wavelength, rounded up; the EN 207 scale number is given for continuous emission in 315–1400 nm."}}
+		sec.Blocks = []Block{{Bullets: listLines(l)}, {Paragraph: "OD is log10 of the largest exposure ratio at the wavelength, rounded up; the EN 207 scale number is given for continuous emission in 315–1400 nm."}}
 	}
 	return sec
 }
 
 func assumptions(a *safety.Assessment) Section {
-	dur := safety.DurationAssumption(a.Setup)
-	b := []string{
-		"Standard: " + safety.Standard + ", Annex A, MPE at the cornea and for the skin; limits transcribed from memory of the standard's tables, to be checked against its text (see SAFETY.md).",
-		"Exposure duration: " + dur + ".",
-		"Viewing: intrabeam, small source (α ≤ 1.5 mrad); irradiance averaged over the limiting aperture (7 mm for 400–1400 nm); each laser at its maximum power.",
+	b := []string{"Standard: " + safety.Standard + ", Annex A, MPE at the cornea and for the skin; limits transcribed from memory of the standard's tables, to be checked against its text (see SAFETY.md)."}
+	for _, as := range view.Assumptions(a.Setup) {
+		b = append(b, "Hazards: "+as+".")
+	}
+	b = append(b,
 		"Segments: an element's following segment is open unless the setup says enclosed or vacuum (after a cloud it stays as before).",
 		"Beams: Gaussian (embedded Gaussian for M² > 1) in two aligned planes; hard-edge diffraction, aberrations and thermal lensing are not modelled; losses not stated are taken as zero.",
 		"Collective threshold: driven Dicke model with one collective decay channel, N Γ_c = D Γ / 4 with D the resonant optical depth along the drive; a planning estimate, uncertain by about a factor of 2.",
-	}
+	)
 	for _, d := range a.Hazards.DefaultsAssumed {
 		b = append(b, "Default assumed: "+d+".")
 	}
@@ -429,8 +396,7 @@ func assumptions(a *safety.Assessment) Section {
 }
 
 func cautions() Section {
-	return Section{Heading: "Cautions", Blocks: []Block{{Bullets: view.Cautions},
-		{Paragraph: "Alignment practice (common practice): reduce the power for alignment, use viewing cards and cameras rather than eyes, keep beams horizontal at table height and below eye level, terminate every beam in a rated dump, remove reflective jewellery and watches, and wear the specified eyewear. Follow the laser safety officer, local regulations and the institution's procedures where they say otherwise."}}}
+	return Section{Heading: "Cautions", Blocks: []Block{{Bullets: view.Cautions}}}
 }
 
 func signOff() Section {
