@@ -257,8 +257,9 @@ func eyewearRecord(n *safety.EyewearNeed) Record {
 		r.F(f)
 	}
 	r.F(strings_("covered_by", "covered by", n.CoveredBy, "EyewearNeed.CoveredBy"))
+	r.F(Num("irradiance_w_m2", "largest irradiance", n.Irradiance, budget.FormatIrradiance(n.Irradiance), "EyewearNeed.Irradiance"))
 	r.F(Field{Key: "coverage", Kind: String, Text: n.Coverage(), People: true, Source: "EyewearNeed.CoveredBy"})
-	r.Line("{wavelength_m}: OD {od_required}, {en207_scale}; {coverage}")
+	r.Line("{wavelength_m}: OD {od_required}, {en207_scale} (largest aperture-averaged irradiance {irradiance_w_m2}); {coverage}")
 	return r
 }
 

@@ -2,8 +2,15 @@ package view
 
 import (
 	"math"
+	"path/filepath"
+	"reflect"
 	"strings"
 	"testing"
+
+	"beamledger/budget"
+	"beamledger/budget/atoms"
+	"beamledger/safety"
+	"beamledger/safety/safetytest"
 )
 
 // The JSON writer refuses a non-finite figure and names where it is, rather
@@ -37,4 +44,65 @@ func TestExpand(t *testing.T) {
 	if got := r.Expand("{name} carries {power_w}, margin {goal.margin_db}"); got != "{power_w} carries 1 W, margin +3.0 dB" {
 		t.Errorf("got %q", got)
 	}
+}
+
+// Every exported numeric field of the assessment's result types is shown by
+// the view (and so in the text, the JSON and the sign-off, which all draw
+// it), or listed here as hidden on purpose with the reason.
+func TestFieldCoverage(t *testing.T) {
+	hidden := map[string]string{
+		"Row.BeamOut":               "the beam leaving an element is the next one's BeamIn, shown there",
+		"Exposure.PeakIrr":          "the unaveraged peak at the worst point; hazards are judged on the aperture average, which is shown",
+		"Segment.Beam":              "the beam at a segment's start is the previous element's, shown there",
+		"Segment.Fraction":          "the power of a segment is shown as its exposure's power",
+		"DipoleResult.PerIntensity": "U/I words the potential attractive or repulsive; its value is U/k_B over the peak irradiance, both shown",
+	}
+	shown := map[string]bool{}
+	examples, _ := filepath.Glob("../../testdata/examples/*.toml")
+	hostile, _ := filepath.Glob("../../testdata/hostile/*.toml")
+	for _, f := range append(examples, hostile...) {
+		a, _ := safetytest.EvaluateFile(t, f)
+		Build(a).JSON.Walk(func(f *Field) { shown[f.Source] = true })
+	}
+	types := []any{budget.Row{}, budget.FiberCoupling{}, budget.PathBudget{}, budget.LaserBalance{}, budget.Segment{},
+		budget.AtomsResult{}, budget.DipoleResult{}, budget.GoalResult{}, atoms.Collective{},
+		safety.LaserLimits{}, safety.Exposure{}, safety.Reflection{}, safety.EyewearNeed{}, budget.Finding{}}
+	for _, v := range types {
+		typ := reflect.TypeOf(v)
+		for i := 0; i < typ.NumField(); i++ {
+			f := typ.Field(i)
+			if !f.IsExported() || !numeric(f.Type) {
+				continue
+			}
+			name := typ.Name() + "." + f.Name
+			if _, ok := hidden[name]; ok {
+				continue
+			}
+			if !shown[name] {
+				t.Errorf("%s is neither shown by the view nor listed as hidden", name)
+			}
+		}
+	}
+	for name, why := range hidden {
+		if why == "" {
+			t.Errorf("%s is hidden without a reason", name)
+		}
+		if shown[name] {
+			t.Errorf("%s is listed as hidden but shown", name)
+		}
+	}
+}
+
+// numeric reports whether a type holds numbers a person could be shown:
+// floats and ints, arrays of them, and beams (their radii).
+func numeric(t reflect.Type) bool {
+	switch t.Kind() {
+	case reflect.Float64, reflect.Int:
+		return true
+	case reflect.Array:
+		return numeric(t.Elem())
+	case reflect.Struct:
+		return t.Name() == "Beam"
+	}
+	return false
 }
