@@ -1,10 +1,7 @@
 package main
 
 import (
-	"encoding/json"
 	"fmt"
-	"io"
-	"math"
 
 	"github.com/spf13/cobra"
 
@@ -89,231 +86,49 @@ func flagQuantity(name, v string, dim budget.Dimension) (float64, bool, error) {
 	return q, true, nil
 }
 
-type limitsResult struct {
-	WavelengthM float64            `json:"wavelength_m"`
-	DurationS   float64            `json:"duration_s"`
-	Angular     float64            `json:"angular_subtense_rad"`
-	Standard    string             `json:"standard"`
-	Eye         limitsSide         `json:"eye"`
-	Skin        limitsSide         `json:"skin"`
-	AEL         limitsAEL          `json:"ael_w"`
-	AELTimeBase float64            `json:"ael_time_base_s"`
-	Factors     map[string]float64 `json:"factors"`
-	Pulsed      *limitsPulsed      `json:"pulsed,omitempty"`
-	Class       *string            `json:"class,omitempty"`
-	NOHDM       *float64           `json:"nohd_m,omitempty"`
-	NOHDBeyondM *float64           `json:"nohd_beyond_m,omitempty"`
-	ODRequired  *float64           `json:"od_required,omitempty"`
-	ExitIrr     *float64           `json:"exit_aperture_irradiance_w_m2,omitempty"`
-	Cautions    []string           `json:"cautions"`
-}
-
-type limitsSide struct {
-	MPEIrradianceWM2      float64 `json:"mpe_irradiance_w_m2"`
-	MPERadiantExposureJM2 float64 `json:"mpe_radiant_exposure_j_m2"`
-	ApertureDiameterM     float64 `json:"aperture_diameter_m"`
-	Rule                  string  `json:"rule"`
-	Effect                string  `json:"effect"`
-}
-
-type limitsAEL struct {
-	Class1  float64  `json:"class_1"`
-	Class2  *float64 `json:"class_2"`
-	Class3R *float64 `json:"class_3r"`
-	Class3B float64  `json:"class_3b"`
-}
-
-type limitsPulsed struct {
-	PulseDurationS         float64 `json:"pulse_duration_s"`
-	RepetitionRateHz       float64 `json:"repetition_rate_hz"`
-	Pulses                 float64 `json:"pulses"`
-	C5                     float64 `json:"c5"`
-	PerPulseJM2            float64 `json:"mpe_per_pulse_j_m2"`
-	Rule                   string  `json:"governing_rule"`
-	AverageIrradianceLimit float64 `json:"mpe_average_irradiance_w_m2"`
-}
-
 func (e *env) runLimits(o *limitsOptions) error {
-	r, err := computeLimits(o)
+	q, err := limitsQuery(o)
 	if err != nil {
 		return err
 	}
-	if o.json {
-		enc := json.NewEncoder(e.stdout)
-		enc.SetIndent("", "  ")
-		enc.SetEscapeHTML(false)
-		return enc.Encode(r)
+	l, err := safety.LookUpLimits(q)
+	if err != nil {
+		return err
 	}
-	return writeLimits(e.stdout, r)
+	d := view.Limits(l)
+	if o.json {
+		return view.WriteJSON(e.stdout, d.JSON)
+	}
+	return view.WriteText(e.stdout, d)
 }
 
-func computeLimits(o *limitsOptions) (*limitsResult, error) {
+// limitsQuery reads the flags into a query.
+func limitsQuery(o *limitsOptions) (safety.LimitsQuery, error) {
+	var q safety.LimitsQuery
 	λ, ok, err := flagQuantity("wavelength", o.wavelength, budget.Length)
 	if err != nil {
-		return nil, err
+		return q, err
 	}
 	if !ok {
-		return nil, fmt.Errorf("--wavelength is required")
+		return q, fmt.Errorf("--wavelength is required")
 	}
-	t, ok, err := flagQuantity("duration", o.duration, budget.Time)
-	if err != nil {
-		return nil, err
-	}
-	if !ok {
-		t = safety.DefaultDuration(λ)
-	}
-	α, _, err := flagQuantity("angular-subtense", o.angularSubtense, budget.Angle)
-	if err != nil {
-		return nil, err
-	}
-	eye, err := limits.EyeMPE(λ, t, α)
-	if err != nil {
-		return nil, err
-	}
-	skin, err := limits.SkinMPE(λ, t)
-	if err != nil {
-		return nil, err
-	}
-	eyeAp, _ := limits.EyeAperture(λ, t)
-	skinAp, _ := limits.SkinAperture(λ, t)
-	ael, err := limits.ContinuousAEL(λ, α)
-	if err != nil {
-		return nil, err
-	}
-	res := &limitsResult{
-		WavelengthM: λ, DurationS: t, Angular: α, Standard: safety.Standard,
-		Eye:         limitsSide{eye.Irradiance, eye.RadiantExposure, eyeAp, eye.Rule, eye.Effect},
-		Skin:        limitsSide{skin.Irradiance, skin.RadiantExposure, skinAp, skin.Rule, skin.Effect},
-		AEL:         limitsAEL{ael.Class1, nonNaN(ael.Class2), nonNaN(ael.Class3R), ael.Class3B},
-		AELTimeBase: ael.TimeBase, Cautions: view.Cautions, Factors: eye.Factors,
-	}
-	if res.Factors == nil {
-		res.Factors = map[string]float64{}
-	}
-	limitIrr := eye.Irradiance
-	τ, hasτ, err := flagQuantity("pulse-duration", o.pulseDuration, budget.Time)
-	if err != nil {
-		return nil, err
-	}
-	f, hasF, err := flagQuantity("repetition-rate", o.repetitionRate, budget.Frequency)
-	if err != nil {
-		return nil, err
-	}
-	if hasτ != hasF {
-		return nil, fmt.Errorf("--pulse-duration and --repetition-rate go together")
-	}
-	if hasτ && τ*f > 1 {
-		return nil, fmt.Errorf("--repetition-rate %q with --pulse-duration %q is a duty cycle above 1", o.repetitionRate, o.pulseDuration)
-	}
-	if hasτ && τ > t {
-		return nil, fmt.Errorf("--pulse-duration %q is longer than the exposure %s", o.pulseDuration, budget.FormatSI(t, "s"))
-	}
-	if hasτ {
-		p, err := limits.PulsedEyeMPE(λ, τ, f, t, α)
-		if err != nil {
-			return nil, err
-		}
-		res.Pulsed = &limitsPulsed{τ, f, p.N, p.C5, p.PerPulse, p.Rule, p.Irradiance}
-		limitIrr = p.Irradiance
-	}
-	p, hasP, err := flagQuantity("power", o.power, budget.Power)
-	if err != nil {
-		return nil, err
-	}
-	d, hasD, err := flagQuantity("beam-diameter", o.beamDiameter, budget.Length)
-	if err != nil {
-		return nil, err
-	}
-	φ, hasφ, err := flagQuantity("divergence", o.divergence, budget.Angle)
-	if err != nil {
-		return nil, err
-	}
-	if hasP != hasD || hasP != hasφ {
-		return nil, fmt.Errorf("--power, --beam-diameter and --divergence go together")
-	}
-	if hasP {
-		if !hasτ {
-			c := limits.ClassOf(p, ael)
-			res.Class = &c
-		}
-		if n := limits.NOHD(p, d, φ, limitIrr); n > safety.MaxHazardDistance {
-			beyond := safety.MaxHazardDistance
-			res.NOHDBeyondM = &beyond
-		} else {
-			res.NOHDM = &n
-		}
-		exit := limits.ApertureAverage(p, d/2, eyeAp)
-		od := limits.OpticalDensity(exit / limitIrr)
-		res.ExitIrr, res.ODRequired = &exit, &od
-	}
-	return res, nil
-}
-
-func nonNaN(v float64) *float64 {
-	if math.IsNaN(v) {
-		return nil
-	}
-	return &v
-}
-
-func writeLimits(w io.Writer, r *limitsResult) error {
-	src := "a small source (α ≤ 1.5 mrad)"
-	if r.Angular > limits.AlphaMin {
-		src = fmt.Sprintf("a source of angular subtense %s", budget.FormatSI(r.Angular, "rad"))
-	}
-	var err error
-	p := func(format string, args ...any) {
-		if err == nil {
-			_, err = fmt.Fprintf(w, format, args...)
+	q.Wavelength = λ
+	for _, f := range []struct {
+		name, value string
+		dim         budget.Dimension
+		to          *float64
+	}{
+		{"duration", o.duration, budget.Time, &q.Duration},
+		{"angular-subtense", o.angularSubtense, budget.Angle, &q.AngularSubtense},
+		{"pulse-duration", o.pulseDuration, budget.Time, &q.PulseDuration},
+		{"repetition-rate", o.repetitionRate, budget.Frequency, &q.RepetitionRate},
+		{"power", o.power, budget.Power, &q.Power},
+		{"beam-diameter", o.beamDiameter, budget.Length, &q.BeamDiameter},
+		{"divergence", o.divergence, budget.Angle, &q.Divergence},
+	} {
+		if *f.to, _, err = flagQuantity(f.name, f.value, f.dim); err != nil {
+			return q, err
 		}
 	}
-	p("%s limits at %s nm, exposure %s, %s\n", r.Standard, budget.FormatNumber(r.WavelengthM*1e9), budget.FormatSI(r.DurationS, "s"), src)
-	for _, s := range []struct {
-		name string
-		v    limitsSide
-	}{{"eye ", r.Eye}, {"skin", r.Skin}} {
-		p("  %s MPE %s = %s (H = %s), averaged over a %s aperture; %s\n", s.name,
-			budget.FormatSI(s.v.MPEIrradianceWM2, "W/m²"), budget.FormatIrradiance(s.v.MPEIrradianceWM2),
-			budget.FormatSI(s.v.MPERadiantExposureJM2, "J/m²"), budget.FormatLength(s.v.ApertureDiameterM), s.v.Effect)
-		p("       rule: %s\n", s.v.Rule)
-	}
-	if len(r.Factors) > 0 {
-		p("  correction factors:")
-		for _, k := range []string{"C1", "C2", "T1_s", "C3", "C4", "C6", "C7", "T2_s"} {
-			if v, ok := r.Factors[k]; ok {
-				p(" %s = %s", k, budget.FormatNumber(v))
-			}
-		}
-		p("\n")
-	}
-	if pl := r.Pulsed; pl != nil {
-		p("  pulse train: %s pulses of %s at %s over %s; C5 = %s; the %s rule governs: %s J/m² per pulse (average irradiance limit %s)\n",
-			budget.FormatNumber(pl.Pulses), budget.FormatSI(pl.PulseDurationS, "s"), budget.FormatFrequency(pl.RepetitionRateHz), budget.FormatSI(r.DurationS, "s"),
-			budget.FormatNumber(pl.C5), pl.Rule, budget.FormatNumber(pl.PerPulseJM2), budget.FormatIrradiance(pl.AverageIrradianceLimit))
-	}
-	opt := func(v *float64) string {
-		if v == nil {
-			return "none at this wavelength"
-		}
-		return budget.FormatPower(*v)
-	}
-	p("  AEL for continuous emission (MPE at the time base × aperture area; Class 1 time base %s): Class 1/1M %s, Class 2/2M %s, Class 3R %s, Class 3B %s\n",
-		budget.FormatSI(r.AELTimeBase, "s"), budget.FormatPower(r.AEL.Class1), opt(r.AEL.Class2), opt(r.AEL.Class3R), budget.FormatPower(r.AEL.Class3B))
-	if r.ExitIrr != nil {
-		if r.Class != nil {
-			p("  class %s (whole beam through the aperture; 1M/2M not distinguished)\n", *r.Class)
-		} else {
-			p("  class: not assessed for pulsed emission\n")
-		}
-		nohd := safety.FormatDistance(math.Inf(1))
-		if r.NOHDM != nil {
-			nohd = safety.FormatDistance(*r.NOHDM)
-		}
-		p("  at the exit: %s over the eye aperture, OD %g needed; NOHD %s (rounded up)\n",
-			budget.FormatIrradiance(*r.ExitIrr), *r.ODRequired, nohd)
-	}
-	for _, c := range r.Cautions {
-		p("  - %s\n", c)
-	}
-	return err
+	return q, nil
 }

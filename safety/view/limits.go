@@ -1,0 +1,103 @@
+package view
+
+import (
+	"fmt"
+	"sort"
+	"strings"
+
+	"beamledger/budget"
+	"beamledger/limits"
+	"beamledger/safety"
+)
+
+// factorOrder is the order people read the correction factors in.
+var factorOrder = []string{"C1", "C2", "T1_s", "C3", "C4", "C6", "C7", "T2_s"}
+
+// Limits is the view of a limits lookup: one record for JSON, its lines for
+// people.
+func Limits(l *safety.LimitsLookup) *Doc {
+	q := l.Query
+	r := &Record{}
+	src := "a small source (α ≤ 1.5 mrad)"
+	if q.AngularSubtense > limits.AlphaMin {
+		src = fmt.Sprintf("a source of angular subtense %s", budget.FormatSI(q.AngularSubtense, "rad"))
+	}
+	r.F(Num("wavelength_m", "wavelength", q.Wavelength, budget.FormatNumber(q.Wavelength*1e9)+" nm", "LimitsQuery.Wavelength")).
+		F(Num("duration_s", "exposure", l.Duration, budget.FormatSI(l.Duration, "s"), "LimitsLookup.Duration")).
+		F(Num("angular_subtense_rad", "angular subtense", q.AngularSubtense, budget.FormatSI(q.AngularSubtense, "rad"), "LimitsQuery.AngularSubtense")).
+		F(Str("standard", "standard", safety.Standard, ""))
+	r.Line("{standard} limits at {wavelength_m}, exposure {duration_s}, " + src)
+	side := func(key, name string, m limits.Limit, ap float64) {
+		s := &Record{}
+		s.F(Num("mpe_irradiance_w_m2", "MPE", m.Irradiance, budget.FormatSI(m.Irradiance, "W/m²")+" = "+budget.FormatIrradiance(m.Irradiance), "Limit.Irradiance")).
+			F(Num("mpe_radiant_exposure_j_m2", "H", m.RadiantExposure, budget.FormatSI(m.RadiantExposure, "J/m²"), "Limit.RadiantExposure")).
+			F(Num("aperture_diameter_m", "aperture", ap, budget.FormatLength(ap), "LimitsLookup.EyeAperture")).
+			F(Str("rule", "rule", m.Rule, "Limit.Rule")).F(Str("effect", "effect", m.Effect, "Limit.Effect"))
+		r.O(key, s, false)
+		r.Line(fmt.Sprintf("  %s MPE {%s.mpe_irradiance_w_m2} (H = {%s.mpe_radiant_exposure_j_m2}), averaged over a {%s.aperture_diameter_m} aperture; {%s.effect}", name, key, key, key, key))
+		r.Line(fmt.Sprintf("       rule: {%s.rule}", key))
+	}
+	side("eye", "eye ", l.Eye, l.EyeAperture)
+	side("skin", "skin", l.Skin, l.SkinAperture)
+	ael := &Record{}
+	ael.F(Num("class_1", "Class 1/1M", l.AEL.Class1, budget.FormatPower(l.AEL.Class1), "AEL.Class1")).
+		F(orNone(Num("class_2", "Class 2/2M", l.AEL.Class2, budget.FormatPower(l.AEL.Class2), "AEL.Class2"))).
+		F(orNone(Num("class_3r", "Class 3R", l.AEL.Class3R, budget.FormatPower(l.AEL.Class3R), "AEL.Class3R"))).
+		F(Num("class_3b", "Class 3B", l.AEL.Class3B, budget.FormatPower(l.AEL.Class3B), "AEL.Class3B"))
+	r.O("ael_w", ael, false)
+	r.F(Num("ael_time_base_s", "Class 1 time base", l.AEL.TimeBase, budget.FormatSI(l.AEL.TimeBase, "s"), "AEL.TimeBase"))
+	factors := &Record{}
+	keys := make([]string, 0, len(l.Eye.Factors))
+	for k := range l.Eye.Factors {
+		keys = append(keys, k)
+	}
+	sort.Strings(keys) // as JSON objects list their keys
+	for _, k := range keys {
+		factors.F(Num(k, k, l.Eye.Factors[k], budget.FormatNumber(l.Eye.Factors[k]), "Limit.Factors"))
+	}
+	r.O("factors", factors, false)
+	if len(keys) > 0 {
+		var parts []string
+		for _, k := range factorOrder {
+			if _, ok := l.Eye.Factors[k]; ok {
+				parts = append(parts, fmt.Sprintf("%s = {factors.%s}", k, k))
+			}
+		}
+		r.Line("  correction factors: " + strings.Join(parts, " "))
+	}
+	var pulsed *Record
+	if p := l.Pulsed; p != nil {
+		pulsed = &Record{}
+		pulsed.F(Num("pulse_duration_s", "pulse duration", q.PulseDuration, budget.FormatSI(q.PulseDuration, "s"), "LimitsQuery.PulseDuration")).
+			F(Num("repetition_rate_hz", "repetition rate", q.RepetitionRate, budget.FormatFrequency(q.RepetitionRate), "LimitsQuery.RepetitionRate")).
+			F(Num("pulses", "pulses", p.N, budget.FormatNumber(p.N), "PulsedLimit.N")).
+			F(Num("c5", "C5", p.C5, budget.FormatNumber(p.C5), "PulsedLimit.C5")).
+			F(Num("mpe_per_pulse_j_m2", "per pulse", p.PerPulse, budget.FormatNumber(p.PerPulse)+" J/m²", "PulsedLimit.PerPulse")).
+			F(Str("governing_rule", "governing rule", p.Rule, "PulsedLimit.Rule")).
+			F(Num("mpe_average_irradiance_w_m2", "average irradiance limit", p.Irradiance, budget.FormatIrradiance(p.Irradiance), "PulsedLimit.Irradiance"))
+		r.Line("  pulse train: {pulsed.pulses} pulses of {pulsed.pulse_duration_s} at {pulsed.repetition_rate_hz} over {duration_s}; C5 = {pulsed.c5}; the {pulsed.governing_rule} rule governs: {pulsed.mpe_per_pulse_j_m2} per pulse (average irradiance limit {pulsed.mpe_average_irradiance_w_m2})")
+	}
+	r.O("pulsed", pulsed, true)
+	r.Line("  AEL for continuous emission (MPE at the time base × aperture area; Class 1 time base {ael_time_base_s}): Class 1/1M {ael_w.class_1}, Class 2/2M {ael_w.class_2}, Class 3R {ael_w.class_3r}, Class 3B {ael_w.class_3b}")
+	if l.HasBeam {
+		if l.Class != "" {
+			r.F(Str("class", "class", l.Class, "LimitsLookup.Class"))
+			r.Line("  class {class} (whole beam through the aperture; 1M/2M not distinguished)")
+		} else {
+			r.Line("  class: not assessed for pulsed emission")
+		}
+		if l.NOHD > safety.MaxHazardDistance {
+			r.F(Num("nohd_beyond_m", "NOHD beyond", safety.MaxHazardDistance, safety.FormatDistance(l.NOHD), "LimitsLookup.NOHD"))
+			r.F(Field{Key: "nohd", Kind: String, Text: safety.FormatDistance(l.NOHD), People: true})
+		} else {
+			r.F(Num("nohd_m", "NOHD", l.NOHD, safety.FormatDistance(l.NOHD), "LimitsLookup.NOHD"))
+			r.F(Field{Key: "nohd", Kind: String, Text: safety.FormatDistance(l.NOHD) + " (rounded up)", People: true})
+		}
+		r.F(Num("od_required", "OD", l.ODRequired, fmt.Sprintf("%g", l.ODRequired), "LimitsLookup.ODRequired")).
+			F(Num("exit_aperture_irradiance_w_m2", "at the exit", l.ExitIrr, budget.FormatIrradiance(l.ExitIrr), "LimitsLookup.ExitIrr"))
+		r.Line("  at the exit: {exit_aperture_irradiance_w_m2} over the eye aperture, OD {od_required} needed; NOHD {nohd}")
+	}
+	r.F(strings_("cautions", "cautions", Cautions, ""))
+	d := &Doc{JSON: r, Sections: []Section{{Blocks: []Block{{Record: r}, {Indent: 1, Bullets: Cautions}}}}}
+	return d
+}
