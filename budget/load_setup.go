@@ -105,18 +105,20 @@ func (l *loader) setup(raw map[string]any) *Setup {
 	return s
 }
 
-// named starts reading entry i of an array of tables such as [[laser]].
-func (l *loader) named(kind string, i int, m map[string]any) (*table, string) {
-	loc := fmt.Sprintf("%s[%d]", kind, i)
-	return l.table(fmt.Sprintf("%s %d", kind, i+1), loc, m), loc
+// named starts reading entry i of an array of tables such as [[laser]]: it
+// reads the entry's name and names the entry by it in messages.
+func (l *loader) named(kind string, i int, m map[string]any) (t *table, loc, name string) {
+	loc = fmt.Sprintf("%s[%d]", kind, i)
+	t = l.table(fmt.Sprintf("%s %d", kind, i+1), loc, m)
+	if name = t.name(true); name != "" {
+		t.context = fmt.Sprintf("%s %q", kind, name)
+	}
+	return t, loc, name
 }
 
 func (l *loader) laser(i int, m map[string]any) *Laser {
-	t, loc := l.named("laser", i, m)
-	las := &Laser{Line: l.lines[loc], Name: t.name(true)}
-	if las.Name != "" {
-		t.context = fmt.Sprintf("laser %q", las.Name)
-	}
+	t, loc, name := l.named("laser", i, m)
+	las := &Laser{Line: l.lines[loc], Name: name}
 	las.Wavelength = t.positive("wavelength", Length, true)
 	if w := las.Wavelength; w > 0 && (w < MinWavelength || w > MaxWavelength) {
 		t.fail("wavelength", "%s is outside 180 nm to 1 mm, the span of the exposure limits", show(m["wavelength"]))
@@ -168,11 +170,8 @@ func (l *loader) laser(i int, m map[string]any) *Laser {
 }
 
 func (l *loader) cloud(i int, m map[string]any) *Cloud {
-	t, loc := l.named("cloud", i, m)
-	c := &Cloud{Line: l.lines[loc], Name: t.name(true)}
-	if c.Name != "" {
-		t.context = fmt.Sprintf("cloud %q", c.Name)
-	}
+	t, loc, name := l.named("cloud", i, m)
+	c := &Cloud{Line: l.lines[loc], Name: name}
 	c.Transition = t.str("transition", true)
 	c.Atoms, _ = t.quantity("atoms", Dimensionless, true)
 	switch {
@@ -235,11 +234,8 @@ func (l *loader) cloud(i int, m map[string]any) *Cloud {
 }
 
 func (l *loader) eyewear(i int, m map[string]any) *Eyewear {
-	t, loc := l.named("eyewear", i, m)
-	e := &Eyewear{Line: l.lines[loc], Name: t.name(true)}
-	if e.Name != "" {
-		t.context = fmt.Sprintf("eyewear %q", e.Name)
-	}
+	t, loc, name := l.named("eyewear", i, m)
+	e := &Eyewear{Line: l.lines[loc], Name: name}
 	bands := t.tables("bands")
 	if !t.has("bands") {
 		t.fail("bands", "missing (want [{ from = \"740 nm\", to = \"1100 nm\", od = 7 }, …])")
@@ -265,11 +261,8 @@ func (l *loader) eyewear(i int, m map[string]any) *Eyewear {
 }
 
 func (l *loader) path(i int, m map[string]any) *Path {
-	t, loc := l.named("path", i, m)
-	p := &Path{Line: l.lines[loc], Name: t.name(true)}
-	if p.Name != "" {
-		t.context = fmt.Sprintf("path %q", p.Name)
-	}
+	t, loc, name := l.named("path", i, m)
+	p := &Path{Line: l.lines[loc], Name: name}
 	p.From = t.str("from", true)
 	p.Access = Access(t.enum("access", string(AccessOpen), string(AccessOpen), string(AccessEnclosed), string(AccessVacuum)))
 	for k, em := range t.tables("element") {
