@@ -67,7 +67,7 @@ func table(l *view.List) *Table {
 			if f := r.Field(k); f != nil {
 				label = f.Label
 				right = right || f.Kind == view.Number || f.Kind == view.Int
-				width = max(width, utf8.RuneCountInString(f.Text))
+				width = max(width, utf8.RuneCountInString(f.Display()))
 			}
 		}
 		t.Header = append(t.Header, label)
@@ -78,7 +78,7 @@ func table(l *view.List) *Table {
 		var row []string
 		for _, k := range l.Columns {
 			if f := r.Field(k); f != nil {
-				row = append(row, f.Text)
+				row = append(row, f.Display())
 			} else {
 				row = append(row, "")
 			}
@@ -328,7 +328,7 @@ func hazards(lists map[string]*view.List) Section {
 	refl := lists["reflections"]
 	for k := range refl.Records {
 		r := &refl.Records[k]
-		switch r.Field("kind").Str {
+		switch r.Field("kind").Text {
 		case string(safety.ReflectionStray):
 			stray = append(stray, lines(r)...)
 		case string(safety.ReflectionEscaping):

@@ -17,9 +17,7 @@ func atomsList(a *safety.Assessment) *List {
 	return l
 }
 
-func num(key, label string, v float64, source string) Field {
-	return Num(key, label, v, fmtG(v), source)
-}
+func num(key, label string, v float64, source string) Field { return Plain(key, label, v, source) }
 
 func hzField(key, label string, ω float64, source string) Field {
 	return Num(key, label, ω/(2*math.Pi), hz(ω), source)
@@ -30,23 +28,23 @@ func atomsRecord(a *budget.AtomsResult) Record {
 	tr := a.Transition
 	las := a.Path.Laser
 	wx, wy := a.Row.BeamIn.Radii()
-	var r Record
+	r := Record{Members: make([]Member, 0, 40)}
 	r.F(Str("path", "path", a.Path.Path.Name, "Path.Name")).F(Whole("element", "element", e.Index, fmt.Sprint(e.Index), "Element.Index")).
 		F(Str("cloud", "cloud", a.Cloud.Name, "Cloud.Name")).F(Str("transition", "transition", tr.Name, "Transition.Name")).
-		F(Num("at_m", "at", e.At, budget.FormatLength(e.At), "Element.At")).
-		F(Num("power_w", "power", a.Power, budget.FormatPower(a.Power), "AtomsResult.Power")).
-		F(Num("radius_x_m", "Wx", wx, budget.FormatLength(wx), "Row.BeamIn")).F(Num("radius_y_m", "Wy", wy, budget.FormatLength(wy), "Row.BeamIn")).
-		F(Num("peak_irradiance_w_m2", "peak irradiance", a.PeakIrradiance, budget.FormatIrradiance(a.PeakIrradiance), "AtomsResult.PeakIrradiance")).
+		F(Len("at_m", "at", e.At, "Element.At")).
+		F(Pow("power_w", "power", a.Power, "AtomsResult.Power")).
+		F(Len("radius_x_m", "Wx", wx, "Row.BeamIn")).F(Len("radius_y_m", "Wy", wy, "Row.BeamIn")).
+		F(Irr("peak_irradiance_w_m2", "peak irradiance", a.PeakIrradiance, "AtomsResult.PeakIrradiance")).
 		F(Num("irradiance_at_rms_x_relative", "I at ±1 rms (x)", a.EdgeRelative[0], fmt.Sprintf("%.1f %%", 100*a.EdgeRelative[0]), "AtomsResult.EdgeRelative")).
 		F(Num("irradiance_at_rms_y_relative", "I at ±1 rms (y)", a.EdgeRelative[1], fmt.Sprintf("%.1f %%", 100*a.EdgeRelative[1]), "AtomsResult.EdgeRelative"))
-	r.F(Field{Key: "radius_at_cloud_ends_m", Label: "W at ±1 rms along the beam", Kind: Matrix,
-		Rows: [][]float64{a.EndRadii[0][:], a.EndRadii[1][:]}, Source: "AtomsResult.EndRadii",
-		Text: fmt.Sprintf("%s × %s and %s × %s", budget.FormatLength(a.EndRadii[0][0]), budget.FormatLength(a.EndRadii[0][1]), budget.FormatLength(a.EndRadii[1][0]), budget.FormatLength(a.EndRadii[1][1]))})
+	r.F(NumRows("radius_at_cloud_ends_m", "W at ±1 rms along the beam", [][]float64{a.EndRadii[0][:], a.EndRadii[1][:]},
+		fmt.Sprintf("%s × %s and %s × %s", budget.FormatLength(a.EndRadii[0][0]), budget.FormatLength(a.EndRadii[0][1]), budget.FormatLength(a.EndRadii[1][0]), budget.FormatLength(a.EndRadii[1][1])),
+		"AtomsResult.EndRadii"))
 	r.F(Field{Key: "focus_x", Kind: Number, SI: a.FocusOffset[0], Text: budget.FormatLength(a.FocusOffset[0]), People: true, Source: "AtomsResult.FocusOffset"}).
 		F(Field{Key: "focus_y", Kind: Number, SI: a.FocusOffset[1], Text: budget.FormatLength(a.FocusOffset[1]), People: true, Source: "AtomsResult.FocusOffset"})
 	r.F(hzField("detuning_hz", "detuning Δ/2π", a.Detuning, "AtomsResult.Detuning")).
 		F(Str("detuning_source", "detuning from", a.DetuningSource, "AtomsResult.DetuningSource")).
-		F(Num("saturation_intensity_w_m2", "I_sat", a.Isat, budget.FormatIrradiance(a.Isat), "AtomsResult.Isat")).
+		F(Irr("saturation_intensity_w_m2", "I_sat", a.Isat, "AtomsResult.Isat")).
 		F(Str("saturation_intensity_kind", "I_sat kind", a.IsatNote, "AtomsResult.IsatNote")).
 		F(num("saturation", "s = I/I_sat", a.Saturation, "AtomsResult.Saturation")).
 		F(hzField("rabi_frequency_hz", "Ω/2π", a.Rabi, "AtomsResult.Rabi")).
@@ -130,15 +128,15 @@ func goalRecord(a *budget.AtomsResult, g *budget.GoalResult) *Record {
 		r.F(num("target_si", "target", g.Target, "GoalResult.Target"))
 	}
 	if g.Impossible == "" {
-		r.F(Num("irradiance_needed_w_m2", "needed at the cloud centre", g.Intensity, budget.FormatIrradiance(g.Intensity), "GoalResult.Intensity")).
-			F(Num("power_at_atoms_w", "needed at the atoms", g.PowerAtAtoms, budget.FormatPower(g.PowerAtAtoms), "GoalResult.PowerAtAtoms")).
-			F(Num("source_power_w", "needed at the laser", g.SourcePower, budget.FormatPower(g.SourcePower), "GoalResult.SourcePower"))
+		r.F(Irr("irradiance_needed_w_m2", "needed at the cloud centre", g.Intensity, "GoalResult.Intensity")).
+			F(Pow("power_at_atoms_w", "needed at the atoms", g.PowerAtAtoms, "GoalResult.PowerAtAtoms")).
+			F(Pow("source_power_w", "needed at the laser", g.SourcePower, "GoalResult.SourcePower"))
 	} else {
 		r.F(Absent("irradiance_needed_w_m2", "needed at the cloud centre", false, "GoalResult.Intensity")).
 			F(Absent("power_at_atoms_w", "needed at the atoms", false, "GoalResult.PowerAtAtoms")).
 			F(Absent("source_power_w", "needed at the laser", false, "GoalResult.SourcePower"))
 	}
-	r.F(Num("available_source_power_w", "operating power", g.Available, budget.FormatPower(g.Available), "GoalResult.Available"))
+	r.F(Pow("available_source_power_w", "operating power", g.Available, "GoalResult.Available"))
 	if g.Impossible == "" {
 		r.F(Num("margin_db", "margin", g.MarginDB, fmt.Sprintf("%+.1f dB", g.MarginDB), "GoalResult.MarginDB"))
 	} else {
@@ -149,7 +147,7 @@ func goalRecord(a *budget.AtomsResult, g *budget.GoalResult) *Record {
 		verdict = "NOT met"
 	}
 	r.F(Flag("met", "met", g.Met, verdict, "GoalResult.Met"))
-	r.F(Field{Key: "impossible", Label: "cannot be met", Kind: String, Str: g.Impossible, Text: g.Impossible, OmitEmpty: true, Source: "GoalResult.Impossible"})
+	r.F(Field{Key: "impossible", Label: "cannot be met", Kind: String, Text: g.Impossible, OmitEmpty: true, Source: "GoalResult.Impossible"})
 	switch g.Kind {
 	case budget.GoalSaturation:
 		r.Line("  goal: saturation s = {target_si}")

@@ -73,7 +73,7 @@ func pathsList(a *safety.Assessment) *List {
 func pathRecord(pb *budget.PathBudget) Record {
 	p, las := pb.Path, pb.Laser
 	op := las.OperatingPower
-	var r Record
+	r := Record{Members: make([]Member, 0, 16)}
 	src := fmt.Sprintf("laser %q", las.Name)
 	if p.Parent != nil {
 		src = fmt.Sprintf("the other port of %q on path %q (laser %q)", p.ParentPort.Name, p.Parent.Name, las.Name)
@@ -82,11 +82,11 @@ func pathRecord(pb *budget.PathBudget) Record {
 	startP := pb.StartFraction * op
 	r.F(Str("name", "path", p.Name, "Path.Name")).F(Str("from", "from", p.From, "Path.From")).F(Str("laser", "laser", las.Name, "Laser.Name")).
 		F(Num("wavelength_m", "wavelength", las.Wavelength, fmt.Sprintf("%.2f nm", las.Wavelength*1e9), "Laser.Wavelength")).
-		F(Num("operating_power_w", "operating power", op, budget.FormatPower(op), "Laser.OperatingPower")).
-		F(Num("max_power_w", "maximum power", las.Power, budget.FormatPower(las.Power), "Laser.Power")).
-		F(Num("start_power_w", "power at the start", startP, budget.FormatPower(startP), "PathBudget.StartFraction")).
-		F(Num("start_radius_x_m", "Wx at the start", sx, budget.FormatLength(sx), "PathBudget.Start")).
-		F(Num("start_radius_y_m", "Wy at the start", sy, budget.FormatLength(sy), "PathBudget.Start"))
+		F(Pow("operating_power_w", "operating power", op, "Laser.OperatingPower")).
+		F(Pow("max_power_w", "maximum power", las.Power, "Laser.Power")).
+		F(Pow("start_power_w", "power at the start", startP, "PathBudget.StartFraction")).
+		F(Len("start_radius_x_m", "Wx at the start", sx, "PathBudget.Start")).
+		F(Len("start_radius_y_m", "Wy at the start", sy, "PathBudget.Start"))
 	r.F(Field{Key: "source", Label: "source", Kind: String, Text: src, People: true})
 	r.Line(fmt.Sprintf("Path %q from {source}, {wavelength_m}", p.Name))
 	r.Line("  powers at the operating power {operating_power_w} (maximum {max_power_w}); W = 1/e² radius arriving at the element; peak irradiance 2P/(πWxWy) on arrival")
@@ -108,7 +108,7 @@ func pathRecord(pb *budget.PathBudget) Record {
 	r.L(els)
 	r.F(Flag("open_end", "open end", pb.OpenEnd, yesNo(pb.OpenEnd), "PathBudget.OpenEnd"))
 	endP := pb.EndFraction * op
-	r.F(Num("end_power_w", "power leaving the last element", endP, budget.FormatPower(endP), "PathBudget.EndFraction"))
+	r.F(Pow("end_power_w", "power leaving the last element", endP, "PathBudget.EndFraction"))
 	if pb.OpenEnd {
 		ex, ey := pb.End.Radii()
 		r.F(Field{Key: "end_radius_x_m", Label: "Wx at the end", Kind: Number, SI: ex, Text: budget.FormatLength(ex), People: true, Source: "PathBudget.End"})
@@ -125,7 +125,7 @@ const negligibleLoss = 1e-9
 func elementRecord(row *budget.Row, op float64) Record {
 	e := row.Element
 	wx, wy := row.BeamIn.Radii()
-	var r Record
+	r := Record{Members: make([]Member, 0, 20)}
 	label := string(e.Type)
 	if e.Name != "" {
 		label += " " + e.Name
@@ -134,13 +134,13 @@ func elementRecord(row *budget.Row, op float64) Record {
 	peak := row.BeamIn.PeakIrradiance(pin)
 	r.F(Whole("index", "#", e.Index, fmt.Sprint(e.Index), "Element.Index")).F(Str("name", "name", e.Name, "Element.Name")).
 		F(Str("type", "type", string(e.Type), "Element.Type")).F(Field{Key: "element", Label: "element", Kind: String, Text: label, People: true}).
-		F(Num("at_m", "at", e.At, budget.FormatLength(e.At), "Element.At")).
-		F(Num("radius_x_m", "Wx", wx, budget.FormatLength(wx), "Row.BeamIn")).F(Num("radius_y_m", "Wy", wy, budget.FormatLength(wy), "Row.BeamIn")).
+		F(Len("at_m", "at", e.At, "Element.At")).
+		F(Len("radius_x_m", "Wx", wx, "Row.BeamIn")).F(Len("radius_y_m", "Wy", wy, "Row.BeamIn")).
 		F(Num("curvature_x_per_m", "1/R x", row.BeamIn.X.Curvature(), fmt.Sprintf("%.4g /m", row.BeamIn.X.Curvature()), "Row.BeamIn")).
 		F(Num("curvature_y_per_m", "1/R y", row.BeamIn.Y.Curvature(), fmt.Sprintf("%.4g /m", row.BeamIn.Y.Curvature()), "Row.BeamIn")).
-		F(Num("power_in_w", "power in", pin, budget.FormatPower(pin), "Row.FractionIn")).
-		F(Num("power_out_w", "power out", pout, budget.FormatPower(pout), "Row.FractionOut")).
-		F(Num("peak_irradiance_w_m2", "peak irr.", peak, budget.FormatIrradiance(peak), "Row.BeamIn"))
+		F(Pow("power_in_w", "power in", pin, "Row.FractionIn")).
+		F(Pow("power_out_w", "power out", pout, "Row.FractionOut")).
+		F(Irr("peak_irradiance_w_m2", "peak irr.", peak, "Row.BeamIn"))
 	if row.FractionOut > 0 {
 		r.F(Num("cumulative_loss_db", "loss dB", -budget.Decibels(row.FractionOut), fmtDB(row.FractionOut), "Row.FractionOut"))
 	} else {
@@ -148,11 +148,11 @@ func elementRecord(row *budget.Row, op float64) Record {
 	}
 	r.F(Num("clip_transmission", "passing the aperture", row.ClipFraction, fmt.Sprintf("%.4g", row.ClipFraction), "Row.ClipFraction")).
 		F(Flag("assumed_lossless", "assumed lossless", row.AssumedLossless, yesNo(row.AssumedLossless), "Row.AssumedLossless"))
-	losses := &List{Key: "losses"}
+	losses := &List{Key: "losses", Records: make([]Record, 0, len(row.Losses))}
 	var here []string
 	for _, l := range row.Losses {
-		var lr Record
-		lr.F(Str("kind", "loss", l.Kind, "Loss.Kind")).F(Num("power_w", "power", l.Fraction*op, budget.FormatPower(l.Fraction*op), "Loss.Fraction"))
+		lr := Record{Members: make([]Member, 0, 2)}
+		lr.F(Str("kind", "loss", l.Kind, "Loss.Kind")).F(Pow("power_w", "power", l.Fraction*op, "Loss.Fraction"))
 		losses.Records = append(losses.Records, lr)
 		if l.Fraction >= negligibleLoss {
 			here = append(here, fmt.Sprintf("%s %s", l.Kind, budget.FormatPower(l.Fraction*op)))
@@ -196,9 +196,9 @@ func fiberRecord(row *budget.Row, fc *budget.FiberCoupling) *Record {
 		F(Num("coupling", "coupling", fc.Coupling, fmt.Sprintf("%.1f %%", 100*fc.Coupling), "FiberCoupling.Coupling")).
 		F(Flag("coupling_given", "coupling stated", fc.Given, yesNo(fc.Given), "FiberCoupling.Given")).
 		F(Flag("upper_bound", "upper bound", fc.UpperBound, yesNo(fc.UpperBound), "FiberCoupling.UpperBound")).
-		F(Num("ideal_focal_length_x_m", "ideal coupling-lens focal length x", fc.IdealFocalLength[0], budget.FormatLength(fc.IdealFocalLength[0]), "FiberCoupling.IdealFocalLength")).
-		F(Num("ideal_focal_length_y_m", "ideal coupling-lens focal length y", fc.IdealFocalLength[1], budget.FormatLength(fc.IdealFocalLength[1]), "FiberCoupling.IdealFocalLength")).
-		F(Num("ideal_focal_length_for_beam_at_m", "for the beam at", fc.LensAt, budget.FormatLength(fc.LensAt), "FiberCoupling.LensAt"))
+		F(Len("ideal_focal_length_x_m", "ideal coupling-lens focal length x", fc.IdealFocalLength[0], "FiberCoupling.IdealFocalLength")).
+		F(Len("ideal_focal_length_y_m", "ideal coupling-lens focal length y", fc.IdealFocalLength[1], "FiberCoupling.IdealFocalLength")).
+		F(Len("ideal_focal_length_for_beam_at_m", "for the beam at", fc.LensAt, "FiberCoupling.LensAt"))
 	f.F(Field{Key: "ideal_focal_lengths", Label: "ideal coupling-lens focal length", Kind: String, Text: budget.FormatFocalPair(fc.IdealFocalLength), People: true})
 	f.F(Field{Key: "mode_field_diameter", Label: "mode-field diameter", Kind: Number, SI: e.ModeFieldDiameter, Text: budget.FormatLength(e.ModeFieldDiameter), People: true})
 	head := fmt.Sprintf("fibre %d at %s: ", e.Index, budget.FormatLength(e.At))
@@ -225,7 +225,7 @@ func balancesList(a *safety.Assessment) *List {
 		op := bal.Laser.OperatingPower
 		var r Record
 		r.F(Str("laser", "laser", bal.Laser.Name, "LaserBalance.Laser")).
-			F(Num("source_power_w", "source power", op, budget.FormatPower(op), "Laser.OperatingPower")).
+			F(Pow("source_power_w", "source power", op, "Laser.OperatingPower")).
 			F(Num("dumped_w", "dumps", bal.Dumped*op, fmtPct(bal.Dumped), "LaserBalance.Dumped")).
 			F(Num("leaving_w", "open ends", bal.Leaving*op, fmtPct(bal.Leaving), "LaserBalance.Leaving"))
 		lost := &Record{}
@@ -245,15 +245,15 @@ func balancesList(a *safety.Assessment) *List {
 func findingsList(a *safety.Assessment) *List {
 	l := &List{Key: "findings", Empty: "none in what was evaluated (see the assumptions above)"}
 	for _, f := range a.Findings {
-		var r Record
+		r := Record{Members: make([]Member, 0, 11)}
 		r.F(Str("severity", "severity", string(f.Severity), "Finding.Severity")).F(Str("kind", "kind", string(f.Kind), "Finding.Kind")).
 			F(Str("path", "path", f.Path, "Finding.Path")).F(Whole("element", "element", f.Element, fmt.Sprint(f.Element), "Finding.Element")).
-			F(Num("at_m", "at", f.At, budget.FormatLength(f.At), "Finding.At")).F(Str("message", "message", f.Message, "Finding.Message"))
+			F(Len("at_m", "at", f.At, "Finding.At")).F(Str("message", "message", f.Message, "Finding.Message"))
 		if f.Unit != "" {
 			r.F(Num("value_si", "value", f.Value, budget.FormatNumber(f.Value)+" "+f.Unit, "Finding.Value")).
 				F(Num("limit_si", "limit", f.Limit, budget.FormatNumber(f.Limit)+" "+f.Unit, "Finding.Limit")).
 				F(Str("unit", "unit", f.Unit, "Finding.Unit")).
-				F(Num("ratio", "ratio", f.Ratio(), budget.FormatNumber(f.Ratio()), "Finding.Ratio"))
+				F(Plain("ratio", "ratio", f.Ratio(), "Finding.Ratio"))
 		}
 		where := ""
 		if f.Path != "" {

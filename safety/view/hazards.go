@@ -34,16 +34,12 @@ type hazardView struct {
 	stray, escaping, diffuse                *List // the reflections by kind, for people
 }
 
-func strings_(key, label string, list []string, source string) Field {
-	return Field{Key: key, Label: label, Kind: Strings, List: append([]string{}, list...), Source: source}
-}
-
 func hazards(a *safety.Assessment) hazardView {
 	h := a.Hazards
 	v := hazardView{json: &Record{}}
 	v.json.F(Str("standard", "standard", safety.Standard, "")).
-		F(strings_("assumptions", "assumptions", Assumptions(a.Setup), "")).
-		F(strings_("cautions", "cautions", Cautions, ""))
+		F(StrList("assumptions", "assumptions", Assumptions(a.Setup), "")).
+		F(StrList("cautions", "cautions", Cautions, ""))
 	v.lasers = &List{Key: "lasers", Heading: "Sources", Columns: []string{"name", "wavelength_m", "power_w", "emission", "class_text", "eye_mpe_irradiance_w_m2", "skin_mpe_irradiance_w_m2", "duration_s", "eye_aperture_diameter_m"}}
 	for _, ll := range h.Lasers {
 		v.lasers.Records = append(v.lasers.Records, laserRecord(ll))
@@ -74,7 +70,7 @@ func hazards(a *safety.Assessment) hazardView {
 		v.eyewear.Records = append(v.eyewear.Records, eyewearRecord(n))
 	}
 	v.json.L(v.lasers).L(v.exposures).L(v.reflections).L(v.eyewear).
-		F(strings_("defaults_assumed", "defaults assumed", h.DefaultsAssumed, "Hazards.DefaultsAssumed"))
+		F(StrList("defaults_assumed", "defaults assumed", h.DefaultsAssumed, "Hazards.DefaultsAssumed"))
 
 	blocks := []Block{{Indent: 1, Line: "assumptions:"}}
 	for _, as := range Assumptions(a.Setup) {
@@ -92,14 +88,14 @@ func hazards(a *safety.Assessment) hazardView {
 
 func laserRecord(ll *safety.LaserLimits) Record {
 	las := ll.Laser
-	var r Record
+	r := Record{Members: make([]Member, 0, 20)}
 	cl := ll.Class
 	if cl == "" {
 		cl = "not assessed"
 	}
 	r.F(Str("name", "laser", las.Name, "Laser.Name")).
 		F(Num("wavelength_m", "λ", las.Wavelength, nm(las.Wavelength), "Laser.Wavelength")).
-		F(Num("power_w", "max power", las.Power, budget.FormatPower(las.Power), "Laser.Power")).
+		F(Pow("power_w", "max power", las.Power, "Laser.Power")).
 		F(Str("emission", "emission", las.Emission, "Laser.Emission"))
 	if ll.Class != "" {
 		r.F(Str("class", "class", ll.Class, "LaserLimits.Class"))
@@ -109,16 +105,16 @@ func laserRecord(ll *safety.LaserLimits) Record {
 	r.F(Field{Key: "class_text", Label: "class", Kind: String, Text: cl, People: true}).
 		F(Str("class_note", "class basis", ll.ClassNote, "LaserLimits.ClassNote")).
 		F(Num("duration_s", "duration", ll.Duration, budget.FormatSI(ll.Duration, "s"), "LaserLimits.Duration")).
-		F(Num("eye_mpe_irradiance_w_m2", "eye MPE", ll.EyeIrradiance, budget.FormatIrradiance(ll.EyeIrradiance), "LaserLimits.EyeIrradiance")).
+		F(Irr("eye_mpe_irradiance_w_m2", "eye MPE", ll.EyeIrradiance, "LaserLimits.EyeIrradiance")).
 		F(Str("eye_mpe_rule", "eye limit", ll.EyeRule, "LaserLimits.EyeRule")).
 		F(Str("eye_mpe_effect", "effect", ll.Eye.Effect, "LaserLimits.Eye")).
-		F(Num("skin_mpe_irradiance_w_m2", "skin MPE", ll.SkinIrradiance, budget.FormatIrradiance(ll.SkinIrradiance), "LaserLimits.SkinIrradiance")).
-		F(Num("eye_aperture_diameter_m", "eye aperture", ll.EyeAperture, budget.FormatLength(ll.EyeAperture), "LaserLimits.EyeAperture")).
-		F(Num("skin_aperture_diameter_m", "skin aperture", ll.SkinAperture, budget.FormatLength(ll.SkinAperture), "LaserLimits.SkinAperture")).
-		F(Num("ael_class_1_w", "Class 1", ll.AEL.Class1, budget.FormatPower(ll.AEL.Class1), "LaserLimits.AEL")).
-		F(orNone(Num("ael_class_2_w", "Class 2", ll.AEL.Class2, budget.FormatPower(ll.AEL.Class2), "LaserLimits.AEL"))).
-		F(orNone(Num("ael_class_3r_w", "Class 3R", ll.AEL.Class3R, budget.FormatPower(ll.AEL.Class3R), "LaserLimits.AEL"))).
-		F(Num("ael_class_3b_w", "Class 3B", ll.AEL.Class3B, budget.FormatPower(ll.AEL.Class3B), "LaserLimits.AEL"))
+		F(Irr("skin_mpe_irradiance_w_m2", "skin MPE", ll.SkinIrradiance, "LaserLimits.SkinIrradiance")).
+		F(Len("eye_aperture_diameter_m", "eye aperture", ll.EyeAperture, "LaserLimits.EyeAperture")).
+		F(Len("skin_aperture_diameter_m", "skin aperture", ll.SkinAperture, "LaserLimits.SkinAperture")).
+		F(Pow("ael_class_1_w", "Class 1", ll.AEL.Class1, "LaserLimits.AEL")).
+		F(orNone(Pow("ael_class_2_w", "Class 2", ll.AEL.Class2, "LaserLimits.AEL"))).
+		F(orNone(Pow("ael_class_3r_w", "Class 3R", ll.AEL.Class3R, "LaserLimits.AEL"))).
+		F(Pow("ael_class_3b_w", "Class 3B", ll.AEL.Class3B, "LaserLimits.AEL"))
 	r.Line(las.Name + ": eye limit {eye_mpe_rule} ({eye_mpe_effect}); class {class_note}")
 	r.Line("  continuous-emission AELs: Class 1 {ael_class_1_w}, Class 2 {ael_class_2_w}, Class 3R {ael_class_3r_w}, Class 3B {ael_class_3b_w}; skin aperture {skin_aperture_diameter_m}")
 	if ll.Class != "" {
@@ -156,21 +152,21 @@ func classMeaning(c string) string {
 }
 
 func exposureRecord(e *safety.Exposure) Record {
-	var r Record
+	r := Record{Members: make([]Member, 0, 20)}
 	s := e.Segment
 	r.F(Str("path", "path", e.Path.Path.Name, "Path.Name")).
 		F(Whole("after_element", "after element", s.After, fmt.Sprint(s.After), "Segment.After")).
-		F(Num("from_m", "from", s.From, budget.FormatLength(s.From), "Segment.From")).
-		F(Num("to_m", "to", s.To, budget.FormatLength(s.To), "Segment.To")).
-		F(Num("worst_at_m", "worst at", e.At, budget.FormatLength(e.At), "Exposure.At")).
+		F(Len("from_m", "from", s.From, "Segment.From")).
+		F(Len("to_m", "to", s.To, "Segment.To")).
+		F(Len("worst_at_m", "worst at", e.At, "Exposure.At")).
 		F(Num("wavelength_m", "λ", e.Path.Laser.Wavelength, nm(e.Path.Laser.Wavelength), "Laser.Wavelength")).
 		F(Num("duration_s", "duration", e.Laser.Duration, budget.FormatSI(e.Laser.Duration, "s"), "LaserLimits.Duration")).
-		F(Num("power_w", "power", e.Power, budget.FormatPower(e.Power), "Exposure.Power")).
-		F(Num("aperture_irradiance_w_m2", "eye irr.", e.Irradiance, budget.FormatIrradiance(e.Irradiance), "Exposure.Irradiance")).
-		F(Num("mpe_irradiance_w_m2", "eye MPE", e.Laser.EyeIrradiance, budget.FormatIrradiance(e.Laser.EyeIrradiance), "LaserLimits.EyeIrradiance")).
+		F(Pow("power_w", "power", e.Power, "Exposure.Power")).
+		F(Irr("aperture_irradiance_w_m2", "eye irr.", e.Irradiance, "Exposure.Irradiance")).
+		F(Irr("mpe_irradiance_w_m2", "eye MPE", e.Laser.EyeIrradiance, "LaserLimits.EyeIrradiance")).
 		F(Num("ratio", "eye ratio", e.Ratio, fmtRatio(e.Ratio), "Exposure.Ratio")).
-		F(Num("od_required", "OD", e.OD, fmtG(e.OD), "Exposure.OD")).
-		F(Num("skin_aperture_irradiance_w_m2", "skin irr.", e.SkinIrr, budget.FormatIrradiance(e.SkinIrr), "Exposure.SkinIrr")).
+		F(Plain("od_required", "OD", e.OD, "Exposure.OD")).
+		F(Irr("skin_aperture_irradiance_w_m2", "skin irr.", e.SkinIrr, "Exposure.SkinIrr")).
 		F(Num("skin_ratio", "skin ratio", e.SkinRatio, fmtRatio(e.SkinRatio), "Exposure.SkinRatio")).
 		F(Flag("open_end", "open end", e.OpenEnd, yesNo(e.OpenEnd), "Exposure.OpenEnd"))
 	nohd := ""
@@ -179,7 +175,7 @@ func exposureRecord(e *safety.Exposure) Record {
 		r.F(Absent("nohd_m", "NOHD", false, "Exposure.NOHD"))
 	case math.IsInf(e.NOHD, 1):
 		r.F(Absent("nohd_m", "NOHD", false, "Exposure.NOHD"))
-		r.F(Num("nohd_beyond_m", "NOHD beyond", safety.MaxHazardDistance, budget.FormatLength(safety.MaxHazardDistance), "Exposure.NOHD"))
+		r.F(Len("nohd_beyond_m", "NOHD beyond", safety.MaxHazardDistance, "Exposure.NOHD"))
 		nohd = safety.FormatDistance(e.NOHD)
 	default:
 		r.F(Num("nohd_m", "NOHD", e.NOHD, safety.FormatDistance(e.NOHD), "Exposure.NOHD"))
@@ -203,7 +199,7 @@ func segLabel(e *safety.Exposure) string {
 }
 
 func reflectionRecord(rf *safety.Reflection) Record {
-	var r Record
+	r := Record{Members: make([]Member, 0, 14)}
 	r.F(Str("path", "path", rf.Path.Path.Name, "Path.Name"))
 	if rf.Element != nil {
 		r.F(Whole("element", "element", rf.Element.Index, fmt.Sprint(rf.Element.Index), "Reflection.Element"))
@@ -215,11 +211,11 @@ func reflectionRecord(rf *safety.Reflection) Record {
 		F(Num("reflectance", "reflectance", rf.Reflectance, fmt.Sprintf("%g", rf.Reflectance), "Reflection.Reflectance")).
 		F(Flag("reflectance_assumed", "assumed", rf.Assumed, assumed(rf.Assumed), "Reflection.Assumed")).
 		F(Whole("surfaces", "surfaces", rf.Surfaces, fmt.Sprint(rf.Surfaces), "Reflection.Surfaces")).
-		F(Num("power_w", "power", rf.Power, budget.FormatPower(rf.Power), "Reflection.Power"))
+		F(Pow("power_w", "power", rf.Power, "Reflection.Power"))
 	if rf.Kind != safety.ReflectionDiffuse {
-		r.F(Num("aperture_irradiance_w_m2", "eye irr.", rf.Irradiance, budget.FormatIrradiance(rf.Irradiance), "Reflection.Irradiance")).
+		r.F(Irr("aperture_irradiance_w_m2", "eye irr.", rf.Irradiance, "Reflection.Irradiance")).
 			F(Num("ratio", "× MPE", rf.Ratio, fmtRatio(rf.Ratio), "Reflection.Ratio")).
-			F(Num("od_required", "OD", rf.OD, fmtG(rf.OD), "Reflection.OD")).
+			F(Plain("od_required", "OD", rf.OD, "Reflection.OD")).
 			F(Absent("hazard_radius_m", "hazard zone radius", false, "Reflection.Radius"))
 	} else {
 		r.F(Absent("aperture_irradiance_w_m2", "eye irr.", false, "Reflection.Irradiance")).
@@ -248,7 +244,7 @@ func reflectionRecord(rf *safety.Reflection) Record {
 func eyewearRecord(n *safety.EyewearNeed) Record {
 	var r Record
 	r.F(Num("wavelength_m", "λ", n.Wavelength, nm(n.Wavelength), "EyewearNeed.Wavelength")).
-		F(Num("od_required", "OD", n.OD, fmtG(n.OD), "EyewearNeed.OD"))
+		F(Plain("od_required", "OD", n.OD, "EyewearNeed.OD"))
 	if n.LBValid {
 		r.F(Whole("en207_scale", "EN 207", n.LB, n.EN207Label(), "EyewearNeed.LB"))
 	} else {
@@ -256,8 +252,8 @@ func eyewearRecord(n *safety.EyewearNeed) Record {
 		f.Text = n.EN207Label()
 		r.F(f)
 	}
-	r.F(strings_("covered_by", "covered by", n.CoveredBy, "EyewearNeed.CoveredBy"))
-	r.F(Num("irradiance_w_m2", "largest irradiance", n.Irradiance, budget.FormatIrradiance(n.Irradiance), "EyewearNeed.Irradiance"))
+	r.F(StrList("covered_by", "covered by", n.CoveredBy, "EyewearNeed.CoveredBy"))
+	r.F(Irr("irradiance_w_m2", "largest irradiance", n.Irradiance, "EyewearNeed.Irradiance"))
 	r.F(Field{Key: "coverage", Kind: String, Text: n.Coverage(), People: true, Source: "EyewearNeed.CoveredBy"})
 	r.Line("{wavelength_m}: OD {od_required}, {en207_scale} (largest aperture-averaged irradiance {irradiance_w_m2}); {coverage}")
 	return r

@@ -37,10 +37,10 @@ func writeRecord(b *bytes.Buffer, r *Record, at string) error {
 		writeString(b, k)
 		b.WriteByte(':')
 	}
-	for _, m := range r.Members {
-		switch {
-		case m.Field != nil:
-			f := m.Field
+	for i := range r.Members {
+		switch m := &r.Members[i]; {
+		case m.IsField:
+			f := &m.Field
 			if f.People || (f.OmitEmpty && isEmpty(f)) {
 				continue
 			}
@@ -86,11 +86,11 @@ func isEmpty(f *Field) bool {
 	case f.Kind == Number:
 		return math.IsNaN(f.SI)
 	case f.Kind == String:
-		return f.Str == ""
+		return f.Text == ""
 	case f.Kind == Bool:
 		return !f.Bool
 	case f.Kind == Strings:
-		return len(f.List) == 0
+		return len(f.List()) == 0
 	}
 	return false
 }
@@ -115,9 +115,9 @@ func writeValue(b *bytes.Buffer, f *Field, at string) error {
 		}
 		b.Write(v)
 	case Int:
-		fmt.Fprintf(b, "%d", f.Int)
+		fmt.Fprintf(b, "%d", int64(f.SI))
 	case String:
-		writeString(b, f.Str)
+		writeString(b, f.Text)
 	case Bool:
 		if f.Bool {
 			b.WriteString("true")
@@ -126,7 +126,7 @@ func writeValue(b *bytes.Buffer, f *Field, at string) error {
 		}
 	case Matrix:
 		b.WriteByte('[')
-		for i, row := range f.Rows {
+		for i, row := range f.extra.rows {
 			if i > 0 {
 				b.WriteByte(',')
 			}
@@ -146,7 +146,7 @@ func writeValue(b *bytes.Buffer, f *Field, at string) error {
 		b.WriteByte(']')
 	case Strings:
 		b.WriteByte('[')
-		for i, s := range f.List {
+		for i, s := range f.List() {
 			if i > 0 {
 				b.WriteByte(',')
 			}

@@ -31,7 +31,7 @@ func Limits(l *safety.LimitsLookup) *Doc {
 		s := &Record{}
 		s.F(Num("mpe_irradiance_w_m2", "MPE", m.Irradiance, budget.FormatSI(m.Irradiance, "W/m²")+" = "+budget.FormatIrradiance(m.Irradiance), "Limit.Irradiance")).
 			F(Num("mpe_radiant_exposure_j_m2", "H", m.RadiantExposure, budget.FormatSI(m.RadiantExposure, "J/m²"), "Limit.RadiantExposure")).
-			F(Num("aperture_diameter_m", "aperture", ap, budget.FormatLength(ap), "LimitsLookup.EyeAperture")).
+			F(Len("aperture_diameter_m", "aperture", ap, "LimitsLookup.EyeAperture")).
 			F(Str("rule", "rule", m.Rule, "Limit.Rule")).F(Str("effect", "effect", m.Effect, "Limit.Effect"))
 		r.O(key, s, false)
 		r.Line(fmt.Sprintf("  %s MPE {%s.mpe_irradiance_w_m2} (H = {%s.mpe_radiant_exposure_j_m2}), averaged over a {%s.aperture_diameter_m} aperture; {%s.effect}", name, key, key, key, key))
@@ -40,10 +40,10 @@ func Limits(l *safety.LimitsLookup) *Doc {
 	side("eye", "eye ", l.Eye, l.EyeAperture)
 	side("skin", "skin", l.Skin, l.SkinAperture)
 	ael := &Record{}
-	ael.F(Num("class_1", "Class 1/1M", l.AEL.Class1, budget.FormatPower(l.AEL.Class1), "AEL.Class1")).
-		F(orNone(Num("class_2", "Class 2/2M", l.AEL.Class2, budget.FormatPower(l.AEL.Class2), "AEL.Class2"))).
-		F(orNone(Num("class_3r", "Class 3R", l.AEL.Class3R, budget.FormatPower(l.AEL.Class3R), "AEL.Class3R"))).
-		F(Num("class_3b", "Class 3B", l.AEL.Class3B, budget.FormatPower(l.AEL.Class3B), "AEL.Class3B"))
+	ael.F(Pow("class_1", "Class 1/1M", l.AEL.Class1, "AEL.Class1")).
+		F(orNone(Pow("class_2", "Class 2/2M", l.AEL.Class2, "AEL.Class2"))).
+		F(orNone(Pow("class_3r", "Class 3R", l.AEL.Class3R, "AEL.Class3R"))).
+		F(Pow("class_3b", "Class 3B", l.AEL.Class3B, "AEL.Class3B"))
 	r.O("ael_w", ael, false)
 	r.F(Num("ael_time_base_s", "Class 1 time base", l.AEL.TimeBase, budget.FormatSI(l.AEL.TimeBase, "s"), "AEL.TimeBase"))
 	factors := &Record{}
@@ -70,11 +70,11 @@ func Limits(l *safety.LimitsLookup) *Doc {
 		pulsed = &Record{}
 		pulsed.F(Num("pulse_duration_s", "pulse duration", q.PulseDuration, budget.FormatSI(q.PulseDuration, "s"), "LimitsQuery.PulseDuration")).
 			F(Num("repetition_rate_hz", "repetition rate", q.RepetitionRate, budget.FormatFrequency(q.RepetitionRate), "LimitsQuery.RepetitionRate")).
-			F(Num("pulses", "pulses", p.N, budget.FormatNumber(p.N), "PulsedLimit.N")).
-			F(Num("c5", "C5", p.C5, budget.FormatNumber(p.C5), "PulsedLimit.C5")).
+			F(Plain("pulses", "pulses", p.N, "PulsedLimit.N")).
+			F(Plain("c5", "C5", p.C5, "PulsedLimit.C5")).
 			F(Num("mpe_per_pulse_j_m2", "per pulse", p.PerPulse, budget.FormatNumber(p.PerPulse)+" J/m²", "PulsedLimit.PerPulse")).
 			F(Str("governing_rule", "governing rule", p.Rule, "PulsedLimit.Rule")).
-			F(Num("mpe_average_irradiance_w_m2", "average irradiance limit", p.Irradiance, budget.FormatIrradiance(p.Irradiance), "PulsedLimit.Irradiance"))
+			F(Irr("mpe_average_irradiance_w_m2", "average irradiance limit", p.Irradiance, "PulsedLimit.Irradiance"))
 		r.Line("  pulse train: {pulsed.pulses} pulses of {pulsed.pulse_duration_s} at {pulsed.repetition_rate_hz} over {duration_s}; C5 = {pulsed.c5}; the {pulsed.governing_rule} rule governs: {pulsed.mpe_per_pulse_j_m2} per pulse (average irradiance limit {pulsed.mpe_average_irradiance_w_m2})")
 	}
 	r.O("pulsed", pulsed, true)
@@ -94,10 +94,10 @@ func Limits(l *safety.LimitsLookup) *Doc {
 			r.F(Field{Key: "nohd", Kind: String, Text: safety.FormatDistance(l.NOHD) + " (rounded up)", People: true})
 		}
 		r.F(Num("od_required", "OD", l.ODRequired, fmt.Sprintf("%g", l.ODRequired), "LimitsLookup.ODRequired")).
-			F(Num("exit_aperture_irradiance_w_m2", "at the exit", l.ExitIrr, budget.FormatIrradiance(l.ExitIrr), "LimitsLookup.ExitIrr"))
+			F(Irr("exit_aperture_irradiance_w_m2", "at the exit", l.ExitIrr, "LimitsLookup.ExitIrr"))
 		r.Line("  at the exit: {exit_aperture_irradiance_w_m2} over the eye aperture, OD {od_required} needed; NOHD {nohd}")
 	}
-	r.F(strings_("cautions", "cautions", Cautions, ""))
+	r.F(StrList("cautions", "cautions", Cautions, ""))
 	d := &Doc{JSON: r, Sections: []Section{{Blocks: []Block{{Record: r}, {Indent: 1, Bullets: Cautions}}}}}
 	return d
 }

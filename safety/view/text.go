@@ -55,7 +55,7 @@ func (r *Record) Expand(line string) string {
 		b.WriteString(line[:i])
 		key := line[i+1 : i+j]
 		if f := r.Field(key); f != nil {
-			b.WriteString(f.Text)
+			b.WriteString(f.Display())
 		} else {
 			b.WriteString("{" + key + "}")
 		}
@@ -136,7 +136,7 @@ func writeList(ew *errWriter, l *List, indent string) {
 			var cells []string
 			for _, k := range l.Columns {
 				if f := r.Field(k); f != nil {
-					cells = append(cells, f.Text)
+					cells = append(cells, f.Display())
 				} else {
 					cells = append(cells, "")
 				}

@@ -13,10 +13,12 @@ package view
 import (
 	"math"
 	"strings"
+
+	"beamledger/budget"
 )
 
 // Kind says what a field holds.
-type Kind int
+type Kind uint8
 
 // Field kinds.
 const (
@@ -28,32 +30,112 @@ const (
 	Matrix  // rows of numbers
 )
 
-// Field is one figure or word, as every output shows it.
+// Field is one figure or word, as every output shows it. It is kept small:
+// a record holds many.
 type Field struct {
 	// Key is the JSON key: snake_case with the unit as a suffix.
 	Key string
 	// Label names it for people (a column header or a line's label).
 	Label string
-	Kind  Kind
-	// SI is the value of a Number (NaN: it does not exist, null in JSON);
-	// Int holds a whole number.
-	SI  float64
-	Int int
-	// Absent marks an Int, String or Bool that does not exist (null in
-	// JSON); OmitEmpty leaves an absent field out of JSON altogether.
-	Absent, OmitEmpty bool
-	Str               string
-	Bool              bool
-	List              []string
-	Rows              [][]float64
-	// Text is the value written for people, with its unit.
+	// Text is the value written for people, with its unit; for a String it
+	// is also the JSON value.
 	Text string
 	// Source names the result field it shows, "Type.Field", for the
 	// coverage test.
 	Source string
+	// SI is the value of a Number (NaN: it does not exist, null in JSON) or
+	// of an Int.
+	SI   float64
+	Kind Kind
+	// Absent marks a field that does not exist here (null in JSON);
+	// OmitEmpty leaves an absent or empty field out of JSON altogether.
+	Absent, OmitEmpty bool
+	Bool              bool
 	// People marks a field for people only (a combined cell such as
 	// "lens L1", or a share in percent): JSON leaves it out.
 	People bool
+	// style writes Text from SI when Text is empty (so that fields nobody
+	// reads are never formatted).
+	style style
+	extra *extra
+}
+
+// style is how a number is written for people, when its text is made only
+// when needed.
+type style uint8
+
+const (
+	styleNone style = iota
+	stylePower
+	styleLength
+	styleIrradiance
+	styleNumber
+)
+
+// Display is the field's text for people.
+func (f *Field) Display() string {
+	if f.Text != "" || f.style == styleNone {
+		return f.Text
+	}
+	if math.IsNaN(f.SI) {
+		return "—"
+	}
+	switch f.style {
+	case stylePower:
+		return budget.FormatPower(f.SI)
+	case styleLength:
+		return budget.FormatLength(f.SI)
+	case styleIrradiance:
+		return budget.FormatIrradiance(f.SI)
+	default:
+		return budget.FormatNumber(f.SI)
+	}
+}
+
+// Numbers whose text is made when it is read: a power, a length, an
+// irradiance, or a plain number.
+func Pow(key, label string, si float64, source string) Field {
+	return lazy(key, label, si, stylePower, source)
+}
+func Len(key, label string, si float64, source string) Field {
+	return lazy(key, label, si, styleLength, source)
+}
+func Irr(key, label string, si float64, source string) Field {
+	return lazy(key, label, si, styleIrradiance, source)
+}
+func Plain(key, label string, si float64, source string) Field {
+	return lazy(key, label, si, styleNumber, source)
+}
+
+func lazy(key, label string, si float64, st style, source string) Field {
+	if math.IsNaN(si) || math.IsInf(si, 0) {
+		return Field{Key: key, Label: label, Kind: Number, SI: math.NaN(), Text: "—", Source: source}
+	}
+	return Field{Key: key, Label: label, Kind: Number, SI: si, style: st, Source: source}
+}
+
+// extra holds the values of the rarer kinds.
+type extra struct {
+	list []string
+	rows [][]float64
+}
+
+// List returns a Strings field's values.
+func (f *Field) List() []string {
+	if f.extra == nil {
+		return nil
+	}
+	return f.extra.list
+}
+
+// StrList is a list-of-strings field; its text joins them.
+func StrList(key, label string, list []string, source string) Field {
+	return Field{Key: key, Label: label, Kind: Strings, Text: strings.Join(list, ", "), Source: source, extra: &extra{list: append([]string{}, list...)}}
+}
+
+// NumRows is a field of rows of numbers.
+func NumRows(key, label string, rows [][]float64, text, source string) Field {
+	return Field{Key: key, Label: label, Kind: Matrix, Text: text, Source: source, extra: &extra{rows: rows}}
 }
 
 // Num is a number field with its text for people; a non-finite value is
@@ -67,12 +149,12 @@ func Num(key, label string, si float64, text, source string) Field {
 
 // Whole is an integer field.
 func Whole(key, label string, n int, text, source string) Field {
-	return Field{Key: key, Label: label, Kind: Int, Int: n, Text: text, Source: source}
+	return Field{Key: key, Label: label, Kind: Int, SI: float64(n), Text: text, Source: source}
 }
 
 // Str is a string field.
 func Str(key, label, s, source string) Field {
-	return Field{Key: key, Label: label, Kind: String, Str: s, Text: s, Source: source}
+	return Field{Key: key, Label: label, Kind: String, Text: s, Source: source}
 }
 
 // Flag is a boolean field with its text for people.
@@ -86,12 +168,14 @@ func Absent(key, label string, omit bool, source string) Field {
 	return Field{Key: key, Label: label, Kind: Number, SI: math.NaN(), Absent: true, OmitEmpty: omit, Text: "—", Source: source}
 }
 
-// Member is one member of a record: a field, a list of records, or a nested
-// record (a JSON object). Exactly one is set.
+// Member is one member of a record: a field (IsField), a list of records,
+// or a nested record (a JSON object). The field is held by value, so that a
+// record of many fields is one allocation.
 type Member struct {
-	Field  *Field
-	List   *List
-	Object *Object
+	IsField bool
+	Field   Field
+	List    *List
+	Object  *Object
 }
 
 // Object is a named nested record; a nil Record is null in JSON (or left out
@@ -138,7 +222,7 @@ type List struct {
 
 // F adds a field to the record.
 func (r *Record) F(f Field) *Record {
-	r.Members = append(r.Members, Member{Field: &f})
+	r.Members = append(r.Members, Member{IsField: true, Field: f})
 	return r
 }
 
@@ -171,9 +255,9 @@ func (r *Record) Field(key string) *Field {
 		}
 		return nil
 	}
-	for _, m := range r.Members {
-		if m.Field != nil && m.Field.Key == key {
-			return m.Field
+	for i := range r.Members {
+		if m := &r.Members[i]; m.IsField && m.Field.Key == key {
+			return &m.Field
 		}
 	}
 	return nil
@@ -181,10 +265,10 @@ func (r *Record) Field(key string) *Field {
 
 // Walk calls f for every field of the record and of the records inside it.
 func (r *Record) Walk(f func(*Field)) {
-	for _, m := range r.Members {
-		switch {
-		case m.Field != nil:
-			f(m.Field)
+	for i := range r.Members {
+		switch m := &r.Members[i]; {
+		case m.IsField:
+			f(&m.Field)
 		case m.List != nil:
 			for i := range m.List.Records {
 				m.List.Records[i].Walk(f)
