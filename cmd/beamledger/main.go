@@ -3,11 +3,22 @@
 // hazards are, and writes the sign-off document.
 package main
 
-import "os"
+import (
+	"os"
+	"runtime/debug"
+)
 
-// The garbage collector keeps its default setting: measured on the shipped
-// examples it costs nothing visible, and on the largest setups a run may hold
-// it keeps memory at a third of what a disabled collector lets it grow to.
+// The collector runs at a fifth of its default frequency (GOGC 400) under a
+// soft memory limit of 1 GiB: the 2 100-element lab is checked about a
+// quarter faster than with the default, and the largest accepted setup's
+// report stays near 1 GiB instead of growing (with the collector off it
+// reached 24 GB). GOGC and GOMEMLIMIT in the environment take precedence.
 func main() {
+	if os.Getenv("GOGC") == "" {
+		debug.SetGCPercent(400)
+	}
+	if os.Getenv("GOMEMLIMIT") == "" {
+		debug.SetMemoryLimit(1 << 30)
+	}
 	os.Exit(run(os.Args[1:], os.Stdout, os.Stderr))
 }

@@ -29,7 +29,7 @@ func atomsRecord(a *budget.AtomsResult) Record {
 	las := a.Path.Laser
 	wx, wy := a.Row.BeamIn.Radii()
 	r := Record{Members: make([]Member, 0, 40)}
-	r.F(Str("path", "path", a.Path.Path.Name, "Path.Name")).F(Whole("element", "element", e.Index, fmt.Sprint(e.Index), "Element.Index")).
+	r.F(Str("path", "path", a.Path.Path.Name, "Path.Name")).F(Whole("element", "element", e.Index, "Element.Index")).
 		F(Str("cloud", "cloud", a.Cloud.Name, "Cloud.Name")).F(Str("transition", "transition", tr.Name, "Transition.Name")).
 		F(Len("at_m", "at", e.At, "Element.At")).
 		F(Pow("power_w", "power", a.Power, "AtomsResult.Power")).

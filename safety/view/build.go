@@ -43,7 +43,7 @@ func Build(a *safety.Assessment) *Doc {
 	}
 	balances := balancesList(a)
 	d.JSON.L(balances)
-	d.JSON.F(Whole("assumed_lossless_elements", "elements assumed lossless", a.Budget.AssumedLossless, fmt.Sprint(a.Budget.AssumedLossless), "Budget.AssumedLossless"))
+	d.JSON.F(Whole("assumed_lossless_elements", "elements assumed lossless", a.Budget.AssumedLossless, "Budget.AssumedLossless"))
 	findings := findingsList(a)
 	d.JSON.L(findings)
 	d.JSON.F(Flag("needs_action", "needs action", a.NeedsAction(), yesNo(a.NeedsAction()), ""))
@@ -92,7 +92,7 @@ func pathRecord(pb *budget.PathBudget) Record {
 	r.Line("  powers at the operating power {operating_power_w} (maximum {max_power_w}); W = 1/e² radius arriving at the element; peak irradiance 2P/(πWxWy) on arrival")
 	els := &List{Key: "elements", Columns: []string{"index", "element", "at_m", "radius_x_m", "radius_y_m", "power_in_w", "power_out_w", "peak_irradiance_w_m2", "cumulative_loss_db", "losses_here"}, Left: 2, Indent: 1}
 	lead := &Record{}
-	lead.F(Whole("index", "#", 0, "0", "")).F(Field{Key: "element", Label: "element", Kind: String, Text: "start", People: true}).
+	lead.F(Whole("index", "#", 0, "")).F(Field{Key: "element", Label: "element", Kind: String, Text: "start", People: true}).
 		F(Field{Key: "at_m", Label: "at", Kind: Number, SI: 0, Text: "0 mm"}).
 		F(Field{Key: "radius_x_m", Label: "Wx", Kind: Number, SI: sx, Text: budget.FormatLength(sx)}).
 		F(Field{Key: "radius_y_m", Label: "Wy", Kind: Number, SI: sy, Text: budget.FormatLength(sy)}).
@@ -132,12 +132,12 @@ func elementRecord(row *budget.Row, op float64) Record {
 	}
 	pin, pout := row.FractionIn*op, row.FractionOut*op
 	peak := row.BeamIn.PeakIrradiance(pin)
-	r.F(Whole("index", "#", e.Index, fmt.Sprint(e.Index), "Element.Index")).F(Str("name", "name", e.Name, "Element.Name")).
+	r.F(Whole("index", "#", e.Index, "Element.Index")).F(Str("name", "name", e.Name, "Element.Name")).
 		F(Str("type", "type", string(e.Type), "Element.Type")).F(Field{Key: "element", Label: "element", Kind: String, Text: label, People: true}).
 		F(Len("at_m", "at", e.At, "Element.At")).
 		F(Len("radius_x_m", "Wx", wx, "Row.BeamIn")).F(Len("radius_y_m", "Wy", wy, "Row.BeamIn")).
-		F(Num("curvature_x_per_m", "1/R x", row.BeamIn.X.Curvature(), fmt.Sprintf("%.4g /m", row.BeamIn.X.Curvature()), "Row.BeamIn")).
-		F(Num("curvature_y_per_m", "1/R y", row.BeamIn.Y.Curvature(), fmt.Sprintf("%.4g /m", row.BeamIn.Y.Curvature()), "Row.BeamIn")).
+		F(Plain("curvature_x_per_m", "1/R x (1/m)", row.BeamIn.X.Curvature(), "Row.BeamIn")).
+		F(Plain("curvature_y_per_m", "1/R y (1/m)", row.BeamIn.Y.Curvature(), "Row.BeamIn")).
 		F(Pow("power_in_w", "power in", pin, "Row.FractionIn")).
 		F(Pow("power_out_w", "power out", pout, "Row.FractionOut")).
 		F(Irr("peak_irradiance_w_m2", "peak irr.", peak, "Row.BeamIn"))
@@ -146,7 +146,7 @@ func elementRecord(row *budget.Row, op float64) Record {
 	} else {
 		r.F(Field{Key: "cumulative_loss_db", Label: "loss dB", Kind: Number, SI: math.NaN(), Text: "—", Source: "Row.FractionOut"})
 	}
-	r.F(Num("clip_transmission", "passing the aperture", row.ClipFraction, fmt.Sprintf("%.4g", row.ClipFraction), "Row.ClipFraction")).
+	r.F(Plain("clip_transmission", "passing the aperture", row.ClipFraction, "Row.ClipFraction")).
 		F(Flag("assumed_lossless", "assumed lossless", row.AssumedLossless, yesNo(row.AssumedLossless), "Row.AssumedLossless"))
 	losses := &List{Key: "losses", Records: make([]Record, 0, len(row.Losses))}
 	var here []string
@@ -247,7 +247,7 @@ func findingsList(a *safety.Assessment) *List {
 	for _, f := range a.Findings {
 		r := Record{Members: make([]Member, 0, 11)}
 		r.F(Str("severity", "severity", string(f.Severity), "Finding.Severity")).F(Str("kind", "kind", string(f.Kind), "Finding.Kind")).
-			F(Str("path", "path", f.Path, "Finding.Path")).F(Whole("element", "element", f.Element, fmt.Sprint(f.Element), "Finding.Element")).
+			F(Str("path", "path", f.Path, "Finding.Path")).F(Whole("element", "element", f.Element, "Finding.Element")).
 			F(Len("at_m", "at", f.At, "Finding.At")).F(Str("message", "message", f.Message, "Finding.Message"))
 		if f.Unit != "" {
 			r.F(Num("value_si", "value", f.Value, budget.FormatNumber(f.Value)+" "+f.Unit, "Finding.Value")).

@@ -94,7 +94,7 @@ func laserRecord(ll *safety.LaserLimits) Record {
 		cl = "not assessed"
 	}
 	r.F(Str("name", "laser", las.Name, "Laser.Name")).
-		F(Num("wavelength_m", "λ", las.Wavelength, nm(las.Wavelength), "Laser.Wavelength")).
+		F(Nm("wavelength_m", "λ", las.Wavelength, "Laser.Wavelength")).
 		F(Pow("power_w", "max power", las.Power, "Laser.Power")).
 		F(Str("emission", "emission", las.Emission, "Laser.Emission"))
 	if ll.Class != "" {
@@ -104,7 +104,7 @@ func laserRecord(ll *safety.LaserLimits) Record {
 	}
 	r.F(Field{Key: "class_text", Label: "class", Kind: String, Text: cl, People: true}).
 		F(Str("class_note", "class basis", ll.ClassNote, "LaserLimits.ClassNote")).
-		F(Num("duration_s", "duration", ll.Duration, budget.FormatSI(ll.Duration, "s"), "LaserLimits.Duration")).
+		F(Sec("duration_s", "duration", ll.Duration, "LaserLimits.Duration")).
 		F(Irr("eye_mpe_irradiance_w_m2", "eye MPE", ll.EyeIrradiance, "LaserLimits.EyeIrradiance")).
 		F(Str("eye_mpe_rule", "eye limit", ll.EyeRule, "LaserLimits.EyeRule")).
 		F(Str("eye_mpe_effect", "effect", ll.Eye.Effect, "LaserLimits.Eye")).
@@ -155,19 +155,19 @@ func exposureRecord(e *safety.Exposure) Record {
 	r := Record{Members: make([]Member, 0, 20)}
 	s := e.Segment
 	r.F(Str("path", "path", e.Path.Path.Name, "Path.Name")).
-		F(Whole("after_element", "after element", s.After, fmt.Sprint(s.After), "Segment.After")).
+		F(Whole("after_element", "after element", s.After, "Segment.After")).
 		F(Len("from_m", "from", s.From, "Segment.From")).
 		F(Len("to_m", "to", s.To, "Segment.To")).
 		F(Len("worst_at_m", "worst at", e.At, "Exposure.At")).
-		F(Num("wavelength_m", "λ", e.Path.Laser.Wavelength, nm(e.Path.Laser.Wavelength), "Laser.Wavelength")).
-		F(Num("duration_s", "duration", e.Laser.Duration, budget.FormatSI(e.Laser.Duration, "s"), "LaserLimits.Duration")).
+		F(Nm("wavelength_m", "λ", e.Path.Laser.Wavelength, "Laser.Wavelength")).
+		F(Sec("duration_s", "duration", e.Laser.Duration, "LaserLimits.Duration")).
 		F(Pow("power_w", "power", e.Power, "Exposure.Power")).
 		F(Irr("aperture_irradiance_w_m2", "eye irr.", e.Irradiance, "Exposure.Irradiance")).
 		F(Irr("mpe_irradiance_w_m2", "eye MPE", e.Laser.EyeIrradiance, "LaserLimits.EyeIrradiance")).
-		F(Num("ratio", "eye ratio", e.Ratio, fmtRatio(e.Ratio), "Exposure.Ratio")).
+		F(Ratio("ratio", "eye ratio", e.Ratio, "Exposure.Ratio")).
 		F(Plain("od_required", "OD", e.OD, "Exposure.OD")).
 		F(Irr("skin_aperture_irradiance_w_m2", "skin irr.", e.SkinIrr, "Exposure.SkinIrr")).
-		F(Num("skin_ratio", "skin ratio", e.SkinRatio, fmtRatio(e.SkinRatio), "Exposure.SkinRatio")).
+		F(Ratio("skin_ratio", "skin ratio", e.SkinRatio, "Exposure.SkinRatio")).
 		F(Flag("open_end", "open end", e.OpenEnd, yesNo(e.OpenEnd), "Exposure.OpenEnd"))
 	nohd := ""
 	switch {
@@ -202,19 +202,19 @@ func reflectionRecord(rf *safety.Reflection) Record {
 	r := Record{Members: make([]Member, 0, 14)}
 	r.F(Str("path", "path", rf.Path.Path.Name, "Path.Name"))
 	if rf.Element != nil {
-		r.F(Whole("element", "element", rf.Element.Index, fmt.Sprint(rf.Element.Index), "Reflection.Element"))
+		r.F(Whole("element", "element", rf.Element.Index, "Reflection.Element"))
 	} else {
 		r.F(Absent("element", "element", false, "Reflection.Element"))
 	}
 	r.F(Str("kind", "kind", string(rf.Kind), "Reflection.Kind")).
-		F(Num("wavelength_m", "λ", rf.Path.Laser.Wavelength, nm(rf.Path.Laser.Wavelength), "Laser.Wavelength")).
+		F(Nm("wavelength_m", "λ", rf.Path.Laser.Wavelength, "Laser.Wavelength")).
 		F(Num("reflectance", "reflectance", rf.Reflectance, fmt.Sprintf("%g", rf.Reflectance), "Reflection.Reflectance")).
 		F(Flag("reflectance_assumed", "assumed", rf.Assumed, assumed(rf.Assumed), "Reflection.Assumed")).
-		F(Whole("surfaces", "surfaces", rf.Surfaces, fmt.Sprint(rf.Surfaces), "Reflection.Surfaces")).
+		F(Whole("surfaces", "surfaces", rf.Surfaces, "Reflection.Surfaces")).
 		F(Pow("power_w", "power", rf.Power, "Reflection.Power"))
 	if rf.Kind != safety.ReflectionDiffuse {
 		r.F(Irr("aperture_irradiance_w_m2", "eye irr.", rf.Irradiance, "Reflection.Irradiance")).
-			F(Num("ratio", "× MPE", rf.Ratio, fmtRatio(rf.Ratio), "Reflection.Ratio")).
+			F(Ratio("ratio", "× MPE", rf.Ratio, "Reflection.Ratio")).
 			F(Plain("od_required", "OD", rf.OD, "Reflection.OD")).
 			F(Absent("hazard_radius_m", "hazard zone radius", false, "Reflection.Radius"))
 	} else {
@@ -243,10 +243,12 @@ func reflectionRecord(rf *safety.Reflection) Record {
 
 func eyewearRecord(n *safety.EyewearNeed) Record {
 	var r Record
-	r.F(Num("wavelength_m", "λ", n.Wavelength, nm(n.Wavelength), "EyewearNeed.Wavelength")).
+	r.F(Nm("wavelength_m", "λ", n.Wavelength, "EyewearNeed.Wavelength")).
 		F(Plain("od_required", "OD", n.OD, "EyewearNeed.OD"))
 	if n.LBValid {
-		r.F(Whole("en207_scale", "EN 207", n.LB, n.EN207Label(), "EyewearNeed.LB"))
+		f := Whole("en207_scale", "EN 207", n.LB, "EyewearNeed.LB")
+		f.Text = n.EN207Label()
+		r.F(f)
 	} else {
 		f := Absent("en207_scale", "EN 207", false, "EyewearNeed.LB")
 		f.Text = n.EN207Label()

@@ -23,7 +23,7 @@ func Limits(l *safety.LimitsLookup) *Doc {
 		src = fmt.Sprintf("a source of angular subtense %s", budget.FormatSI(q.AngularSubtense, "rad"))
 	}
 	r.F(Num("wavelength_m", "wavelength", q.Wavelength, budget.FormatNumber(q.Wavelength*1e9)+" nm", "LimitsQuery.Wavelength")).
-		F(Num("duration_s", "exposure", l.Duration, budget.FormatSI(l.Duration, "s"), "LimitsLookup.Duration")).
+		F(Sec("duration_s", "exposure", l.Duration, "LimitsLookup.Duration")).
 		F(Num("angular_subtense_rad", "angular subtense", q.AngularSubtense, budget.FormatSI(q.AngularSubtense, "rad"), "LimitsQuery.AngularSubtense")).
 		F(Str("standard", "standard", safety.Standard, ""))
 	r.Line("{standard} limits at {wavelength_m}, exposure {duration_s}, " + src)
@@ -45,7 +45,7 @@ func Limits(l *safety.LimitsLookup) *Doc {
 		F(orNone(Pow("class_3r", "Class 3R", l.AEL.Class3R, "AEL.Class3R"))).
 		F(Pow("class_3b", "Class 3B", l.AEL.Class3B, "AEL.Class3B"))
 	r.O("ael_w", ael, false)
-	r.F(Num("ael_time_base_s", "Class 1 time base", l.AEL.TimeBase, budget.FormatSI(l.AEL.TimeBase, "s"), "AEL.TimeBase"))
+	r.F(Sec("ael_time_base_s", "Class 1 time base", l.AEL.TimeBase, "AEL.TimeBase"))
 	factors := &Record{}
 	keys := make([]string, 0, len(l.Eye.Factors))
 	for k := range l.Eye.Factors {
@@ -68,7 +68,7 @@ func Limits(l *safety.LimitsLookup) *Doc {
 	var pulsed *Record
 	if p := l.Pulsed; p != nil {
 		pulsed = &Record{}
-		pulsed.F(Num("pulse_duration_s", "pulse duration", q.PulseDuration, budget.FormatSI(q.PulseDuration, "s"), "LimitsQuery.PulseDuration")).
+		pulsed.F(Sec("pulse_duration_s", "pulse duration", q.PulseDuration, "LimitsQuery.PulseDuration")).
 			F(Num("repetition_rate_hz", "repetition rate", q.RepetitionRate, budget.FormatFrequency(q.RepetitionRate), "LimitsQuery.RepetitionRate")).
 			F(Plain("pulses", "pulses", p.N, "PulsedLimit.N")).
 			F(Plain("c5", "C5", p.C5, "PulsedLimit.C5")).

@@ -12,6 +12,7 @@ package view
 
 import (
 	"math"
+	"strconv"
 	"strings"
 
 	"beamledger/budget"
@@ -70,6 +71,10 @@ const (
 	styleLength
 	styleIrradiance
 	styleNumber
+	styleInt
+	styleSeconds
+	styleNanometres
+	styleRatio
 )
 
 // Display is the field's text for people.
@@ -87,6 +92,17 @@ func (f *Field) Display() string {
 		return budget.FormatLength(f.SI)
 	case styleIrradiance:
 		return budget.FormatIrradiance(f.SI)
+	case styleInt:
+		return strconv.Itoa(int(f.SI))
+	case styleSeconds:
+		return budget.FormatSI(f.SI, "s")
+	case styleNanometres:
+		return budget.FormatNumber(f.SI*1e9) + " nm"
+	case styleRatio:
+		if f.SI < 1e-3 {
+			return "<0.001"
+		}
+		return budget.FormatNumber(f.SI)
 	default:
 		return budget.FormatNumber(f.SI)
 	}
@@ -105,6 +121,18 @@ func Irr(key, label string, si float64, source string) Field {
 }
 func Plain(key, label string, si float64, source string) Field {
 	return lazy(key, label, si, styleNumber, source)
+}
+
+// Sec is a duration, Nm a wavelength in nm, Ratio a ratio to a limit
+// ("<0.001" below a thousandth), all written when read.
+func Sec(key, label string, si float64, source string) Field {
+	return lazy(key, label, si, styleSeconds, source)
+}
+func Nm(key, label string, si float64, source string) Field {
+	return lazy(key, label, si, styleNanometres, source)
+}
+func Ratio(key, label string, si float64, source string) Field {
+	return lazy(key, label, si, styleRatio, source)
 }
 
 func lazy(key, label string, si float64, st style, source string) Field {
@@ -147,9 +175,9 @@ func Num(key, label string, si float64, text, source string) Field {
 	return Field{Key: key, Label: label, Kind: Number, SI: si, Text: text, Source: source}
 }
 
-// Whole is an integer field.
-func Whole(key, label string, n int, text, source string) Field {
-	return Field{Key: key, Label: label, Kind: Int, SI: float64(n), Text: text, Source: source}
+// Whole is an integer field, written when read.
+func Whole(key, label string, n int, source string) Field {
+	return Field{Key: key, Label: label, Kind: Int, SI: float64(n), style: styleInt, Source: source}
 }
 
 // Str is a string field.
