@@ -194,8 +194,6 @@ func sources(l *view.List) Section {
 	return Section{Heading: "Sources", Blocks: []Block{{Table: table(l)}, {Bullets: listLines(l)}}}
 }
 
-func nm(λ float64) string { return budget.FormatNumber(λ*1e9) + " nm" }
-
 func paths(a *safety.Assessment, l *view.List) Section {
 	sec := Section{Heading: "Beam paths"}
 	for i, pb := range a.Budget.Paths {
@@ -280,8 +278,6 @@ func waterfall(pb *budget.PathBudget) *Plot {
 	}
 	return pl
 }
-
-func hz(ω float64) string { return budget.FormatFrequency(ω / (2 * math.Pi)) }
 
 func atomsSection(a *safety.Assessment, l *view.List) Section {
 	sec := Section{Heading: "At the atoms"}

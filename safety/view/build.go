@@ -38,9 +38,7 @@ func Build(a *safety.Assessment) *Doc {
 	}
 
 	hz := hazards(a)
-	for _, m := range hz.json.Members {
-		d.JSON.Members = append(d.JSON.Members, m)
-	}
+	d.JSON.Members = append(d.JSON.Members, hz.json.Members...)
 	balances := balancesList(a)
 	d.JSON.L(balances)
 	d.JSON.F(Whole("assumed_lossless_elements", "elements assumed lossless", a.Budget.AssumedLossless, "Budget.AssumedLossless"))

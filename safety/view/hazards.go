@@ -267,12 +267,3 @@ func assumed(a bool) string {
 	}
 	return ""
 }
-
-func fmtRatio(r float64) string {
-	if r < 1e-3 {
-		return "<0.001"
-	}
-	return budget.FormatNumber(r)
-}
-
-func nm(λ float64) string { return budget.FormatNumber(λ*1e9) + " nm" }
