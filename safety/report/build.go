@@ -36,7 +36,8 @@ func Build(a *safety.Assessment, m Meta) *Document {
 	d.Summary = summary(a)
 	v := view.Build(a)
 	lists := map[string]*view.List{}
-	for _, m := range v.JSON.Members {
+	for i := range v.JSON.Members {
+		m := &v.JSON.Members[i]
 		if m.List != nil {
 			lists[m.List.Key] = m.List
 		}
@@ -95,7 +96,8 @@ func lines(r *view.Record) []string {
 	for _, l := range r.Lines {
 		out = append(out, strings.TrimSpace(r.Expand(l)))
 	}
-	for _, m := range r.Members {
+	for i := range r.Members {
+		m := &r.Members[i]
 		if m.List != nil {
 			for i := range m.List.Records {
 				out = append(out, lines(&m.List.Records[i])...)
@@ -199,7 +201,8 @@ func paths(a *safety.Assessment, l *view.List) Section {
 	for i, pb := range a.Budget.Paths {
 		r := &l.Records[i]
 		var els *view.List
-		for _, m := range r.Members {
+		for i := range r.Members {
+			m := &r.Members[i]
 			if m.List != nil && m.List.Key == "elements" {
 				els = m.List
 			}

@@ -132,13 +132,13 @@ func writeList(ew *errWriter, l *List, indent string) {
 			}
 		}
 		t.add(head...)
+		at := make([]int, len(l.Columns))
 		row := func(r *Record) {
-			var cells []string
-			for _, k := range l.Columns {
-				if f := r.Field(k); f != nil {
-					cells = append(cells, f.Display())
-				} else {
-					cells = append(cells, "")
+			cells := make([]string, len(l.Columns))
+			for c, k := range l.Columns {
+				var f *Field
+				if f, at[c] = r.fieldAt(k, at[c]); f != nil {
+					cells[c] = f.Display()
 				}
 			}
 			t.add(cells...)
@@ -167,7 +167,8 @@ func writePeople(ew *errWriter, r *Record, indent string, inTable bool) {
 		ew.printf("%s%s\n", indent, r.Expand(line))
 	}
 	if !inTable {
-		for _, m := range r.Members {
+		for i := range r.Members {
+			m := &r.Members[i]
 			if m.List != nil && (m.List.Heading != "" || len(m.List.Columns) > 0 || hasLines(m.List)) {
 				writeList(ew, m.List, indent)
 			}

@@ -276,7 +276,8 @@ func (r *Record) Line(s string) *Record {
 // looks in the nested record "goal".
 func (r *Record) Field(key string) *Field {
 	if obj, rest, nested := strings.Cut(key, "."); nested {
-		for _, m := range r.Members {
+		for i := range r.Members {
+			m := &r.Members[i]
 			if m.Object != nil && m.Object.Key == obj && m.Object.Record != nil {
 				return m.Object.Record.Field(rest)
 			}
@@ -289,6 +290,23 @@ func (r *Record) Field(key string) *Field {
 		}
 	}
 	return nil
+}
+
+// fieldAt returns the record's field with the key, looking first at member
+// i (records of one list share their layout, so a column's member is
+// usually at the same place), and the place it was found.
+func (r *Record) fieldAt(key string, i int) (*Field, int) {
+	if i >= 0 && i < len(r.Members) {
+		if m := &r.Members[i]; m.IsField && m.Field.Key == key {
+			return &m.Field, i
+		}
+	}
+	for k := range r.Members {
+		if m := &r.Members[k]; m.IsField && m.Field.Key == key {
+			return &m.Field, k
+		}
+	}
+	return nil, -1
 }
 
 // Walk calls f for every field of the record and of the records inside it.
