@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"strings"
+	"sync"
 
 	"beamledger/budget"
 	"beamledger/budget/atoms"
@@ -27,22 +28,32 @@ func Build(a *safety.Assessment) *Doc {
 	if s.Meta.Revision != "" {
 		title += " — " + s.Meta.Revision
 	}
-	paths := pathsList(a)
+	// The lists are independent: build them on two cores, assembled in a
+	// fixed order, so the output does not depend on timing.
+	var (
+		paths, atomsL, balances, findings *List
+		hz                                hazardView
+		wg                                sync.WaitGroup
+	)
+	wg.Add(1)
+	go func() {
+		defer wg.Done()
+		hz = hazards(a)
+		findings = findingsList(a)
+	}()
+	paths, atomsL, balances = pathsList(a), atomsList(a), balancesList(a)
+	wg.Wait()
 	d.JSON.L(paths)
 	d.Sections = append(d.Sections, Section{Blocks: []Block{{Line: title}, {Line: "setup file: " + s.File}, {List: paths}}})
 
-	atomsL := atomsList(a)
 	d.JSON.L(atomsL)
 	if len(atomsL.Records) > 0 {
 		d.Sections = append(d.Sections, Section{Heading: "At the atoms", Blocks: []Block{{Indent: 1, List: atomsL}}})
 	}
 
-	hz := hazards(a)
 	d.JSON.Members = append(d.JSON.Members, hz.json.Members...)
-	balances := balancesList(a)
 	d.JSON.L(balances)
 	d.JSON.F(Whole("assumed_lossless_elements", "elements assumed lossless", a.Budget.AssumedLossless, "Budget.AssumedLossless"))
-	findings := findingsList(a)
 	d.JSON.L(findings)
 	d.JSON.F(Flag("needs_action", "needs action", a.NeedsAction(), yesNo(a.NeedsAction()), ""))
 
