@@ -63,28 +63,21 @@ var update = flag.Bool("update", false, "rewrite the golden files under testdata
 // The text and JSON of every shipped example against their golden files
 // (go test ./safety/render -update rewrites them; read the diff).
 func TestGolden(t *testing.T) {
-	files, _ := filepath.Glob("../../testdata/examples/*.toml")
-	if len(files) < 4 {
-		t.Fatalf("%d examples", len(files))
-	}
-	for _, f := range files {
-		base := strings.TrimSuffix(filepath.Base(f), ".toml")
-		t.Run(base, func(t *testing.T) {
-			data, err := os.ReadFile(f)
-			if err != nil {
-				t.Fatal(err)
-			}
-			// The name is the one `check` prints when run from the repository.
-			a := safetytest.Evaluate(t, "testdata/examples/"+base+".toml", data)
-			var text, js strings.Builder
-			if err := Text(&text, a); err != nil {
-				t.Fatal(err)
-			}
-			if err := JSON(&js, a); err != nil {
-				t.Fatal(err)
-			}
-			safetytest.Golden(t, filepath.Join("testdata", "golden", base+".txt"), text.String(), *update)
-			safetytest.Golden(t, filepath.Join("testdata", "golden", base+".json"), js.String(), *update)
-		})
-	}
+	safetytest.ForEachExample(t, "../..", func(t *testing.T, base, f string) {
+		data, err := os.ReadFile(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		// The name is the one `check` prints when run from the repository.
+		a := safetytest.Evaluate(t, "testdata/examples/"+base+".toml", data)
+		var text, js strings.Builder
+		if err := Text(&text, a); err != nil {
+			t.Fatal(err)
+		}
+		if err := JSON(&js, a); err != nil {
+			t.Fatal(err)
+		}
+		safetytest.Golden(t, filepath.Join("testdata", "golden", base+".txt"), text.String(), *update)
+		safetytest.Golden(t, filepath.Join("testdata", "golden", base+".json"), js.String(), *update)
+	})
 }

@@ -17,21 +17,13 @@ var update = flag.Bool("update", false, "rewrite the golden files")
 // The model of every shipped example against its golden text (go test
 // ./safety/report -update rewrites them; read the diff).
 func TestModelGolden(t *testing.T) {
-	files, _ := filepath.Glob("../../testdata/examples/*.toml")
-	if len(files) < 4 {
-		t.Fatalf("%d examples", len(files))
-	}
-	for _, f := range files {
-		base := strings.TrimSuffix(filepath.Base(f), ".toml")
-		t.Run(base, func(t *testing.T) {
-			doc := buildFor(t, f)
-			var b bytes.Buffer
-			if err := doc.WriteText(&b); err != nil {
-				t.Fatal(err)
-			}
-			safetytest.Golden(t, filepath.Join("testdata", "golden", base+".txt"), b.String(), *update)
-		})
-	}
+	safetytest.ForEachExample(t, "../..", func(t *testing.T, base, f string) {
+		var b bytes.Buffer
+		if err := buildFor(t, f).WriteText(&b); err != nil {
+			t.Fatal(err)
+		}
+		safetytest.Golden(t, filepath.Join("testdata", "golden", base+".txt"), b.String(), *update)
+	})
 }
 
 func buildFor(t *testing.T, f string) *Document {

@@ -89,3 +89,18 @@ func Diff(want, got string) string {
 	line("+ ", gl)
 	return b.String()
 }
+
+// ForEachExample runs f as a subtest, named after the example, for every
+// shipped example under root/testdata/examples; fewer than four examples
+// fail the test.
+func ForEachExample(t *testing.T, root string, f func(t *testing.T, name, path string)) {
+	t.Helper()
+	files, _ := filepath.Glob(filepath.Join(root, "testdata", "examples", "*.toml"))
+	if len(files) < 4 {
+		t.Fatalf("%d shipped examples found under %s, want at least 4", len(files), root)
+	}
+	for _, p := range files {
+		name := strings.TrimSuffix(filepath.Base(p), ".toml")
+		t.Run(name, func(t *testing.T) { f(t, name, p) })
+	}
+}
