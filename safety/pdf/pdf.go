@@ -8,6 +8,7 @@ package pdf
 import (
 	"fmt"
 	"io"
+	"strings"
 	"time"
 
 	"codeberg.org/go-pdf/fpdf"
@@ -183,30 +184,14 @@ func (w *writer) section(n int, s report.Section) {
 
 func (w *writer) table(t *report.Table) {
 	f := w.f
-	total := 0.0
-	for _, x := range t.Widths {
-		total += x
-	}
-	widths := make([]float64, len(t.Header))
-	for i := range widths {
-		rel := 1.0
-		if i < len(t.Widths) {
-			rel = t.Widths[i]
-		} else {
-			total++
-		}
-		widths[i] = rel
-	}
-	for i := range widths {
-		widths[i] *= w.textW / total
-	}
 	const size, cellLine, pad = 7.5, 3.4, 0.8
+	widths := w.columnWidths(t, size, pad)
 	row := func(cells []string, bold bool) {
 		f.SetFont(font, map[bool]string{true: "B", false: ""}[bold], size)
 		lines := make([][]string, len(cells))
 		maxLines := 1
 		for i, c := range cells {
-			lines[i] = f.SplitText(c, widths[i]-2*pad)
+			lines[i] = wrap(f, c, widths[i]-2*pad)
 			if len(lines[i]) == 0 {
 				lines[i] = []string{""}
 			}
@@ -242,6 +227,88 @@ func (w *writer) table(t *report.Table) {
 	}
 	f.SetDrawColor(0, 0, 0)
 	f.Ln(2)
+}
+
+// wrap breaks text into lines no wider than width at the current font,
+// at spaces only: a word (a number with its unit) is never split, and one
+// wider than the column stands alone on its line.
+func wrap(f *fpdf.Fpdf, text string, width float64) []string {
+	var lines []string
+	line := ""
+	for _, word := range strings.Fields(text) {
+		if line == "" {
+			line = word
+			continue
+		}
+		if f.GetStringWidth(line+" "+word) <= width {
+			line += " " + word
+		} else {
+			lines = append(lines, line)
+			line = word
+		}
+	}
+	if line != "" || len(lines) == 0 {
+		lines = append(lines, line)
+	}
+	return lines
+}
+
+// columnWidths gives each column the width of its widest cell, or of its
+// header's longest word, at the table's font size (free text up to 60 mm),
+// then fits the table to the text width: spare room is shared out in
+// proportion; when the table is too wide, the columns of free text give way
+// first (their text wraps), and only then every column in proportion.
+func (w *writer) columnWidths(t *report.Table, size, pad float64) []float64 {
+	f := w.f
+	n := len(t.Header)
+	nat := make([]float64, n)
+	measure := func(s string, bold bool) float64 {
+		f.SetFont(font, map[bool]string{true: "B", false: ""}[bold], size)
+		return f.GetStringWidth(s) + 2*pad + 1.5
+	}
+	for i, h := range t.Header {
+		for _, word := range strings.Fields(h) {
+			nat[i] = max(nat[i], measure(word, true))
+		}
+	}
+	for _, r := range t.Rows {
+		for i, c := range r {
+			if i < n {
+				nat[i] = max(nat[i], min(measure(c, false), 60))
+			}
+		}
+	}
+	total := 0.0
+	for _, x := range nat {
+		total += x
+	}
+	if total <= w.textW {
+		for i := range nat {
+			nat[i] *= w.textW / total
+		}
+		return nat
+	}
+	// Too wide: the columns of free text (flush left) give way first, down
+	// to 18 mm each, their text wrapping; numbers keep their width.
+	const minText = 18.0
+	give := 0.0
+	for i, x := range nat {
+		if !(i < len(t.Right) && t.Right[i]) && x > minText {
+			give += x - minText
+		}
+	}
+	if excess := total - w.textW; give >= excess {
+		for i, x := range nat {
+			if !(i < len(t.Right) && t.Right[i]) && x > minText {
+				nat[i] = x - excess*(x-minText)/give
+			}
+		}
+		return nat
+	}
+	for i := range nat {
+		nat[i] *= w.textW / total
+	}
+	return nat
 }
 
 func (w *writer) signOff(roles []string) {

@@ -7,7 +7,6 @@ import (
 	"math"
 	"sort"
 	"strings"
-	"unicode/utf8"
 
 	"beamledger/budget"
 	"beamledger/limits"
@@ -51,8 +50,8 @@ func Build(a *safety.Assessment, m Meta) *Document {
 }
 
 // table draws a view's list as a table: its columns' labels as the header,
-// the fields' texts as cells (numbers flush right), with the lead row first;
-// widths follow the longest text of each column.
+// the fields' texts as cells (numbers flush right), with the lead row first.
+// The PDF sizes the columns from the texts themselves.
 func table(l *view.List) *Table {
 	t := &Table{}
 	var recs []*view.Record
@@ -63,17 +62,15 @@ func table(l *view.List) *Table {
 		recs = append(recs, &l.Records[i])
 	}
 	for _, k := range l.Columns {
-		label, right, width := k, false, 3
+		label, right := k, false
 		for _, r := range recs {
 			if f := r.Field(k); f != nil {
 				label = f.Label
 				right = right || f.Kind == view.Number || f.Kind == view.Int
-				width = max(width, utf8.RuneCountInString(f.Display()))
 			}
 		}
 		t.Header = append(t.Header, label)
 		t.Right = append(t.Right, right)
-		t.Widths = append(t.Widths, float64(min(max(width, utf8.RuneCountInString(label)), 40)))
 	}
 	for _, r := range recs {
 		var row []string

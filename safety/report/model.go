@@ -34,8 +34,6 @@ type Block struct {
 type Table struct {
 	Header []string
 	Rows   [][]string
-	// Widths are relative column widths (any scale).
-	Widths []float64
 	// Right marks columns whose cells align right (numbers).
 	Right []bool
 }
