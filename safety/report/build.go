@@ -65,7 +65,7 @@ func table(l *view.List) *Table {
 		label, right := k, false
 		for _, r := range recs {
 			if f := r.Field(k); f != nil {
-				label = f.Label
+				label = f.Label()
 				right = right || f.Kind == view.Number || f.Kind == view.Int
 			}
 		}

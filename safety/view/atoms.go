@@ -17,11 +17,10 @@ func atomsList(a *safety.Assessment) *List {
 	return l
 }
 
-func num(key, label string, v float64, source string) Field { return Plain(key, label, v, source) }
+func num(d *Desc, v float64) Field { return Plain(d, v) }
 
-func hzField(key, label string, ω float64, source string) Field {
-	return Num(key, label, ω/(2*math.Pi), hz(ω), source)
-}
+// hzField is an angular frequency ω shown as ω/2π in Hz.
+func hzField(d *Desc, ω float64) Field { return Num(d, ω/(2*math.Pi), hz(ω)) }
 
 func atomsRecord(a *budget.AtomsResult) Record {
 	e := a.Row.Element
@@ -29,47 +28,45 @@ func atomsRecord(a *budget.AtomsResult) Record {
 	las := a.Path.Laser
 	wx, wy := a.Row.BeamIn.Radii()
 	r := Record{Members: make([]Member, 0, 40)}
-	r.F(Str("path", "path", a.Path.Path.Name, "Path.Name")).F(Whole("element", "element", e.Index, "Element.Index")).
-		F(Str("cloud", "cloud", a.Cloud.Name, "Cloud.Name")).F(Str("transition", "transition", tr.Name, "Transition.Name")).
-		F(Len("at_m", "at", e.At, "Element.At")).
-		F(Pow("power_w", "power", a.Power, "AtomsResult.Power")).
-		F(Len("radius_x_m", "Wx", wx, "Row.BeamIn")).F(Len("radius_y_m", "Wy", wy, "Row.BeamIn")).
-		F(Irr("peak_irradiance_w_m2", "peak irradiance", a.PeakIrradiance, "AtomsResult.PeakIrradiance")).
-		F(Num("irradiance_at_rms_x_relative", "I at ±1 rms (x)", a.EdgeRelative[0], fmt.Sprintf("%.1f %%", 100*a.EdgeRelative[0]), "AtomsResult.EdgeRelative")).
-		F(Num("irradiance_at_rms_y_relative", "I at ±1 rms (y)", a.EdgeRelative[1], fmt.Sprintf("%.1f %%", 100*a.EdgeRelative[1]), "AtomsResult.EdgeRelative"))
-	r.F(NumRows("radius_at_cloud_ends_m", "W at ±1 rms along the beam", [][]float64{a.EndRadii[0][:], a.EndRadii[1][:]},
-		fmt.Sprintf("%s × %s and %s × %s", budget.FormatLength(a.EndRadii[0][0]), budget.FormatLength(a.EndRadii[0][1]), budget.FormatLength(a.EndRadii[1][0]), budget.FormatLength(a.EndRadii[1][1])),
-		"AtomsResult.EndRadii"))
-	r.F(Field{Key: "focus_x", Kind: Number, SI: a.FocusOffset[0], Text: budget.FormatLength(a.FocusOffset[0]), People: true, Source: "AtomsResult.FocusOffset"}).
-		F(Field{Key: "focus_y", Kind: Number, SI: a.FocusOffset[1], Text: budget.FormatLength(a.FocusOffset[1]), People: true, Source: "AtomsResult.FocusOffset"})
-	r.F(hzField("detuning_hz", "detuning Δ/2π", a.Detuning, "AtomsResult.Detuning")).
-		F(Str("detuning_source", "detuning from", a.DetuningSource, "AtomsResult.DetuningSource")).
-		F(Irr("saturation_intensity_w_m2", "I_sat", a.Isat, "AtomsResult.Isat")).
-		F(Str("saturation_intensity_kind", "I_sat kind", a.IsatNote, "AtomsResult.IsatNote")).
-		F(num("saturation", "s = I/I_sat", a.Saturation, "AtomsResult.Saturation")).
-		F(hzField("rabi_frequency_hz", "Ω/2π", a.Rabi, "AtomsResult.Rabi")).
-		F(num("scattering_rate_per_s", "scattering rate", a.ScatteringRate, "AtomsResult.ScatteringRate")).
-		F(num("cross_section_m2", "σ0", a.CrossSection, "AtomsResult.CrossSection")).
-		F(num("optical_depth", "b0", a.OpticalDepth, "AtomsResult.OpticalDepth")).
-		F(Flag("far_detuned", "far detuned", a.FarDetuned, yesNo(a.FarDetuned), "AtomsResult.FarDetuned"))
+	r.F(Str(dPath, a.Path.Path.Name)).F(Whole(dElement2, e.Index)).
+		F(Str(dCloud, a.Cloud.Name)).F(Str(dTransition, tr.Name)).
+		F(Len(dAtM, e.At)).
+		F(Pow(dPowerW4, a.Power)).
+		F(Len(dRadiusXM, wx)).F(Len(dRadiusYM, wy)).
+		F(Irr(dPeakIrradianceWM2, a.PeakIrradiance)).
+		F(Num(dIrradianceAtRmsXRelative, a.EdgeRelative[0], fmt.Sprintf("%.1f %%", 100*a.EdgeRelative[0]))).
+		F(Num(dIrradianceAtRmsYRelative, a.EdgeRelative[1], fmt.Sprintf("%.1f %%", 100*a.EdgeRelative[1])))
+	r.F(NumRows(dRadiusAtCloudEndsM, [][]float64{a.EndRadii[0][:], a.EndRadii[1][:]}, fmt.Sprintf("%s × %s and %s × %s", budget.FormatLength(a.EndRadii[0][0]), budget.FormatLength(a.EndRadii[0][1]), budget.FormatLength(a.EndRadii[1][0]), budget.FormatLength(a.EndRadii[1][1]))))
+	r.F(Field{d: dFocusX, Kind: Number, SI: a.FocusOffset[0], Text: budget.FormatLength(a.FocusOffset[0]), People: true}).
+		F(Field{d: dFocusY, Kind: Number, SI: a.FocusOffset[1], Text: budget.FormatLength(a.FocusOffset[1]), People: true})
+	r.F(hzField(dDetuningHz, a.Detuning)).
+		F(Str(dDetuningSource, a.DetuningSource)).
+		F(Irr(dSaturationIntensityWM2, a.Isat)).
+		F(Str(dSaturationIntensityKind, a.IsatNote)).
+		F(num(dSaturation, a.Saturation)).
+		F(hzField(dRabiFrequencyHz, a.Rabi)).
+		F(num(dScatteringRatePerS, a.ScatteringRate)).
+		F(num(dCrossSectionM2, a.CrossSection)).
+		F(num(dOpticalDepth, a.OpticalDepth)).
+		F(Flag(dFarDetuned, a.FarDetuned, yesNo(a.FarDetuned)))
 	if a.NearLine != "" {
-		r.F(Str("near_line", "nearby line", a.NearLine, "AtomsResult.NearLine")).F(hzField("near_line_detuning_hz", "detuning from it", a.NearLineDetuning, "AtomsResult.NearLineDetuning"))
+		r.F(Str(dNearLine, a.NearLine)).F(hzField(dNearLineDetuningHz, a.NearLineDetuning))
 	}
 	// the dipole trap
 	d := a.Dipole
 	if d != nil {
 		depth := math.Max(0, -d.Depth/kB) // a repulsive beam makes no trap
-		r.F(Num("dipole_potential_k", "U/k_B", d.Depth/kB, budget.FormatSI(d.Depth/kB, "K"), "DipoleResult.Depth")).
-			F(Num("dipole_potential_hz", "U/h", d.Depth/hPlanck, budget.FormatFrequency(d.Depth/hPlanck), "DipoleResult.Depth")).
-			F(Num("trap_depth_k", "trap depth", depth, budget.FormatSI(depth, "K"), "DipoleResult.Depth")).
-			F(hzField("trap_frequency_radial_hz", "radial trap frequency", math.Sqrt(d.TrapX*d.TrapY), "DipoleResult.TrapX")).
-			F(hzField("trap_frequency_x_hz", "trap frequency x", d.TrapX, "DipoleResult.TrapX")).
-			F(hzField("trap_frequency_y_hz", "trap frequency y", d.TrapY, "DipoleResult.TrapY")).
-			F(hzField("trap_frequency_axial_hz", "axial trap frequency", d.TrapAxial, "DipoleResult.TrapAxial")).
-			F(Field{Key: "rwa_ratio", Kind: Number, SI: d.RWARatio, Text: fmt.Sprintf("%.3f", d.RWARatio), People: true, Source: "DipoleResult.RWARatio"})
+		r.F(Num(dDipolePotentialK, d.Depth/kB, budget.FormatSI(d.Depth/kB, "K"))).
+			F(Num(dDipolePotentialHz, d.Depth/hPlanck, budget.FormatFrequency(d.Depth/hPlanck))).
+			F(Num(dTrapDepthK, depth, budget.FormatSI(depth, "K"))).
+			F(hzField(dTrapFrequencyRadialHz, math.Sqrt(d.TrapX*d.TrapY))).
+			F(hzField(dTrapFrequencyXHz, d.TrapX)).
+			F(hzField(dTrapFrequencyYHz, d.TrapY)).
+			F(hzField(dTrapFrequencyAxialHz, d.TrapAxial)).
+			F(Field{d: dRwaRatio, Kind: Number, SI: d.RWARatio, Text: fmt.Sprintf("%.3f", d.RWARatio), People: true})
 	} else {
 		for _, k := range []string{"dipole_potential_k", "dipole_potential_hz", "trap_depth_k", "trap_frequency_radial_hz", "trap_frequency_x_hz", "trap_frequency_y_hz", "trap_frequency_axial_hz"} {
-			r.F(Absent(k, k, false, ""))
+			r.F(Absent(&Desc{k, k, ""}, false))
 		}
 	}
 	var goal *Record
@@ -118,36 +115,36 @@ func atomsRecord(a *budget.AtomsResult) Record {
 
 func goalRecord(a *budget.AtomsResult, g *budget.GoalResult) *Record {
 	r := &Record{}
-	r.F(Str("kind", "goal", g.Kind, "GoalResult.Kind"))
+	r.F(Str(dKind2, g.Kind))
 	switch g.Kind {
 	case budget.GoalRabi, budget.GoalCollective:
-		r.F(Num("target_si", "target", g.Target, hz(g.Target), "GoalResult.Target")) // Ω in rad/s
+		r.F(Num(dTargetSi, g.Target, hz(g.Target))) // Ω in rad/s
 	case budget.GoalTrapDepth:
-		r.F(Num("target_si", "target", g.Target, budget.FormatSI(g.Target, "K"), "GoalResult.Target"))
+		r.F(Num(dTargetSi, g.Target, budget.FormatSI(g.Target, "K")))
 	default:
-		r.F(num("target_si", "target", g.Target, "GoalResult.Target"))
+		r.F(num(dTargetSi, g.Target))
 	}
 	if g.Impossible == "" {
-		r.F(Irr("irradiance_needed_w_m2", "needed at the cloud centre", g.Intensity, "GoalResult.Intensity")).
-			F(Pow("power_at_atoms_w", "needed at the atoms", g.PowerAtAtoms, "GoalResult.PowerAtAtoms")).
-			F(Pow("source_power_w", "needed at the laser", g.SourcePower, "GoalResult.SourcePower"))
+		r.F(Irr(dIrradianceNeededWM2, g.Intensity)).
+			F(Pow(dPowerAtAtomsW, g.PowerAtAtoms)).
+			F(Pow(dSourcePowerW, g.SourcePower))
 	} else {
-		r.F(Absent("irradiance_needed_w_m2", "needed at the cloud centre", false, "GoalResult.Intensity")).
-			F(Absent("power_at_atoms_w", "needed at the atoms", false, "GoalResult.PowerAtAtoms")).
-			F(Absent("source_power_w", "needed at the laser", false, "GoalResult.SourcePower"))
+		r.F(Absent(dIrradianceNeededWM2, false)).
+			F(Absent(dPowerAtAtomsW, false)).
+			F(Absent(dSourcePowerW, false))
 	}
-	r.F(Pow("available_source_power_w", "operating power", g.Available, "GoalResult.Available"))
+	r.F(Pow(dAvailableSourcePowerW, g.Available))
 	if g.Impossible == "" {
-		r.F(Num("margin_db", "margin", g.MarginDB, fmt.Sprintf("%+.1f dB", g.MarginDB), "GoalResult.MarginDB"))
+		r.F(Num(dMarginDb, g.MarginDB, fmt.Sprintf("%+.1f dB", g.MarginDB)))
 	} else {
-		r.F(Absent("margin_db", "margin", false, "GoalResult.MarginDB"))
+		r.F(Absent(dMarginDb, false))
 	}
 	verdict := "met"
 	if !g.Met {
 		verdict = "NOT met"
 	}
-	r.F(Flag("met", "met", g.Met, verdict, "GoalResult.Met"))
-	r.F(Field{Key: "impossible", Label: "cannot be met", Kind: String, Text: g.Impossible, OmitEmpty: true, Source: "GoalResult.Impossible"})
+	r.F(Flag(dMet, g.Met, verdict))
+	r.F(Field{d: dImpossible, Kind: String, Text: g.Impossible, OmitEmpty: true})
 	switch g.Kind {
 	case budget.GoalSaturation:
 		r.Line("  goal: saturation s = {target_si}")
@@ -157,14 +154,14 @@ func goalRecord(a *budget.AtomsResult, g *budget.GoalResult) *Record {
 		r.Line("  goal: trap depth U/k_B = {target_si}")
 	case budget.GoalCollective:
 		c := g.Collective
-		r.F(num("goal_factor", "goal factor", g.Factor, "GoalResult.Factor")).
-			F(hzField("threshold_rabi_frequency_hz", "threshold Ω_c/2π", c.OmegaC, "Collective.OmegaC")).
-			F(hzField("threshold_rabi_frequency_low_hz", "lower threshold Ω_c/2π", c.OmegaCLow, "Collective.OmegaCLow")).
-			F(num("threshold_saturation", "s_c", c.SatC, "Collective.SatC")).
-			F(num("photon_budget_saturation", "photon-budget scale", c.PhotonBudgetSat, "Collective.PhotonBudgetSat")).
-			F(Flag("bistable", "bistable", c.Bistable, yesNo(c.Bistable), "Collective.Bistable")).
-			F(Flag("collective_rate_given", "collective rate stated", c.FromRate, yesNo(c.FromRate), "Collective.FromRate")).
-			F(Field{Key: "d", Kind: Number, SI: c.D, Text: fmtG(c.D), People: true, Source: "Collective.D"})
+		r.F(num(dGoalFactor, g.Factor)).
+			F(hzField(dThresholdRabiFrequencyHz, c.OmegaC)).
+			F(hzField(dThresholdRabiFrequencyLowHz, c.OmegaCLow)).
+			F(num(dThresholdSaturation, c.SatC)).
+			F(num(dPhotonBudgetSaturation, c.PhotonBudgetSat)).
+			F(Flag(dBistable, c.Bistable, yesNo(c.Bistable))).
+			F(Flag(dCollectiveRateGiven, c.FromRate, yesNo(c.FromRate))).
+			F(Field{d: dD, Kind: Number, SI: c.D, Text: fmtG(c.D), People: true})
 		r.Line("  goal: collective drive at {goal_factor} × the threshold of cooperative resonance fluorescence")
 		if c.FromRate {
 			r.Line(fmt.Sprintf("    threshold Ω_c/2π = {threshold_rabi_frequency_hz} from the stated collective rate N Γ_c/2π = %s (Ω_c = N Γ_c / 2)", budget.FormatFrequency(a.Cloud.CollectiveRate)))

@@ -17,10 +17,10 @@ func Build(a *safety.Assessment) *Doc {
 	s := a.Setup
 	d := &Doc{JSON: &Record{}}
 	setup := &Record{}
-	setup.F(Str("file", "setup file", s.File, "")).F(Str("title", "title", s.Meta.Title, "")).F(Str("site", "site", s.Meta.Site, "")).
-		F(Str("prepared_by", "prepared by", s.Meta.PreparedBy, "")).F(Str("revision", "revision", s.Meta.Revision, ""))
+	setup.F(Str(dFile, s.File)).F(Str(dTitle, s.Meta.Title)).F(Str(dSite, s.Meta.Site)).
+		F(Str(dPreparedBy, s.Meta.PreparedBy)).F(Str(dRevision, s.Meta.Revision))
 	d.JSON.O("setup", setup, false)
-	d.JSON.F(Str("power_basis", "powers", "operating_power", ""))
+	d.JSON.F(Str(dPowerBasis, "operating_power"))
 	title := s.Meta.Title
 	if title == "" {
 		title = "(untitled setup)"
@@ -53,9 +53,9 @@ func Build(a *safety.Assessment) *Doc {
 
 	d.JSON.Members = append(d.JSON.Members, hz.json.Members...)
 	d.JSON.L(balances)
-	d.JSON.F(Whole("assumed_lossless_elements", "elements assumed lossless", a.Budget.AssumedLossless, "Budget.AssumedLossless"))
+	d.JSON.F(Whole(dAssumedLosslessElements, a.Budget.AssumedLossless))
 	d.JSON.L(findings)
-	d.JSON.F(Flag("needs_action", "needs action", a.NeedsAction(), yesNo(a.NeedsAction()), ""))
+	d.JSON.F(Flag(dNeedsAction, a.NeedsAction(), yesNo(a.NeedsAction())))
 
 	d.Sections = append(d.Sections, Section{Heading: "Power balance per laser (fractions of the source; they sum to 100 %)", Blocks: []Block{{Indent: 1, List: balances}}})
 	d.Sections = append(d.Sections, hz.section)
@@ -89,39 +89,39 @@ func pathRecord(pb *budget.PathBudget) Record {
 	}
 	sx, sy := pb.Start.Radii()
 	startP := pb.StartFraction * op
-	r.F(Str("name", "path", p.Name, "Path.Name")).F(Str("from", "from", p.From, "Path.From")).F(Str("laser", "laser", las.Name, "Laser.Name")).
-		F(Num("wavelength_m", "wavelength", las.Wavelength, fmt.Sprintf("%.2f nm", las.Wavelength*1e9), "Laser.Wavelength")).
-		F(Pow("operating_power_w", "operating power", op, "Laser.OperatingPower")).
-		F(Pow("max_power_w", "maximum power", las.Power, "Laser.Power")).
-		F(Pow("start_power_w", "power at the start", startP, "PathBudget.StartFraction")).
-		F(Len("start_radius_x_m", "Wx at the start", sx, "PathBudget.Start")).
-		F(Len("start_radius_y_m", "Wy at the start", sy, "PathBudget.Start"))
-	r.F(Field{Key: "source", Label: "source", Kind: String, Text: src, People: true})
+	r.F(Str(dName2, p.Name)).F(Str(dFrom, p.From)).F(Str(dLaser, las.Name)).
+		F(Num(dWavelengthM4, las.Wavelength, fmt.Sprintf("%.2f nm", las.Wavelength*1e9))).
+		F(Pow(dOperatingPowerW, op)).
+		F(Pow(dMaxPowerW, las.Power)).
+		F(Pow(dStartPowerW, startP)).
+		F(Len(dStartRadiusXM, sx)).
+		F(Len(dStartRadiusYM, sy))
+	r.F(Field{d: dSource, Kind: String, Text: src, People: true})
 	r.Line(fmt.Sprintf("Path %q from {source}, {wavelength_m}", p.Name))
 	r.Line("  powers at the operating power {operating_power_w} (maximum {max_power_w}); W = 1/e² radius arriving at the element; peak irradiance 2P/(πWxWy) on arrival")
 	els := &List{Key: "elements", Columns: []string{"index", "element", "at_m", "radius_x_m", "radius_y_m", "power_in_w", "power_out_w", "peak_irradiance_w_m2", "cumulative_loss_db", "losses_here"}, Left: 2, Indent: 1}
 	lead := &Record{}
-	lead.F(Whole("index", "#", 0, "")).F(Field{Key: "element", Label: "element", Kind: String, Text: "start", People: true}).
-		F(Field{Key: "at_m", Label: "at", Kind: Number, SI: 0, Text: "0 mm"}).
-		F(Field{Key: "radius_x_m", Label: "Wx", Kind: Number, SI: sx, Text: budget.FormatLength(sx)}).
-		F(Field{Key: "radius_y_m", Label: "Wy", Kind: Number, SI: sy, Text: budget.FormatLength(sy)}).
-		F(Field{Key: "power_in_w", Label: "power in", Kind: Number, SI: math.NaN(), Text: ""}).
-		F(Field{Key: "power_out_w", Label: "power out", Kind: Number, SI: startP, Text: budget.FormatPower(startP)}).
-		F(Field{Key: "peak_irradiance_w_m2", Label: "peak irr.", Kind: Number, SI: pb.Start.PeakIrradiance(startP), Text: budget.FormatIrradiance(pb.Start.PeakIrradiance(startP))}).
-		F(Field{Key: "cumulative_loss_db", Label: "loss dB", Kind: Number, Text: fmtDB(pb.StartFraction)}).
-		F(Field{Key: "losses_here", Label: "losses here", Kind: String, Text: ""})
+	lead.F(Whole(dIndex, 0)).F(Field{d: dElement4, Kind: String, Text: "start", People: true}).
+		F(Field{d: dAtM3, Kind: Number, SI: 0, Text: "0 mm"}).
+		F(Field{d: dRadiusXM2, Kind: Number, SI: sx, Text: budget.FormatLength(sx)}).
+		F(Field{d: dRadiusYM2, Kind: Number, SI: sy, Text: budget.FormatLength(sy)}).
+		F(Field{d: dPowerInW2, Kind: Number, SI: math.NaN(), Text: ""}).
+		F(Field{d: dPowerOutW2, Kind: Number, SI: startP, Text: budget.FormatPower(startP)}).
+		F(Field{d: dPeakIrradianceWM23, Kind: Number, SI: pb.Start.PeakIrradiance(startP), Text: budget.FormatIrradiance(pb.Start.PeakIrradiance(startP))}).
+		F(Field{d: dCumulativeLossDb2, Kind: Number, Text: fmtDB(pb.StartFraction)}).
+		F(Field{d: dLossesHere, Kind: String, Text: ""})
 	els.Lead = lead
 	for i := range pb.Rows {
 		els.Records = append(els.Records, elementRecord(&pb.Rows[i], op))
 	}
 	r.L(els)
-	r.F(Flag("open_end", "open end", pb.OpenEnd, yesNo(pb.OpenEnd), "PathBudget.OpenEnd"))
+	r.F(Flag(dOpenEnd2, pb.OpenEnd, yesNo(pb.OpenEnd)))
 	endP := pb.EndFraction * op
-	r.F(Pow("end_power_w", "power leaving the last element", endP, "PathBudget.EndFraction"))
+	r.F(Pow(dEndPowerW, endP))
 	if pb.OpenEnd {
 		ex, ey := pb.End.Radii()
-		r.F(Field{Key: "end_radius_x_m", Label: "Wx at the end", Kind: Number, SI: ex, Text: budget.FormatLength(ex), People: true, Source: "PathBudget.End"})
-		r.F(Field{Key: "end_radius_y_m", Label: "Wy at the end", Kind: Number, SI: ey, Text: budget.FormatLength(ey), People: true, Source: "PathBudget.End"})
+		r.F(Field{d: dEndRadiusXM, Kind: Number, SI: ex, Text: budget.FormatLength(ex), People: true})
+		r.F(Field{d: dEndRadiusYM, Kind: Number, SI: ey, Text: budget.FormatLength(ey), People: true})
 		r.After = append(r.After, "  open end: {end_power_w} leaves the path (Wx {end_radius_x_m}, Wy {end_radius_y_m} after the last element)")
 	}
 	return r
@@ -141,27 +141,27 @@ func elementRecord(row *budget.Row, op float64) Record {
 	}
 	pin, pout := row.FractionIn*op, row.FractionOut*op
 	peak := row.BeamIn.PeakIrradiance(pin)
-	r.F(Whole("index", "#", e.Index, "Element.Index")).F(Str("name", "name", e.Name, "Element.Name")).
-		F(Str("type", "type", string(e.Type), "Element.Type")).F(Field{Key: "element", Label: "element", Kind: String, Text: label, People: true}).
-		F(Len("at_m", "at", e.At, "Element.At")).
-		F(Len("radius_x_m", "Wx", wx, "Row.BeamIn")).F(Len("radius_y_m", "Wy", wy, "Row.BeamIn")).
-		F(Plain("curvature_x_per_m", "1/R x (1/m)", row.BeamIn.X.Curvature(), "Row.BeamIn")).
-		F(Plain("curvature_y_per_m", "1/R y (1/m)", row.BeamIn.Y.Curvature(), "Row.BeamIn")).
-		F(Pow("power_in_w", "power in", pin, "Row.FractionIn")).
-		F(Pow("power_out_w", "power out", pout, "Row.FractionOut")).
-		F(Irr("peak_irradiance_w_m2", "peak irr.", peak, "Row.BeamIn"))
+	r.F(Whole(dIndex2, e.Index)).F(Str(dName3, e.Name)).
+		F(Str(dType, string(e.Type))).F(Field{d: dElement4, Kind: String, Text: label, People: true}).
+		F(Len(dAtM, e.At)).
+		F(Len(dRadiusXM, wx)).F(Len(dRadiusYM, wy)).
+		F(Plain(dCurvatureXPerM, row.BeamIn.X.Curvature())).
+		F(Plain(dCurvatureYPerM, row.BeamIn.Y.Curvature())).
+		F(Pow(dPowerInW, pin)).
+		F(Pow(dPowerOutW, pout)).
+		F(Irr(dPeakIrradianceWM22, peak))
 	if row.FractionOut > 0 {
-		r.F(Num("cumulative_loss_db", "loss dB", -budget.Decibels(row.FractionOut), fmtDB(row.FractionOut), "Row.FractionOut"))
+		r.F(Num(dCumulativeLossDb, -budget.Decibels(row.FractionOut), fmtDB(row.FractionOut)))
 	} else {
-		r.F(Field{Key: "cumulative_loss_db", Label: "loss dB", Kind: Number, SI: math.NaN(), Text: "—", Source: "Row.FractionOut"})
+		r.F(Field{d: dCumulativeLossDb, Kind: Number, SI: math.NaN(), Text: "—"})
 	}
-	r.F(Plain("clip_transmission", "passing the aperture", row.ClipFraction, "Row.ClipFraction")).
-		F(Flag("assumed_lossless", "assumed lossless", row.AssumedLossless, yesNo(row.AssumedLossless), "Row.AssumedLossless"))
+	r.F(Plain(dClipTransmission, row.ClipFraction)).
+		F(Flag(dAssumedLossless, row.AssumedLossless, yesNo(row.AssumedLossless)))
 	losses := &List{Key: "losses", Records: make([]Record, 0, len(row.Losses))}
 	var here []string
 	for _, l := range row.Losses {
 		lr := Record{Members: make([]Member, 0, 2)}
-		lr.F(Str("kind", "loss", l.Kind, "Loss.Kind")).F(Pow("power_w", "power", l.Fraction*op, "Loss.Fraction"))
+		lr.F(Str(dKind3, l.Kind)).F(Pow(dPowerW5, l.Fraction*op))
 		losses.Records = append(losses.Records, lr)
 		if l.Fraction >= negligibleLoss {
 			here = append(here, fmt.Sprintf("%s %s", l.Kind, budget.FormatPower(l.Fraction*op)))
@@ -171,7 +171,7 @@ func elementRecord(row *budget.Row, op float64) Record {
 		here = append(here, "lossless (assumed)")
 	}
 	r.L(losses)
-	r.F(Field{Key: "losses_here", Label: "losses here", Kind: String, Text: strings.Join(here, ", "), People: true})
+	r.F(Field{d: dLossesHere, Kind: String, Text: strings.Join(here, ", "), People: true})
 	var fiber *Record
 	if fc := row.Fiber; fc != nil {
 		fiber = fiberRecord(row, fc)
@@ -200,16 +200,16 @@ func prefixKeys(lines []string, prefix string) []string {
 func fiberRecord(row *budget.Row, fc *budget.FiberCoupling) *Record {
 	e := row.Element
 	f := &Record{}
-	f.F(Num("mode_overlap", "mode overlap", fc.Overlap, fmt.Sprintf("%.1f %%", 100*fc.Overlap), "FiberCoupling.Overlap")).
-		F(Num("alignment", "alignment", fc.Alignment, fmt.Sprintf("%g", fc.Alignment), "FiberCoupling.Alignment")).
-		F(Num("coupling", "coupling", fc.Coupling, fmt.Sprintf("%.1f %%", 100*fc.Coupling), "FiberCoupling.Coupling")).
-		F(Flag("coupling_given", "coupling stated", fc.Given, yesNo(fc.Given), "FiberCoupling.Given")).
-		F(Flag("upper_bound", "upper bound", fc.UpperBound, yesNo(fc.UpperBound), "FiberCoupling.UpperBound")).
-		F(Len("ideal_focal_length_x_m", "ideal coupling-lens focal length x", fc.IdealFocalLength[0], "FiberCoupling.IdealFocalLength")).
-		F(Len("ideal_focal_length_y_m", "ideal coupling-lens focal length y", fc.IdealFocalLength[1], "FiberCoupling.IdealFocalLength")).
-		F(Len("ideal_focal_length_for_beam_at_m", "for the beam at", fc.LensAt, "FiberCoupling.LensAt"))
-	f.F(Field{Key: "ideal_focal_lengths", Label: "ideal coupling-lens focal length", Kind: String, Text: budget.FormatFocalPair(fc.IdealFocalLength), People: true})
-	f.F(Field{Key: "mode_field_diameter", Label: "mode-field diameter", Kind: Number, SI: e.ModeFieldDiameter, Text: budget.FormatLength(e.ModeFieldDiameter), People: true})
+	f.F(Num(dModeOverlap, fc.Overlap, fmt.Sprintf("%.1f %%", 100*fc.Overlap))).
+		F(Num(dAlignment, fc.Alignment, fmt.Sprintf("%g", fc.Alignment))).
+		F(Num(dCoupling, fc.Coupling, fmt.Sprintf("%.1f %%", 100*fc.Coupling))).
+		F(Flag(dCouplingGiven, fc.Given, yesNo(fc.Given))).
+		F(Flag(dUpperBound, fc.UpperBound, yesNo(fc.UpperBound))).
+		F(Len(dIdealFocalLengthXM, fc.IdealFocalLength[0])).
+		F(Len(dIdealFocalLengthYM, fc.IdealFocalLength[1])).
+		F(Len(dIdealFocalLengthForBeamAtM, fc.LensAt))
+	f.F(Field{d: dIdealFocalLengths, Kind: String, Text: budget.FormatFocalPair(fc.IdealFocalLength), People: true})
+	f.F(Field{d: dModeFieldDiameter, Kind: Number, SI: e.ModeFieldDiameter, Text: budget.FormatLength(e.ModeFieldDiameter), People: true})
 	head := fmt.Sprintf("fibre %d at %s: ", e.Index, budget.FormatLength(e.At))
 	switch {
 	case fc.Given:
@@ -233,18 +233,18 @@ func balancesList(a *safety.Assessment) *List {
 	for _, bal := range a.Budget.Balances {
 		op := bal.Laser.OperatingPower
 		var r Record
-		r.F(Str("laser", "laser", bal.Laser.Name, "LaserBalance.Laser")).
-			F(Pow("source_power_w", "source power", op, "Laser.OperatingPower")).
-			F(Num("dumped_w", "dumps", bal.Dumped*op, fmtPct(bal.Dumped), "LaserBalance.Dumped")).
-			F(Num("leaving_w", "open ends", bal.Leaving*op, fmtPct(bal.Leaving), "LaserBalance.Leaving"))
+		r.F(Str(dLaser2, bal.Laser.Name)).
+			F(Pow(dSourcePowerW2, op)).
+			F(Num(dDumpedW, bal.Dumped*op, fmtPct(bal.Dumped))).
+			F(Num(dLeavingW, bal.Leaving*op, fmtPct(bal.Leaving)))
 		lost := &Record{}
 		parts := []string{"dumps {dumped_w}", "open ends {leaving_w}"}
 		for _, k := range bal.LossKinds() {
-			lost.F(Num(k, k, bal.Lost[k]*op, fmtPct(bal.Lost[k]), "LaserBalance.Lost"))
+			lost.F(Num(&Desc{k, k, "LaserBalance.Lost"}, bal.Lost[k]*op, fmtPct(bal.Lost[k])))
 			parts = append(parts, k+" {losses_w."+k+"}")
 		}
 		r.O("losses_w", lost, false)
-		r.F(Num("total_w", "total", bal.Total()*op, fmtPct(bal.Total()), "LaserBalance.Total"))
+		r.F(Num(dTotalW, bal.Total()*op, fmtPct(bal.Total())))
 		r.Line(fmt.Sprintf("%s: %s; total {total_w}", bal.Laser.Name, strings.Join(parts, ", ")))
 		l.Records = append(l.Records, r)
 	}
@@ -255,20 +255,20 @@ func findingsList(a *safety.Assessment) *List {
 	l := &List{Key: "findings", Empty: "none in what was evaluated (see the assumptions above)"}
 	for _, f := range a.Findings {
 		r := Record{Members: make([]Member, 0, 11)}
-		r.F(Str("severity", "severity", string(f.Severity), "Finding.Severity")).F(Str("kind", "kind", string(f.Kind), "Finding.Kind")).
-			F(Str("path", "path", f.Path, "Finding.Path")).F(Whole("element", "element", f.Element, "Finding.Element")).
-			F(Len("at_m", "at", f.At, "Finding.At")).F(Str("message", "message", f.Message, "Finding.Message"))
+		r.F(Str(dSeverity, string(f.Severity))).F(Str(dKind4, string(f.Kind))).
+			F(Str(dPath2, f.Path)).F(Whole(dElement3, f.Element)).
+			F(Len(dAtM2, f.At)).F(Str(dMessage, f.Message))
 		if f.Unit != "" {
-			r.F(Num("value_si", "value", f.Value, budget.FormatNumber(f.Value)+" "+f.Unit, "Finding.Value")).
-				F(Num("limit_si", "limit", f.Limit, budget.FormatNumber(f.Limit)+" "+f.Unit, "Finding.Limit")).
-				F(Str("unit", "unit", f.Unit, "Finding.Unit")).
-				F(Plain("ratio", "ratio", f.Ratio(), "Finding.Ratio"))
+			r.F(Num(dValueSi, f.Value, budget.FormatNumber(f.Value)+" "+f.Unit)).
+				F(Num(dLimitSi, f.Limit, budget.FormatNumber(f.Limit)+" "+f.Unit)).
+				F(Str(dUnit, f.Unit)).
+				F(Plain(dRatio3, f.Ratio()))
 		}
 		where := ""
 		if f.Path != "" {
 			where = fmt.Sprintf("path %q: ", f.Path)
 		}
-		r.F(Field{Key: "where", Label: "where", Kind: String, Text: where, People: true})
+		r.F(Field{d: dWhere2, Kind: String, Text: where, People: true})
 		r.Line(fmt.Sprintf("[%s] {where}{message}", f.Severity))
 		l.Records = append(l.Records, r)
 	}

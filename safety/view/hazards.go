@@ -37,9 +37,9 @@ type hazardView struct {
 func hazards(a *safety.Assessment) hazardView {
 	h := a.Hazards
 	v := hazardView{json: &Record{}}
-	v.json.F(Str("standard", "standard", safety.Standard, "")).
-		F(StrList("assumptions", "assumptions", Assumptions(a.Setup), "")).
-		F(StrList("cautions", "cautions", Cautions, ""))
+	v.json.F(Str(dStandard, safety.Standard)).
+		F(StrList(dAssumptions, Assumptions(a.Setup))).
+		F(StrList(dCautions, Cautions))
 	v.lasers = &List{Key: "lasers", Heading: "Sources", Columns: []string{"name", "wavelength_m", "power_w", "emission", "class_text", "eye_mpe_irradiance_w_m2", "skin_mpe_irradiance_w_m2", "duration_s", "eye_aperture_diameter_m"}}
 	for _, ll := range h.Lasers {
 		v.lasers.Records = append(v.lasers.Records, laserRecord(ll))
@@ -70,7 +70,7 @@ func hazards(a *safety.Assessment) hazardView {
 		v.eyewear.Records = append(v.eyewear.Records, eyewearRecord(n))
 	}
 	v.json.L(v.lasers).L(v.exposures).L(v.reflections).L(v.eyewear).
-		F(StrList("defaults_assumed", "defaults assumed", h.DefaultsAssumed, "Hazards.DefaultsAssumed"))
+		F(StrList(dDefaultsAssumed, h.DefaultsAssumed))
 
 	blocks := []Block{{Indent: 1, Line: "assumptions:"}}
 	for _, as := range Assumptions(a.Setup) {
@@ -93,32 +93,32 @@ func laserRecord(ll *safety.LaserLimits) Record {
 	if cl == "" {
 		cl = "not assessed"
 	}
-	r.F(Str("name", "laser", las.Name, "Laser.Name")).
-		F(Nm("wavelength_m", "λ", las.Wavelength, "Laser.Wavelength")).
-		F(Pow("power_w", "max power", las.Power, "Laser.Power")).
-		F(Str("emission", "emission", las.Emission, "Laser.Emission"))
+	r.F(Str(dName, las.Name)).
+		F(Nm(dWavelengthM, las.Wavelength)).
+		F(Pow(dPowerW, las.Power)).
+		F(Str(dEmission, las.Emission))
 	if ll.Class != "" {
-		r.F(Str("class", "class", ll.Class, "LaserLimits.Class"))
+		r.F(Str(dClass, ll.Class))
 	} else {
-		r.F(Absent("class", "class", false, "LaserLimits.Class"))
+		r.F(Absent(dClass, false))
 	}
-	r.F(Field{Key: "class_text", Label: "class", Kind: String, Text: cl, People: true}).
-		F(Str("class_note", "class basis", ll.ClassNote, "LaserLimits.ClassNote")).
-		F(Sec("duration_s", "duration", ll.Duration, "LaserLimits.Duration")).
-		F(Irr("eye_mpe_irradiance_w_m2", "eye MPE", ll.EyeIrradiance, "LaserLimits.EyeIrradiance")).
-		F(Str("eye_mpe_rule", "eye limit", ll.EyeRule, "LaserLimits.EyeRule")).
-		F(Str("eye_mpe_effect", "effect", ll.Eye.Effect, "LaserLimits.Eye")).
-		F(Irr("skin_mpe_irradiance_w_m2", "skin MPE", ll.SkinIrradiance, "LaserLimits.SkinIrradiance")).
-		F(Len("eye_aperture_diameter_m", "eye aperture", ll.EyeAperture, "LaserLimits.EyeAperture")).
-		F(Len("skin_aperture_diameter_m", "skin aperture", ll.SkinAperture, "LaserLimits.SkinAperture")).
-		F(Pow("ael_class_1_w", "Class 1", ll.AEL.Class1, "LaserLimits.AEL")).
-		F(orNone(Pow("ael_class_2_w", "Class 2", ll.AEL.Class2, "LaserLimits.AEL"))).
-		F(orNone(Pow("ael_class_3r_w", "Class 3R", ll.AEL.Class3R, "LaserLimits.AEL"))).
-		F(Pow("ael_class_3b_w", "Class 3B", ll.AEL.Class3B, "LaserLimits.AEL"))
+	r.F(Field{d: dClassText, Kind: String, Text: cl, People: true}).
+		F(Str(dClassNote, ll.ClassNote)).
+		F(Sec(dDurationS, ll.Duration)).
+		F(Irr(dEyeMpeIrradianceWM2, ll.EyeIrradiance)).
+		F(Str(dEyeMpeRule, ll.EyeRule)).
+		F(Str(dEyeMpeEffect, ll.Eye.Effect)).
+		F(Irr(dSkinMpeIrradianceWM2, ll.SkinIrradiance)).
+		F(Len(dEyeApertureDiameterM, ll.EyeAperture)).
+		F(Len(dSkinApertureDiameterM, ll.SkinAperture)).
+		F(Pow(dAelClass1W, ll.AEL.Class1)).
+		F(orNone(Pow(dAelClass2W, ll.AEL.Class2))).
+		F(orNone(Pow(dAelClass3rW, ll.AEL.Class3R))).
+		F(Pow(dAelClass3bW, ll.AEL.Class3B))
 	r.Line(las.Name + ": eye limit {eye_mpe_rule} ({eye_mpe_effect}); class {class_note}")
 	r.Line("  continuous-emission AELs: Class 1 {ael_class_1_w}, Class 2 {ael_class_2_w}, Class 3R {ael_class_3r_w}, Class 3B {ael_class_3b_w}; skin aperture {skin_aperture_diameter_m}")
 	if ll.Class != "" {
-		r.F(Field{Key: "class_meaning", Kind: String, Text: classMeaning(ll.Class), People: true})
+		r.F(Field{d: dClassMeaning, Kind: String, Text: classMeaning(ll.Class), People: true})
 		r.Line("  class {class}: {class_meaning}")
 	}
 	return r
@@ -154,35 +154,35 @@ func classMeaning(c string) string {
 func exposureRecord(e *safety.Exposure) Record {
 	r := Record{Members: make([]Member, 0, 20)}
 	s := e.Segment
-	r.F(Str("path", "path", e.Path.Path.Name, "Path.Name")).
-		F(Whole("after_element", "after element", s.After, "Segment.After")).
-		F(Len("from_m", "from", s.From, "Segment.From")).
-		F(Len("to_m", "to", s.To, "Segment.To")).
-		F(Len("worst_at_m", "worst at", e.At, "Exposure.At")).
-		F(Nm("wavelength_m", "λ", e.Path.Laser.Wavelength, "Laser.Wavelength")).
-		F(Sec("duration_s", "duration", e.Laser.Duration, "LaserLimits.Duration")).
-		F(Pow("power_w", "power", e.Power, "Exposure.Power")).
-		F(Irr("aperture_irradiance_w_m2", "eye irr.", e.Irradiance, "Exposure.Irradiance")).
-		F(Irr("mpe_irradiance_w_m2", "eye MPE", e.Laser.EyeIrradiance, "LaserLimits.EyeIrradiance")).
-		F(Ratio("ratio", "eye ratio", e.Ratio, "Exposure.Ratio")).
-		F(Plain("od_required", "OD", e.OD, "Exposure.OD")).
-		F(Irr("skin_aperture_irradiance_w_m2", "skin irr.", e.SkinIrr, "Exposure.SkinIrr")).
-		F(Ratio("skin_ratio", "skin ratio", e.SkinRatio, "Exposure.SkinRatio")).
-		F(Flag("open_end", "open end", e.OpenEnd, yesNo(e.OpenEnd), "Exposure.OpenEnd"))
+	r.F(Str(dPath, e.Path.Path.Name)).
+		F(Whole(dAfterElement, s.After)).
+		F(Len(dFromM, s.From)).
+		F(Len(dToM, s.To)).
+		F(Len(dWorstAtM, e.At)).
+		F(Nm(dWavelengthM, e.Path.Laser.Wavelength)).
+		F(Sec(dDurationS, e.Laser.Duration)).
+		F(Pow(dPowerW2, e.Power)).
+		F(Irr(dApertureIrradianceWM2, e.Irradiance)).
+		F(Irr(dMpeIrradianceWM2, e.Laser.EyeIrradiance)).
+		F(Ratio(dRatio, e.Ratio)).
+		F(Plain(dOdRequired, e.OD)).
+		F(Irr(dSkinApertureIrradianceWM2, e.SkinIrr)).
+		F(Ratio(dSkinRatio, e.SkinRatio)).
+		F(Flag(dOpenEnd, e.OpenEnd, yesNo(e.OpenEnd)))
 	nohd := ""
 	switch {
 	case !e.OpenEnd:
-		r.F(Absent("nohd_m", "NOHD", false, "Exposure.NOHD"))
+		r.F(Absent(dNohdM, false))
 	case math.IsInf(e.NOHD, 1):
-		r.F(Absent("nohd_m", "NOHD", false, "Exposure.NOHD"))
-		r.F(Len("nohd_beyond_m", "NOHD beyond", safety.MaxHazardDistance, "Exposure.NOHD"))
+		r.F(Absent(dNohdM, false))
+		r.F(Len(dNohdBeyondM, safety.MaxHazardDistance))
 		nohd = safety.FormatDistance(e.NOHD)
 	default:
-		r.F(Num("nohd_m", "NOHD", e.NOHD, safety.FormatDistance(e.NOHD), "Exposure.NOHD"))
+		r.F(Num(dNohdM, e.NOHD, safety.FormatDistance(e.NOHD)))
 		nohd = safety.FormatDistance(e.NOHD)
 	}
-	r.F(Field{Key: "segment", Label: "segment", Kind: String, Text: segLabel(e), People: true}).
-		F(Field{Key: "nohd", Label: "NOHD beyond the end (beam propagated)", Kind: String, Text: nohd, People: true})
+	r.F(Field{d: dSegment, Kind: String, Text: segLabel(e), People: true}).
+		F(Field{d: dNohd, Kind: String, Text: nohd, People: true})
 	return r
 }
 
@@ -200,40 +200,40 @@ func segLabel(e *safety.Exposure) string {
 
 func reflectionRecord(rf *safety.Reflection) Record {
 	r := Record{Members: make([]Member, 0, 14)}
-	r.F(Str("path", "path", rf.Path.Path.Name, "Path.Name"))
+	r.F(Str(dPath, rf.Path.Path.Name))
 	if rf.Element != nil {
-		r.F(Whole("element", "element", rf.Element.Index, "Reflection.Element"))
+		r.F(Whole(dElement, rf.Element.Index))
 	} else {
-		r.F(Absent("element", "element", false, "Reflection.Element"))
+		r.F(Absent(dElement, false))
 	}
-	r.F(Str("kind", "kind", string(rf.Kind), "Reflection.Kind")).
-		F(Nm("wavelength_m", "λ", rf.Path.Laser.Wavelength, "Laser.Wavelength")).
-		F(Num("reflectance", "reflectance", rf.Reflectance, fmt.Sprintf("%g", rf.Reflectance), "Reflection.Reflectance")).
-		F(Flag("reflectance_assumed", "assumed", rf.Assumed, assumed(rf.Assumed), "Reflection.Assumed")).
-		F(Whole("surfaces", "surfaces", rf.Surfaces, "Reflection.Surfaces")).
-		F(Pow("power_w", "power", rf.Power, "Reflection.Power"))
+	r.F(Str(dKind, string(rf.Kind))).
+		F(Nm(dWavelengthM, rf.Path.Laser.Wavelength)).
+		F(Num(dReflectance, rf.Reflectance, fmt.Sprintf("%g", rf.Reflectance))).
+		F(Flag(dReflectanceAssumed, rf.Assumed, assumed(rf.Assumed))).
+		F(Whole(dSurfaces, rf.Surfaces)).
+		F(Pow(dPowerW3, rf.Power))
 	if rf.Kind != safety.ReflectionDiffuse {
-		r.F(Irr("aperture_irradiance_w_m2", "eye irr.", rf.Irradiance, "Reflection.Irradiance")).
-			F(Ratio("ratio", "× MPE", rf.Ratio, "Reflection.Ratio")).
-			F(Plain("od_required", "OD", rf.OD, "Reflection.OD")).
-			F(Absent("hazard_radius_m", "hazard zone radius", false, "Reflection.Radius"))
+		r.F(Irr(dApertureIrradianceWM22, rf.Irradiance)).
+			F(Ratio(dRatio2, rf.Ratio)).
+			F(Plain(dOdRequired2, rf.OD)).
+			F(Absent(dHazardRadiusM, false))
 	} else {
-		r.F(Absent("aperture_irradiance_w_m2", "eye irr.", false, "Reflection.Irradiance")).
-			F(Absent("ratio", "× MPE", false, "Reflection.Ratio")).
-			F(Absent("od_required", "OD", false, "Reflection.OD")).
-			F(Num("hazard_radius_m", "hazard zone radius", rf.Radius, safety.FormatDistance(rf.Radius), "Reflection.Radius"))
+		r.F(Absent(dApertureIrradianceWM22, false)).
+			F(Absent(dRatio2, false)).
+			F(Absent(dOdRequired2, false)).
+			F(Num(dHazardRadiusM, rf.Radius, safety.FormatDistance(rf.Radius)))
 	}
 	// A diffuse zone sits at a dump, or where an open end's beam lands.
 	el := "the open end"
 	if rf.Element != nil && (rf.Kind != safety.ReflectionDiffuse || rf.Element.Type == budget.TypeDump) {
 		el = fmt.Sprintf("element %d (%s)", rf.Element.Index, rf.Element.Label())
 	}
-	r.F(Field{Key: "where", Kind: String, Text: fmt.Sprintf("path %q, %s", rf.Path.Path.Name, el), People: true})
+	r.F(Field{d: dWhere, Kind: String, Text: fmt.Sprintf("path %q, %s", rf.Path.Path.Name, el), People: true})
 	switch rf.Kind {
 	case safety.ReflectionStray:
 		r.Line("{where}: {surfaces} surface(s), R = {reflectance}{reflectance_assumed}, {power_w} each, {ratio} × the eye MPE, OD {od_required}")
 	case safety.ReflectionEscaping:
-		r.F(Field{Key: "share", Kind: Number, SI: rf.Reflectance, Text: fmtPct(rf.Reflectance), People: true})
+		r.F(Field{d: dShare, Kind: Number, SI: rf.Reflectance, Text: fmtPct(rf.Reflectance), People: true})
 		r.Line("{where}: {power_w} ({share} of the arriving power), {ratio} × the eye MPE, OD {od_required}")
 	default:
 		r.Line("{where}: {power_w}, ρ = {reflectance}{reflectance_assumed}: hazard zone radius {hazard_radius_m}")
@@ -243,20 +243,20 @@ func reflectionRecord(rf *safety.Reflection) Record {
 
 func eyewearRecord(n *safety.EyewearNeed) Record {
 	var r Record
-	r.F(Nm("wavelength_m", "λ", n.Wavelength, "EyewearNeed.Wavelength")).
-		F(Plain("od_required", "OD", n.OD, "EyewearNeed.OD"))
+	r.F(Nm(dWavelengthM2, n.Wavelength)).
+		F(Plain(dOdRequired3, n.OD))
 	if n.LBValid {
-		f := Whole("en207_scale", "EN 207", n.LB, "EyewearNeed.LB")
+		f := Whole(dEn207Scale, n.LB)
 		f.Text = n.EN207Label()
 		r.F(f)
 	} else {
-		f := Absent("en207_scale", "EN 207", false, "EyewearNeed.LB")
+		f := Absent(dEn207Scale, false)
 		f.Text = n.EN207Label()
 		r.F(f)
 	}
-	r.F(StrList("covered_by", "covered by", n.CoveredBy, "EyewearNeed.CoveredBy"))
-	r.F(Irr("irradiance_w_m2", "largest irradiance", n.Irradiance, "EyewearNeed.Irradiance"))
-	r.F(Field{Key: "coverage", Kind: String, Text: n.Coverage(), People: true, Source: "EyewearNeed.CoveredBy"})
+	r.F(StrList(dCoveredBy, n.CoveredBy))
+	r.F(Irr(dIrradianceWM2, n.Irradiance))
+	r.F(Field{d: dCoverage, Kind: String, Text: n.Coverage(), People: true})
 	r.Line("{wavelength_m}: OD {od_required}, {en207_scale} (largest aperture-averaged irradiance {irradiance_w_m2}); {coverage}")
 	return r
 }

@@ -54,13 +54,13 @@ func (w *jsonWriter) record(r *Record, depth int) error {
 	for i := range r.Members {
 		m := &r.Members[i]
 		switch {
-		case m.IsField:
+		case m.IsField():
 			f := &m.Field
 			if f.People || (f.OmitEmpty && isEmpty(f)) {
 				continue
 			}
-			w.key(&n, f.Key, depth)
-			w.path = append(w.path, f.Key)
+			w.key(&n, f.d.Key, depth)
+			w.path = append(w.path, f.d.Key)
 			if err := w.value(f, depth+1); err != nil {
 				return err
 			}

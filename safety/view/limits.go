@@ -22,17 +22,17 @@ func Limits(l *safety.LimitsLookup) *Doc {
 	if q.AngularSubtense > limits.AlphaMin {
 		src = fmt.Sprintf("a source of angular subtense %s", budget.FormatSI(q.AngularSubtense, "rad"))
 	}
-	r.F(Num("wavelength_m", "wavelength", q.Wavelength, budget.FormatNumber(q.Wavelength*1e9)+" nm", "LimitsQuery.Wavelength")).
-		F(Sec("duration_s", "exposure", l.Duration, "LimitsLookup.Duration")).
-		F(Num("angular_subtense_rad", "angular subtense", q.AngularSubtense, budget.FormatSI(q.AngularSubtense, "rad"), "LimitsQuery.AngularSubtense")).
-		F(Str("standard", "standard", safety.Standard, ""))
+	r.F(Num(dWavelengthM3, q.Wavelength, budget.FormatNumber(q.Wavelength*1e9)+" nm")).
+		F(Sec(dDurationS2, l.Duration)).
+		F(Num(dAngularSubtenseRad, q.AngularSubtense, budget.FormatSI(q.AngularSubtense, "rad"))).
+		F(Str(dStandard, safety.Standard))
 	r.Line("{standard} limits at {wavelength_m}, exposure {duration_s}, " + src)
 	side := func(key, name string, m limits.Limit, ap float64) {
 		s := &Record{}
-		s.F(Num("mpe_irradiance_w_m2", "MPE", m.Irradiance, budget.FormatSI(m.Irradiance, "W/m²")+" = "+budget.FormatIrradiance(m.Irradiance), "Limit.Irradiance")).
-			F(Num("mpe_radiant_exposure_j_m2", "H", m.RadiantExposure, budget.FormatSI(m.RadiantExposure, "J/m²"), "Limit.RadiantExposure")).
-			F(Len("aperture_diameter_m", "aperture", ap, "LimitsLookup.EyeAperture")).
-			F(Str("rule", "rule", m.Rule, "Limit.Rule")).F(Str("effect", "effect", m.Effect, "Limit.Effect"))
+		s.F(Num(dMpeIrradianceWM22, m.Irradiance, budget.FormatSI(m.Irradiance, "W/m²")+" = "+budget.FormatIrradiance(m.Irradiance))).
+			F(Num(dMpeRadiantExposureJM2, m.RadiantExposure, budget.FormatSI(m.RadiantExposure, "J/m²"))).
+			F(Len(dApertureDiameterM, ap)).
+			F(Str(dRule, m.Rule)).F(Str(dEffect, m.Effect))
 		r.O(key, s, false)
 		r.Line(fmt.Sprintf("  %s MPE {%s.mpe_irradiance_w_m2} (H = {%s.mpe_radiant_exposure_j_m2}), averaged over a {%s.aperture_diameter_m} aperture; {%s.effect}", name, key, key, key, key))
 		r.Line(fmt.Sprintf("       rule: {%s.rule}", key))
@@ -40,12 +40,12 @@ func Limits(l *safety.LimitsLookup) *Doc {
 	side("eye", "eye ", l.Eye, l.EyeAperture)
 	side("skin", "skin", l.Skin, l.SkinAperture)
 	ael := &Record{}
-	ael.F(Pow("class_1", "Class 1/1M", l.AEL.Class1, "AEL.Class1")).
-		F(orNone(Pow("class_2", "Class 2/2M", l.AEL.Class2, "AEL.Class2"))).
-		F(orNone(Pow("class_3r", "Class 3R", l.AEL.Class3R, "AEL.Class3R"))).
-		F(Pow("class_3b", "Class 3B", l.AEL.Class3B, "AEL.Class3B"))
+	ael.F(Pow(dClass1, l.AEL.Class1)).
+		F(orNone(Pow(dClass2, l.AEL.Class2))).
+		F(orNone(Pow(dClass3r, l.AEL.Class3R))).
+		F(Pow(dClass3b, l.AEL.Class3B))
 	r.O("ael_w", ael, false)
-	r.F(Sec("ael_time_base_s", "Class 1 time base", l.AEL.TimeBase, "AEL.TimeBase"))
+	r.F(Sec(dAelTimeBaseS, l.AEL.TimeBase))
 	factors := &Record{}
 	keys := make([]string, 0, len(l.Eye.Factors))
 	for k := range l.Eye.Factors {
@@ -53,7 +53,7 @@ func Limits(l *safety.LimitsLookup) *Doc {
 	}
 	sort.Strings(keys) // as JSON objects list their keys
 	for _, k := range keys {
-		factors.F(Num(k, k, l.Eye.Factors[k], budget.FormatNumber(l.Eye.Factors[k]), "Limit.Factors"))
+		factors.F(Num(&Desc{k, k, "Limit.Factors"}, l.Eye.Factors[k], budget.FormatNumber(l.Eye.Factors[k])))
 	}
 	r.O("factors", factors, false)
 	if len(keys) > 0 {
@@ -68,36 +68,36 @@ func Limits(l *safety.LimitsLookup) *Doc {
 	var pulsed *Record
 	if p := l.Pulsed; p != nil {
 		pulsed = &Record{}
-		pulsed.F(Sec("pulse_duration_s", "pulse duration", q.PulseDuration, "LimitsQuery.PulseDuration")).
-			F(Num("repetition_rate_hz", "repetition rate", q.RepetitionRate, budget.FormatFrequency(q.RepetitionRate), "LimitsQuery.RepetitionRate")).
-			F(Plain("pulses", "pulses", p.N, "PulsedLimit.N")).
-			F(Plain("c5", "C5", p.C5, "PulsedLimit.C5")).
-			F(Num("mpe_per_pulse_j_m2", "per pulse", p.PerPulse, budget.FormatNumber(p.PerPulse)+" J/m²", "PulsedLimit.PerPulse")).
-			F(Str("governing_rule", "governing rule", p.Rule, "PulsedLimit.Rule")).
-			F(Irr("mpe_average_irradiance_w_m2", "average irradiance limit", p.Irradiance, "PulsedLimit.Irradiance"))
+		pulsed.F(Sec(dPulseDurationS, q.PulseDuration)).
+			F(Num(dRepetitionRateHz, q.RepetitionRate, budget.FormatFrequency(q.RepetitionRate))).
+			F(Plain(dPulses, p.N)).
+			F(Plain(dC5, p.C5)).
+			F(Num(dMpePerPulseJM2, p.PerPulse, budget.FormatNumber(p.PerPulse)+" J/m²")).
+			F(Str(dGoverningRule, p.Rule)).
+			F(Irr(dMpeAverageIrradianceWM2, p.Irradiance))
 		r.Line("  pulse train: {pulsed.pulses} pulses of {pulsed.pulse_duration_s} at {pulsed.repetition_rate_hz} over {duration_s}; C5 = {pulsed.c5}; the {pulsed.governing_rule} rule governs: {pulsed.mpe_per_pulse_j_m2} per pulse (average irradiance limit {pulsed.mpe_average_irradiance_w_m2})")
 	}
 	r.O("pulsed", pulsed, true)
 	r.Line("  AEL for continuous emission (MPE at the time base × aperture area; Class 1 time base {ael_time_base_s}): Class 1/1M {ael_w.class_1}, Class 2/2M {ael_w.class_2}, Class 3R {ael_w.class_3r}, Class 3B {ael_w.class_3b}")
 	if l.HasBeam {
 		if l.Class != "" {
-			r.F(Str("class", "class", l.Class, "LimitsLookup.Class"))
+			r.F(Str(dClass3, l.Class))
 			r.Line("  class {class} (whole beam through the aperture; 1M/2M not distinguished)")
 		} else {
 			r.Line("  class: not assessed for pulsed emission")
 		}
 		if l.NOHD > safety.MaxHazardDistance {
-			r.F(Num("nohd_beyond_m", "NOHD beyond", safety.MaxHazardDistance, safety.FormatDistance(l.NOHD), "LimitsLookup.NOHD"))
-			r.F(Field{Key: "nohd", Kind: String, Text: safety.FormatDistance(l.NOHD), People: true})
+			r.F(Num(dNohdBeyondM2, safety.MaxHazardDistance, safety.FormatDistance(l.NOHD)))
+			r.F(Field{d: dNohd2, Kind: String, Text: safety.FormatDistance(l.NOHD), People: true})
 		} else {
-			r.F(Num("nohd_m", "NOHD", l.NOHD, safety.FormatDistance(l.NOHD), "LimitsLookup.NOHD"))
-			r.F(Field{Key: "nohd", Kind: String, Text: safety.FormatDistance(l.NOHD) + " (rounded up)", People: true})
+			r.F(Num(dNohdM2, l.NOHD, safety.FormatDistance(l.NOHD)))
+			r.F(Field{d: dNohd2, Kind: String, Text: safety.FormatDistance(l.NOHD) + " (rounded up)", People: true})
 		}
-		r.F(Num("od_required", "OD", l.ODRequired, fmt.Sprintf("%g", l.ODRequired), "LimitsLookup.ODRequired")).
-			F(Irr("exit_aperture_irradiance_w_m2", "at the exit", l.ExitIrr, "LimitsLookup.ExitIrr"))
+		r.F(Num(dOdRequired4, l.ODRequired, fmt.Sprintf("%g", l.ODRequired))).
+			F(Irr(dExitApertureIrradianceWM2, l.ExitIrr))
 		r.Line("  at the exit: {exit_aperture_irradiance_w_m2} over the eye aperture, OD {od_required} needed; NOHD {nohd}")
 	}
-	r.F(StrList("cautions", "cautions", Cautions, ""))
+	r.F(StrList(dCautions, Cautions))
 	d := &Doc{JSON: r, Sections: []Section{{Blocks: []Block{{Record: r}, {Indent: 1, Bullets: Cautions}}}}}
 	return d
 }

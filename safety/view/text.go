@@ -126,7 +126,7 @@ func writeList(ew *errWriter, l *List, indent string) {
 		var head []string
 		for _, k := range l.Columns {
 			if f := l.Records[0].Field(k); f != nil {
-				head = append(head, f.Label)
+				head = append(head, f.Label())
 			} else {
 				head = append(head, k)
 			}

@@ -31,23 +31,30 @@ const (
 	Matrix  // rows of numbers
 )
 
+// Desc describes a field: its JSON key (snake_case with the unit as a
+// suffix), its label for people (a column header), and the result field it
+// shows ("Type.Field", for the coverage test). Descriptors are shared by all
+// the fields of one kind (descs.go), so a field carries one pointer for
+// them.
+type Desc struct {
+	Key, Label, Source string
+}
+
 // Field is one figure or word, as every output shows it. It is kept small:
 // a record holds many.
 type Field struct {
-	// Key is the JSON key: snake_case with the unit as a suffix.
-	Key string
-	// Label names it for people (a column header or a line's label).
-	Label string
+	d *Desc
 	// Text is the value written for people, with its unit; for a String it
 	// is also the JSON value.
 	Text string
-	// Source names the result field it shows, "Type.Field", for the
-	// coverage test.
-	Source string
 	// SI is the value of a Number (NaN: it does not exist, null in JSON) or
 	// of an Int.
-	SI   float64
-	Kind Kind
+	SI    float64
+	extra *extra
+	Kind  Kind
+	// style writes Text from SI when Text is empty (so that fields nobody
+	// reads are never formatted).
+	style style
 	// Absent marks a field that does not exist here (null in JSON);
 	// OmitEmpty leaves an absent or empty field out of JSON altogether.
 	Absent, OmitEmpty bool
@@ -55,11 +62,16 @@ type Field struct {
 	// People marks a field for people only (a combined cell such as
 	// "lens L1", or a share in percent): JSON leaves it out.
 	People bool
-	// style writes Text from SI when Text is empty (so that fields nobody
-	// reads are never formatted).
-	style style
-	extra *extra
 }
+
+// Key is the field's JSON key.
+func (f *Field) Key() string { return f.d.Key }
+
+// Label names the field for people.
+func (f *Field) Label() string { return f.d.Label }
+
+// Source names the result field the field shows.
+func (f *Field) Source() string { return f.d.Source }
 
 // style is how a number is written for people, when its text is made only
 // when needed.
@@ -110,36 +122,22 @@ func (f *Field) Display() string {
 
 // Numbers whose text is made when it is read: a power, a length, an
 // irradiance, or a plain number.
-func Pow(key, label string, si float64, source string) Field {
-	return lazy(key, label, si, stylePower, source)
-}
-func Len(key, label string, si float64, source string) Field {
-	return lazy(key, label, si, styleLength, source)
-}
-func Irr(key, label string, si float64, source string) Field {
-	return lazy(key, label, si, styleIrradiance, source)
-}
-func Plain(key, label string, si float64, source string) Field {
-	return lazy(key, label, si, styleNumber, source)
-}
+func Pow(d *Desc, si float64) Field   { return lazy(d, si, stylePower) }
+func Len(d *Desc, si float64) Field   { return lazy(d, si, styleLength) }
+func Irr(d *Desc, si float64) Field   { return lazy(d, si, styleIrradiance) }
+func Plain(d *Desc, si float64) Field { return lazy(d, si, styleNumber) }
 
 // Sec is a duration, Nm a wavelength in nm, Ratio a ratio to a limit
 // ("<0.001" below a thousandth), all written when read.
-func Sec(key, label string, si float64, source string) Field {
-	return lazy(key, label, si, styleSeconds, source)
-}
-func Nm(key, label string, si float64, source string) Field {
-	return lazy(key, label, si, styleNanometres, source)
-}
-func Ratio(key, label string, si float64, source string) Field {
-	return lazy(key, label, si, styleRatio, source)
-}
+func Sec(d *Desc, si float64) Field   { return lazy(d, si, styleSeconds) }
+func Nm(d *Desc, si float64) Field    { return lazy(d, si, styleNanometres) }
+func Ratio(d *Desc, si float64) Field { return lazy(d, si, styleRatio) }
 
-func lazy(key, label string, si float64, st style, source string) Field {
+func lazy(d *Desc, si float64, st style) Field {
 	if math.IsNaN(si) || math.IsInf(si, 0) {
-		return Field{Key: key, Label: label, Kind: Number, SI: math.NaN(), Text: "—", Source: source}
+		return Field{d: d, Kind: Number, SI: math.NaN(), Text: "—"}
 	}
-	return Field{Key: key, Label: label, Kind: Number, SI: si, style: st, Source: source}
+	return Field{d: d, Kind: Number, SI: si, style: st}
 }
 
 // extra holds the values of the rarer kinds.
@@ -157,54 +155,50 @@ func (f *Field) List() []string {
 }
 
 // StrList is a list-of-strings field; its text joins them.
-func StrList(key, label string, list []string, source string) Field {
-	return Field{Key: key, Label: label, Kind: Strings, Text: strings.Join(list, ", "), Source: source, extra: &extra{list: append([]string{}, list...)}}
+func StrList(d *Desc, list []string) Field {
+	return Field{d: d, Kind: Strings, Text: strings.Join(list, ", "), extra: &extra{list: append([]string{}, list...)}}
 }
 
 // NumRows is a field of rows of numbers.
-func NumRows(key, label string, rows [][]float64, text, source string) Field {
-	return Field{Key: key, Label: label, Kind: Matrix, Text: text, Source: source, extra: &extra{rows: rows}}
+func NumRows(d *Desc, rows [][]float64, text string) Field {
+	return Field{d: d, Kind: Matrix, Text: text, extra: &extra{rows: rows}}
 }
 
 // Num is a number field with its text for people; a non-finite value is
 // absent (null in JSON) and its text "—".
-func Num(key, label string, si float64, text, source string) Field {
+func Num(d *Desc, si float64, text string) Field {
 	if math.IsNaN(si) || math.IsInf(si, 0) {
-		return Field{Key: key, Label: label, Kind: Number, SI: math.NaN(), Text: "—", Source: source}
+		return Field{d: d, Kind: Number, SI: math.NaN(), Text: "—"}
 	}
-	return Field{Key: key, Label: label, Kind: Number, SI: si, Text: text, Source: source}
+	return Field{d: d, Kind: Number, SI: si, Text: text}
 }
 
 // Whole is an integer field, written when read.
-func Whole(key, label string, n int, source string) Field {
-	return Field{Key: key, Label: label, Kind: Int, SI: float64(n), style: styleInt, Source: source}
-}
+func Whole(d *Desc, n int) Field { return Field{d: d, Kind: Int, SI: float64(n), style: styleInt} }
 
 // Str is a string field.
-func Str(key, label, s, source string) Field {
-	return Field{Key: key, Label: label, Kind: String, Text: s, Source: source}
-}
+func Str(d *Desc, s string) Field { return Field{d: d, Kind: String, Text: s} }
 
 // Flag is a boolean field with its text for people.
-func Flag(key, label string, b bool, text, source string) Field {
-	return Field{Key: key, Label: label, Kind: Bool, Bool: b, Text: text, Source: source}
-}
+func Flag(d *Desc, b bool, text string) Field { return Field{d: d, Kind: Bool, Bool: b, Text: text} }
 
 // Absent is a field that does not exist here: null in JSON (or left out
 // with omit), "—" for people.
-func Absent(key, label string, omit bool, source string) Field {
-	return Field{Key: key, Label: label, Kind: Number, SI: math.NaN(), Absent: true, OmitEmpty: omit, Text: "—", Source: source}
+func Absent(d *Desc, omit bool) Field {
+	return Field{d: d, Kind: Number, SI: math.NaN(), Absent: true, OmitEmpty: omit, Text: "—"}
 }
 
-// Member is one member of a record: a field (IsField), a list of records,
-// or a nested record (a JSON object). The field is held by value, so that a
-// record of many fields is one allocation.
+// Member is one member of a record: a field, a list of records, or a nested
+// record (a JSON object); IsField tells which. The field is held by value,
+// so that a record of many fields is one allocation.
 type Member struct {
-	IsField bool
-	Field   Field
-	List    *List
-	Object  *Object
+	Field  Field
+	List   *List
+	Object *Object
 }
+
+// IsField reports whether the member is a field.
+func (m *Member) IsField() bool { return m.Field.d != nil }
 
 // Object is a named nested record; a nil Record is null in JSON (or left out
 // with OmitEmpty).
@@ -250,7 +244,7 @@ type List struct {
 
 // F adds a field to the record.
 func (r *Record) F(f Field) *Record {
-	r.Members = append(r.Members, Member{IsField: true, Field: f})
+	r.Members = append(r.Members, Member{Field: f})
 	return r
 }
 
@@ -285,7 +279,7 @@ func (r *Record) Field(key string) *Field {
 		return nil
 	}
 	for i := range r.Members {
-		if m := &r.Members[i]; m.IsField && m.Field.Key == key {
+		if m := &r.Members[i]; m.IsField() && m.Field.d.Key == key {
 			return &m.Field
 		}
 	}
@@ -297,12 +291,12 @@ func (r *Record) Field(key string) *Field {
 // usually at the same place), and the place it was found.
 func (r *Record) fieldAt(key string, i int) (*Field, int) {
 	if i >= 0 && i < len(r.Members) {
-		if m := &r.Members[i]; m.IsField && m.Field.Key == key {
+		if m := &r.Members[i]; m.IsField() && m.Field.d.Key == key {
 			return &m.Field, i
 		}
 	}
 	for k := range r.Members {
-		if m := &r.Members[k]; m.IsField && m.Field.Key == key {
+		if m := &r.Members[k]; m.IsField() && m.Field.d.Key == key {
 			return &m.Field, k
 		}
 	}
@@ -313,7 +307,7 @@ func (r *Record) fieldAt(key string, i int) (*Field, int) {
 func (r *Record) Walk(f func(*Field)) {
 	for i := range r.Members {
 		switch m := &r.Members[i]; {
-		case m.IsField:
+		case m.IsField():
 			f(&m.Field)
 		case m.List != nil:
 			for i := range m.List.Records {

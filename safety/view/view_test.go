@@ -17,16 +17,16 @@ import (
 // than write a document no reader can take; an absent value is null.
 func TestJSONRefusesNonFinite(t *testing.T) {
 	inner := &Record{}
-	inner.F(Field{Key: "v_w", Kind: Number, SI: math.Inf(1)})
+	inner.F(Field{d: &Desc{Key: "v_w"}, Kind: Number, SI: math.Inf(1)})
 	doc := &Record{}
-	doc.F(Num("a_w", "a", math.NaN(), "", "")).L(&List{Key: "list", Records: []Record{*inner}})
+	doc.F(Num(&Desc{Key: "a_w"}, math.NaN(), "")).L(&List{Key: "list", Records: []Record{*inner}})
 	var b strings.Builder
 	err := WriteJSON(&b, doc)
 	if err == nil || !strings.Contains(err.Error(), "$.list[0].v_w is +Inf") {
 		t.Errorf("got %v", err)
 	}
 	ok := &Record{}
-	ok.F(Num("a_w", "a", math.NaN(), "", "")).F(Absent("b", "b", true, ""))
+	ok.F(Num(&Desc{Key: "a_w"}, math.NaN(), "")).F(Absent(&Desc{Key: "b"}, true))
 	b.Reset()
 	if err := WriteJSON(&b, ok); err != nil || b.String() != "{\n  \"a_w\": null\n}\n" {
 		t.Errorf("got %q, %v", b.String(), err)
@@ -37,9 +37,9 @@ func TestJSONRefusesNonFinite(t *testing.T) {
 // they are, so a setup's name holding braces is never expanded.
 func TestExpand(t *testing.T) {
 	r := &Record{}
-	r.F(Str("name", "name", "{power_w}", "")).F(Num("power_w", "power", 1, "1 W", ""))
+	r.F(Str(&Desc{Key: "name"}, "{power_w}")).F(Num(&Desc{Key: "power_w"}, 1, "1 W"))
 	goal := &Record{}
-	goal.F(Num("margin_db", "margin", 3, "+3.0 dB", ""))
+	goal.F(Num(&Desc{Key: "margin_db"}, 3, "+3.0 dB"))
 	r.O("goal", goal, false)
 	if got := r.Expand("{name} carries {power_w}, margin {goal.margin_db}"); got != "{power_w} carries 1 W, margin +3.0 dB" {
 		t.Errorf("got %q", got)
@@ -62,7 +62,7 @@ func TestFieldCoverage(t *testing.T) {
 	hostile, _ := filepath.Glob("../../testdata/hostile/*.toml")
 	for _, f := range append(examples, hostile...) {
 		a, _ := safetytest.EvaluateFile(t, f)
-		Build(a).JSON.Walk(func(f *Field) { shown[f.Source] = true })
+		Build(a).JSON.Walk(func(f *Field) { shown[f.Source()] = true })
 	}
 	types := []any{budget.Row{}, budget.FiberCoupling{}, budget.PathBudget{}, budget.LaserBalance{}, budget.Segment{},
 		budget.AtomsResult{}, budget.DipoleResult{}, budget.GoalResult{}, atoms.Collective{},
