@@ -36,12 +36,27 @@ func drawable(r rune) bool {
 	return err == nil && g != 0
 }
 
+// glyphCache remembers which characters the font draws, for one document.
+type glyphCache map[rune]bool
+
+func (c glyphCache) drawable(r rune) bool {
+	if r < 0x80 && r >= 0x20 {
+		return true // the Go fonts draw printable ASCII
+	}
+	ok, known := c[r]
+	if !known {
+		ok = drawable(r)
+		c[r] = ok
+	}
+	return ok
+}
+
 // drawableText returns s with every character the font cannot draw replaced
 // by Missing, and how many were replaced.
-func drawableText(s string) (string, int) {
+func (c glyphCache) drawableText(s string) (string, int) {
 	n := 0
 	for _, r := range s {
-		if !drawable(r) {
+		if !c.drawable(r) {
 			n++
 		}
 	}
@@ -50,7 +65,7 @@ func drawableText(s string) (string, int) {
 	}
 	var b strings.Builder
 	for _, r := range s {
-		if drawable(r) {
+		if c.drawable(r) {
 			b.WriteRune(r)
 		} else {
 			b.WriteString(Missing)
@@ -64,8 +79,9 @@ func drawableText(s string) (string, int) {
 // left as it was.
 func drawableCopy(doc *report.Document) (*report.Document, int) {
 	replaced := 0
+	cache := glyphCache{}
 	out := copyStrings(reflect.ValueOf(doc), func(s string) string {
-		t, n := drawableText(s)
+		t, n := cache.drawableText(s)
 		replaced += n
 		return t
 	})

@@ -43,29 +43,29 @@ type writer struct {
 	doc   *report.Document
 	pageW float64
 	textW float64
-	// pages is the page count for the footers (0 while counting);
-	// replaced the number of characters printed as Missing.
-	pages, replaced int
+	// replaced is the number of characters printed as Missing.
+	replaced int
 }
 
+// pageCount stands in every footer for the number of pages until the
+// document is complete. It is made of private-use characters, which the
+// embedded font has no glyph for: any such character in a setup's text is
+// printed as Missing before drawing, so no text can imitate it.
+const pageCount = "\ue000\ue001"
+
 // Write draws the document to w. Characters the embedded font cannot draw
-// are printed as Missing, and the title block says how many. The document
-// is drawn twice: once to count its pages, then with "page N of M" in every
-// footer (no page-count placeholder that a setup's text could imitate).
+// are printed as Missing, and the title block says how many; every footer
+// reads "page N of M".
 func Write(w io.Writer, doc *report.Document, o Options) error {
 	doc, replaced := drawableCopy(doc)
-	counted, err := draw(doc, o, replaced, 0)
-	if err != nil {
-		return err
-	}
-	f, err := draw(doc, o, replaced, counted.PageCount())
+	f, err := draw(doc, o, replaced)
 	if err != nil {
 		return err
 	}
 	return f.Output(w)
 }
 
-func draw(doc *report.Document, o Options, replaced, pages int) (*fpdf.Fpdf, error) {
+func draw(doc *report.Document, o Options, replaced int) (*fpdf.Fpdf, error) {
 	f := fpdf.New("P", "mm", "A4", "")
 	f.SetCompression(o.Compress)
 	f.SetCatalogSort(true)
@@ -82,7 +82,8 @@ func draw(doc *report.Document, o Options, replaced, pages int) (*fpdf.Fpdf, err
 	f.SetMargins(marginLeft, marginTop, marginRight)
 	f.SetAutoPageBreak(true, bottomSpace)
 	pw, _ := f.GetPageSize()
-	wr := &writer{f: f, doc: doc, pageW: pw, textW: pw - marginLeft - marginRight, pages: pages, replaced: replaced}
+	f.AliasNbPages(pageCount)
+	wr := &writer{f: f, doc: doc, pageW: pw, textW: pw - marginLeft - marginRight, replaced: replaced}
 	f.SetFooterFunc(wr.footer)
 	f.AddPage()
 	wr.titleBlock()
@@ -105,7 +106,7 @@ func (w *writer) footer() {
 		rev = ", revision " + w.doc.Revision
 	}
 	f.CellFormat(w.textW*0.78, 4, fmt.Sprintf("%s%s — setup SHA-256 %s", w.doc.Title, rev, w.doc.SetupSHA256), "T", 0, "L", false, 0, "")
-	f.CellFormat(w.textW*0.22, 4, fmt.Sprintf("page %d of %d", f.PageNo(), w.pages), "T", 0, "R", false, 0, "")
+	f.CellFormat(w.textW*0.22, 4, fmt.Sprintf("page %d of %s", f.PageNo(), pageCount), "T", 0, "R", false, 0, "")
 	f.SetTextColor(0, 0, 0)
 }
 

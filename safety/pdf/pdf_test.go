@@ -177,24 +177,25 @@ func BenchmarkReportDemo(b *testing.B) {
 
 // A title or name the font cannot draw (an emoji) is printed with Missing in
 // its place, and said so; a title that looks like a page-count placeholder
-// is printed as written.
+// ("{nb}", or the private-use characters the footers use) is printed as
+// written or as Missing, never as the page count.
 func TestUndrawableAndPlaceholderText(t *testing.T) {
 	data, err := os.ReadFile("../../testdata/examples/weak-probe.toml")
 	if err != nil {
 		t.Fatal(err)
 	}
 	a := safetytest.Evaluate(t, "weak-probe.toml", data)
-	a.Setup.Meta.Title = "Table {nb} \U0001F52C probe"
+	a.Setup.Meta.Title = "Table {nb} \U0001F52C probe \ue000\ue001"
 	doc := report.Build(a, report.Meta{Date: "2026-01-02", ToolVersion: "test", SetupBytes: data})
 	var b bytes.Buffer
 	if err := Write(&b, doc, Options{Date: time.Date(2026, 1, 2, 0, 0, 0, 0, time.UTC)}); err != nil {
 		t.Fatal(err)
 	}
-	if doc.Title != "Table {nb} \U0001F52C probe" {
+	if doc.Title != "Table {nb} \U0001F52C probe \ue000\ue001" {
 		t.Errorf("Write changed the caller's document: %q", doc.Title)
 	}
 	text, pages := pdfText(t, b.Bytes())
-	for _, want := range []string{"Table {nb} ? probe", "1 character(s) of the setup's text that the embedded font cannot draw are printed as \"?\"", fmt.Sprintf("page 1 of %d", pages)} {
+	for _, want := range []string{"Table {nb} ? probe ??", "3 character(s) of the setup's text that the embedded font cannot draw are printed as \"?\"", fmt.Sprintf("page 1 of %d", pages)} {
 		if !strings.Contains(text, want) {
 			t.Errorf("PDF text lacks %q", want)
 		}
