@@ -1,7 +1,6 @@
 package view
 
 import (
-	"fmt"
 	"io"
 	"strings"
 	"unicode/utf8"
@@ -85,10 +84,10 @@ func WriteText(w io.Writer, d *Doc) error {
 	ew := &errWriter{w: w}
 	for i, s := range d.Sections {
 		if i > 0 {
-			ew.printf("\n")
+			ew.write("\n")
 		}
 		if s.Heading != "" {
-			ew.printf("%s\n", s.Heading)
+			ew.line(s.Heading)
 		}
 		for _, b := range s.Blocks {
 			indent := strings.Repeat("  ", b.Indent)
@@ -99,10 +98,10 @@ func WriteText(w io.Writer, d *Doc) error {
 				writePeople(ew, b.Record, indent, false)
 			case b.Bullets != nil:
 				for _, x := range b.Bullets {
-					ew.printf("%s- %s\n", indent, x)
+					ew.line(indent, "- ", x)
 				}
 			default:
-				ew.printf("%s%s\n", indent, b.Line)
+				ew.line(indent, b.Line)
 			}
 		}
 	}
@@ -112,12 +111,12 @@ func WriteText(w io.Writer, d *Doc) error {
 func writeList(ew *errWriter, l *List, indent string) {
 	indent += strings.Repeat("  ", l.Indent)
 	if l.Heading != "" {
-		ew.printf("%s%s\n", indent, l.Heading)
+		ew.line(indent, l.Heading)
 		indent += "  "
 	}
 	if len(l.Records) == 0 {
 		if l.Empty != "" {
-			ew.printf("%s%s\n", indent, l.Empty)
+			ew.line(indent, l.Empty)
 		}
 		return
 	}
@@ -153,7 +152,7 @@ func writeList(ew *errWriter, l *List, indent string) {
 	}
 	for i := range l.Records {
 		if l.Gap {
-			ew.printf("\n")
+			ew.write("\n")
 		}
 		writePeople(ew, &l.Records[i], indent, len(l.Columns) > 0)
 	}
@@ -164,7 +163,7 @@ func writeList(ew *errWriter, l *List, indent string) {
 // follow.
 func writePeople(ew *errWriter, r *Record, indent string, inTable bool) {
 	for _, line := range r.Lines {
-		ew.printf("%s%s\n", indent, r.Expand(line))
+		ew.line(indent, r.Expand(line))
 	}
 	if !inTable {
 		for i := range r.Members {
@@ -175,7 +174,7 @@ func writePeople(ew *errWriter, r *Record, indent string, inTable bool) {
 		}
 	}
 	for _, line := range r.After {
-		ew.printf("%s%s\n", indent, r.Expand(line))
+		ew.line(indent, r.Expand(line))
 	}
 }
 
@@ -193,11 +192,20 @@ type errWriter struct {
 	err error
 }
 
-func (e *errWriter) printf(format string, args ...any) {
+// line writes the parts of one line and its line break.
+func (e *errWriter) line(parts ...string) {
+	for _, p := range parts {
+		e.write(p)
+	}
+	e.write("\n")
+}
+
+func (e *errWriter) write(s string) {
 	if e.err == nil {
-		_, e.err = fmt.Fprintf(e.w, format, args...)
+		_, e.err = io.WriteString(e.w, s)
 	}
 }
+
 
 // table lays out rows in columns: the first `left` columns flush left, the
 // rest flush right except the last when lastLeft is set, separated by two
@@ -241,5 +249,5 @@ func (t *table) write(ew *errWriter, indent string) {
 		}
 		b.WriteString("\n")
 	}
-	ew.printf("%s", b.String())
+	ew.write(b.String())
 }
