@@ -206,7 +206,6 @@ func (e *errWriter) write(s string) {
 	}
 }
 
-
 // table lays out rows in columns: the first `left` columns flush left, the
 // rest flush right except the last when lastLeft is set, separated by two
 // spaces.
