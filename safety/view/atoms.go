@@ -10,7 +10,7 @@ import (
 )
 
 func atomsList(a *safety.Assessment) *List {
-	l := &List{Key: "atoms"}
+	l := &List{Key: "atoms", Records: make([]Record, 0, len(a.Atoms))}
 	for _, at := range a.Atoms {
 		l.Records = append(l.Records, atomsRecord(at))
 	}
@@ -114,7 +114,7 @@ func atomsRecord(a *budget.AtomsResult) Record {
 }
 
 func goalRecord(a *budget.AtomsResult, g *budget.GoalResult) *Record {
-	r := &Record{}
+	r := &Record{Members: make([]Member, 0, 20)}
 	r.F(Str(dKind2, g.Kind))
 	switch g.Kind {
 	case budget.GoalRabi, budget.GoalCollective:

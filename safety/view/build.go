@@ -15,7 +15,7 @@ import (
 // people read, from one pass over the results.
 func Build(a *safety.Assessment) *Doc {
 	s := a.Setup
-	d := &Doc{JSON: &Record{}}
+	d := &Doc{JSON: &Record{Members: make([]Member, 0, 16)}}
 	setup := &Record{}
 	setup.F(Str(dFile, s.File)).F(Str(dTitle, s.Meta.Title)).F(Str(dSite, s.Meta.Site)).
 		F(Str(dPreparedBy, s.Meta.PreparedBy)).F(Str(dRevision, s.Meta.Revision))
@@ -72,7 +72,7 @@ func yesNo(b bool) string {
 
 // pathsList is every path's budget: its start, every element, its open end.
 func pathsList(a *safety.Assessment) *List {
-	l := &List{Key: "paths", Gap: true}
+	l := &List{Key: "paths", Gap: true, Records: make([]Record, 0, len(a.Budget.Paths))}
 	for _, pb := range a.Budget.Paths {
 		l.Records = append(l.Records, pathRecord(pb))
 	}
@@ -99,8 +99,8 @@ func pathRecord(pb *budget.PathBudget) Record {
 	r.F(Field{d: dSource, Kind: String, Text: src, People: true})
 	r.Line(fmt.Sprintf("Path %q from {source}, {wavelength_m}", p.Name))
 	r.Line("  powers at the operating power {operating_power_w} (maximum {max_power_w}); W = 1/e² radius arriving at the element; peak irradiance 2P/(πWxWy) on arrival")
-	els := &List{Key: "elements", Columns: []string{"index", "element", "at_m", "radius_x_m", "radius_y_m", "power_in_w", "power_out_w", "peak_irradiance_w_m2", "cumulative_loss_db", "losses_here"}, Left: 2, Indent: 1}
-	lead := &Record{}
+	els := &List{Key: "elements", Columns: []string{"index", "element", "at_m", "radius_x_m", "radius_y_m", "power_in_w", "power_out_w", "peak_irradiance_w_m2", "cumulative_loss_db", "losses_here"}, Left: 2, Indent: 1, Records: make([]Record, 0, len(pb.Rows))}
+	lead := &Record{Members: make([]Member, 0, 10)}
 	lead.F(Whole(dIndex, 0)).F(Field{d: dElement4, Kind: String, Text: "start", People: true}).
 		F(Field{d: dAtM3, Kind: Number, SI: 0, Text: "0 mm"}).
 		F(Field{d: dRadiusXM2, Kind: Number, SI: sx, Text: budget.FormatLength(sx)}).
@@ -199,7 +199,7 @@ func prefixKeys(lines []string, prefix string) []string {
 
 func fiberRecord(row *budget.Row, fc *budget.FiberCoupling) *Record {
 	e := row.Element
-	f := &Record{}
+	f := &Record{Members: make([]Member, 0, 10)}
 	f.F(Num(dModeOverlap, fc.Overlap, fmt.Sprintf("%.1f %%", 100*fc.Overlap))).
 		F(Num(dAlignment, fc.Alignment, fmt.Sprintf("%g", fc.Alignment))).
 		F(Num(dCoupling, fc.Coupling, fmt.Sprintf("%.1f %%", 100*fc.Coupling))).
@@ -229,7 +229,7 @@ func fiberRecord(row *budget.Row, fc *budget.FiberCoupling) *Record {
 }
 
 func balancesList(a *safety.Assessment) *List {
-	l := &List{Key: "balances"}
+	l := &List{Key: "balances", Records: make([]Record, 0, len(a.Budget.Balances))}
 	for _, bal := range a.Budget.Balances {
 		op := bal.Laser.OperatingPower
 		var r Record
@@ -252,7 +252,7 @@ func balancesList(a *safety.Assessment) *List {
 }
 
 func findingsList(a *safety.Assessment) *List {
-	l := &List{Key: "findings", Empty: "none in what was evaluated (see the assumptions above)"}
+	l := &List{Key: "findings", Empty: "none in what was evaluated (see the assumptions above)", Records: make([]Record, 0, len(a.Findings))}
 	for _, f := range a.Findings {
 		r := Record{Members: make([]Member, 0, 11)}
 		r.F(Str(dSeverity, string(f.Severity))).F(Str(dKind4, string(f.Kind))).

@@ -40,16 +40,16 @@ func hazards(a *safety.Assessment) hazardView {
 	v.json.F(Str(dStandard, safety.Standard)).
 		F(StrList(dAssumptions, Assumptions(a.Setup))).
 		F(StrList(dCautions, Cautions))
-	v.lasers = &List{Key: "lasers", Heading: "Sources", Columns: []string{"name", "wavelength_m", "power_w", "emission", "class_text", "eye_mpe_irradiance_w_m2", "skin_mpe_irradiance_w_m2", "duration_s", "eye_aperture_diameter_m"}}
+	v.lasers = &List{Key: "lasers", Heading: "Sources", Columns: []string{"name", "wavelength_m", "power_w", "emission", "class_text", "eye_mpe_irradiance_w_m2", "skin_mpe_irradiance_w_m2", "duration_s", "eye_aperture_diameter_m"}, Records: make([]Record, 0, len(h.Lasers))}
 	for _, ll := range h.Lasers {
 		v.lasers.Records = append(v.lasers.Records, laserRecord(ll))
 	}
 	v.exposures = &List{Key: "exposures", Heading: "Open segments (worst point; ratio = aperture-averaged irradiance ÷ MPE)", Empty: "no open segment carries light",
-		Columns: []string{"segment", "power_w", "aperture_irradiance_w_m2", "ratio", "od_required", "skin_ratio", "worst_at_m", "nohd"}}
+		Columns: []string{"segment", "power_w", "aperture_irradiance_w_m2", "ratio", "od_required", "skin_ratio", "worst_at_m", "nohd"}, Records: make([]Record, 0, len(h.Exposures))}
 	for _, e := range h.Exposures {
 		v.exposures.Records = append(v.exposures.Records, exposureRecord(e))
 	}
-	v.reflections = &List{Key: "reflections"}
+	v.reflections = &List{Key: "reflections", Records: make([]Record, 0, len(h.Reflections))}
 	v.stray = &List{Heading: "Stray reflections above the eye MPE (at the reflecting surface)", Empty: "none of the surfaces reached through open segments reflects above the MPE"}
 	v.escaping = &List{Heading: "Beams leaving the path above the eye MPE (mirror leakage, AOM orders other than the one used)", Empty: "none"}
 	v.diffuse = &List{Heading: "Diffuse reflections (nominal hazard zone r = √(ρP/(π MPE)) of a Lambertian reflector, viewed along its normal, small-source MPE: conservative)", Empty: "no dump or path end is reached through an open segment"}
