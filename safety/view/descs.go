@@ -1,8 +1,9 @@
-// Code generated from the view builders; the descriptors of the view's fields.
-
 package view
 
-// Field descriptors: JSON key, label for people, and the result field shown.
+// The descriptors of the view's fields, one per kind of field: its JSON key,
+// its label for people, and the result field it shows. A field is built
+// with its descriptor (Num(dPowerW, …)), so that every field of a kind
+// shares these strings. A new field gets its descriptor here.
 var (
 	dAelClass1W                  = &Desc{"ael_class_1_w", "Class 1", "LaserLimits.AEL"}
 	dAelClass2W                  = &Desc{"ael_class_2_w", "Class 2", "LaserLimits.AEL"}
