@@ -32,11 +32,11 @@
 //	| quantity | expression | source | function | test |
 //	| --- | --- | --- | --- | --- |
 //	| beam radius W(z) | 1/q = 1/R − i M²λ/(πW²) | Saleh & Teich (2007) eqs. (3.1-8)–(3.1-19); Siegman (1986) §17.4 | Plane.Radius | TestPlaneTextbookHeNe |
-//	| Rayleigh range | z_R = πW0²/(M²λ) | Saleh & Teich (2007) eq. (3.1-11) | Plane.RayleighRange | TestPlaneM2 |
+//	| Rayleigh range | z_R = πW0²/(M²λ) | Saleh & Teich (2007) eq. (3.1-11) | Plane.RayleighRange | ExampleNewPlane |
 //	| far-field half-angle | θ = M²λ/(πW0) | Saleh & Teich (2007) eq. (3.1-19) | Plane.Divergence | TestPlaneTextbookHeNe |
 //	| thin lens | ABCD (1, 0; −1/f, 1) | Self, Appl. Opt. 22, 658 (1983) | Plane.Lens | TestLensSelf1983 |
 //	| plate focus shift | t(1 − 1/n) | Siegman (1986) §15.1 | Beam.Slab | TestSlabFocusShift |
-//	| peak irradiance | I₀ = 2P/(π Wx Wy) | Siegman (1986) §17.1 | Beam.PeakIrradiance | TestPeakIrradiance |
+//	| peak irradiance | I₀ = 2P/(π Wx Wy) | Siegman (1986) §17.1 | Beam.PeakIrradiance | ExampleBeam_PeakIrradiance |
 //	| power for a peak irradiance | P = I₀ π Wx Wy / 2 | Siegman (1986) §17.1 | Beam.PowerForPeakIrradiance | TestPeakIrradiance |
 //	| paraxial bound | θ ≤ 0.5 rad | Siegman (1986) §16.1 (common practice) | Beam.HalfAngle | TestBeamValidity |
 //	| clipped fraction | ∬ over a centred circle of an elliptical Gaussian | 1 − exp(−2a²/W²); gonum quadrature | CircleFraction | TestCircleFractionEllipticalQuadrature |

@@ -156,3 +156,26 @@ func TestDecibels(t *testing.T) {
 		t.Errorf("got %g", got)
 	}
 }
+
+// Worked example: a He-Ne beam, λ = 632.8 nm, W0 = 0.5 mm, one Rayleigh
+// range from its waist: W = √2 W0 and R = 2 z_R (Saleh and Teich,
+// Fundamentals of Photonics, 2nd ed. (2007), eqs. (3.1-8), (3.1-9),
+// (3.1-11)).
+func ExampleNewPlane() {
+	const λ, w0 = 632.8e-9, 0.5e-3
+	p := NewPlane(w0, 0, 1, λ)
+	zR := p.RayleighRange()
+	q := p.Propagate(zR)
+	fmt.Printf("z_R = %.4f m, W(z_R) = %.4f mm, R(z_R) = %.4f m\n", zR, q.Radius(λ)*1e3, 1/q.Curvature())
+	// Output: z_R = 1.2411 m, W(z_R) = 0.7071 mm, R(z_R) = 2.4823 m
+}
+
+// Worked example: 1 mW in a round beam of 1/e² radius 1 mm has the peak
+// irradiance 2P/(πW²) = 636.6 W/m², 63.66 mW/cm² (Siegman, Lasers (1986),
+// §17.1).
+func ExampleBeam_PeakIrradiance() {
+	λ := 780e-9
+	b := Beam{Wavelength: λ, X: NewPlane(1e-3, 0, 1, λ), Y: NewPlane(1e-3, 0, 1, λ)}
+	fmt.Printf("%.1f W/m² = %s\n", b.PeakIrradiance(1e-3), FormatIrradiance(b.PeakIrradiance(1e-3)))
+	// Output: 636.6 W/m² = 63.66 mW/cm²
+}
