@@ -46,5 +46,6 @@
 //	| fibre output waist | W = λf/(π MFD/2) | Gaussian far field, common practice | FiberOutputWaist | TestFiberOutputWaist |
 //	| axial curvature of I | κ = g''/g, g = 1/(Wx Wy) | Siegman (1986) §17.1 (κ = −2/z_R² at a focus) | axialCurvature | TestAxialTrapFrequencyAtAndOffFocus |
 //	| light frequency | ν = c/λ + AOM shifts | CODATA c; Steck Rb-87 table 3 | LightFrequency | TestLightFrequency |
+//	| default viewing duration | 0.25 s in 400–700 nm, else 10 s | IEC 60825-1:2014 (from memory) | DefaultViewingDuration | TestDefaultViewingDuration |
 //	| loss in dB | 10 log10(ratio) | common practice | Decibels | TestDecibels |
 package budget

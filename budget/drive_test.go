@@ -337,3 +337,16 @@ func TestLightFrequency(t *testing.T) {
 		t.Errorf("ν = %.6f THz", got/1e12)
 	}
 }
+
+// Default viewing durations: the 0.25 s aversion response for visible light
+// (400–700 nm) and 10 s elsewhere for unintended viewing (IEC 60825-1:2014,
+// the time bases of classification, from memory).
+func TestDefaultViewingDuration(t *testing.T) {
+	for _, tc := range []struct{ λ, want float64 }{{400e-9, 0.25}, {633e-9, 0.25}, {700e-9, 0.25}, {399e-9, 10}, {780e-9, 10}, {10.6e-6, 10}} {
+		t.Run(fmt.Sprint(tc), func(t *testing.T) {
+			if got := DefaultViewingDuration(tc.λ); got != tc.want {
+				t.Errorf("%g m: %g s, want %g s", tc.λ, got, tc.want)
+			}
+		})
+	}
+}

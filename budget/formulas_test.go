@@ -26,8 +26,8 @@ func TestFormulaIndex(t *testing.T) {
 	for dir, doc := range docs {
 		t.Run(dir, func(t *testing.T) {
 			rows := formulaRows(t, filepath.Join(dir, doc))
-			if len(rows) < 5 {
-				t.Fatalf("%s: %d rows in its Formulas table, want the package's formulas", dir, len(rows))
+			if len(rows) == 0 {
+				t.Fatalf("%s: no Formulas table in %s", dir, doc)
 			}
 			decls, tests := packageFuncs(t, dir)
 			for _, r := range rows {

@@ -89,6 +89,18 @@ func (l *loader) setup(raw map[string]any) *Setup {
 	for i, m := range lasers {
 		s.Lasers = append(s.Lasers, l.laser(i, m))
 	}
+	// A stated viewing duration shorter than the one assumed for a laser's
+	// wavelength (10 s outside the visible, where no aversion response ends
+	// an exposure) makes that laser's limit less strict: it needs a reason.
+	if e := s.Meta.Exposure; e >= AversionExposure && strings.TrimSpace(s.Meta.ExposureReason) == "" {
+		for _, las := range s.Lasers {
+			if d := DefaultViewingDuration(las.Wavelength); las.Wavelength > 0 && e < d {
+				l.addf(l.lines.line("setup", "exposure"), "[setup]", "exposure: %s is shorter than the %g s assumed for unintended viewing of laser %q at %s (outside 400–700 nm no aversion response ends an exposure); a shorter viewing duration needs exposure_reason",
+					FormatSI(e, "s"), d, las.Name, FormatLength(las.Wavelength))
+				break
+			}
+		}
+	}
 	for i, m := range clouds {
 		s.Clouds = append(s.Clouds, l.cloud(i, m))
 	}

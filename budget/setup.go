@@ -32,7 +32,20 @@ type Meta struct {
 const (
 	AversionExposure = 0.25
 	MinExposure      = 1e-3
+	// InvisibleExposure is the viewing duration assumed outside 400–700 nm,
+	// where no aversion response ends an exposure, s.
+	InvisibleExposure = 10
 )
+
+// DefaultViewingDuration is the viewing duration assumed for unintended
+// exposure at wavelength λ (m) when the setup states none: the aversion
+// response in 400–700 nm, 10 s elsewhere, s.
+func DefaultViewingDuration(λ float64) float64 {
+	if λ >= 400e-9 && λ <= 700e-9 {
+		return AversionExposure
+	}
+	return InvisibleExposure
+}
 
 // Emission kinds.
 const (

@@ -19,5 +19,4 @@
 //	| worst point of a segment | maximum between the x and y waists | golden-section search | maxAlong | TestMaxAlongFindsFocus |
 //	| hazard distance | propagated until below the MPE | IEC closed form for a diverging beam | hazardDistance | TestHazardDistanceMatchesClosedForm |
 //	| diffuse hazard zone | r = √(ρP cos θ/(π MPE)) | Lambertian reflector, by hand | DiffuseHazardRadius | ExampleDiffuseHazardRadius |
-//	| default viewing duration | 0.25 s in 400–700 nm, else 10 s | IEC 60825-1:2014 (from memory) | DefaultDuration | TestDefaultDuration |
 package safety

@@ -19,7 +19,7 @@ const Standard = "IEC 60825-1:2014 (Edition 3)"
 // in the visible, 10 s elsewhere.
 const (
 	DurationVisible = budget.AversionExposure
-	DurationOther   = 10
+	DurationOther   = budget.InvisibleExposure
 )
 
 // DefaultSurfaceReflectance is assumed per uncoated glass surface (common
@@ -59,17 +59,7 @@ func ViewingDuration(s *budget.Setup, λ float64) float64 {
 	if s.Meta.Exposure > 0 {
 		return s.Meta.Exposure
 	}
-	return DefaultDuration(λ)
-}
-
-// DefaultDuration is the viewing duration assumed for unintended exposure at
-// wavelength λ (m) when the setup states none: the 0.25 s aversion response
-// in 400–700 nm, 10 s elsewhere, s.
-func DefaultDuration(λ float64) float64 {
-	if λ >= 400e-9 && λ <= 700e-9 {
-		return DurationVisible
-	}
-	return DurationOther
+	return budget.DefaultViewingDuration(λ)
 }
 
 // DurationAssumption says in words which viewing durations the evaluation

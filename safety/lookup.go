@@ -49,7 +49,7 @@ func LookUpLimits(q LimitsQuery) (*LimitsLookup, error) {
 	λ, α := q.Wavelength, q.AngularSubtense
 	r := &LimitsLookup{Query: q, Duration: q.Duration}
 	if r.Duration == 0 {
-		r.Duration = DefaultDuration(λ)
+		r.Duration = budget.DefaultViewingDuration(λ)
 	}
 	t := r.Duration
 	pulsed := q.PulseDuration > 0 || q.RepetitionRate > 0
