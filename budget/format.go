@@ -1,10 +1,9 @@
 package budget
 
 import (
-	"fmt"
+	"bytes"
 	"math"
 	"strconv"
-	"strings"
 )
 
 // Formatting of quantities for people. Every function takes SI base units.
@@ -16,48 +15,71 @@ var siPrefixes = []struct {
 
 // FormatSI writes v with an SI prefix chosen so that the mantissa lies in
 // [1, 1000), with four significant digits: FormatSI(0.0012, "W") = "1.2 mW".
-func FormatSI(v float64, unit string) string {
+func FormatSI(v float64, unit string) string { return string(AppendSI(nil, v, unit)) }
+
+// AppendSI appends v as FormatSI writes it.
+func AppendSI(dst []byte, v float64, unit string) []byte {
 	if v == 0 || math.IsNaN(v) || math.IsInf(v, 0) {
-		return fmt.Sprintf("%s %s", trimFloat(v, 4), unit)
+		dst = appendTrimmed(dst, v, 4)
+		dst = append(dst, ' ')
+		return append(dst, unit...)
 	}
 	a := math.Abs(v)
 	for _, p := range siPrefixes {
 		if a >= p.scale*(1-5e-5) || p.symbol == "f" {
-			return trimFloat(v/p.scale, 4) + " " + p.symbol + unit
+			dst = appendTrimmed(dst, v/p.scale, 4)
+			dst = append(dst, ' ')
+			dst = append(dst, p.symbol...)
+			return append(dst, unit...)
 		}
 	}
-	return trimFloat(v, 4) + " " + unit
+	dst = appendTrimmed(dst, v, 4)
+	dst = append(dst, ' ')
+	return append(dst, unit...)
 }
 
-// trimFloat formats with n significant digits and no exponent for ordinary
-// magnitudes, dropping trailing zeros.
-func trimFloat(v float64, n int) string {
+// appendTrimmed appends v with n significant digits and no exponent for
+// ordinary magnitudes, dropping trailing zeros.
+func appendTrimmed(dst []byte, v float64, n int) []byte {
 	if v == 0 {
-		return "0"
+		return append(dst, '0')
 	}
-	s := strconv.FormatFloat(v, 'g', n, 64)
-	if strings.ContainsAny(s, "e") && !math.IsInf(v, 0) && !math.IsNaN(v) {
-		f, _ := strconv.ParseFloat(s, 64)
+	k := len(dst)
+	dst = strconv.AppendFloat(dst, v, 'g', n, 64)
+	if !math.IsInf(v, 0) && !math.IsNaN(v) && bytes.IndexByte(dst[k:], 'e') >= 0 {
+		f, _ := strconv.ParseFloat(string(dst[k:]), 64)
 		if math.Abs(f) >= 1e-4 && math.Abs(f) < 1e7 {
-			s = strconv.FormatFloat(f, 'f', -1, 64)
+			dst = strconv.AppendFloat(dst[:k], f, 'f', -1, 64)
 		}
 	}
-	return s
+	return dst
 }
 
 // FormatNumber writes a bare number with four significant digits, without an
-// exponent between 1e-4 and 1e15.
-func FormatNumber(v float64) string { return trimFloat(v, 4) }
+// exponent between 1e-4 and 1e7.
+func FormatNumber(v float64) string { return string(AppendNumber(nil, v)) }
+
+// AppendNumber appends v as FormatNumber writes it.
+func AppendNumber(dst []byte, v float64) []byte { return appendTrimmed(dst, v, 4) }
 
 // FormatLength writes a length with a readable prefix: "1.35 m", "250 mm".
 func FormatLength(m float64) string { return FormatSI(m, "m") }
 
+// AppendLength appends a length as FormatLength writes it.
+func AppendLength(dst []byte, m float64) []byte { return AppendSI(dst, m, "m") }
+
 // FormatPower writes a power: "1.1 W", "250 mW".
 func FormatPower(w float64) string { return FormatSI(w, "W") }
 
+// AppendPower appends a power as FormatPower writes it.
+func AppendPower(dst []byte, w float64) []byte { return AppendSI(dst, w, "W") }
+
 // FormatIrradiance writes an irradiance in W/cm² (the unit the lab reads):
 // input W/m².
-func FormatIrradiance(wm2 float64) string { return FormatSI(wm2*1e-4, "W/cm²") }
+func FormatIrradiance(wm2 float64) string { return string(AppendIrradiance(nil, wm2)) }
+
+// AppendIrradiance appends an irradiance as FormatIrradiance writes it.
+func AppendIrradiance(dst []byte, wm2 float64) []byte { return AppendSI(dst, wm2*1e-4, "W/cm²") }
 
 // FormatFrequency writes a frequency in Hz with a prefix.
 func FormatFrequency(hz float64) string { return FormatSI(hz, "Hz") }

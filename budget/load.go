@@ -7,6 +7,7 @@ import (
 	"io/fs"
 	"math"
 	"os"
+	"slices"
 	"sort"
 	"strings"
 	"unicode"
@@ -124,14 +125,26 @@ func (l *loader) addf(line int, context, format string, args ...any) {
 type table struct {
 	l       *loader
 	context string // e.g. `path "drive", element 3 (lens)`
-	loc     string // line-index key, e.g. "path[0].element[2]"
-	m       map[string]any
-	used    map[string]bool
-	hint    func() string // added to "unknown key" messages, built only when needed
+	// describe, when set, names the table in messages instead of context;
+	// it is called only when there is something to report.
+	describe func() string
+	loc      string // line-index key, e.g. "path[0].element[2]"
+	m        map[string]any
+	// used lists the keys of m that a reader asked for.
+	used []string
+	hint func() string // added to "unknown key" messages, built only when needed
 }
 
 func (l *loader) table(context, loc string, m map[string]any) *table {
-	return &table{l: l, context: context, loc: loc, m: m, used: map[string]bool{}}
+	return &table{l: l, context: context, loc: loc, m: m}
+}
+
+// where names the table in messages.
+func (t *table) where() string {
+	if t.describe != nil {
+		return t.describe()
+	}
+	return t.context
 }
 
 func (t *table) line(key string) int { return t.l.lines.line(t.loc, key) }
@@ -141,12 +154,14 @@ func (t *table) fail(key, format string, args ...any) {
 	if key != "" {
 		msg = key + ": " + msg
 	}
-	t.l.addf(t.line(key), t.context, "%s", msg)
+	t.l.addf(t.line(key), t.where(), "%s", msg)
 }
 
 func (t *table) get(key string) (any, bool) {
-	t.used[key] = true
 	v, ok := t.m[key]
+	if ok && !slices.Contains(t.used, key) {
+		t.used = append(t.used, key)
+	}
 	return v, ok
 }
 
@@ -157,9 +172,12 @@ func (t *table) has(key string) bool {
 
 // done reports keys that no reader asked for.
 func (t *table) done() {
+	if len(t.used) == len(t.m) {
+		return
+	}
 	var unknown []string
 	for k := range t.m {
-		if !t.used[k] {
+		if !slices.Contains(t.used, k) {
 			unknown = append(unknown, k)
 		}
 	}

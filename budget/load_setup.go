@@ -3,6 +3,7 @@ package budget
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 
 	"beamledger/budget/atoms"
@@ -253,7 +254,7 @@ func (l *loader) eyewear(i int, m map[string]any) *Eyewear {
 		t.fail("bands", "missing (want [{ from = \"740 nm\", to = \"1100 nm\", od = 7 }, …])")
 	}
 	for k, b := range bands {
-		bt := l.table(fmt.Sprintf("%s, band %d", t.context, k+1), loc+".bands", b)
+		bt := l.table(fmt.Sprintf("%s, band %d", t.where(), k+1), loc+".bands", b)
 		var band EyewearBand
 		band.From = bt.positive("from", Length, true)
 		band.To = bt.positive("to", Length, true)
@@ -278,7 +279,7 @@ func (l *loader) path(i int, m map[string]any) *Path {
 	p.From = t.str("from", true)
 	p.Access = Access(t.enum("access", string(AccessOpen), string(AccessOpen), string(AccessEnclosed), string(AccessVacuum)))
 	for k, em := range t.tables("element") {
-		p.Elements = append(p.Elements, l.element(p, t.context, fmt.Sprintf("%s.element[%d]", loc, k), k, em))
+		p.Elements = append(p.Elements, l.element(p, t.where(), loc+".element["+strconv.Itoa(k)+"]", k, em))
 	}
 	t.done()
 	return p
@@ -297,7 +298,8 @@ func typeNames() string {
 }
 
 func (l *loader) element(p *Path, pathContext, loc string, k int, m map[string]any) *Element {
-	t := l.table(fmt.Sprintf("%s, element %d", pathContext, k+1), loc, m)
+	t := l.table("", loc, m)
+	t.describe = func() string { return fmt.Sprintf("%s, element %d", pathContext, k+1) }
 	e := &Element{Index: k + 1, Line: l.lines[loc]}
 	e.Type = ElementType(t.str("type", true))
 	kind, ok := KindOf(e.Type)
@@ -310,11 +312,13 @@ func (l *loader) element(p *Path, pathContext, loc string, k int, m map[string]a
 		}
 		return e
 	}
-	t.context = fmt.Sprintf("%s, element %d (%s)", pathContext, k+1, e.Type)
-	e.Name = t.name(e.Type == TypeSplitter)
-	if e.Name != "" {
-		t.context = fmt.Sprintf("%s, element %d (%s %q)", pathContext, k+1, e.Type, e.Name)
+	t.describe = func() string {
+		if e.Name != "" {
+			return fmt.Sprintf("%s, element %d (%s %q)", pathContext, k+1, e.Type, e.Name)
+		}
+		return fmt.Sprintf("%s, element %d (%s)", pathContext, k+1, e.Type)
 	}
+	e.Name = t.name(e.Type == TypeSplitter)
 	e.At, _ = t.quantity("at", Length, true)
 	if e.At < 0 {
 		t.fail("at", "must not be negative, got %s", show(m["at"]))

@@ -7,6 +7,7 @@ import (
 	"sort"
 	"strings"
 	"sync"
+	"sync/atomic"
 
 	"beamledger/budget"
 	"beamledger/limits"
@@ -199,6 +200,9 @@ type Hazards struct {
 	DefaultsAssumed []string
 }
 
+// pathsPerWorker is the least number of paths worth another core.
+const pathsPerWorker = 16
+
 func evaluateHazards(s *budget.Setup, b *budget.Budget) (*Hazards, error) {
 	h := &Hazards{}
 	byLaser := map[*budget.Laser]*LaserLimits{}
@@ -214,21 +218,32 @@ func evaluateHazards(s *budget.Setup, b *budget.Budget) (*Hazards, error) {
 				Message: fmt.Sprintf("laser %q: class %s", las.Name, ll.ClassNote)})
 		}
 	}
-	// Paths are independent: evaluate them on all cores, then gather the
-	// results in the setup's order so the output does not depend on timing.
+	// Paths are independent: evaluate them on all cores (a few paths are
+	// done sooner on one), then gather the results in the setup's order so
+	// the output does not depend on timing.
 	results := make([]pathHazardResult, len(b.Paths))
-	var wg sync.WaitGroup
-	sem := make(chan struct{}, runtime.GOMAXPROCS(0))
-	for i, pb := range b.Paths {
-		wg.Add(1)
-		sem <- struct{}{}
-		go func() {
-			defer wg.Done()
+	workers := min(runtime.GOMAXPROCS(0), len(b.Paths)/pathsPerWorker)
+	if workers <= 1 {
+		for i, pb := range b.Paths {
 			results[i] = pathHazards(pb, byLaser[pb.Laser])
-			<-sem
-		}()
+		}
+	} else {
+		var (
+			wg   sync.WaitGroup
+			next atomic.Int64
+		)
+		for range workers {
+			wg.Add(1)
+			go func() {
+				defer wg.Done()
+				for i := int(next.Add(1) - 1); i < len(b.Paths); i = int(next.Add(1) - 1) {
+					pb := b.Paths[i]
+					results[i] = pathHazards(pb, byLaser[pb.Laser])
+				}
+			}()
+		}
+		wg.Wait()
 	}
-	wg.Wait()
 	strayDefault, diffuseDefault := 0, 0
 	for _, r := range results {
 		h.Exposures = append(h.Exposures, r.exposures...)

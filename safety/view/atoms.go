@@ -9,10 +9,10 @@ import (
 	"beamledger/safety"
 )
 
-func atomsList(a *safety.Assessment) *List {
+func (b *builder) atomsList(a *safety.Assessment) *List {
 	l := &List{Key: "atoms", Records: make([]Record, 0, len(a.Atoms))}
 	for _, at := range a.Atoms {
-		l.Records = append(l.Records, atomsRecord(at))
+		l.Records = append(l.Records, b.atomsRecord(at))
 	}
 	return l
 }
@@ -22,20 +22,20 @@ func num(d *Desc, v float64) Field { return Plain(d, v) }
 // hzField is an angular frequency ω shown as ω/2π in Hz.
 func hzField(d *Desc, ω float64) Field { return Num(d, ω/(2*math.Pi), hz(ω)) }
 
-func atomsRecord(a *budget.AtomsResult) Record {
+func (b *builder) atomsRecord(a *budget.AtomsResult) Record {
 	e := a.Row.Element
 	tr := a.Transition
 	las := a.Path.Laser
 	wx, wy := a.Row.BeamIn.Radii()
-	r := Record{Members: make([]Member, 0, 40)}
+	r := Record{Members: b.members(40)}
 	r.F(Str(dPath, a.Path.Path.Name)).F(Whole(dElement2, e.Index)).
 		F(Str(dCloud, a.Cloud.Name)).F(Str(dTransition, tr.Name)).
 		F(Len(dAtM, e.At)).
 		F(Pow(dPowerW4, a.Power)).
 		F(Len(dRadiusXM, wx)).F(Len(dRadiusYM, wy)).
 		F(Irr(dPeakIrradianceWM2, a.PeakIrradiance)).
-		F(Num(dIrradianceAtRmsXRelative, a.EdgeRelative[0], fmt.Sprintf("%.1f %%", 100*a.EdgeRelative[0]))).
-		F(Num(dIrradianceAtRmsYRelative, a.EdgeRelative[1], fmt.Sprintf("%.1f %%", 100*a.EdgeRelative[1])))
+		F(Num(dIrradianceAtRmsXRelative, a.EdgeRelative[0], fixed(100*a.EdgeRelative[0], 1, " %"))).
+		F(Num(dIrradianceAtRmsYRelative, a.EdgeRelative[1], fixed(100*a.EdgeRelative[1], 1, " %")))
 	r.F(NumRows(dRadiusAtCloudEndsM, [][]float64{a.EndRadii[0][:], a.EndRadii[1][:]}, fmt.Sprintf("%s × %s and %s × %s", budget.FormatLength(a.EndRadii[0][0]), budget.FormatLength(a.EndRadii[0][1]), budget.FormatLength(a.EndRadii[1][0]), budget.FormatLength(a.EndRadii[1][1]))))
 	r.F(Field{d: dFocusX, Kind: Number, SI: a.FocusOffset[0], Text: budget.FormatLength(a.FocusOffset[0]), People: true}).
 		F(Field{d: dFocusY, Kind: Number, SI: a.FocusOffset[1], Text: budget.FormatLength(a.FocusOffset[1]), People: true})
@@ -71,7 +71,7 @@ func atomsRecord(a *budget.AtomsResult) Record {
 	}
 	var goal *Record
 	if g := a.Goal; g != nil {
-		goal = goalRecord(a, g)
+		goal = b.goalRecord(a, g)
 	}
 	r.O("goal", goal, false)
 
@@ -113,8 +113,8 @@ func atomsRecord(a *budget.AtomsResult) Record {
 	return r
 }
 
-func goalRecord(a *budget.AtomsResult, g *budget.GoalResult) *Record {
-	r := &Record{Members: make([]Member, 0, 20)}
+func (b *builder) goalRecord(a *budget.AtomsResult, g *budget.GoalResult) *Record {
+	r := &Record{Members: b.members(20)}
 	r.F(Str(dKind2, g.Kind))
 	switch g.Kind {
 	case budget.GoalRabi, budget.GoalCollective:

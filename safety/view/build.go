@@ -3,6 +3,7 @@ package view
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 	"sync"
 
@@ -11,11 +12,37 @@ import (
 	"beamledger/safety"
 )
 
+// builder hands out the members of records from large shared blocks, so
+// that a record costs no allocation of its own. One builder serves one
+// goroutine.
+type builder struct {
+	slab []Member
+}
+
+// slabSize is the number of members allocated at once.
+const slabSize = 512
+
+// members returns an empty slice with room for n members. Appending past n
+// moves the record's members to an allocation of their own, so records never
+// share space.
+func (b *builder) members(n int) []Member {
+	if cap(b.slab)-len(b.slab) < n {
+		b.slab = make([]Member, 0, max(slabSize, n))
+	}
+	k := len(b.slab)
+	b.slab = b.slab[:k+n]
+	return b.slab[k : k : k+n]
+}
+
+// parallelPaths is the number of paths from which Build uses two cores.
+const parallelPaths = 64
+
 // Build makes the view of an assessment: the JSON document and the sections
 // people read, from one pass over the results.
 func Build(a *safety.Assessment) *Doc {
 	s := a.Setup
-	d := &Doc{JSON: &Record{Members: make([]Member, 0, 16)}}
+	b := &builder{}
+	d := &Doc{JSON: &Record{Members: b.members(16)}}
 	setup := &Record{}
 	setup.F(Str(dFile, s.File)).F(Str(dTitle, s.Meta.Title)).F(Str(dSite, s.Meta.Site)).
 		F(Str(dPreparedBy, s.Meta.PreparedBy)).F(Str(dRevision, s.Meta.Revision))
@@ -28,20 +55,28 @@ func Build(a *safety.Assessment) *Doc {
 	if s.Meta.Revision != "" {
 		title += " — " + s.Meta.Revision
 	}
-	// The lists are independent: build them on two cores, assembled in a
-	// fixed order, so the output does not depend on timing.
+	// The lists are independent: for a large setup, build them on two
+	// cores, assembled in a fixed order, so the output does not depend on
+	// timing. A small one is done sooner on one.
 	var (
 		paths, atomsL, balances, findings *List
 		hz                                hazardView
 		wg                                sync.WaitGroup
 	)
-	wg.Add(1)
-	go func() {
-		defer wg.Done()
-		hz = hazards(a)
-		findings = findingsList(a)
-	}()
-	paths, atomsL, balances = pathsList(a), atomsList(a), balancesList(a)
+	second := func(b *builder) {
+		hz = b.hazards(a)
+		findings = b.findingsList(a)
+	}
+	if len(a.Budget.Paths) < parallelPaths {
+		second(b)
+	} else {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			second(&builder{})
+		}()
+	}
+	paths, atomsL, balances = b.pathsList(a), b.atomsList(a), b.balancesList(a)
 	wg.Wait()
 	d.JSON.L(paths)
 	d.Sections = append(d.Sections, Section{Blocks: []Block{{Line: title}, {Line: "setup file: " + s.File}, {List: paths}}})
@@ -71,18 +106,18 @@ func yesNo(b bool) string {
 }
 
 // pathsList is every path's budget: its start, every element, its open end.
-func pathsList(a *safety.Assessment) *List {
+func (b *builder) pathsList(a *safety.Assessment) *List {
 	l := &List{Key: "paths", Gap: true, Records: make([]Record, 0, len(a.Budget.Paths))}
 	for _, pb := range a.Budget.Paths {
-		l.Records = append(l.Records, pathRecord(pb))
+		l.Records = append(l.Records, b.pathRecord(pb))
 	}
 	return l
 }
 
-func pathRecord(pb *budget.PathBudget) Record {
+func (b *builder) pathRecord(pb *budget.PathBudget) Record {
 	p, las := pb.Path, pb.Laser
 	op := las.OperatingPower
-	r := Record{Members: make([]Member, 0, 16)}
+	r := Record{Members: b.members(16)}
 	src := fmt.Sprintf("laser %q", las.Name)
 	if p.Parent != nil {
 		src = fmt.Sprintf("the other port of %q on path %q (laser %q)", p.ParentPort.Name, p.Parent.Name, las.Name)
@@ -100,7 +135,7 @@ func pathRecord(pb *budget.PathBudget) Record {
 	r.Line(fmt.Sprintf("Path %q from {source}, {wavelength_m}", p.Name))
 	r.Line("  powers at the operating power {operating_power_w} (maximum {max_power_w}); W = 1/e² radius arriving at the element; peak irradiance 2P/(πWxWy) on arrival")
 	els := &List{Key: "elements", Columns: []string{"index", "element", "at_m", "radius_x_m", "radius_y_m", "power_in_w", "power_out_w", "peak_irradiance_w_m2", "cumulative_loss_db", "losses_here"}, Left: 2, Indent: 1, Records: make([]Record, 0, len(pb.Rows))}
-	lead := &Record{Members: make([]Member, 0, 10)}
+	lead := &Record{Members: b.members(10)}
 	lead.F(Whole(dIndex, 0)).F(Field{d: dElement4, Kind: String, Text: "start", People: true}).
 		F(Field{d: dAtM3, Kind: Number, SI: 0, Text: "0 mm"}).
 		F(Field{d: dRadiusXM2, Kind: Number, SI: sx, Text: budget.FormatLength(sx)}).
@@ -112,7 +147,7 @@ func pathRecord(pb *budget.PathBudget) Record {
 		F(Field{d: dLossesHere, Kind: String, Text: ""})
 	els.Lead = lead
 	for i := range pb.Rows {
-		els.Records = append(els.Records, elementRecord(&pb.Rows[i], op))
+		els.Records = append(els.Records, b.elementRecord(&pb.Rows[i], op))
 	}
 	r.L(els)
 	r.F(Flag(dOpenEnd2, pb.OpenEnd, yesNo(pb.OpenEnd)))
@@ -131,10 +166,10 @@ func pathRecord(pb *budget.PathBudget) Record {
 // list a loss (the JSON output and the balance keep it).
 const negligibleLoss = 1e-9
 
-func elementRecord(row *budget.Row, op float64) Record {
+func (b *builder) elementRecord(row *budget.Row, op float64) Record {
 	e := row.Element
 	wx, wy := row.BeamIn.Radii()
-	r := Record{Members: make([]Member, 0, 20)}
+	r := Record{Members: b.members(20)}
 	label := string(e.Type)
 	if e.Name != "" {
 		label += " " + e.Name
@@ -158,23 +193,24 @@ func elementRecord(row *budget.Row, op float64) Record {
 	r.F(Plain(dClipTransmission, row.ClipFraction)).
 		F(Flag(dAssumedLossless, row.AssumedLossless, yesNo(row.AssumedLossless)))
 	losses := &List{Key: "losses", Records: make([]Record, 0, len(row.Losses))}
-	var here []string
+	var here []byte // "kind power, kind power"
 	for _, l := range row.Losses {
-		lr := Record{Members: make([]Member, 0, 2)}
+		lr := Record{Members: b.members(2)}
 		lr.F(Str(dKind3, l.Kind)).F(Pow(dPowerW5, l.Fraction*op))
 		losses.Records = append(losses.Records, lr)
 		if l.Fraction >= negligibleLoss {
-			here = append(here, fmt.Sprintf("%s %s", l.Kind, budget.FormatPower(l.Fraction*op)))
+			here = appendItem(here, l.Kind)
+			here = budget.AppendPower(append(here, ' '), l.Fraction*op)
 		}
 	}
 	if row.AssumedLossless {
-		here = append(here, "lossless (assumed)")
+		here = appendItem(here, "lossless (assumed)")
 	}
 	r.L(losses)
-	r.F(Field{d: dLossesHere, Kind: String, Text: strings.Join(here, ", "), People: true})
+	r.F(Field{d: dLossesHere, Kind: String, Text: string(here), People: true})
 	var fiber *Record
 	if fc := row.Fiber; fc != nil {
-		fiber = fiberRecord(row, fc)
+		fiber = b.fiberRecord(row, fc)
 	}
 	r.O("fiber", fiber, true)
 	if fiber != nil {
@@ -197,12 +233,12 @@ func prefixKeys(lines []string, prefix string) []string {
 	return out
 }
 
-func fiberRecord(row *budget.Row, fc *budget.FiberCoupling) *Record {
+func (b *builder) fiberRecord(row *budget.Row, fc *budget.FiberCoupling) *Record {
 	e := row.Element
-	f := &Record{Members: make([]Member, 0, 10)}
-	f.F(Num(dModeOverlap, fc.Overlap, fmt.Sprintf("%.1f %%", 100*fc.Overlap))).
+	f := &Record{Members: b.members(10)}
+	f.F(Num(dModeOverlap, fc.Overlap, fixed(100*fc.Overlap, 1, " %"))).
 		F(Num(dAlignment, fc.Alignment, fmt.Sprintf("%g", fc.Alignment))).
-		F(Num(dCoupling, fc.Coupling, fmt.Sprintf("%.1f %%", 100*fc.Coupling))).
+		F(Num(dCoupling, fc.Coupling, fixed(100*fc.Coupling, 1, " %"))).
 		F(Flag(dCouplingGiven, fc.Given, yesNo(fc.Given))).
 		F(Flag(dUpperBound, fc.UpperBound, yesNo(fc.UpperBound))).
 		F(Len(dIdealFocalLengthXM, fc.IdealFocalLength[0])).
@@ -228,7 +264,7 @@ func fiberRecord(row *budget.Row, fc *budget.FiberCoupling) *Record {
 	return f
 }
 
-func balancesList(a *safety.Assessment) *List {
+func (b *builder) balancesList(a *safety.Assessment) *List {
 	l := &List{Key: "balances", Records: make([]Record, 0, len(a.Budget.Balances))}
 	for _, bal := range a.Budget.Balances {
 		op := bal.Laser.OperatingPower
@@ -251,31 +287,55 @@ func balancesList(a *safety.Assessment) *List {
 	return l
 }
 
-func findingsList(a *safety.Assessment) *List {
+// findingLines is the sentence of every finding (shared: records' lines are
+// only read).
+var findingLines = []string{"[{severity}] {where}{message}"}
+
+func (b *builder) findingsList(a *safety.Assessment) *List {
 	l := &List{Key: "findings", Empty: "none in what was evaluated (see the assumptions above)", Records: make([]Record, 0, len(a.Findings))}
 	for _, f := range a.Findings {
-		r := Record{Members: make([]Member, 0, 11)}
+		r := Record{Members: b.members(11)}
 		r.F(Str(dSeverity, string(f.Severity))).F(Str(dKind4, string(f.Kind))).
 			F(Str(dPath2, f.Path)).F(Whole(dElement3, f.Element)).
 			F(Len(dAtM2, f.At)).F(Str(dMessage, f.Message))
 		if f.Unit != "" {
-			r.F(Num(dValueSi, f.Value, budget.FormatNumber(f.Value)+" "+f.Unit)).
-				F(Num(dLimitSi, f.Limit, budget.FormatNumber(f.Limit)+" "+f.Unit)).
+			r.F(Num(dValueSi, f.Value, withUnit(f.Value, f.Unit))).
+				F(Num(dLimitSi, f.Limit, withUnit(f.Limit, f.Unit))).
 				F(Str(dUnit, f.Unit)).
 				F(Plain(dRatio3, f.Ratio()))
 		}
 		where := ""
 		if f.Path != "" {
-			where = fmt.Sprintf("path %q: ", f.Path)
+			where = "path " + strconv.Quote(f.Path) + ": "
 		}
 		r.F(Field{d: dWhere2, Kind: String, Text: where, People: true})
-		r.Line(fmt.Sprintf("[%s] {where}{message}", f.Severity))
+		r.Lines = findingLines
 		l.Records = append(l.Records, r)
 	}
 	return l
 }
 
-func fmtPct(f float64) string { return fmt.Sprintf("%.2f %%", 100*f) }
+// appendItem appends an item to a list written "a, b, c".
+func appendItem(list []byte, item string) []byte {
+	if len(list) > 0 {
+		list = append(list, ", "...)
+	}
+	return append(list, item...)
+}
+
+// withUnit writes a number and its unit: "3.2 W/m²".
+func withUnit(v float64, unit string) string {
+	b := budget.AppendNumber(make([]byte, 0, 16+len(unit)), v)
+	return string(append(append(b, ' '), unit...))
+}
+
+// fixed writes v with prec digits after the point, then the suffix.
+func fixed(v float64, prec int, suffix string) string {
+	b := strconv.AppendFloat(make([]byte, 0, 24+len(suffix)), v, 'f', prec, 64)
+	return string(append(b, suffix...))
+}
+
+func fmtPct(f float64) string { return fixed(100*f, 2, " %") }
 
 func fmtDB(f float64) string {
 	if f <= 0 {
@@ -285,7 +345,7 @@ func fmtDB(f float64) string {
 	if math.Abs(db) < 0.005 {
 		db = 0
 	}
-	return fmt.Sprintf("%.2f", db)
+	return fixed(db, 2, "")
 }
 
 func hz(ω float64) string { return budget.FormatFrequency(ω / (2 * math.Pi)) }

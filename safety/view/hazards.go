@@ -3,6 +3,7 @@ package view
 import (
 	"fmt"
 	"math"
+	"strconv"
 
 	"beamledger/budget"
 	"beamledger/safety"
@@ -34,7 +35,7 @@ type hazardView struct {
 	stray, escaping, diffuse                *List // the reflections by kind, for people
 }
 
-func hazards(a *safety.Assessment) hazardView {
+func (b *builder) hazards(a *safety.Assessment) hazardView {
 	h := a.Hazards
 	v := hazardView{json: &Record{}}
 	v.json.F(Str(dStandard, safety.Standard)).
@@ -42,19 +43,19 @@ func hazards(a *safety.Assessment) hazardView {
 		F(StrList(dCautions, Cautions))
 	v.lasers = &List{Key: "lasers", Heading: "Sources", Columns: []string{"name", "wavelength_m", "power_w", "emission", "class_text", "eye_mpe_irradiance_w_m2", "skin_mpe_irradiance_w_m2", "duration_s", "eye_aperture_diameter_m"}, Records: make([]Record, 0, len(h.Lasers))}
 	for _, ll := range h.Lasers {
-		v.lasers.Records = append(v.lasers.Records, laserRecord(ll))
+		v.lasers.Records = append(v.lasers.Records, b.laserRecord(ll))
 	}
 	v.exposures = &List{Key: "exposures", Heading: "Open segments (worst point; ratio = aperture-averaged irradiance ÷ MPE)", Empty: "no open segment carries light",
 		Columns: []string{"segment", "power_w", "aperture_irradiance_w_m2", "ratio", "od_required", "skin_ratio", "worst_at_m", "nohd"}, Records: make([]Record, 0, len(h.Exposures))}
 	for _, e := range h.Exposures {
-		v.exposures.Records = append(v.exposures.Records, exposureRecord(e))
+		v.exposures.Records = append(v.exposures.Records, b.exposureRecord(e))
 	}
 	v.reflections = &List{Key: "reflections", Records: make([]Record, 0, len(h.Reflections))}
 	v.stray = &List{Heading: "Stray reflections above the eye MPE (at the reflecting surface)", Empty: "none of the surfaces reached through open segments reflects above the MPE"}
 	v.escaping = &List{Heading: "Beams leaving the path above the eye MPE (mirror leakage, AOM orders other than the one used)", Empty: "none"}
 	v.diffuse = &List{Heading: "Diffuse reflections (nominal hazard zone r = √(ρP/(π MPE)) of a Lambertian reflector, viewed along its normal, small-source MPE: conservative)", Empty: "no dump or path end is reached through an open segment"}
 	for _, r := range h.Reflections {
-		rec := reflectionRecord(r)
+		rec := b.reflectionRecord(r)
 		v.reflections.Records = append(v.reflections.Records, rec)
 		switch r.Kind {
 		case safety.ReflectionStray:
@@ -67,7 +68,7 @@ func hazards(a *safety.Assessment) hazardView {
 	}
 	v.eyewear = &List{Key: "eyewear", Heading: "Eyewear (OD rounded up; EN 207 scale number for continuous emission, 315–1400 nm)", Empty: "no open exposure to evaluate"}
 	for _, n := range h.Eyewear {
-		v.eyewear.Records = append(v.eyewear.Records, eyewearRecord(n))
+		v.eyewear.Records = append(v.eyewear.Records, b.eyewearRecord(n))
 	}
 	v.json.L(v.lasers).L(v.exposures).L(v.reflections).L(v.eyewear).
 		F(StrList(dDefaultsAssumed, h.DefaultsAssumed))
@@ -86,9 +87,9 @@ func hazards(a *safety.Assessment) hazardView {
 	return v
 }
 
-func laserRecord(ll *safety.LaserLimits) Record {
+func (b *builder) laserRecord(ll *safety.LaserLimits) Record {
 	las := ll.Laser
-	r := Record{Members: make([]Member, 0, 20)}
+	r := Record{Members: b.members(20)}
 	cl := ll.Class
 	if cl == "" {
 		cl = "not assessed"
@@ -151,8 +152,8 @@ func classMeaning(c string) string {
 	return ""
 }
 
-func exposureRecord(e *safety.Exposure) Record {
-	r := Record{Members: make([]Member, 0, 20)}
+func (b *builder) exposureRecord(e *safety.Exposure) Record {
+	r := Record{Members: b.members(20)}
 	s := e.Segment
 	r.F(Str(dPath, e.Path.Path.Name)).
 		F(Whole(dAfterElement, s.After)).
@@ -191,15 +192,15 @@ func segLabel(e *safety.Exposure) string {
 	name := e.Path.Path.Name
 	switch {
 	case math.IsInf(s.To, 1):
-		return fmt.Sprintf("%s: after %d (open end)", name, s.After)
+		return name + ": after " + strconv.Itoa(s.After) + " (open end)"
 	case s.After == 0:
-		return fmt.Sprintf("%s: start → 1", name)
+		return name + ": start → 1"
 	}
-	return fmt.Sprintf("%s: %d → %d", name, s.After, s.After+1)
+	return name + ": " + strconv.Itoa(s.After) + " → " + strconv.Itoa(s.After+1)
 }
 
-func reflectionRecord(rf *safety.Reflection) Record {
-	r := Record{Members: make([]Member, 0, 14)}
+func (b *builder) reflectionRecord(rf *safety.Reflection) Record {
+	r := Record{Members: b.members(14)}
 	r.F(Str(dPath, rf.Path.Path.Name))
 	if rf.Element != nil {
 		r.F(Whole(dElement, rf.Element.Index))
@@ -224,11 +225,15 @@ func reflectionRecord(rf *safety.Reflection) Record {
 			F(Num(dHazardRadiusM, rf.Radius, safety.FormatDistance(rf.Radius)))
 	}
 	// A diffuse zone sits at a dump, or where an open end's beam lands.
-	el := "the open end"
+	where := make([]byte, 0, 64)
+	where = strconv.AppendQuote(append(where, "path "...), rf.Path.Path.Name)
 	if rf.Element != nil && (rf.Kind != safety.ReflectionDiffuse || rf.Element.Type == budget.TypeDump) {
-		el = fmt.Sprintf("element %d (%s)", rf.Element.Index, rf.Element.Label())
+		where = strconv.AppendInt(append(where, ", element "...), int64(rf.Element.Index), 10)
+		where = append(append(append(where, " ("...), rf.Element.Label()...), ')')
+	} else {
+		where = append(where, ", the open end"...)
 	}
-	r.F(Field{d: dWhere, Kind: String, Text: fmt.Sprintf("path %q, %s", rf.Path.Path.Name, el), People: true})
+	r.F(Field{d: dWhere, Kind: String, Text: string(where), People: true})
 	switch rf.Kind {
 	case safety.ReflectionStray:
 		r.Line("{where}: {surfaces} surface(s), R = {reflectance}{reflectance_assumed}, {power_w} each, {ratio} × the eye MPE, OD {od_required}")
@@ -241,7 +246,7 @@ func reflectionRecord(rf *safety.Reflection) Record {
 	return r
 }
 
-func eyewearRecord(n *safety.EyewearNeed) Record {
+func (b *builder) eyewearRecord(n *safety.EyewearNeed) Record {
 	var r Record
 	r.F(Nm(dWavelengthM2, n.Wavelength)).
 		F(Plain(dOdRequired3, n.OD))

@@ -39,24 +39,28 @@ func (r *Record) Expand(line string) string {
 	if !strings.Contains(line, "{") {
 		return line
 	}
-	var b strings.Builder
+	return string(r.appendExpanded(nil, line))
+}
+
+// appendExpanded appends the line, expanded as by Expand, to b.
+func (r *Record) appendExpanded(b []byte, line string) []byte {
 	for {
 		i := strings.IndexByte(line, '{')
 		if i < 0 {
-			b.WriteString(line)
-			return b.String()
+			return append(b, line...)
 		}
 		j := strings.IndexByte(line[i:], '}')
 		if j < 0 {
-			b.WriteString(line)
-			return b.String()
+			return append(b, line...)
 		}
-		b.WriteString(line[:i])
+		b = append(b, line[:i]...)
 		key := line[i+1 : i+j]
 		if f := r.Field(key); f != nil {
-			b.WriteString(f.Display())
+			b = f.appendDisplay(b)
 		} else {
-			b.WriteString("{" + key + "}")
+			b = append(b, '{')
+			b = append(b, key...)
+			b = append(b, '}')
 		}
 		line = line[i+j+1:]
 	}
@@ -81,7 +85,7 @@ func Keys(line string) []string {
 
 // WriteText writes the sections for the terminal.
 func WriteText(w io.Writer, d *Doc) error {
-	ew := &errWriter{w: w}
+	ew := &errWriter{w: w, buf: make([]byte, 0, 16<<10)}
 	for i, s := range d.Sections {
 		if i > 0 {
 			ew.write("\n")
@@ -105,6 +109,7 @@ func WriteText(w io.Writer, d *Doc) error {
 			}
 		}
 	}
+	ew.flush()
 	return ew.err
 }
 
@@ -121,26 +126,23 @@ func writeList(ew *errWriter, l *List, indent string) {
 		return
 	}
 	if len(l.Columns) > 0 {
-		t := &table{left: max(1, l.Left), lastLeft: true}
-		var head []string
+		n := len(l.Columns) * (len(l.Records) + 2)
+		t := &table{left: max(1, l.Left), lastLeft: true, cols: len(l.Columns),
+			text: make([]byte, 0, 12*n), ends: make([]int, 0, n)}
 		for _, k := range l.Columns {
 			if f := l.Records[0].Field(k); f != nil {
-				head = append(head, f.Label())
+				t.cell(f.Label())
 			} else {
-				head = append(head, k)
+				t.cell(k)
 			}
 		}
-		t.add(head...)
 		at := make([]int, len(l.Columns))
 		row := func(r *Record) {
-			cells := make([]string, len(l.Columns))
 			for c, k := range l.Columns {
 				var f *Field
-				if f, at[c] = r.fieldAt(k, at[c]); f != nil {
-					cells[c] = f.Display()
-				}
+				f, at[c] = r.fieldAt(k, at[c])
+				t.field(f)
 			}
-			t.add(cells...)
 		}
 		if l.Lead != nil {
 			row(l.Lead)
@@ -163,7 +165,7 @@ func writeList(ew *errWriter, l *List, indent string) {
 // follow.
 func writePeople(ew *errWriter, r *Record, indent string, inTable bool) {
 	for _, line := range r.Lines {
-		ew.line(indent, r.Expand(line))
+		ew.expanded(indent, r, line)
 	}
 	if !inTable {
 		for i := range r.Members {
@@ -174,7 +176,7 @@ func writePeople(ew *errWriter, r *Record, indent string, inTable bool) {
 		}
 	}
 	for _, line := range r.After {
-		ew.line(indent, r.Expand(line))
+		ew.expanded(indent, r, line)
 	}
 }
 
@@ -187,66 +189,116 @@ func hasLines(l *List) bool {
 	return false
 }
 
+// errWriter gathers the text in a buffer, writes it in large pieces and
+// keeps the first write error.
 type errWriter struct {
 	w   io.Writer
+	buf []byte
 	err error
 }
 
 // line writes the parts of one line and its line break.
 func (e *errWriter) line(parts ...string) {
 	for _, p := range parts {
-		e.write(p)
+		e.buf = append(e.buf, p...)
 	}
-	e.write("\n")
+	e.end()
+}
+
+// expanded writes a record's line, expanded against its fields.
+func (e *errWriter) expanded(indent string, r *Record, line string) {
+	e.buf = append(e.buf, indent...)
+	e.buf = r.appendExpanded(e.buf, line)
+	e.end()
 }
 
 func (e *errWriter) write(s string) {
-	if e.err == nil {
-		_, e.err = io.WriteString(e.w, s)
+	e.buf = append(e.buf, s...)
+}
+
+// end ends a line, and passes the buffer on when it is large.
+func (e *errWriter) end() {
+	e.buf = append(e.buf, '\n')
+	if len(e.buf) >= 8<<10 {
+		e.flush()
 	}
+}
+
+func (e *errWriter) flush() {
+	if e.err == nil && len(e.buf) > 0 {
+		_, e.err = e.w.Write(e.buf)
+	}
+	e.buf = e.buf[:0]
+}
+
+// spaces pads table cells.
+const spaces = "                                                                "
+
+// pad appends n spaces.
+func (e *errWriter) pad(n int) {
+	for n > len(spaces) {
+		e.buf = append(e.buf, spaces...)
+		n -= len(spaces)
+	}
+	e.buf = append(e.buf, spaces[:n]...)
 }
 
 // table lays out rows in columns: the first `left` columns flush left, the
 // rest flush right except the last when lastLeft is set, separated by two
-// spaces.
+// spaces. The cells' texts are kept in one buffer.
 type table struct {
 	left     int
 	lastLeft bool
-	rows     [][]string
+	cols     int
+	text     []byte
+	ends     []int // end of each cell in text, row by row
 }
 
-func (t *table) add(cells ...string) { t.rows = append(t.rows, cells) }
+// cell adds a cell with the text.
+func (t *table) cell(s string) {
+	t.text = append(t.text, s...)
+	t.ends = append(t.ends, len(t.text))
+}
+
+// field adds a cell with the field's text (empty for no field).
+func (t *table) field(f *Field) {
+	if f != nil {
+		t.text = f.appendDisplay(t.text)
+	}
+	t.ends = append(t.ends, len(t.text))
+}
 
 func (t *table) write(ew *errWriter, indent string) {
-	var widths []int
-	for _, r := range t.rows {
-		for i, c := range r {
-			if i >= len(widths) {
-				widths = append(widths, 0)
+	widths := make([]int, t.cols)
+	runes := make([]int, len(t.ends))
+	start := 0
+	for k, end := range t.ends {
+		runes[k] = utf8.RuneCount(t.text[start:end])
+		widths[k%t.cols] = max(widths[k%t.cols], runes[k])
+		start = end
+	}
+	start = 0
+	for k, end := range t.ends {
+		i := k % t.cols
+		if i == 0 {
+			ew.write(indent)
+		} else {
+			ew.write("  ")
+		}
+		c := t.text[start:end]
+		start = end
+		pad := widths[i] - runes[k]
+		if i < t.left || (t.lastLeft && i == t.cols-1) {
+			ew.buf = append(ew.buf, c...)
+			if i < t.cols-1 {
+				ew.pad(pad)
 			}
-			if n := utf8.RuneCountInString(c); n > widths[i] {
-				widths[i] = n
-			}
+		} else {
+			ew.pad(pad)
+			ew.buf = append(ew.buf, c...)
+		}
+		if i == t.cols-1 {
+			ew.end()
 		}
 	}
-	var b strings.Builder
-	for _, r := range t.rows {
-		b.WriteString(indent)
-		for i, c := range r {
-			pad := strings.Repeat(" ", widths[i]-utf8.RuneCountInString(c))
-			if i > 0 {
-				b.WriteString("  ")
-			}
-			if i < t.left || (t.lastLeft && i == len(r)-1) {
-				b.WriteString(c)
-				if i < len(r)-1 {
-					b.WriteString(pad)
-				}
-			} else {
-				b.WriteString(pad + c)
-			}
-		}
-		b.WriteString("\n")
-	}
-	ew.write(b.String())
 }

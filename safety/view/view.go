@@ -94,29 +94,37 @@ func (f *Field) Display() string {
 	if f.Text != "" || f.style == styleNone {
 		return f.Text
 	}
+	return string(f.appendDisplay(nil))
+}
+
+// appendDisplay appends the field's text for people to dst.
+func (f *Field) appendDisplay(dst []byte) []byte {
+	if f.Text != "" || f.style == styleNone {
+		return append(dst, f.Text...)
+	}
 	if math.IsNaN(f.SI) {
-		return "—"
+		return append(dst, "—"...)
 	}
 	switch f.style {
 	case stylePower:
-		return budget.FormatPower(f.SI)
+		return budget.AppendPower(dst, f.SI)
 	case styleLength:
-		return budget.FormatLength(f.SI)
+		return budget.AppendLength(dst, f.SI)
 	case styleIrradiance:
-		return budget.FormatIrradiance(f.SI)
+		return budget.AppendIrradiance(dst, f.SI)
 	case styleInt:
-		return strconv.Itoa(int(f.SI))
+		return strconv.AppendInt(dst, int64(f.SI), 10)
 	case styleSeconds:
-		return budget.FormatSI(f.SI, "s")
+		return budget.AppendSI(dst, f.SI, "s")
 	case styleNanometres:
-		return budget.FormatNumber(f.SI*1e9) + " nm"
+		return append(budget.AppendNumber(dst, f.SI*1e9), " nm"...)
 	case styleRatio:
 		if f.SI < 1e-3 {
-			return "<0.001"
+			return append(dst, "<0.001"...)
 		}
-		return budget.FormatNumber(f.SI)
+		return budget.AppendNumber(dst, f.SI)
 	default:
-		return budget.FormatNumber(f.SI)
+		return budget.AppendNumber(dst, f.SI)
 	}
 }
 
@@ -262,6 +270,9 @@ func (r *Record) O(key string, rec *Record, omitEmpty bool) *Record {
 
 // Line adds a sentence for people.
 func (r *Record) Line(s string) *Record {
+	if r.Lines == nil {
+		r.Lines = make([]string, 0, 4)
+	}
 	r.Lines = append(r.Lines, s)
 	return r
 }
