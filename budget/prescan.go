@@ -50,7 +50,7 @@ func (idx lineIndex) line(table, key string) int {
 // TOML it stops indexing and leaves the error to the decoder, which names
 // the line itself.
 func prescan(filename, src string) (lineIndex, error) {
-	s := &scanner{src: src, file: filename, line: 1, idx: lineIndex{}, counts: map[string]int{}}
+	s := &scanner{src: src, file: filename, line: 1, idx: make(lineIndex, strings.Count(src, "\n")+1), counts: map[string]int{}}
 	s.document()
 	if s.err != nil {
 		return nil, s.err
@@ -59,6 +59,8 @@ func prescan(filename, src string) (lineIndex, error) {
 }
 
 type scanner struct {
+	// parts is the scratch space of key (read before the next key)
+	parts     []string
 	src, file string
 	i, line   int
 	idx       lineIndex
@@ -163,14 +165,14 @@ func (s *scanner) tableKey(parts []string, array bool) string {
 		prefix += p
 		if i < len(parts)-1 {
 			if c := s.counts[prefix]; c > 0 {
-				prefix = fmt.Sprintf("%s[%d]", prefix, c-1)
+				prefix = prefix + "[" + strconv.Itoa(c-1) + "]"
 			}
 		}
 	}
 	if array {
 		n := s.counts[prefix]
 		s.counts[prefix] = n + 1
-		prefix = fmt.Sprintf("%s[%d]", prefix, n)
+		prefix = prefix + "[" + strconv.Itoa(n) + "]"
 	}
 	return prefix
 }
@@ -188,9 +190,17 @@ func (s *scanner) keyValue(table string, depth int) {
 		return
 	}
 	s.i++
-	full := strings.Join(parts, ".")
-	if table != "" {
-		full = table + "." + full
+	var full string
+	switch {
+	case len(parts) == 1 && table == "":
+		full = parts[0]
+	case len(parts) == 1:
+		full = table + "." + parts[0]
+	default:
+		full = strings.Join(parts, ".")
+		if table != "" {
+			full = table + "." + full
+		}
 	}
 	if _, seen := s.idx[full]; !seen {
 		s.idx[full] = line
@@ -206,7 +216,8 @@ func (s *scanner) keyValue(table string, depth int) {
 
 // key reads a dotted key: bare or quoted parts joined by dots.
 func (s *scanner) key() []string {
-	var parts []string
+	parts := s.parts[:0]
+	defer func() { s.parts = parts[:0] }()
 	for {
 		s.blank(false)
 		c := s.peek()
@@ -285,7 +296,7 @@ func (s *scanner) value(loc string, d int) {
 				s.i++
 				return
 			}
-			elem := fmt.Sprintf("%s[%d]", loc, n)
+			elem := loc + "[" + strconv.Itoa(n) + "]"
 			if s.peek() == '{' {
 				s.idx[elem] = s.line
 			}

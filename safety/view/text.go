@@ -3,6 +3,7 @@ package view
 import (
 	"io"
 	"strings"
+	"sync"
 	"unicode/utf8"
 )
 
@@ -85,7 +86,12 @@ func Keys(line string) []string {
 
 // WriteText writes the sections for the terminal.
 func WriteText(w io.Writer, d *Doc) error {
-	ew := &errWriter{w: w, buf: make([]byte, 0, 16<<10)}
+	ew := textBuffers.Get().(*errWriter)
+	ew.w, ew.err = w, nil
+	defer func() {
+		ew.w = nil
+		textBuffers.Put(ew)
+	}()
 	for i, s := range d.Sections {
 		if i > 0 {
 			ew.write("\n")
@@ -126,9 +132,9 @@ func writeList(ew *errWriter, l *List, indent string) {
 		return
 	}
 	if len(l.Columns) > 0 {
-		n := len(l.Columns) * (len(l.Records) + 2)
+		// the cells go into the writer's scratch space, handed back after
 		t := &table{left: max(1, l.Left), lastLeft: true, cols: len(l.Columns),
-			text: make([]byte, 0, 12*n), ends: make([]int, 0, n)}
+			text: ew.cells[:0], ends: ew.ends[:0]}
 		for _, k := range l.Columns {
 			if f := l.Records[0].Field(k); f != nil {
 				t.cell(f.Label())
@@ -151,6 +157,7 @@ func writeList(ew *errWriter, l *List, indent string) {
 			row(&l.Records[i])
 		}
 		t.write(ew, indent)
+		ew.cells, ew.ends = t.text, t.ends
 	}
 	for i := range l.Records {
 		if l.Gap {
@@ -195,7 +202,15 @@ type errWriter struct {
 	w   io.Writer
 	buf []byte
 	err error
+	// cells and ends are a table's scratch space (see table).
+	cells []byte
+	ends  []int
 }
+
+// textBuffers keeps writers' buffers from one text to the next.
+var textBuffers = sync.Pool{New: func() any {
+	return &errWriter{buf: make([]byte, 0, 16<<10)}
+}}
 
 // line writes the parts of one line and its line break.
 func (e *errWriter) line(parts ...string) {
