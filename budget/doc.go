@@ -48,4 +48,6 @@
 //	| light frequency | ν = c/λ + AOM shifts | CODATA c; Steck Rb-87 table 3 | LightFrequency | TestLightFrequency |
 //	| default viewing duration | 0.25 s in 400–700 nm, else 10 s | IEC 60825-1:2014 (from memory) | DefaultViewingDuration | TestDefaultViewingDuration |
 //	| loss in dB | 10 log10(ratio) | common practice | Decibels | TestDecibels |
+//	| pulse energy | Q = P/f | definition of the average power, common practice | PulseEnergy | ExamplePulseEnergy |
+//	| pulse peak power | P_peak = Q/τ (rectangular pulse) | common practice | PulsePeakPower | ExamplePulseEnergy |
 package budget

@@ -131,3 +131,14 @@ func (b Beam) HalfAngle() float64 {
 
 // Paraxial reports whether the beam's half-angle is within MaxParaxialAngle.
 func (b Beam) Paraxial() bool { return b.HalfAngle() <= MaxParaxialAngle }
+
+// PulseEnergy is the energy of one pulse (J) of a train of average power p
+// (W) at repetition rate f (Hz): p/f. The same ratio turns an average
+// irradiance (W/m²) into the radiant exposure of one pulse (J/m²).
+func PulseEnergy(p, f float64) float64 { return p / f }
+
+// PulsePeakPower is the peak power (W) of a pulse of energy q (J) and
+// duration τ (s), taken as rectangular: q/τ (common practice; for other
+// shapes the true peak is higher by the shape's factor). The same ratio
+// turns a pulse's radiant exposure into its peak irradiance.
+func PulsePeakPower(q, τ float64) float64 { return q / τ }

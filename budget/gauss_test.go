@@ -179,3 +179,12 @@ func ExampleBeam_PeakIrradiance() {
 	fmt.Printf("%.1f W/m² = %s\n", b.PeakIrradiance(1e-3), FormatIrradiance(b.PeakIrradiance(1e-3)))
 	// Output: 636.6 W/m² = 63.66 mW/cm²
 }
+
+// A Q-switched train of 1 W average at 1 kHz carries 1 mJ per pulse, and a
+// 10 ns pulse of 1 mJ peaks at 100 kW (common practice: Q = P/f,
+// P_peak = Q/τ for a rectangular pulse).
+func ExamplePulseEnergy() {
+	q := PulseEnergy(1, 1e3)
+	fmt.Printf("%s per pulse, %s peak\n", FormatSI(q, "J"), FormatPower(PulsePeakPower(q, 10e-9)))
+	// Output: 1 mJ per pulse, 100 kW peak
+}

@@ -3,7 +3,7 @@
 // subtense: the maximum permissible exposure (MPE) at the cornea and for the
 // skin, the correction factors C1…C7, T1 and T2, the limiting apertures, and
 // the accessible emission limits (AEL) of the classes for continuous
-// emission.
+// emission, the repetitive-pulse rules and the EN 207 scale numbers.
 //
 // Conventions: wavelengths in m, durations in s, angles in rad, radiant
 // exposure in J/m², irradiance in W/m², powers in W. A wavelength or duration
@@ -11,16 +11,19 @@
 // range; nothing is extrapolated.
 //
 // Provenance. The standard's text is not reproduced or available to this
-// project: every number below was transcribed from memory of IEC
-// 60825-1:2014 (and, where noted, of Edition 2, 2007) and is marked so in the
-// tests. Where the recollection was uncertain the lower (more restrictive)
-// value was taken, and the comment says so. Every value must be checked
-// against the standard's own tables before the output is relied on; SAFETY.md
-// says the same to users.
+// project. Every value carries a Provenance: the standard and edition, the
+// table and row, the public sources it was compared with, and a status:
+// checked (against a named public source: the EU directive's tables of
+// coefficients and of corrections for repetitive exposure, the laser
+// user's guide's time bases), edition 3 from memory (most MPE and AEL
+// rows), or a conservative substitute (C7 = 8 above 1250 nm in place of
+// Edition 3's larger value, C5 without the small-source relaxation, and
+// MPE × aperture area where no Class 1 row was transcribed). The outputs
+// print it beside each value and list the values that were not checked.
 //
-// Continuous AELs are derived as the MPE at the classification time base
-// times the area of the limiting aperture, the relation the tables are built
-// on; the tables round to two figures, this package does not round.
+// Printed values. Each limit is the value its table row prints; where two
+// bands meet discontinuously, the row that starts at the edge applies.
+// Nothing is smoothed for continuity.
 //
 // # Formulas
 //
@@ -37,12 +40,15 @@
 //	| correction factors | C1 … C7, T1, T2 | IEC 60825-1:2014, table of correction factors (from memory) | C4 | TestFactors |
 //	| pulse-train factor | C5 = N^−0.25 | IEC 60825-1:2007 (from memory) | C5 | TestFactors |
 //	| limiting apertures | 1, 3.5, 7 mm … | IEC 60825-1:2014, table of limiting apertures (from memory) | EyeAperture | TestApertures |
-//	| continuous AELs | MPE × aperture area at the time base | IEC 60825-1:2014, AEL tables (from memory) | ContinuousAEL | TestContinuousAEL |
-//	| class | lowest class whose AEL the power does not exceed | IEC 60825-1:2014, classification (from memory) | ClassOf | TestContinuousAEL |
-//	| repetitive pulses | single pulse, average, C5 | IEC 60825-1:2014, repetitive-pulse rules (from memory) | PulsedEyeMPE | TestPulsedRules |
+//	| continuous AELs | the AEL rows (Class 1 3.9e-4 C4 C7 W, Class 2 C6 mW, 3R 5 × …, 3B 0.5 W) | IEC 60825-1:2014, AEL tables (from memory) | ContinuousAEL | TestContinuousAEL |
+//	| class | lowest class whose AEL the power does not exceed | IEC 60825-1:2014, classification (from memory) | ClassOf | TestClassAtPrintedLimits |
+//	| photochemical field of view | γ = 11 mrad, 1.1 t^0.5 mrad, 110 mrad | Directive 2006/25/EC Annex II Table 2.5 | Gamma | TestPhotochemicalBeyond100s |
+//	| pulses counted as one | T_min by band | Directive 2006/25/EC Annex II Table 2.6 | Tmin | TestPulsedRules |
+//	| repetitive pulses | single pulse, average, C5 over at most T2 | Directive 2006/25/EC Annex II Table 2.6; IEC 60825-1:2014 (from memory) | PulsedEyeMPE | TestPulsedRules |
 //	| NOHD | (√(4P/(π MPE)) − a)/φ | IEC 60825-1:2014 NOHD expression (from memory); worked example | NOHD | ExampleNOHD |
 //	| 1/e diameter | d/√2 | Gaussian profile, common practice | OneOverEDiameter | ExampleOneOverEDiameter |
 //	| aperture-averaged irradiance | P(1 − exp(−2(D/2)²/W²))/(πD²/4) | Gaussian profile | ApertureAverage | TestRoundingIsUpward |
 //	| optical density | ⌈log10(ratio)⌉ | EN 207; common practice | OpticalDensity | TestRoundingIsUpward |
-//	| EN 207 scale number | LB by irradiance for cw | EN 207 scale table (from memory) | EN207ScaleCW | TestEN207 |
+//	| EN 207 test condition | D, I, R, M by pulse duration | EN 207 (from memory) | EN207Mode | TestEN207 |
+//	| EN 207 scale number | LB by irradiance (D) or radiant exposure per pulse (I, R, M) | EN 207 scale table (from memory) | EN207Scale | TestEN207 |
 package limits

@@ -114,6 +114,38 @@ func T2(α float64) float64 {
 	return 100
 }
 
+// Gamma is the field of view (rad) over which the photochemical limit is
+// measured: 11 mrad up to 100 s, 1.1 t^0.5 mrad up to 1e4 s, 110 mrad beyond.
+func Gamma(t float64) float64 {
+	switch {
+	case t <= 100:
+		return 11e-3
+	case t < 1e4:
+		return 1.1e-3 * math.Sqrt(t)
+	}
+	return 110e-3
+}
+
+// FactorProvenance is where a correction factor or breakpoint comes from
+// (names as in Limit.Factors; "" for a name it does not know).
+func FactorProvenance(name string) Provenance {
+	switch name {
+	case "C3", "C4", "C6", "T2_s", "gamma_rad":
+		return checked(TableFactors, name, SourceDirectiveFactors)
+	case "C7":
+		p := substitute(TableFactors, "C7 = 8 from 1200 nm", "Edition 3's larger C7 above 1250 nm (8 + 10^(0.04(λ−1250)), from memory)")
+		p.CheckedAgainst = []string{SourceDirectiveFactors}
+		return p
+	case "C1", "C2", "T1_s":
+		return memory(TableFactors, name)
+	case "C5":
+		p := substitute(TableRepetitive, "C5 = N^−0.25", "Edition 3's relaxation of C5 for small sources (from memory, not confirmed)")
+		p.CheckedAgainst = []string{SourceDirectiveRepetitive}
+		return p
+	}
+	return Provenance{}
+}
+
 // C5 is the repetitive-pulse factor N^−0.25 applied to the single-pulse limit
 // in the retinal thermal region. Edition 3 relaxes it (to 1 for small sources,
 // as we recall); this package keeps the more restrictive Edition 2 rule.

@@ -51,21 +51,61 @@ func OpticalDensity(ratio float64) float64 {
 	return math.Ceil(math.Log10(ratio) - 1e-12)
 }
 
-// EN207ScaleCW is the EN 207 scale number LB for continuous emission (mode D)
-// in 315–1400 nm: the filter must attenuate by 10^n and withstand an
-// irradiance of 10^(n+1) W/m² (EN 207:2009, table of scale numbers, from
-// memory); n is the larger of the OD needed and log10(E/10 W/m²) rounded up,
-// at least 1 and at most 10. ok is false outside 315–1400 nm, where this
-// package does not give a scale number.
-func EN207ScaleCW(λ, od, irradiance float64) (n int, ok bool) {
+// EN 207 test conditions (emission types): D continuous (0.25 s and
+// longer), I long pulses (1 µs to 0.25 s), R Q-switched (1 ns to 1 µs), M
+// mode-locked (below 1 ns).
+const (
+	EN207D = "D"
+	EN207I = "I"
+	EN207R = "R"
+	EN207M = "M"
+)
+
+// EN207Mode is the test condition of a source: D for continuous emission
+// (pulsed false) or pulses of 0.25 s and longer, else I, R or M by the pulse
+// duration τ (s).
+func EN207Mode(pulsed bool, τ float64) string {
+	switch {
+	case !pulsed || τ >= 0.25:
+		return EN207D
+	case τ >= 1e-6:
+		return EN207I
+	case τ >= 1e-9:
+		return EN207R
+	}
+	return EN207M
+}
+
+// EN207Scale is the EN 207 scale number LB n in 315–1400 nm for the test
+// condition mode: the filter attenuates by 10^n (n ≥ od) and withstands, in
+// its column of the scale table, an irradiance of 10^(n+1) W/m² (D) or a
+// radiant exposure per pulse of 0.05·10^(n−1) J/m² (I, R) or
+// 1.5e-3·10^(n−1) J/m² (M). exposure is the irradiance for D and the radiant
+// exposure per pulse otherwise. n is at least 1 and at most 10; ok is false
+// outside 315–1400 nm, where this package gives no scale number.
+func EN207Scale(λ float64, mode string, od, exposure float64) (n int, ok bool) {
 	if λ < 315e-9 || λ > 1400e-9 {
 		return 0, false
 	}
 	need := od
-	if irradiance > 0 {
-		need = math.Max(need, math.Ceil(math.Log10(irradiance/10)-1e-12))
+	if exposure > 0 {
+		var first float64 // the column's value at LB1
+		switch mode {
+		case EN207D:
+			first = 100
+		case EN207I, EN207R:
+			first = 0.05
+		default:
+			first = 1.5e-3
+		}
+		need = math.Max(need, math.Ceil(math.Log10(exposure/first)-1e-12)+1)
 	}
 	return int(math.Min(10, math.Max(1, need))), true
+}
+
+// EN207Row is where the scale table comes from.
+func EN207Row() Provenance {
+	return Provenance{Standard: "EN 207:2017", Table: "scale numbers, 315–1400 nm", Row: "D: 10^(n+1) W/m²; I, R: 0.05·10^(n−1) J/m²; M: 1.5e-3·10^(n−1) J/m²", Status: StatusRecalled}
 }
 
 // ApertureAverage is the irradiance (W/m²) of a round Gaussian beam of power

@@ -14,166 +14,158 @@ type Limit struct {
 	// Rule names the table band and expression.
 	Rule string
 	// Effect is "retinal thermal", "retinal photochemical", "corneal (UV)", …
-	Effect  string
-	Factors map[string]float64
+	Effect string
+	// Thermal is set for limits against thermal injury (the only ones the
+	// pulse-train factor C5 applies to).
+	Thermal    bool
+	Factors    map[string]float64
+	Provenance Provenance
 }
 
-func fromH(h, t float64, rule, effect string, f map[string]float64) Limit {
-	return Limit{RadiantExposure: h, Irradiance: h / t, Rule: rule, Effect: effect, Factors: f}
+func fromH(h, t float64, rule, effect string, thermal bool, f map[string]float64, p Provenance) Limit {
+	return Limit{RadiantExposure: h, Irradiance: h / t, Rule: rule, Effect: effect, Thermal: thermal, Factors: f, Provenance: p}
 }
 
-func fromE(e, t float64, rule, effect string, f map[string]float64) Limit {
-	return Limit{RadiantExposure: e * t, Irradiance: e, Rule: rule, Effect: effect, Factors: f}
+func fromE(e, t float64, rule, effect string, thermal bool, f map[string]float64, p Provenance) Limit {
+	return Limit{RadiantExposure: e * t, Irradiance: e, Rule: rule, Effect: effect, Thermal: thermal, Factors: f, Provenance: p}
 }
 
-// A note on continuity. The tables print two figures, so neighbouring bands
-// meet only to within a few per cent (e.g. 18 t^0.75 at 5 µs is 1.90e-3 J/m²
-// against a plateau of 2e-3 J/m²). Where they do not meet, this package takes
-// the lower value on the side of the edge where the table's would be higher,
-// so that radiant exposure never falls and irradiance never rises with
-// duration, and no limit exceeds the printed one; the deviations are below
-// 5 %, and each is named in a comment.
+// Band edges. The tables print each band with two figures and neighbouring
+// bands do not always meet (18 t^0.75 at 5 µs is 1.90e-3 J/m² against the
+// 2e-3 J/m² printed before it). This package prints what the tables print:
+// a duration on an edge belongs to the band that starts there, and nothing
+// is blended for continuity.
 
-// uv is the eye and skin limit for 180–400 nm (IEC 60825-1:2014, Annex A,
-// tables of the MPE at the cornea and for the skin; from memory).
+// uv is the eye and skin limit for 180–400 nm (the skin table has the same
+// values).
 func uv(nm, t float64) Limit {
-	const eff = "corneal and lens (UV)"
 	if t < 1e-9 {
-		return fromE(3e10, t, "180–400 nm, 1e-13 s ≤ t < 1e-9 s: E = 3e10 W/m²", eff, nil)
+		return fromE(3e10, t, "180–400 nm, 1e-13 s ≤ t < 1e-9 s: E = 3e10 W/m²", "corneal (UV)", nm >= 315, nil,
+			memory(TableEyeShort, "180–400 nm, 1e-13 s to 1e-9 s"))
 	}
 	switch {
 	case nm < 302.5:
-		return fromH(30, t, "180–302.5 nm, 1e-9 s ≤ t ≤ 3e4 s: H = 30 J/m²", eff, nil)
+		return fromH(30, t, "180–302.5 nm, 1e-9 s ≤ t ≤ 3e4 s: H = 30 J/m²", "corneal (UV photochemical)", false, nil,
+			memory(TableEyeShort, "180–302.5 nm, 1e-9 s to 3e4 s"))
 	case nm < 315:
 		c1, c2, t1 := C1(t), C2(nm), T1(nm)
 		f := map[string]float64{"C1": c1, "C2": c2, "T1_s": t1}
 		if t <= t1 {
-			// Just after 1e-9 s, C1 exceeds 3e10 W/m² × t; the lower governs.
-			return fromH(math.Min(3e10*t, math.Min(c1, c2)), t, "302.5–315 nm, 1e-9 s ≤ t ≤ T1: H = C1 = 5.6e3 t^0.25 J/m²", eff, f)
+			return fromH(c1, t, "302.5–315 nm, 1e-9 s ≤ t ≤ T1: H = C1 = 5.6e3 t^0.25 J/m²", "corneal (UV thermal)", true, f,
+				memory(TableEyeShort, "302.5–315 nm, 1e-9 s to T1"))
 		}
-		return fromH(c2, t, "302.5–315 nm, T1 < t ≤ 3e4 s: H = C2 = 10^(0.2(λ−295)) J/m²", eff, f)
+		return fromH(c2, t, "302.5–315 nm, T1 < t ≤ 3e4 s: H = C2 = 10^(0.2(λ−295)) J/m²", "corneal (UV photochemical)", false, f,
+			memory(TableEyeShort, "302.5–315 nm, T1 to 3e4 s"))
 	}
-	// 315–400 nm. The table's 1e4 J/m² from 10 s and 10 W/m² from 1e3 s are
-	// taken as C1(10 s) = 9958 J/m² and 9.958 W/m², meeting C1 at 10 s.
-	c10 := C1(10)
 	switch {
 	case t < 10:
-		// Just after 1e-9 s, C1 exceeds 3e10 W/m² × t; the lower governs.
-		return fromH(math.Min(3e10*t, C1(t)), t, "315–400 nm, 1e-9 s ≤ t < 10 s: H = C1 = 5.6e3 t^0.25 J/m²", eff, map[string]float64{"C1": C1(t)})
+		return fromH(C1(t), t, "315–400 nm, 1e-9 s ≤ t < 10 s: H = C1 = 5.6e3 t^0.25 J/m²", "corneal and lens (UV thermal)", true, map[string]float64{"C1": C1(t)},
+			memory(TableEyeShort, "315–400 nm, 1e-9 s to 10 s"))
 	case t < 1e3:
-		return fromH(c10, t, "315–400 nm, 10 s ≤ t < 1e3 s: H = 1e4 J/m² (taken as C1(10 s) = 9958 J/m²)", eff, nil)
+		return fromH(1e4, t, "315–400 nm, 10 s ≤ t < 1e3 s: H = 1e4 J/m²", "corneal and lens (UV photochemical)", false, nil,
+			memory(TableEyeLong, "315–400 nm, 10 s to 1e3 s"))
 	}
-	return fromE(c10/1e3, t, "315–400 nm, 1e3 s ≤ t ≤ 3e4 s: E = 10 W/m² (taken as 9.958 W/m²)", eff, nil)
+	return fromE(10, t, "315–400 nm, 1e3 s ≤ t ≤ 3e4 s: E = 10 W/m²", "corneal and lens (UV photochemical)", false, nil,
+		memory(TableEyeLong, "315–400 nm, 1e3 s to 3e4 s"))
 }
 
 // infrared is the eye and skin limit for 1400 nm – 1 mm (corneal; the skin
 // table has the same values).
 func infrared(nm, t float64) Limit {
-	const eff = "corneal (infrared)"
+	const eff = "corneal (infrared thermal)"
 	switch {
 	case nm < 1500 || (nm >= 1800 && nm < 2600):
 		band := "1400–1500 nm"
 		if nm >= 1800 {
 			band = "1800–2600 nm"
 		}
-		// The table's 1e3 J/m² plateau and 1e12 W/m² are taken as
-		// 5.6e3 (1e-3)^0.25 = 995.8 J/m² and 9.958e11 W/m², and its 1000 W/m²
-		// from 10 s as 5.6e3 · 10^0.25 / 10 = 995.8 W/m², so the bands meet.
-		plateau := 5.6e3 * math.Pow(1e-3, 0.25)
 		switch {
 		case t < 1e-9:
-			return fromE(plateau/1e-9, t, band+", 1e-13 s ≤ t < 1e-9 s: E = 1e12 W/m² (taken as 9.958e11 W/m²)", eff, nil)
+			return fromE(1e12, t, band+", 1e-13 s ≤ t < 1e-9 s: E = 1e12 W/m²", eff, true, nil, memory(TableEyeShort, band+", 1e-13 s to 1e-9 s"))
 		case t < 1e-3:
-			return fromH(plateau, t, band+", 1e-9 s ≤ t < 1e-3 s: H = 1e3 J/m² (taken as 995.8 J/m²)", eff, nil)
+			return fromH(1e3, t, band+", 1e-9 s ≤ t < 1e-3 s: H = 1e3 J/m²", eff, true, nil, memory(TableEyeShort, band+", 1e-9 s to 1e-3 s"))
 		case t < 10:
-			return fromH(5.6e3*math.Pow(t, 0.25), t, band+", 1e-3 s ≤ t < 10 s: H = 5.6e3 t^0.25 J/m²", eff, nil)
+			return fromH(5.6e3*math.Pow(t, 0.25), t, band+", 1e-3 s ≤ t < 10 s: H = 5.6e3 t^0.25 J/m²", eff, true, nil, memory(TableEyeShort, band+", 1e-3 s to 10 s"))
 		}
-		return fromE(5.6e3*math.Pow(10, 0.25)/10, t, band+", 10 s ≤ t ≤ 3e4 s: E = 1000 W/m² (taken as 995.8 W/m²)", eff, nil)
+		return fromE(1000, t, band+", 10 s ≤ t ≤ 3e4 s: E = 1000 W/m²", eff, true, nil, memory(TableEyeLong, "1400 nm–1 mm, 10 s to 3e4 s"))
 	case nm < 1800:
 		switch {
 		case t < 1e-9:
-			return fromE(1e13, t, "1500–1800 nm, 1e-13 s ≤ t < 1e-9 s: E = 1e13 W/m²", eff, nil)
+			return fromE(1e13, t, "1500–1800 nm, 1e-13 s ≤ t < 1e-9 s: E = 1e13 W/m²", eff, true, nil, memory(TableEyeShort, "1500–1800 nm, 1e-13 s to 1e-9 s"))
 		case t < 10:
-			return fromH(1e4, t, "1500–1800 nm, 1e-9 s ≤ t < 10 s: H = 1e4 J/m²", eff, nil)
+			return fromH(1e4, t, "1500–1800 nm, 1e-9 s ≤ t < 10 s: H = 1e4 J/m²", eff, true, nil, memory(TableEyeShort, "1500–1800 nm, 1e-9 s to 10 s"))
 		}
-		return fromE(1000, t, "1500–1800 nm, 10 s ≤ t ≤ 3e4 s: E = 1000 W/m²", eff, nil)
+		return fromE(1000, t, "1500–1800 nm, 10 s ≤ t ≤ 3e4 s: E = 1000 W/m²", eff, true, nil, memory(TableEyeLong, "1400 nm–1 mm, 10 s to 3e4 s"))
 	}
-	// 2600 nm – 1 mm: 100 J/m² plateau taken as 5.6e3 (1e-7)^0.25 = 99.58 J/m².
-	plateau := 5.6e3 * math.Pow(1e-7, 0.25)
 	switch {
 	case t < 1e-9:
-		return fromE(plateau/1e-9, t, "2600 nm–1 mm, 1e-13 s ≤ t < 1e-9 s: E = 1e11 W/m² (taken as 9.958e10 W/m²)", eff, nil)
+		return fromE(1e11, t, "2600 nm–1 mm, 1e-13 s ≤ t < 1e-9 s: E = 1e11 W/m²", eff, true, nil, memory(TableEyeShort, "2600 nm–1 mm, 1e-13 s to 1e-9 s"))
 	case t < 1e-7:
-		return fromH(plateau, t, "2600 nm–1 mm, 1e-9 s ≤ t < 1e-7 s: H = 100 J/m² (taken as 99.58 J/m²)", eff, nil)
+		return fromH(100, t, "2600 nm–1 mm, 1e-9 s ≤ t < 1e-7 s: H = 100 J/m²", eff, true, nil, memory(TableEyeShort, "2600 nm–1 mm, 1e-9 s to 1e-7 s"))
 	case t < 10:
-		return fromH(5.6e3*math.Pow(t, 0.25), t, "2600 nm–1 mm, 1e-7 s ≤ t < 10 s: H = 5.6e3 t^0.25 J/m²", eff, nil)
+		return fromH(5.6e3*math.Pow(t, 0.25), t, "2600 nm–1 mm, 1e-7 s ≤ t < 10 s: H = 5.6e3 t^0.25 J/m²", eff, true, nil, memory(TableEyeShort, "2600 nm–1 mm, 1e-7 s to 10 s"))
 	}
-	return fromE(5.6e3*math.Pow(10, 0.25)/10, t, "2600 nm–1 mm, 10 s ≤ t ≤ 3e4 s: E = 1000 W/m² (taken as 995.8 W/m²)", eff, nil)
+	return fromE(1000, t, "2600 nm–1 mm, 10 s ≤ t ≤ 3e4 s: E = 1000 W/m²", eff, true, nil, memory(TableEyeLong, "1400 nm–1 mm, 10 s to 3e4 s"))
 }
 
 // retinalThermal is the 400–1400 nm thermal limit at the cornea for a source
-// of angular subtense α. Edition 3 moved the start of the t^0.75 law from
-// 18 µs to 5 µs (400–1050 nm) and from 50 µs to 13 µs (1050–1400 nm), with
-// plateaus of 2e-3 and 2e-2 J/m² (× C4 C6 C7) before them (Edition 2: 5e-3
-// and 5e-2). Here the plateaus are the t^0.75 law's value at those times
-// (1.903e-3 and 1.947e-2), and below them the Edition 2 ramp from the
-// 1e-13–1e-11 s values (1.5e-4 and 1.5e-3 J/m²) rises as t^0.75 until it
-// meets the plateau, the lower of the two editions as we recall them.
+// of angular subtense α, as Edition 3 prints it: a sub-nanosecond row
+// (1e-13 to 1e-11 s), a plateau up to 5 µs (400–1050 nm) or 13 µs
+// (1050–1400 nm), the t^0.75 law up to 10 s, and from 10 s a constant
+// irradiance: 10 C4 C7 W/m² for a small source, 18 C4 C6 C7 T2^−0.25 W/m²
+// for an extended one (with the t^0.75 law up to T2).
 func retinalThermal(nm, t, α float64) Limit {
 	c4, c6, c7, t2 := C4(nm), C6(α, t), C7(nm), T2(α)
 	f := map[string]float64{"C4": c4, "C6": c6, "C7": c7, "T2_s": t2}
 	const eff = "retinal thermal"
-	band, floor, knee := "400–700 nm", 1.5e-4, 5e-6
-	if nm >= 700 {
+	band, sub, plateau, knee, law := "400–700 nm", 1.5e-4, 2e-3, 5e-6, 18.0
+	k := c6 // the factors the band's expressions carry
+	expr := "C6"
+	switch {
+	case nm >= 1050:
+		// C4 = 5 is folded into the printed numbers of this band.
+		band, sub, plateau, knee, law = "1050–1400 nm", 1.5e-3, 2e-2, 1.3e-5, 90
+		k, expr = c6*c7, "C6 C7"
+	case nm >= 700:
 		band = "700–1050 nm"
+		k, expr = c4*c6, "C4 C6"
 	}
-	if nm >= 1050 {
-		band, floor, knee = "1050–1400 nm", 1.5e-3/5, 1.3e-5 // in units of C4 = 5
-	}
-	k := c4 * c6 * c7
-	plateau := 18 * math.Pow(knee, 0.75)
+	row := func(span string) Provenance { return memory(TableEyeShort, band+", "+span) }
 	switch {
 	case t < 1e-11:
-		return fromH(floor*k, t, band+", 1e-13 s ≤ t < 1e-11 s: H = 1.5e-4 C4 C6 C7 J/m² (1050–1400 nm: 1.5e-3 C6 C7)", eff, f)
+		return fromH(sub*k, t, fmt.Sprintf("%s, 1e-13 s ≤ t < 1e-11 s: H = %g %s J/m²", band, sub, expr), eff, true, f, row("1e-13 s to 1e-11 s"))
 	case t < knee:
-		h := math.Min(plateau, floor*math.Pow(t/1e-11, 0.75))
-		return fromH(h*k, t, band+fmt.Sprintf(", 1e-11 s ≤ t < %g s: H = %.4g C4 C6 C7 J/m² (the table's plateau, 2e-3 or 2e-2 with C4 = 5, met continuously)", knee, plateau), eff, f)
-	case t < t2:
-		return fromH(18*math.Pow(t, 0.75)*k, t, band+", up to T2: H = 18 t^0.75 C4 C6 C7 J/m²", eff, f)
+		return fromH(plateau*k, t, fmt.Sprintf("%s, 1e-11 s ≤ t < %g s: H = %g %s J/m²", band, knee, plateau, expr), eff, true, f, row(fmt.Sprintf("1e-11 s to %g s", knee)))
+	case t < 10:
+		return fromH(law*math.Pow(t, 0.75)*k, t, fmt.Sprintf("%s, %g s ≤ t < 10 s: H = %g t^0.75 %s J/m²", band, knee, law, expr), eff, true, f, row(fmt.Sprintf("%g s to 10 s", knee)))
 	}
-	return fromE(18*k*math.Pow(t2, -0.25), t, band+", T2 ≤ t ≤ 3e4 s: E = 18 C4 C6 C7 T2^−0.25 W/m²", eff, f)
+	long := func(span string) Provenance { return memory(TableEyeLong, "400–1400 nm, "+span) }
+	if α <= AlphaMin {
+		return fromE(10*c4*c7, t, "400–1400 nm, 10 s ≤ t ≤ 3e4 s, α ≤ 1.5 mrad: E = 10 C4 C7 W/m²", eff, true, f, long("10 s to 3e4 s, α ≤ 1.5 mrad"))
+	}
+	if t < t2 {
+		return fromH(18*math.Pow(t, 0.75)*c4*c6*c7, t, "400–1400 nm, 10 s ≤ t < T2, α > 1.5 mrad: H = 18 t^0.75 C4 C6 C7 J/m²", eff, true, f, long("10 s to T2, α > 1.5 mrad"))
+	}
+	return fromE(18*c4*c6*c7*math.Pow(t2, -0.25), t, "400–1400 nm, T2 ≤ t ≤ 3e4 s, α > 1.5 mrad: E = 18 C4 C6 C7 T2^−0.25 W/m²", eff, true, f, long("T2 to 3e4 s, α > 1.5 mrad"))
 }
 
-// retinalPhotochemical is the 400–600 nm limit for t ≥ 10 s: H = 100 C3 J/m²
-// up to 1e4 s and E = 0.01 C3 W/m² beyond (Edition 2 form, for a small
-// source; we keep it as the more restrictive of what we recall of Edition 3,
-// and apply it to extended sources unrelaxed). It starts at 10 s, or earlier
-// (not before 1 s) at the duration where the thermal limit reaches it, so
-// that for a small source the dual limit has no step (the thermal 18 t^0.75
-// is 101 J/m² at 10 s). start is when it applies.
-func retinalPhotochemical(nm, t, start float64) (Limit, bool) {
-	if nm >= 600 || t < start {
+// retinalPhotochemical is the 400–600 nm limit from 10 s for a small source:
+// H = 100 C3 J/m² up to 100 s (measured over a field of view γ = 11 mrad),
+// then E = 1 C3 W/m² to 3e4 s (γ = 1.1 t^0.5 mrad up to 1e4 s, 110 mrad
+// beyond). It is applied to extended sources unrelaxed (conservative).
+func retinalPhotochemical(nm, t float64) (Limit, bool) {
+	if nm >= 600 || t < 10 {
 		return Limit{}, false
 	}
 	c3 := C3(nm)
-	f := map[string]float64{"C3": c3}
+	f := map[string]float64{"C3": c3, "gamma_rad": Gamma(t)}
 	const eff = "retinal photochemical"
-	if t < 1e4 {
-		return fromH(100*c3, t, "400–600 nm, 10 s ≤ t < 1e4 s: H = 100 C3 J/m²", eff, f), true
+	if t < 100 {
+		return fromH(100*c3, t, "400–600 nm, 10 s ≤ t < 100 s: H = 100 C3 J/m² (γ = 11 mrad)", eff, false, f,
+			memory(TableEyeLong, "400–600 nm photochemical, 10 s to 100 s")), true
 	}
-	return fromE(0.01*c3, t, "400–600 nm, 1e4 s ≤ t ≤ 3e4 s: E = 0.01 C3 W/m²", eff, f), true
-}
-
-// photochemicalStart is when the photochemical limit begins to apply: where
-// the thermal radiant exposure reaches 100 C3 J/m² if that lies in 1–10 s,
-// else 10 s.
-func photochemicalStart(nm, α float64) float64 {
-	k := C4(nm) * C6(α, 1) * C7(nm) // C6 is constant over 1–10 s
-	tc := math.Pow(100*C3(nm)/(18*k), 4.0/3)
-	if tc >= 1 && tc < 10 {
-		return tc
-	}
-	return 10
+	return fromE(c3, t, "400–600 nm, 100 s ≤ t ≤ 3e4 s: E = 1 C3 W/m² (γ = 1.1 t^0.5 mrad, at most 110 mrad)", eff, false, f,
+		memory(TableEyeLong, "400–600 nm photochemical, 100 s to 3e4 s")), true
 }
 
 // EyeMPE is the MPE at the cornea for a single exposure of duration t (s) at
@@ -193,7 +185,7 @@ func EyeMPE(λ, t, α float64) (Limit, error) {
 		return uv(nm, t), nil
 	case nm < 1400:
 		th := retinalThermal(nm, t, α)
-		if ph, ok := retinalPhotochemical(nm, t, photochemicalStart(nm, α)); ok && ph.RadiantExposure < th.RadiantExposure {
+		if ph, ok := retinalPhotochemical(nm, t); ok && ph.RadiantExposure < th.RadiantExposure {
 			return ph, nil
 		}
 		return th, nil
@@ -212,67 +204,61 @@ func SkinMPE(λ, t float64) (Limit, error) {
 	case nm < 400:
 		l := uv(nm, t)
 		l.Effect = "skin (UV)"
+		l.Provenance.Table = TableSkin
 		return l, nil
 	case nm < 1400:
 		c4 := C4(nm)
 		f := map[string]float64{"C4": c4}
-		const eff = "skin"
-		// The 200 C4 J/m² plateau and 2e11 C4 W/m² are taken as
-		// 1.1e4 (1e-7)^0.25 = 195.6 C4 J/m² and 1.956e11 C4 W/m², and the
-		// 2000 C4 W/m² from 10 s as 1.1e4 · 10^0.25 / 10 = 1956 C4 W/m².
-		plateau := 1.1e4 * math.Pow(1e-7, 0.25)
+		const eff = "skin (thermal)"
 		switch {
 		case t < 1e-9:
-			return fromE(plateau/1e-9*c4, t, "400–1400 nm, 1e-13 s ≤ t < 1e-9 s: E = 2e11 C4 W/m² (taken as 1.956e11 C4)", eff, f), nil
+			return fromE(2e11*c4, t, "400–1400 nm, 1e-13 s ≤ t < 1e-9 s: E = 2e11 C4 W/m²", eff, true, f, memory(TableSkin, "400–1400 nm, 1e-13 s to 1e-9 s")), nil
 		case t < 1e-7:
-			return fromH(plateau*c4, t, "400–1400 nm, 1e-9 s ≤ t < 1e-7 s: H = 200 C4 J/m² (taken as 195.6 C4)", eff, f), nil
+			return fromH(200*c4, t, "400–1400 nm, 1e-9 s ≤ t < 1e-7 s: H = 200 C4 J/m²", eff, true, f, memory(TableSkin, "400–1400 nm, 1e-9 s to 1e-7 s")), nil
 		case t < 10:
-			return fromH(1.1e4*c4*math.Pow(t, 0.25), t, "400–1400 nm, 1e-7 s ≤ t < 10 s: H = 1.1e4 C4 t^0.25 J/m²", eff, f), nil
+			return fromH(1.1e4*c4*math.Pow(t, 0.25), t, "400–1400 nm, 1e-7 s ≤ t < 10 s: H = 1.1e4 C4 t^0.25 J/m²", eff, true, f, memory(TableSkin, "400–1400 nm, 1e-7 s to 10 s")), nil
 		}
-		return fromE(1.1e4*math.Pow(10, 0.25)/10*c4, t, "400–1400 nm, 10 s ≤ t ≤ 3e4 s: E = 2000 C4 W/m² (taken as 1956 C4)", eff, f), nil
+		return fromE(2000*c4, t, "400–1400 nm, 10 s ≤ t ≤ 3e4 s: E = 2000 C4 W/m²", eff, true, f, memory(TableSkin, "400–1400 nm, 10 s to 3e4 s")), nil
 	}
 	l := infrared(nm, t)
 	l.Effect = "skin (infrared)"
+	l.Provenance.Table = TableSkin
 	return l, nil
 }
 
 // EyeAperture is the diameter (m) of the limiting aperture over which
 // irradiance at the eye is averaged: 1 mm in 180–400 nm, 7 mm in 400–1400 nm,
 // in 1400 nm–0.1 mm 1 mm for t < 0.35 s, 1.5 t^(3/8) mm up to 10 s and 3.5 mm
-// beyond, and 11 mm in 0.1–1 mm.
-func EyeAperture(λ, t float64) (float64, error) {
+// beyond, and 11 mm in 0.1–1 mm; with the row it comes from.
+func EyeAperture(λ, t float64) (float64, Provenance, error) {
 	if err := checkRange(λ, t); err != nil {
-		return 0, err
+		return 0, Provenance{}, err
 	}
 	nm := λ * 1e9
 	switch {
 	case nm < 400:
-		return 1e-3, nil
+		return 1e-3, memory(TableApertures, "eye, 180–400 nm: 1 mm"), nil
 	case nm < 1400:
-		return 7e-3, nil
+		return 7e-3, memory(TableApertures, "eye, 400–1400 nm: 7 mm"), nil
 	case nm < 1e5:
-		return irAperture(t), nil
+		switch {
+		case t < 0.35:
+			return 1e-3, memory(TableApertures, "eye, 1400 nm–0.1 mm, t < 0.35 s: 1 mm"), nil
+		case t < 10:
+			return 1.5e-3 * math.Pow(t, 3.0/8), memory(TableApertures, "eye, 1400 nm–0.1 mm, 0.35 s to 10 s: 1.5 t^(3/8) mm"), nil
+		}
+		return 3.5e-3, memory(TableApertures, "eye, 1400 nm–0.1 mm, t ≥ 10 s: 3.5 mm"), nil
 	}
-	return 11e-3, nil
-}
-
-func irAperture(t float64) float64 {
-	switch {
-	case t < 0.35:
-		return 1e-3
-	case t < 10:
-		return 1.5e-3 * math.Pow(t, 3.0/8)
-	}
-	return 3.5e-3
+	return 11e-3, memory(TableApertures, "eye, 0.1–1 mm: 11 mm"), nil
 }
 
 // SkinAperture is 3.5 mm for 180 nm–0.1 mm and 11 mm for 0.1–1 mm.
-func SkinAperture(λ, t float64) (float64, error) {
+func SkinAperture(λ, t float64) (float64, Provenance, error) {
 	if err := checkRange(λ, t); err != nil {
-		return 0, err
+		return 0, Provenance{}, err
 	}
 	if λ < 1e-4 {
-		return 3.5e-3, nil
+		return 3.5e-3, memory(TableApertures, "skin, 180 nm–0.1 mm: 3.5 mm"), nil
 	}
-	return 11e-3, nil
+	return 11e-3, memory(TableApertures, "skin, 0.1–1 mm: 11 mm"), nil
 }

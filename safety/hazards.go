@@ -2,8 +2,10 @@ package safety
 
 import (
 	"fmt"
+	"maps"
 	"math"
 	"runtime"
+	"slices"
 	"sort"
 	"strings"
 	"sync"
@@ -52,6 +54,29 @@ type LaserLimits struct {
 	Class          string // "" when not assessed
 	ClassNote      string
 	Pulsed         *limits.PulsedLimit
+	// EyeApertureRow and SkinApertureRow are where the apertures come from.
+	EyeApertureRow, SkinApertureRow limits.Provenance
+	// For a pulsed source at its maximum (average) power: the energy of a
+	// pulse (J) and its peak power (W).
+	PulseEnergy, PeakPower float64
+	// EN207Mode is the EN 207 test condition of the source (D, I, R or M).
+	EN207Mode string
+}
+
+// Rows lists where every limit used for the laser comes from.
+func (ll *LaserLimits) Rows() []limits.Provenance {
+	rows := []limits.Provenance{ll.Eye.Provenance, ll.Skin.Provenance, ll.EyeApertureRow, ll.SkinApertureRow,
+		ll.AEL.Class1Row, ll.AEL.Class2Row, ll.AEL.Class3RRow, ll.AEL.Class3BRow, limits.TimeBaseRow()}
+	for _, k := range slices.Sorted(maps.Keys(ll.Eye.Factors)) {
+		rows = append(rows, limits.FactorProvenance(k))
+	}
+	if p := ll.Pulsed; p != nil {
+		rows = append(rows, p.Single.Provenance, p.AvgLimit.Provenance, limits.TminRow(ll.Laser.Wavelength), p.Provenance)
+		if p.TrainApplies {
+			rows = append(rows, limits.FactorProvenance("C5"))
+		}
+	}
+	return rows
 }
 
 // ViewingDuration is the assumed exposure for wavelength λ: the setup's
@@ -94,17 +119,22 @@ func laserLimits(s *budget.Setup, las *budget.Laser) (*LaserLimits, error) {
 		}
 		ll.Pulsed = &p
 		ll.EyeIrradiance = p.Irradiance
-		ll.EyeRule = fmt.Sprintf("repetitive pulses, %s rule governs: %.4g J/m² per pulse × %s", p.Rule, p.PerPulse, budget.FormatFrequency(las.RepetitionRate))
+		ll.EyeRule = fmt.Sprintf("repetitive pulses, the %s rule governs: %s J/m² per pulse × %s", p.Rule, budget.FormatNumber(p.PerPulse), budget.FormatFrequency(las.RepetitionRate))
 		sp, err := limits.SkinMPE(las.Wavelength, las.PulseDuration)
 		if err == nil {
 			ll.SkinIrradiance = math.Min(ll.SkinIrradiance, math.Min(sp.RadiantExposure, ll.Skin.RadiantExposure/math.Max(1, las.RepetitionRate*t))*las.RepetitionRate)
 		}
 	}
-	if ll.EyeAperture, err = limits.EyeAperture(las.Wavelength, t); err != nil {
+	if ll.EyeAperture, ll.EyeApertureRow, err = limits.EyeAperture(las.Wavelength, t); err != nil {
 		return nil, err
 	}
-	if ll.SkinAperture, err = limits.SkinAperture(las.Wavelength, t); err != nil {
+	if ll.SkinAperture, ll.SkinApertureRow, err = limits.SkinAperture(las.Wavelength, t); err != nil {
 		return nil, err
+	}
+	ll.EN207Mode = limits.EN207Mode(las.Emission == budget.EmissionPulsed, las.PulseDuration)
+	if las.Emission == budget.EmissionPulsed {
+		ll.PulseEnergy = budget.PulseEnergy(las.Power, las.RepetitionRate)
+		ll.PeakPower = budget.PulsePeakPower(ll.PulseEnergy, las.PulseDuration)
 	}
 	if ll.AEL, err = limits.ContinuousAEL(las.Wavelength, 0); err != nil {
 		return nil, err
@@ -131,9 +161,13 @@ type Exposure struct {
 	SkinIrr    float64 // skin-aperture-averaged, W/m²
 	SkinRatio  float64
 	OD         float64
-	PeakIrr    float64 // peak irradiance at the worst point, W/m²
-	OpenEnd    bool
-	NOHD       float64 // for an open end: distance beyond the last element, m
+	PeakIrr    float64 // peak irradiance at the worst point, of the average power, W/m²
+	// For a pulsed source: the radiant exposure of one pulse averaged over
+	// the eye aperture (J/m²) and the peak irradiance during a pulse at the
+	// worst point (W/m²).
+	PulseRadiantExposure, PulsePeakIrr float64
+	OpenEnd                            bool
+	NOHD                               float64 // for an open end: distance beyond the last element, m
 }
 
 // ReflectionKind says how light leaves a path at a surface.
@@ -179,9 +213,15 @@ type Reflection struct {
 // EyewearNeed is what eyewear must give at one wavelength.
 type EyewearNeed struct {
 	Wavelength float64
-	OD         float64
-	LB         int
-	LBValid    bool
+	// Mode is the EN 207 test condition (D, I, R, M) of the sources at this
+	// wavelength; a wavelength with sources of two kinds has a need for each.
+	Mode    string
+	OD      float64
+	LB      int
+	LBValid bool
+	// PulseRadiantExposure is the largest eye-aperture-averaged radiant
+	// exposure of one pulse on an open segment, J/m² (pulsed modes).
+	PulseRadiantExposure float64
 	// Irradiance is the largest eye-aperture-averaged irradiance on an open
 	// segment at this wavelength, W/m²; the EN 207 scale number must
 	// withstand it.
@@ -307,6 +347,10 @@ func (res *pathHazardResult) segment(pb *budget.PathBudget, ll *LaserLimits, seg
 		Ratio: irr / ll.EyeIrradiance, SkinIrr: skin, SkinRatio: skin / ll.SkinIrradiance,
 		PeakIrr: seg.Beam.Propagate(at).PeakIrradiance(p), OpenEnd: math.IsInf(seg.To, 1)}
 	e.OD = limits.OpticalDensity(e.Ratio)
+	if las := pb.Laser; las.Emission == budget.EmissionPulsed {
+		e.PulseRadiantExposure = budget.PulseEnergy(irr, las.RepetitionRate)
+		e.PulsePeakIrr = budget.PulsePeakPower(budget.PulseEnergy(e.PeakIrr, las.RepetitionRate), las.PulseDuration)
+	}
 	if e.OpenEnd {
 		e.NOHD = hazardDistance(seg.Beam, p, ll.EyeAperture, ll.EyeIrradiance)
 	}
@@ -492,32 +536,47 @@ func damage(pb *budget.PathBudget, r *budget.Row, p float64) []budget.Finding {
 }
 
 func eyewearNeeds(h *Hazards) []*EyewearNeed {
-	by := map[float64]*EyewearNeed{}
-	get := func(λ float64) *EyewearNeed {
-		if n, ok := by[λ]; ok {
+	type key struct {
+		λ    float64
+		mode string
+	}
+	by := map[key]*EyewearNeed{}
+	get := func(ll *LaserLimits) *EyewearNeed {
+		k := key{ll.Laser.Wavelength, ll.EN207Mode}
+		if n, ok := by[k]; ok {
 			return n
 		}
-		n := &EyewearNeed{Wavelength: λ}
-		by[λ] = n
+		n := &EyewearNeed{Wavelength: k.λ, Mode: k.mode}
+		by[k] = n
 		return n
 	}
 	for _, e := range h.Exposures {
-		n := get(e.Path.Laser.Wavelength)
+		n := get(e.Laser)
 		n.OD = math.Max(n.OD, e.OD)
 		n.Irradiance = math.Max(n.Irradiance, e.Irradiance)
+		n.PulseRadiantExposure = math.Max(n.PulseRadiantExposure, e.PulseRadiantExposure)
 	}
 	for _, r := range h.Reflections {
 		if r.Kind != ReflectionDiffuse {
-			n := get(r.Path.Laser.Wavelength)
+			n := get(r.Laser)
 			n.OD = math.Max(n.OD, r.OD)
 		}
 	}
 	var out []*EyewearNeed
 	for _, n := range by {
-		n.LB, n.LBValid = limits.EN207ScaleCW(n.Wavelength, n.OD, n.Irradiance)
+		exposure := n.Irradiance
+		if n.Mode != limits.EN207D {
+			exposure = n.PulseRadiantExposure
+		}
+		n.LB, n.LBValid = limits.EN207Scale(n.Wavelength, n.Mode, n.OD, exposure)
 		out = append(out, n)
 	}
-	sort.Slice(out, func(i, j int) bool { return out[i].Wavelength < out[j].Wavelength })
+	sort.Slice(out, func(i, j int) bool {
+		if out[i].Wavelength != out[j].Wavelength {
+			return out[i].Wavelength < out[j].Wavelength
+		}
+		return out[i].Mode < out[j].Mode
+	})
 	return out
 }
 
@@ -538,7 +597,7 @@ func (n *EyewearNeed) EN207Label() string {
 	if !n.LBValid {
 		return "—"
 	}
-	return fmt.Sprintf("D LB%d", n.LB)
+	return fmt.Sprintf("%s LB%d", n.Mode, n.LB)
 }
 
 func checkEyewear(s *budget.Setup, needs []*EyewearNeed) []budget.Finding {

@@ -25,7 +25,9 @@ type LimitsLookup struct {
 	Skin     limits.Limit
 	// EyeAperture and SkinAperture are the limiting aperture diameters, m.
 	EyeAperture, SkinAperture float64
-	AEL                       limits.AEL
+	// EyeApertureRow and SkinApertureRow are where the apertures come from.
+	EyeApertureRow, SkinApertureRow limits.Provenance
+	AEL                             limits.AEL
 	// Pulsed is set for a pulse train.
 	Pulsed *limits.PulsedLimit
 	// EyeIrradiance is the limit average irradiances are held to, W/m²
@@ -73,10 +75,10 @@ func LookUpLimits(q LimitsQuery) (*LimitsLookup, error) {
 	if r.Skin, err = limits.SkinMPE(λ, t); err != nil {
 		return nil, err
 	}
-	if r.EyeAperture, err = limits.EyeAperture(λ, t); err != nil {
+	if r.EyeAperture, r.EyeApertureRow, err = limits.EyeAperture(λ, t); err != nil {
 		return nil, err
 	}
-	if r.SkinAperture, err = limits.SkinAperture(λ, t); err != nil {
+	if r.SkinAperture, r.SkinApertureRow, err = limits.SkinAperture(λ, t); err != nil {
 		return nil, err
 	}
 	if r.AEL, err = limits.ContinuousAEL(λ, α); err != nil {

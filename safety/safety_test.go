@@ -29,8 +29,9 @@ func load(t testing.TB, src string) *Assessment {
 
 // The demo's first drive segment by hand: 1.5 W in a 1.1 × 0.6 mm beam lies
 // wholly inside the 7 mm eye aperture, so E = 1.5 W / (π (3.5 mm)²) =
-// 3.898 W/cm²; the 780.24 nm, 10 s MPE is 18 C4 T2^−0.25 = 14.647 W/m²
-// (C4 = 10^(0.002 · 80.24)); ratio 2661, OD 4.
+// 3.898 W/cm²; the 780.24 nm, 10 s MPE of a small source is 10 C4 C7 =
+// 14.470 W/m² (C4 = 10^(0.002 · 80.24), C7 = 1; IEC 60825-1:2014 Annex A,
+// eye from 10 s, 400–1400 nm, α ≤ 1.5 mrad, from memory); ratio 2693.6, OD 4.
 func TestDemoFirstSegmentByHand(t *testing.T) {
 	s, err := budget.Load("../testdata/examples/table-c.toml")
 	if err != nil {
@@ -45,11 +46,11 @@ func TestDemoFirstSegmentByHand(t *testing.T) {
 	if math.Abs(e.Irradiance-wantE) > 1e-4*wantE {
 		t.Errorf("E = %g W/m², want %g", e.Irradiance, wantE)
 	}
-	if mpe := 18 * math.Pow(10, 0.002*80.24) * math.Pow(10, -0.25); math.Abs(e.Laser.EyeIrradiance-mpe) > 1e-9*mpe {
+	if mpe := 10 * math.Pow(10, 0.002*80.24); math.Abs(e.Laser.EyeIrradiance-mpe) > 1e-9*mpe {
 		t.Errorf("MPE = %g, want %g", e.Laser.EyeIrradiance, mpe)
 	}
-	if e.OD != 4 || math.Abs(e.Ratio-2661.05) > 0.5 {
-		t.Errorf("ratio %g, OD %g; want 2661, 4", e.Ratio, e.OD)
+	if e.OD != 4 || math.Abs(e.Ratio-2693.6) > 0.5 {
+		t.Errorf("ratio %g, OD %g; want 2693.6, 4", e.Ratio, e.OD)
 	}
 	if a.Hazards.Lasers[0].Class != limits.Class4 {
 		t.Errorf("class %q", a.Hazards.Lasers[0].Class)

@@ -12,6 +12,7 @@ import (
 	"time"
 
 	"beamledger/budget"
+	"beamledger/limits"
 )
 
 func TestCheckBadInputExit2(t *testing.T) {
@@ -113,10 +114,18 @@ func TestLimitsJSONKeys(t *testing.T) {
 			t.Errorf("%s missing", k)
 		}
 	}
-	// 780 nm defaults to 10 s: 18 C4 10^−0.25 W/m², C4 = 10^(0.002·80) (IEC
-	// 60825-1:2014, 700–1050 nm, t ≥ T2; from memory).
-	if got, want := eye["mpe_irradiance_w_m2"].(float64), 18*math.Pow(10, 0.16)*math.Pow(10, -0.25); math.Abs(got-want) > 1e-9*want {
+	// 780 nm defaults to 10 s: 10 C4 C7 W/m² for a small source, C4 =
+	// 10^(0.002·80), C7 = 1 (IEC 60825-1:2014 Annex A, eye from 10 s,
+	// 400–1400 nm, α ≤ 1.5 mrad; from memory).
+	if got, want := eye["mpe_irradiance_w_m2"].(float64), 10*math.Pow(10, 0.16); math.Abs(got-want) > 1e-9*want {
 		t.Errorf("eye MPE %g, want %g", got, want)
+	}
+	prov, _ := eye["provenance"].(map[string]any)
+	if prov["status"] != string(limits.StatusFromMemory) || prov["table"] == "" || prov["standard"] == "" {
+		t.Errorf("eye.provenance = %v", prov)
+	}
+	if _, ok := prov["checked_against"].([]any); !ok {
+		t.Errorf("eye.provenance.checked_against is not a list: %v", prov["checked_against"])
 	}
 	if doc["class"] != "3B" {
 		t.Errorf("class of 50 mW at 780 nm = %v, want 3B", doc["class"])

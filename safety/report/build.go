@@ -45,8 +45,21 @@ func Build(a *safety.Assessment, m Meta) *Document {
 	if len(a.Atoms) > 0 {
 		d.Sections = append(d.Sections, atomsSection(a, lists["atoms"]))
 	}
-	d.Sections = append(d.Sections, hazards(lists), eyewear(lists["eyewear"]), assumptions(a), cautions(), signOff())
+	d.Sections = append(d.Sections, hazards(lists), eyewear(lists["eyewear"]), provenance(lists["limits_used"]), assumptions(a), cautions(), signOff())
 	return d
+}
+
+// provenance lists where each limit the document used comes from: the
+// standard, table and row, and whether it was checked against a public
+// source, unchecked ones first.
+func provenance(l *view.List) Section {
+	sec := Section{Heading: "Where the limits come from"}
+	items := make([]string, 0, len(l.Records))
+	for i := range l.Records {
+		items = append(items, strings.TrimPrefix(lines(&l.Records[i])[0], "- "))
+	}
+	sec.Blocks = []Block{{Paragraph: "Status: checked (against the named public source), from memory (transcribed from memory of the standard's table, not checked against its text) or conservative substitute (our own value, at least as restrictive, in place of one we could not confirm). Confirm the unchecked values with the laser safety officer."}, {Bullets: items}}
+	return sec
 }
 
 // table draws a view's list as a table: its columns' labels as the header,
@@ -370,13 +383,13 @@ func eyewear(l *view.List) Section {
 	if len(l.Records) == 0 {
 		sec.Blocks = []Block{{Paragraph: "No open exposure was found to set an optical density."}}
 	} else {
-		sec.Blocks = []Block{{Bullets: listLines(l)}, {Paragraph: "OD is log10 of the largest exposure ratio at the wavelength, rounded up; the EN 207 scale number is given for continuous emission in 315–1400 nm."}}
+		sec.Blocks = []Block{{Bullets: listLines(l)}, {Paragraph: "OD is log10 of the largest exposure ratio at the wavelength, rounded up; the EN 207 scale number is given in 315–1400 nm with its test condition (D continuous, I long pulses, R Q-switched, M mode-locked), from the irradiance for D and the radiant exposure per pulse otherwise (scale table from memory)."}}
 	}
 	return sec
 }
 
 func assumptions(a *safety.Assessment) Section {
-	b := []string{"Standard: " + safety.Standard + ", Annex A, MPE at the cornea and for the skin; limits transcribed from memory of the standard's tables, to be checked against its text (see SAFETY.md)."}
+	b := []string{"Standard: " + safety.Standard + ", Annex A, MPE at the cornea and for the skin, and the AEL tables; each value's provenance is listed under where the limits come from, and those not checked against a public source must be checked against the standard's text (see SAFETY.md)."}
 	for _, as := range view.Assumptions(a.Setup) {
 		b = append(b, "Hazards: "+as+".")
 	}

@@ -5,6 +5,30 @@ package view
 // with its descriptor (Num(dPowerW, …)), so that every field of a kind
 // shares these strings. A new field gets its descriptor here.
 var (
+	dFactorsFrom                 = &Desc{"factors_provenance", "factors from", "Limit.Factors"}
+	dAverageBeamPeakWM2          = &Desc{"average_power_peak_irradiance_w_m2", "peak irr. (average power)", "Exposure.PeakIrr"}
+	dAverageJM2                  = &Desc{"average_j_m2", "rule 2", "PulsedLimit.Average"}
+	dCheckedAgainst              = &Desc{"checked_against", "checked against", "Provenance.CheckedAgainst"}
+	dCountedOverS                = &Desc{"counted_over_s", "counted over", "PulsedLimit.CountedOver"}
+	dDurationS3                  = &Desc{"duration_s", "exposure", "LaserLimits.Duration"}
+	dEn207Mode                   = &Desc{"en207_mode", "EN 207 condition", "EyewearNeed.Mode"}
+	dGrouped                     = &Desc{"grouped", "grouped", "PulsedLimit.Grouped"}
+	dPeakPowerW                  = &Desc{"peak_power_w", "peak power", "LaserLimits.PeakPower"}
+	dProvRow                     = &Desc{"row", "row", "Provenance.Row"}
+	dProvStandard                = &Desc{"standard", "standard", "Provenance.Standard"}
+	dProvTable                   = &Desc{"table", "table", "Provenance.Table"}
+	dPulseEnergyJ                = &Desc{"pulse_energy_j", "pulse energy", "LaserLimits.PulseEnergy"}
+	dPulsePeakIrradianceWM2      = &Desc{"pulse_peak_irradiance_w_m2", "pulse peak irr.", "Exposure.PulsePeakIrr"}
+	dPulseRadiantExposureJM2     = &Desc{"pulse_radiant_exposure_j_m2", "per pulse", "Exposure.PulseRadiantExposure"}
+	dPulseRadiantExposureJM22    = &Desc{"pulse_radiant_exposure_j_m2", "per pulse", "EyewearNeed.PulseRadiantExposure"}
+	dPulsesPerGroup              = &Desc{"pulses_per_group", "pulses per group", "PulsedLimit.PerGroup"}
+	dReplaces                    = &Desc{"replaces", "in place of", "Provenance.Replaces"}
+	dSinglePulseJM2              = &Desc{"single_pulse_j_m2", "rule 1", "PulsedLimit.SinglePulse"}
+	dStatus                      = &Desc{"status", "status", "Provenance.Status"}
+	dStatusText                  = &Desc{"status_text", "status", ""}
+	dTminS                       = &Desc{"tmin_s", "T_min", "PulsedLimit.Tmin"}
+	dTrainJM2                    = &Desc{"train_j_m2", "rule 3", "PulsedLimit.Train"}
+	dTrainNote                   = &Desc{"train_note", "rule 3", "PulsedLimit.TrainNote"}
 	dAelClass1W                  = &Desc{"ael_class_1_w", "Class 1", "LaserLimits.AEL"}
 	dAelClass2W                  = &Desc{"ael_class_2_w", "Class 2", "LaserLimits.AEL"}
 	dAelClass3bW                 = &Desc{"ael_class_3b_w", "Class 3B", "LaserLimits.AEL"}

@@ -4,15 +4,17 @@ import (
 	"fmt"
 	"math"
 	"strconv"
+	"strings"
 
 	"beamledger/budget"
+	"beamledger/limits"
 	"beamledger/safety"
 )
 
 // Cautions are printed under every hazard section, in every output.
 var Cautions = []string{
 	"These figures support, and never replace, the evaluation of your laser safety officer under local regulations and your institution's procedures.",
-	"The limits were transcribed from memory of the standard's tables and have not been checked against its text; confirm every value that matters with the laser safety officer.",
+	"Limits whose status reads \"from memory\" or \"conservative substitute\" (printed beside each limit or listed under where the limits come from) have not been checked against the standard's text or a published source; confirm every value that matters with the laser safety officer.",
 	"Only what the setup file describes is evaluated: beams, surfaces and reflections it leaves out are not.",
 	"Align at the lowest power that works, keep beams at table height and below eye level, block stray beams at their source, remove watches and jewellery, and wear the eyewear the laser safety officer specifies (common practice).",
 }
@@ -33,6 +35,57 @@ type hazardView struct {
 	section                                 Section
 	lasers, exposures, reflections, eyewear *List
 	stray, escaping, diffuse                *List // the reflections by kind, for people
+	provenance                              *List // where the limits used come from
+}
+
+// provenanceList is the list of the distinct rows of the standard (and of
+// the other sources) the limits used come from, unchecked ones first.
+func provenanceList(rows []limits.Provenance) *List {
+	l := &List{Key: "limits_used", Heading: "Where the limits come from (status: checked against a named public source, from memory of the standard, or a conservative substitute)"}
+	seen := map[string]bool{}
+	var unchecked, checked []Record
+	for _, p := range rows {
+		k := p.Table + "|" + p.Row
+		if p.Table == "" || seen[k] {
+			continue
+		}
+		seen[k] = true
+		r := provenanceRecord(p)
+		r.Lines = provenanceLines
+		if p.Checked() {
+			checked = append(checked, r)
+		} else {
+			unchecked = append(unchecked, r)
+		}
+	}
+	l.Records = append(unchecked, checked...)
+	return l
+}
+
+// provenanceLines is the sentence of every provenance record.
+var provenanceLines = []string{"- {standard}, {table}, {row}: {status_text}"}
+
+// provenanceRecord is one provenance as JSON shows it: standard, table,
+// row, the sources it was checked against and its status.
+func provenanceRecord(p limits.Provenance) Record {
+	var r Record
+	r.F(Str(dProvStandard, p.Standard)).F(Str(dProvTable, p.Table)).F(Str(dProvRow, p.Row)).
+		F(StrList(dCheckedAgainst, p.CheckedAgainst)).F(Str(dStatus, string(p.Status)))
+	if p.Replaces != "" {
+		r.F(Str(dReplaces, p.Replaces))
+	}
+	text := string(p.Status)
+	if p.Replaces != "" {
+		text += " (in place of " + p.Replaces + ")"
+	}
+	switch {
+	case len(p.CheckedAgainst) > 0 && p.Checked():
+		text = "checked against " + strings.Join(p.CheckedAgainst, ", ")
+	case len(p.CheckedAgainst) > 0:
+		text += "; checked against " + strings.Join(p.CheckedAgainst, ", ")
+	}
+	r.F(Field{d: dStatusText, Kind: String, Text: text, People: true})
+	return r
 }
 
 func (b *builder) hazards(a *safety.Assessment) hazardView {
@@ -66,12 +119,20 @@ func (b *builder) hazards(a *safety.Assessment) hazardView {
 			v.diffuse.Records = append(v.diffuse.Records, rec)
 		}
 	}
-	v.eyewear = &List{Key: "eyewear", Heading: "Eyewear (OD rounded up; EN 207 scale number for continuous emission, 315–1400 nm)", Empty: "no open exposure to evaluate"}
+	v.eyewear = &List{Key: "eyewear", Heading: "Eyewear (OD rounded up; EN 207 scale number in 315–1400 nm with its test condition: D continuous, I long pulses, R Q-switched, M mode-locked; scale table from memory)", Empty: "no open exposure to evaluate"}
 	for _, n := range h.Eyewear {
 		v.eyewear.Records = append(v.eyewear.Records, b.eyewearRecord(n))
 	}
+	var rows []limits.Provenance
+	for _, ll := range h.Lasers {
+		rows = append(rows, ll.Rows()...)
+	}
+	if len(h.Eyewear) > 0 {
+		rows = append(rows, limits.EN207Row())
+	}
+	v.provenance = provenanceList(rows)
 	v.json.L(v.lasers).L(v.exposures).L(v.reflections).L(v.eyewear).
-		F(StrList(dDefaultsAssumed, h.DefaultsAssumed))
+		F(StrList(dDefaultsAssumed, h.DefaultsAssumed)).L(v.provenance)
 
 	blocks := []Block{{Indent: 1, Line: "assumptions:"}}
 	for _, as := range Assumptions(a.Setup) {
@@ -82,7 +143,7 @@ func (b *builder) hazards(a *safety.Assessment) hazardView {
 	}
 	blocks = append(blocks, Block{Indent: 1, List: v.lasers}, Block{Indent: 1, List: v.exposures},
 		Block{Indent: 1, List: v.stray}, Block{Indent: 1, List: v.escaping}, Block{Indent: 1, List: v.diffuse},
-		Block{Indent: 1, List: v.eyewear}, Block{Indent: 1, Line: "Cautions"}, Block{Indent: 2, Bullets: Cautions})
+		Block{Indent: 1, List: v.eyewear}, Block{Indent: 1, List: v.provenance}, Block{Indent: 1, Line: "Cautions"}, Block{Indent: 2, Bullets: Cautions})
 	v.section = Section{Heading: fmt.Sprintf("Hazards (%s)", safety.Standard), Blocks: blocks}
 	return v
 }
@@ -116,7 +177,22 @@ func (b *builder) laserRecord(ll *safety.LaserLimits) Record {
 		F(orNone(Pow(dAelClass2W, ll.AEL.Class2))).
 		F(orNone(Pow(dAelClass3rW, ll.AEL.Class3R))).
 		F(Pow(dAelClass3bW, ll.AEL.Class3B))
-	r.Line(las.Name + ": eye limit {eye_mpe_rule} ({eye_mpe_effect}); class {class_note}")
+	eyeProv := provenanceRecord(ll.Eye.Provenance)
+	r.O("eye_mpe_provenance", &eyeProv, false)
+	skinProv := provenanceRecord(ll.Skin.Provenance)
+	r.O("skin_mpe_provenance", &skinProv, false)
+	r.Line(las.Name + ": eye limit {eye_mpe_rule} ({eye_mpe_effect}; {eye_mpe_provenance.status}); class {class_note}")
+	if p := ll.Pulsed; p != nil {
+		r.F(Num(dPulseEnergyJ, ll.PulseEnergy, budget.FormatSI(ll.PulseEnergy, "J"))).
+			F(Pow(dPeakPowerW, ll.PeakPower)).
+			F(Str(dEn207Mode, ll.EN207Mode))
+		pr := b.pulsedRecord(p, las.PulseDuration, las.RepetitionRate, ll.Duration)
+		r.O("pulsed", pr, false)
+		r.Line("  pulses: {pulse_energy_j} per pulse at maximum power, peak power {peak_power_w} (rectangular pulse), EN 207 condition {en207_mode}")
+		for _, l := range prefixKeys(pr.Lines, "pulsed.") {
+			r.Line(l)
+		}
+	}
 	r.Line("  continuous-emission AELs: Class 1 {ael_class_1_w}, Class 2 {ael_class_2_w}, Class 3R {ael_class_3r_w}, Class 3B {ael_class_3b_w}; skin aperture {skin_aperture_diameter_m}")
 	if ll.Class != "" {
 		r.F(Field{d: dClassMeaning, Kind: String, Text: classMeaning(ll.Class), People: true})
@@ -184,6 +260,12 @@ func (b *builder) exposureRecord(e *safety.Exposure) Record {
 	}
 	r.F(Field{d: dSegment, Kind: String, Text: segLabel(e), People: true}).
 		F(Field{d: dNohd, Kind: String, Text: nohd, People: true})
+	if e.Laser.Pulsed != nil {
+		r.F(Num(dPulseRadiantExposureJM2, e.PulseRadiantExposure, withUnit(e.PulseRadiantExposure, "J/m²"))).
+			F(Irr(dPulsePeakIrradianceWM2, e.PulsePeakIrr)).
+			F(Irr(dAverageBeamPeakWM2, e.PeakIrr))
+		r.Line("      {segment} per pulse: {pulse_radiant_exposure_j_m2} over the eye aperture; peak irradiance during a pulse {pulse_peak_irradiance_w_m2} (of the average power: {average_power_peak_irradiance_w_m2})")
+	}
 	return r
 }
 
@@ -260,9 +342,16 @@ func (b *builder) eyewearRecord(n *safety.EyewearNeed) Record {
 		r.F(f)
 	}
 	r.F(StrList(dCoveredBy, n.CoveredBy))
+	r.F(Str(dEn207Mode, n.Mode))
 	r.F(Irr(dIrradianceWM2, n.Irradiance))
 	r.F(Field{d: dCoverage, Kind: String, Text: n.Coverage(), People: true})
-	r.Line("{wavelength_m}: OD {od_required}, {en207_scale} (largest aperture-averaged irradiance {irradiance_w_m2}); {coverage}")
+	if n.Mode == limits.EN207D {
+		r.F(Absent(dPulseRadiantExposureJM22, true))
+		r.Line("{wavelength_m}: OD {od_required}, {en207_scale} (continuous; largest aperture-averaged irradiance {irradiance_w_m2}); {coverage}")
+	} else {
+		r.F(Num(dPulseRadiantExposureJM22, n.PulseRadiantExposure, withUnit(n.PulseRadiantExposure, "J/m²")))
+		r.Line("{wavelength_m}: OD {od_required}, {en207_scale} (pulsed, condition {en207_mode}; largest radiant exposure per pulse over the eye aperture {pulse_radiant_exposure_j_m2}); {coverage}")
+	}
 	return r
 }
 
@@ -271,4 +360,44 @@ func assumed(a bool) string {
 		return " (assumed)"
 	}
 	return ""
+}
+
+// pulsedRecord shows the three repetitive-pulse rules for pulses of
+// duration τ at rate f over an exposure T: each rule's limit per pulse,
+// which governs, and what rule 3 counted.
+func (b *builder) pulsedRecord(p *limits.PulsedLimit, τ, f, T float64) *Record {
+	r := &Record{Members: b.members(16)}
+	r.F(Sec(dPulseDurationS, τ)).
+		F(Num(dRepetitionRateHz, f, budget.FormatFrequency(f))).
+		F(Num(dSinglePulseJM2, p.SinglePulse, withUnit(p.SinglePulse, "J/m²"))).
+		F(Num(dAverageJM2, p.Average, withUnit(p.Average, "J/m²")))
+	if p.TrainApplies {
+		r.F(Num(dTrainJM2, p.Train, withUnit(p.Train, "J/m²"))).
+			F(Plain(dPulses, p.N)).
+			F(Sec(dCountedOverS, p.CountedOver)).
+			F(Plain(dC5, p.C5))
+	} else {
+		r.F(Absent(dTrainJM2, false)).F(Absent(dPulses, false)).F(Absent(dCountedOverS, false)).F(Absent(dC5, false))
+	}
+	r.F(Str(dTrainNote, p.TrainNote)).
+		F(Flag(dGrouped, p.Grouped, yesNo(p.Grouped))).
+		F(Sec(dTminS, p.Tmin)).
+		F(Num(dMpePerPulseJM2, p.PerPulse, withUnit(p.PerPulse, "J/m²"))).
+		F(Str(dGoverningRule, p.Rule)).
+		F(Irr(dMpeAverageIrradianceWM2, p.Irradiance))
+	if p.Grouped {
+		r.F(Plain(dPulsesPerGroup, p.PerGroup))
+	} else {
+		r.F(Absent(dPulsesPerGroup, true))
+	}
+	r.Line("  rule 1, single pulse: {single_pulse_j_m2} per pulse" + map[bool]string{true: " (pulses within T_min = {tmin_s} count as one: {pulses_per_group} per group)", false: ""}[p.Grouped])
+	r.Line("  rule 2, average over {duration_s}: {average_j_m2} per pulse")
+	if p.TrainApplies {
+		r.Line("  rule 3, pulse train: C5 = {c5} for {pulses} pulses counted over {counted_over_s}: {train_j_m2} per pulse ({train_note})")
+	} else {
+		r.Line("  rule 3, pulse train: not applied ({train_note})")
+	}
+	r.Line("  the {governing_rule} rule governs: {mpe_per_pulse_j_m2} per pulse, an average irradiance of {mpe_average_irradiance_w_m2}")
+	r.F(Sec(dDurationS3, T))
+	return r
 }

@@ -27,24 +27,42 @@ func Limits(l *safety.LimitsLookup) *Doc {
 		F(Num(dAngularSubtenseRad, q.AngularSubtense, budget.FormatSI(q.AngularSubtense, "rad"))).
 		F(Str(dStandard, safety.Standard))
 	r.Line("{standard} limits at {wavelength_m}, exposure {duration_s}, " + src)
-	side := func(key, name string, m limits.Limit, ap float64) {
+	var b builder
+	side := func(key, name string, m limits.Limit, ap float64, apRow limits.Provenance) {
 		s := &Record{}
 		s.F(Num(dMpeIrradianceWM22, m.Irradiance, budget.FormatSI(m.Irradiance, "W/m²")+" = "+budget.FormatIrradiance(m.Irradiance))).
 			F(Num(dMpeRadiantExposureJM2, m.RadiantExposure, budget.FormatSI(m.RadiantExposure, "J/m²"))).
 			F(Len(dApertureDiameterM, ap)).
 			F(Str(dRule, m.Rule)).F(Str(dEffect, m.Effect))
+		prov, apProv := provenanceRecord(m.Provenance), provenanceRecord(apRow)
+		s.O("provenance", &prov, false).O("aperture_provenance", &apProv, false)
 		r.O(key, s, false)
 		r.Line(fmt.Sprintf("  %s MPE {%s.mpe_irradiance_w_m2} (H = {%s.mpe_radiant_exposure_j_m2}), averaged over a {%s.aperture_diameter_m} aperture; {%s.effect}", name, key, key, key, key))
 		r.Line(fmt.Sprintf("       rule: {%s.rule}", key))
+		r.Line(fmt.Sprintf("       from: {%s.provenance.table}, {%s.provenance.row}: {%s.provenance.status_text}", key, key, key))
+		r.Line(fmt.Sprintf("       aperture from: {%s.aperture_provenance.row}: {%s.aperture_provenance.status_text}", key, key))
 	}
-	side("eye", "eye ", l.Eye, l.EyeAperture)
-	side("skin", "skin", l.Skin, l.SkinAperture)
+	side("eye", "eye ", l.Eye, l.EyeAperture, l.EyeApertureRow)
+	side("skin", "skin", l.Skin, l.SkinAperture, l.SkinApertureRow)
 	ael := &Record{}
 	ael.F(Pow(dClass1, l.AEL.Class1)).
 		F(orNone(Pow(dClass2, l.AEL.Class2))).
 		F(orNone(Pow(dClass3r, l.AEL.Class3R))).
 		F(Pow(dClass3b, l.AEL.Class3B))
 	r.O("ael_w", ael, false)
+	aelProv := &Record{}
+	for _, c := range []struct {
+		key string
+		row limits.Provenance
+	}{{"class_1", l.AEL.Class1Row}, {"class_2", l.AEL.Class2Row}, {"class_3r", l.AEL.Class3RRow}, {"class_3b", l.AEL.Class3BRow}, {"time_base", limits.TimeBaseRow()}} {
+		if c.row.Table == "" {
+			aelProv.O(c.key, nil, false)
+			continue
+		}
+		pr := provenanceRecord(c.row)
+		aelProv.O(c.key, &pr, false)
+	}
+	r.O("ael_provenance", aelProv, false)
 	r.F(Sec(dAelTimeBaseS, l.AEL.TimeBase))
 	factors := &Record{}
 	keys := make([]string, 0, len(l.Eye.Factors))
@@ -64,21 +82,28 @@ func Limits(l *safety.LimitsLookup) *Doc {
 			}
 		}
 		r.Line("  correction factors: " + strings.Join(parts, " "))
+		var from []string
+		for _, k := range factorOrder {
+			if _, ok := l.Eye.Factors[k]; ok {
+				pr := provenanceRecord(limits.FactorProvenance(k))
+				from = append(from, k+" "+pr.Field("status_text").Text)
+			}
+		}
+		r.F(StrList(dFactorsFrom, from))
+		r.Line("       from: {factors_provenance}")
 	}
 	var pulsed *Record
 	if p := l.Pulsed; p != nil {
-		pulsed = &Record{}
-		pulsed.F(Sec(dPulseDurationS, q.PulseDuration)).
-			F(Num(dRepetitionRateHz, q.RepetitionRate, budget.FormatFrequency(q.RepetitionRate))).
-			F(Plain(dPulses, p.N)).
-			F(Plain(dC5, p.C5)).
-			F(Num(dMpePerPulseJM2, p.PerPulse, budget.FormatNumber(p.PerPulse)+" J/m²")).
-			F(Str(dGoverningRule, p.Rule)).
-			F(Irr(dMpeAverageIrradianceWM2, p.Irradiance))
-		r.Line("  pulse train: {pulsed.pulses} pulses of {pulsed.pulse_duration_s} at {pulsed.repetition_rate_hz} over {duration_s}; C5 = {pulsed.c5}; the {pulsed.governing_rule} rule governs: {pulsed.mpe_per_pulse_j_m2} per pulse (average irradiance limit {pulsed.mpe_average_irradiance_w_m2})")
+		pulsed = b.pulsedRecord(p, q.PulseDuration, q.RepetitionRate, l.Duration)
+		r.Line("  pulse train of {pulsed.pulse_duration_s} pulses at {pulsed.repetition_rate_hz} over {duration_s}:")
+		for _, line := range prefixKeys(pulsed.Lines, "pulsed.") {
+			r.Line(line)
+		}
 	}
 	r.O("pulsed", pulsed, true)
-	r.Line("  AEL for continuous emission (MPE at the time base × aperture area; Class 1 time base {ael_time_base_s}): Class 1/1M {ael_w.class_1}, Class 2/2M {ael_w.class_2}, Class 3R {ael_w.class_3r}, Class 3B {ael_w.class_3b}")
+	r.Line("  AEL for continuous emission (Class 1 time base {ael_time_base_s}): Class 1/1M {ael_w.class_1}, Class 2/2M {ael_w.class_2}, Class 3R {ael_w.class_3r}, Class 3B {ael_w.class_3b}")
+	r.Line("       Class 1 from: {ael_provenance.class_1.row}: {ael_provenance.class_1.status_text}")
+	r.Line("       Class 3B from: {ael_provenance.class_3b.row}: {ael_provenance.class_3b.status_text}")
 	if l.HasBeam {
 		if l.Class != "" {
 			r.F(Str(dClass3, l.Class))

@@ -9,6 +9,7 @@ import (
 
 	"beamledger/budget"
 	"beamledger/budget/atoms"
+	"beamledger/limits"
 	"beamledger/safety"
 	"beamledger/safety/safetytest"
 )
@@ -52,7 +53,6 @@ func TestExpand(t *testing.T) {
 func TestFieldCoverage(t *testing.T) {
 	hidden := map[string]string{
 		"Row.BeamOut":               "the beam leaving an element is the next one's BeamIn, shown there",
-		"Exposure.PeakIrr":          "the unaveraged peak at the worst point; hazards are judged on the aperture average, which is shown",
 		"Segment.Beam":              "the beam at a segment's start is the previous element's, shown there",
 		"Segment.Fraction":          "the power of a segment is shown as its exposure's power",
 		"DipoleResult.PerIntensity": "U/I words the potential attractive or repulsive; its value is U/k_B over the peak irradiance, both shown",
@@ -66,7 +66,7 @@ func TestFieldCoverage(t *testing.T) {
 	}
 	types := []any{budget.Row{}, budget.FiberCoupling{}, budget.PathBudget{}, budget.LaserBalance{}, budget.Segment{},
 		budget.AtomsResult{}, budget.DipoleResult{}, budget.GoalResult{}, atoms.Collective{},
-		safety.LaserLimits{}, safety.Exposure{}, safety.Reflection{}, safety.EyewearNeed{}, budget.Finding{}}
+		safety.LaserLimits{}, safety.Exposure{}, safety.Reflection{}, safety.EyewearNeed{}, budget.Finding{}, limits.PulsedLimit{}}
 	for _, v := range types {
 		typ := reflect.TypeOf(v)
 		for i := 0; i < typ.NumField(); i++ {
