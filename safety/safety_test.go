@@ -422,3 +422,34 @@ access = "enclosed"
 		t.Errorf("pulsed above the scaled threshold: %+v", got)
 	}
 }
+
+// The invented Q-switched source (7 ns, 10 Hz, 50 mW average, a 1 mm waist)
+// is rated for condition R of EN 207, its scale number set by the radiant
+// exposure of one pulse over the 7 mm aperture: nearly all of 5 mJ in
+// π(3.5 mm)², 129.9 J/m², needs LB5 (0.05·10^(n−1) J/m² ≥ 129.9; EN 207
+// scale table, from memory); the pulse energy is 50 mW / 10 Hz = 5 mJ and
+// the peak power 5 mJ / 7 ns = 714 kW (common practice).
+func TestPulsedSourceFigures(t *testing.T) {
+	s, err := budget.Load("../testdata/examples/ablation-pulse.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	a, err := Evaluate(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	ll := a.Hazards.Lasers[0]
+	if math.Abs(ll.PulseEnergy-5e-3) > 1e-12 || math.Abs(ll.PeakPower-5e-3/7e-9) > 1e-3 || ll.EN207Mode != limits.EN207R {
+		t.Errorf("pulse energy %g J, peak %g W, mode %s", ll.PulseEnergy, ll.PeakPower, ll.EN207Mode)
+	}
+	e := a.Hazards.Exposures[0]
+	if math.Abs(e.PulseRadiantExposure-e.Irradiance/10) > 1e-9*e.PulseRadiantExposure || math.Abs(e.PulseRadiantExposure-129.9) > 0.1 {
+		t.Errorf("per pulse %g J/m² (aperture irradiance %g W/m²)", e.PulseRadiantExposure, e.Irradiance)
+	}
+	if len(a.Hazards.Eyewear) != 1 {
+		t.Fatalf("%d eyewear needs", len(a.Hazards.Eyewear))
+	}
+	if n := a.Hazards.Eyewear[0]; n.Mode != limits.EN207R || !n.LBValid || n.LB != 5 || n.EN207Label() != "R LB5" {
+		t.Errorf("eyewear %s LB%d (%v)", n.Mode, n.LB, n.LBValid)
+	}
+}

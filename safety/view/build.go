@@ -134,6 +134,10 @@ func (b *builder) pathRecord(pb *budget.PathBudget) Record {
 	r.F(Field{d: dSource, Kind: String, Text: src, People: true})
 	r.Line(fmt.Sprintf("Path %q from {source}, {wavelength_m}", p.Name))
 	r.Line("  powers at the operating power {operating_power_w} (maximum {max_power_w}); W = 1/e² radius arriving at the element; peak irradiance 2P/(πWxWy) on arrival")
+	if las.Emission == budget.EmissionPulsed {
+		r.F(Num(dPulsePeakFactor, 1/(las.RepetitionRate*las.PulseDuration), fmtG(1/(las.RepetitionRate*las.PulseDuration))))
+		r.Line("  pulsed source: powers and peak irradiances here are of the average power; during a pulse the irradiance is {pulse_peak_factor} times higher (1/(f τ), rectangular pulse)")
+	}
 	els := &List{Key: "elements", Columns: []string{"index", "element", "at_m", "radius_x_m", "radius_y_m", "power_in_w", "power_out_w", "peak_irradiance_w_m2", "cumulative_loss_db", "losses_here"}, Left: 2, Indent: 1, Records: make([]Record, 0, len(pb.Rows))}
 	lead := &Record{Members: b.members(10)}
 	lead.F(Whole(dIndex, 0)).F(Field{d: dElement4, Kind: String, Text: "start", People: true}).

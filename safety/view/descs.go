@@ -5,6 +5,7 @@ package view
 // with its descriptor (Num(dPowerW, …)), so that every field of a kind
 // shares these strings. A new field gets its descriptor here.
 var (
+	dPulsePeakFactor             = &Desc{"pulse_peak_factor", "pulse peak ÷ average", ""}
 	dFactorsFrom                 = &Desc{"factors_provenance", "factors from", "Limit.Factors"}
 	dAverageBeamPeakWM2          = &Desc{"average_power_peak_irradiance_w_m2", "peak irr. (average power)", "Exposure.PeakIrr"}
 	dAverageJM2                  = &Desc{"average_j_m2", "rule 2", "PulsedLimit.Average"}

@@ -102,8 +102,14 @@ func Limits(l *safety.LimitsLookup) *Doc {
 	}
 	r.O("pulsed", pulsed, true)
 	r.Line("  AEL for continuous emission (Class 1 time base {ael_time_base_s}): Class 1/1M {ael_w.class_1}, Class 2/2M {ael_w.class_2}, Class 3R {ael_w.class_3r}, Class 3B {ael_w.class_3b}")
-	r.Line("       Class 1 from: {ael_provenance.class_1.row}: {ael_provenance.class_1.status_text}")
-	r.Line("       Class 3B from: {ael_provenance.class_3b.row}: {ael_provenance.class_3b.status_text}")
+	for _, c := range []struct {
+		key, name string
+		row       limits.Provenance
+	}{{"class_1", "Class 1", l.AEL.Class1Row}, {"class_2", "Class 2", l.AEL.Class2Row}, {"class_3r", "Class 3R", l.AEL.Class3RRow}, {"class_3b", "Class 3B", l.AEL.Class3BRow}, {"time_base", "time base", limits.TimeBaseRow()}} {
+		if c.row.Table != "" {
+			r.Line(fmt.Sprintf("       %s from: {ael_provenance.%s.row}: {ael_provenance.%s.status_text}", c.name, c.key, c.key))
+		}
+	}
 	if l.HasBeam {
 		if l.Class != "" {
 			r.F(Str(dClass3, l.Class))
