@@ -16,6 +16,7 @@ const (
 	LossSplitterPort = "splitter port"         // the other port of a splitter, not followed by any path
 	LossCoupling     = "fibre coupling"        // not coupled into the fibre mode
 	LossDump         = "dump"                  // absorbed in a beam dump
+	LossCombiner     = "combiner port"         // rejected by a combiner, leaving at its other port
 )
 
 // Loss is power leaving the path at an element, as a fraction of the source's
@@ -64,23 +65,68 @@ type Segment struct {
 	Beam     Beam    // at From
 	Fraction float64 // power in the segment, fraction of the source
 	Access   Access
+	// Arrival marks the zero-length arrival of a joined beam at its
+	// combiner: its free space belongs to the path it came along.
+	Arrival bool
 }
 
-// PathBudget is the budget of one path.
+// PathBudget is the budget of one beam on one path: the path's own laser's
+// beam (Budget.Paths), or another laser's beam sharing the path (Joined),
+// either from a combiner on the path or from the path's start when the
+// splitter feeding the path carries it.
 type PathBudget struct {
-	Path          *Path
-	Laser         *Laser
+	Path  *Path
+	Laser *Laser
+	// First is the index in Path.Elements of the first element the beam
+	// meets: 0 for a beam from the path's start, the combiner's for a beam
+	// that joined there. Rows[k] is at Path.Elements[First+k], and
+	// Segments[k] arrives at Rows[k].
+	First int
+	// JoinedAt is where the beam joined the path, m (0: at its start).
+	JoinedAt float64
+	// Combiner is the element where the beam joined the path (nil: it
+	// came from the path's start).
+	Combiner *Element
+	// ShiftIn is the AOM frequency shift the beam carries onto the path, Hz.
+	ShiftIn float64
+	// Joined lists the other lasers' beams on the path, in the order they
+	// join (set on the path's own budget only).
+	Joined        []*PathBudget
 	StartFraction float64
 	Start         Beam
 	Rows          []Row
 	Segments      []Segment
-	// EndFraction is the power leaving the last element.
+	// EndFraction is the power leaving the last element (for a path that
+	// goes into a combiner: arriving there).
 	EndFraction float64
-	// OpenEnd is set when the path does not end in a dump.
+	// OpenEnd is set when the path neither ends in a dump nor goes into a
+	// combiner.
 	OpenEnd bool
-	End     Beam
+	End     Beam // at the path's end (at the combiner for a path that goes into one)
 	// UnfollowedPorts lists splitters whose other port no path follows.
 	UnfollowedPorts []*Element
+
+	arrival Access // the access of the segment a joined beam arrives through
+}
+
+// IsJoined reports whether the beam is another laser's on a shared path.
+func (pb *PathBudget) IsJoined() bool { return pb.Laser != pb.Path.Laser || pb.Combiner != nil }
+
+// Beams lists the beams on the path of an own budget: itself, then the
+// joined ones.
+func (pb *PathBudget) Beams() []*PathBudget {
+	return append([]*PathBudget{pb}, pb.Joined...)
+}
+
+// ShiftBefore is the AOM frequency shift the beam carries when it reaches
+// element k (an index into Path.Elements) of its path, Hz: what it brought
+// onto the path plus order × frequency × passes of each AOM it passed there.
+func (pb *PathBudget) ShiftBefore(k int) float64 {
+	shift := pb.ShiftIn
+	for _, e := range pb.Path.Elements[pb.First:min(k, len(pb.Path.Elements))] {
+		shift += e.FrequencyShift()
+	}
+	return shift
 }
 
 // LaserBalance accounts for all the power of one source.
@@ -131,10 +177,11 @@ func (b *Budget) Path(name string) *PathBudget {
 	return nil
 }
 
-// Compute propagates every beam and accounts for its power.
+// Compute propagates every beam and accounts for its power. Paths are
+// taken in an order where the paths feeding one (through a splitter or a
+// combiner) come first; every beam a feeding path carries goes on into it.
 func Compute(s *Setup) (*Budget, error) {
 	out := &Budget{Setup: s}
-	byPath := map[*Path]*PathBudget{}
 	balances := map[*Laser]*LaserBalance{}
 	for _, las := range s.Lasers {
 		bal := &LaserBalance{Laser: las, Lost: map[string]float64{}}
@@ -147,68 +194,128 @@ func Compute(s *Setup) (*Budget, error) {
 			followed[p.ParentPort] = p
 		}
 	}
-	// Paths in an order where every parent comes before its branches.
-	var order []*Path
-	done := map[*Path]bool{}
+	own := map[*Path]*PathBudget{}
+	lossless := map[*Element]bool{}
+	for _, p := range PathOrder(s) {
+		var beams []*PathBudget
+		if p.Parent == nil {
+			las := p.Laser
+			beams = append(beams, &PathBudget{Path: p, Laser: las, StartFraction: 1, Start: Beam{
+				Wavelength: las.Wavelength,
+				X:          NewPlane(las.Waist[0], las.WaistAt[0], las.M2[0], las.Wavelength),
+				Y:          NewPlane(las.Waist[1], las.WaistAt[1], las.M2[1], las.Wavelength),
+			}})
+		} else {
+			k := elementIndex(p.Parent, p.ParentPort)
+			for _, q := range own[p.Parent].Beams() {
+				if q.First > k || q.row(p.ParentPort) == nil {
+					continue
+				}
+				row := q.row(p.ParentPort)
+				t := *p.ParentPort.For(q.Laser).Transmission
+				beams = append(beams, &PathBudget{Path: p, Laser: q.Laser, Start: row.BeamOut,
+					StartFraction: row.FractionIn * row.ClipFraction * (1 - t), ShiftIn: q.ShiftBefore(k)})
+			}
+		}
+		for _, j := range s.Paths {
+			if j.IntoPath != p {
+				continue
+			}
+			k := elementIndex(p, j.IntoPort)
+			for _, q := range own[j].Beams() {
+				beams = append(beams, &PathBudget{Path: p, Laser: q.Laser, First: k, JoinedAt: j.IntoPort.At, Combiner: j.IntoPort, Start: q.End,
+					StartFraction: q.EndFraction, ShiftIn: q.ShiftBefore(len(j.Elements)), arrival: q.Segments[len(q.Segments)-1].Access})
+			}
+		}
+		for _, pb := range beams {
+			if err := pb.propagate(s.File, followed); err != nil {
+				return nil, err
+			}
+			if pb.IsJoined() {
+				if err := pb.checkJoinedDetuning(s); err != nil {
+					return nil, err
+				}
+			}
+			bal := balances[pb.Laser]
+			for _, r := range pb.Rows {
+				if r.AssumedLossless {
+					lossless[r.Element] = true
+				}
+				for _, l := range r.Losses {
+					if l.Kind == LossDump {
+						bal.Dumped += l.Fraction
+					} else {
+						bal.Lost[l.Kind] += l.Fraction
+					}
+				}
+			}
+			if pb.OpenEnd {
+				bal.Leaving += pb.EndFraction
+			}
+		}
+		main := beams[0]
+		main.Joined = beams[1:]
+		own[p] = main
+	}
+	out.AssumedLossless = len(lossless)
+	// Report paths in the order of the setup file.
+	out.Paths = make([]*PathBudget, 0, len(s.Paths))
+	for _, p := range s.Paths {
+		out.Paths = append(out.Paths, own[p])
+	}
+	return out, nil
+}
+
+// PathOrder lists the paths so that every path comes after the paths that
+// feed it: the one whose splitter it starts at and those that go into its
+// combiners (the loader refuses cycles).
+func PathOrder(s *Setup) []*Path {
+	joiners := map[*Path][]*Path{}
+	for _, p := range s.Paths {
+		if p.IntoPath != nil {
+			joiners[p.IntoPath] = append(joiners[p.IntoPath], p)
+		}
+	}
+	order := make([]*Path, 0, len(s.Paths))
+	done := make(map[*Path]bool, len(s.Paths))
 	var visit func(p *Path)
 	visit = func(p *Path) {
 		if done[p] {
 			return
 		}
+		done[p] = true
 		if p.Parent != nil {
 			visit(p.Parent)
 		}
-		done[p] = true
+		for _, j := range joiners[p] {
+			visit(j)
+		}
 		order = append(order, p)
 	}
 	for _, p := range s.Paths {
 		visit(p)
 	}
-	for _, p := range order {
-		pb := &PathBudget{Path: p, Laser: p.Laser}
-		if p.Parent == nil {
-			las := p.Laser
-			pb.Start = Beam{
-				Wavelength: las.Wavelength,
-				X:          NewPlane(las.Waist[0], las.WaistAt, las.M2[0], las.Wavelength),
-				Y:          NewPlane(las.Waist[1], las.WaistAt, las.M2[1], las.Wavelength),
-			}
-			pb.StartFraction = 1
-		} else {
-			parent := byPath[p.Parent]
-			row := parent.row(p.ParentPort)
-			pb.Start = row.BeamOut
-			pb.StartFraction = row.FractionIn * row.ClipFraction * (1 - *p.ParentPort.Transmission)
-		}
-		if err := pb.propagate(s.File, followed); err != nil {
-			return nil, err
-		}
-		byPath[p] = pb
-		out.Paths = append(out.Paths, pb)
-		bal := balances[p.Laser]
-		for _, r := range pb.Rows {
-			if r.AssumedLossless {
-				out.AssumedLossless++
-			}
-			for _, l := range r.Losses {
-				if l.Kind == LossDump {
-					bal.Dumped += l.Fraction
-				} else {
-					bal.Lost[l.Kind] += l.Fraction
-				}
-			}
-		}
-		if pb.OpenEnd {
-			bal.Leaving += pb.EndFraction
+	return order
+}
+
+// elementIndex is the index of element e in path p's elements.
+func elementIndex(p *Path, e *Element) int {
+	for i, x := range p.Elements {
+		if x == e {
+			return i
 		}
 	}
-	// Report paths in the order of the setup file.
-	ordered := make([]*PathBudget, 0, len(s.Paths))
-	for _, p := range s.Paths {
-		ordered = append(ordered, byPath[p])
+	return -1
+}
+
+// rowIndex is the index of row r in pb.Rows.
+func (pb *PathBudget) rowIndex(r *Row) int {
+	for i := range pb.Rows {
+		if &pb.Rows[i] == r {
+			return i
+		}
 	}
-	out.Paths = ordered
-	return out, nil
+	return -1
 }
 
 func (pb *PathBudget) row(e *Element) *Row {
@@ -220,40 +327,44 @@ func (pb *PathBudget) row(e *Element) *Row {
 	return nil
 }
 
-// propagate walks the path's elements.
+// propagate walks the beam through the path's elements from First.
 func (pb *PathBudget) propagate(file string, followed map[*Element]*Path) error {
 	p := pb.Path
 	beam := pb.Start
 	frac := pb.StartFraction
-	pos := 0.0
+	pos := pb.JoinedAt
 	access := p.Access
 	after := 0
+	if pb.Combiner != nil {
+		access = pb.arrival
+		if pb.First > 0 {
+			after = p.Elements[pb.First-1].Index
+		}
+	}
 	lastLens := -1
-	for i, e := range p.Elements {
-		seg := Segment{From: pos, To: e.At, After: after, Beam: beam, Fraction: frac, Access: access}
-		pb.Segments = append(pb.Segments, seg)
+	for i := pb.First; i < len(p.Elements); i++ {
+		e := p.Elements[i]
+		joining := i == pb.First && pb.Combiner != nil
+		pb.Segments = append(pb.Segments, Segment{From: pos, To: e.At, After: after, Beam: beam, Fraction: frac, Access: access, Arrival: joining})
 		beam = beam.Propagate(e.At - pos)
 		pos = e.At
 		row := Row{Element: e, BeamIn: beam, FractionIn: frac, ClipFraction: 1}
-		lose := func(kind string, f float64) {
-			if f > 0 {
-				row.Losses = append(row.Losses, Loss{kind, f})
-			}
-		}
+		el := e.For(pb.Laser)
 		// Clipping at the clear aperture (or the iris of an aperture element).
-		clear := e.ClearAperture()
-		if clear > 0 {
+		if clear := el.ClearAperture(); clear > 0 {
 			wx, wy := beam.Radii()
 			row.ClipFraction = CircleFraction(wx, wy, clear/2)
-			lose(LossClipping, frac*(1-row.ClipFraction))
+			if f := frac * (1 - row.ClipFraction); f > 0 {
+				row.Losses = append(row.Losses, Loss{LossClipping, f})
+			}
 			frac *= row.ClipFraction
 		}
-		st := &stage{pb: pb, followed: followed, index: i, lastLens: lastLens, beam: beam, frac: frac, row: &row}
+		st := &stage{pb: pb, followed: followed, index: len(pb.Rows), lastLens: lastLens, beam: beam, frac: frac, row: &row, joining: joining}
 		kind, _ := KindOf(e.Type)
-		kind.apply(st, e)
+		kind.apply(st, el)
 		beam, frac, lastLens = st.beam, st.frac, st.lastLens
 		if !beam.Valid() {
-			return &InputError{[]string{fmt.Sprintf("%s:%d: path %q, element %d (%s): the beam is not a finite Gaussian beam after this element; check its numbers", file, e.Line, p.Name, e.Index, e.Type)}}
+			return &InputError{[]string{fmt.Sprintf("%s:%d: path %q, element %d (%s): the beam of laser %q is not a finite Gaussian beam after this element; check its numbers", file, e.Line, p.Name, e.Index, e.Type, pb.Laser.Name)}}
 		}
 		row.BeamOut = beam
 		row.FractionOut = frac
@@ -270,11 +381,39 @@ func (pb *PathBudget) propagate(file string, followed map[*Element]*Path) error 
 		after = e.Index
 	}
 	pb.EndFraction = frac
-	pb.End = beam
 	last := len(p.Elements) - 1
-	pb.OpenEnd = last < 0 || p.Elements[last].Type != TypeDump
-	if pb.OpenEnd {
+	switch {
+	case p.IntoPath != nil:
+		// The beam goes on into the combiner of another path.
+		pb.Segments = append(pb.Segments, Segment{From: pos, To: p.IntoAt, After: after, Beam: beam, Fraction: frac, Access: access})
+		pb.End = beam.Propagate(p.IntoAt - pos)
+	case last < 0 || p.Elements[last].Type != TypeDump:
+		pb.OpenEnd = true
+		pb.End = beam
 		pb.Segments = append(pb.Segments, Segment{From: pos, To: math.Inf(1), After: after, Beam: beam, Fraction: frac, Access: access})
+	default:
+		pb.End = beam
+	}
+	return nil
+}
+
+// checkJoinedDetuning refuses, at the atoms elements a joined beam reaches,
+// light whose frequency after the AOMs is not positive or whose laser's
+// stated detuning disagrees with its wavelength (as the loader does for a
+// path's own beam).
+func (pb *PathBudget) checkJoinedDetuning(s *Setup) error {
+	for k := pb.First; k < len(pb.Path.Elements); k++ {
+		e := pb.Path.Elements[k]
+		if e.Type != TypeAtoms {
+			continue
+		}
+		for _, c := range s.Clouds {
+			if c.Name == e.Cloud && c.Data != nil {
+				if msg := detuningProblem(pb.Laser, nil, pb.ShiftBefore(k), c.Data); msg != "" {
+					return &InputError{[]string{fmt.Sprintf("%s:%d: path %q, element %d (atoms, cloud %q), beam of laser %q: detuning: %s", s.File, e.Line, pb.Path.Name, e.Index, e.Cloud, pb.Laser.Name, msg)}}
+				}
+			}
+		}
 	}
 	return nil
 }

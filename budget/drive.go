@@ -107,17 +107,19 @@ func (b *Budget) Drive() []*AtomsResult {
 		clouds[c.Name] = c
 	}
 	var out []*AtomsResult
-	for _, pb := range b.Paths {
-		for i := range pb.Rows {
-			r := &pb.Rows[i]
-			if r.Element.Type != TypeAtoms {
-				continue
+	for _, own := range b.Paths {
+		for _, pb := range own.Beams() {
+			for i := range pb.Rows {
+				r := &pb.Rows[i]
+				if r.Element.Type != TypeAtoms {
+					continue
+				}
+				c := clouds[r.Element.Cloud]
+				if c == nil || c.Data == nil {
+					continue
+				}
+				out = append(out, b.atomsAt(pb, r, c))
 			}
-			c := clouds[r.Element.Cloud]
-			if c == nil || c.Data == nil {
-				continue
-			}
-			out = append(out, b.atomsAt(pb, r, c))
 		}
 	}
 	return out
@@ -137,7 +139,11 @@ func (b *Budget) atomsAt(pb *PathBudget, r *Row, c *Cloud) *AtomsResult {
 		a.EndRadii[k] = [2]float64{ex, ey}
 	}
 	a.FocusOffset = [2]float64{beam.X.WaistDistance(), beam.Y.WaistDistance()}
-	a.Detuning, a.DetuningSource = detuningAt(pb.Path, r.Element, tr)
+	var own *Element // the element's stated detuning is for the path's own laser
+	if !pb.IsJoined() {
+		own = r.Element
+	}
+	a.Detuning, a.DetuningSource = detuningAt(las, own, pb.ShiftBefore(pb.First+pb.rowIndex(r)), tr)
 	a.Isat, a.IsatNote, _ = tr.Isat(c.Saturation)
 	a.Saturation = atoms.Saturation(a.PeakIrradiance, a.Isat)
 	a.Rabi = atoms.Rabi(tr.Gamma, a.Saturation)
@@ -171,7 +177,9 @@ func (b *Budget) atomsAt(pb *PathBudget, r *Row, c *Cloud) *AtomsResult {
 	default:
 		a.ScatteringRate = atoms.ScatteringRate(tr.Gamma, a.Saturation, a.Detuning)
 	}
-	if e := r.Element; e.Goal != "" {
+	// A goal is the path's own laser's; another laser's beam on the path
+	// is shown beside it.
+	if e := r.Element; e.Goal != "" && !pb.IsJoined() {
 		a.Goal = b.goal(a, e)
 	}
 	return a
@@ -192,7 +200,8 @@ func axialCurvature(beam Beam) float64 {
 }
 
 // aomShift is the frequency shift of the AOMs before element upTo on path p
-// and, through the splitters that feed it, on its parent paths, Hz.
+// and, through the splitters that feed it, on its parent paths, Hz: the
+// shift the path's own laser carries there.
 func aomShift(p *Path, upTo *Element) float64 {
 	shift := 0.0
 	for p != nil {
@@ -200,9 +209,7 @@ func aomShift(p *Path, upTo *Element) float64 {
 			if upTo != nil && e == upTo {
 				break
 			}
-			if e.Type == TypeAOM {
-				shift += float64(e.Order) * e.Frequency * float64(e.Passes)
-			}
+			shift += e.FrequencyShift()
 		}
 		upTo = p.ParentPort
 		p = p.Parent
@@ -210,22 +217,32 @@ func aomShift(p *Path, upTo *Element) float64 {
 	return shift
 }
 
+// FrequencyShift is the shift an element gives the light passing it, Hz:
+// order × frequency × passes for an AOM, 0 for anything else.
+func (e *Element) FrequencyShift() float64 {
+	if e.Type != TypeAOM {
+		return 0
+	}
+	return float64(e.Order) * e.Frequency * float64(e.Passes)
+}
+
 // LightFrequency is the optical frequency of laser las after AOM shifts
 // totalling shift (Hz), from its vacuum wavelength, Hz.
 func LightFrequency(las *Laser, shift float64) float64 { return atoms.C/las.Wavelength + shift }
 
-// detuningAt finds Δ = ω_laser − ω_atom at atoms element e of path p, rad/s,
-// and where it came from: the element's stated detuning, the laser's stated
-// detuning plus the AOM shifts, or the wavelengths plus the AOM shifts.
-func detuningAt(p *Path, e *Element, tr *atoms.Transition) (float64, string) {
-	if d := e.Detuning; d != nil {
-		return 2 * math.Pi * *d, DetuningFromElement
+// detuningAt finds Δ = ω_laser − ω_atom at atoms element e for laser las
+// carrying AOM shifts totalling shift (Hz), rad/s, and where it came from:
+// the element's stated detuning (e nil: not to be used, as for another
+// laser's beam on the path), the laser's stated detuning plus the shifts,
+// or the wavelengths plus the shifts.
+func detuningAt(las *Laser, e *Element, shift float64, tr *atoms.Transition) (float64, string) {
+	if e != nil && e.Detuning != nil {
+		return 2 * math.Pi * *e.Detuning, DetuningFromElement
 	}
-	shift := aomShift(p, e)
-	if las := p.Laser; las.DetuningSet {
+	if las.DetuningSet {
 		return 2 * math.Pi * (las.Detuning + shift), DetuningFromLaser
 	}
-	return 2 * math.Pi * (LightFrequency(p.Laser, shift) - atoms.C/tr.Wavelength), DetuningFromWavelengths
+	return 2 * math.Pi * (LightFrequency(las, shift) - atoms.C/tr.Wavelength), DetuningFromWavelengths
 }
 
 // DetuningTolerance is how far a stated detuning may sit from the one the
@@ -235,18 +252,24 @@ func detuningAt(p *Path, e *Element, tr *atoms.Transition) (float64, string) {
 // to another laser, does not (our threshold).
 const DetuningTolerance = 1e-3
 
-// checkDetuning refuses, at atoms element e of path p, light whose
-// frequency after the AOM shifts is not positive, and a stated detuning
-// (on the element or the laser) that disagrees with the wavelengths by more
-// than DetuningTolerance. It returns the problem, or "".
+// checkDetuning refuses, at atoms element e of path p, the path's own
+// light whose frequency after the AOM shifts is not positive, and a stated
+// detuning (on the element or the laser) that disagrees with the
+// wavelengths by more than DetuningTolerance. It returns the problem, or "".
 func checkDetuning(p *Path, e *Element, tr *atoms.Transition) string {
-	shift := aomShift(p, e)
-	ν := LightFrequency(p.Laser, shift)
+	return detuningProblem(p.Laser, e, aomShift(p, e), tr)
+}
+
+// detuningProblem is checkDetuning for laser las carrying AOM shifts
+// totalling shift (Hz) to element e (nil: the element's detuning is not for
+// this laser).
+func detuningProblem(las *Laser, e *Element, shift float64, tr *atoms.Transition) string {
+	ν := LightFrequency(las, shift)
 	if !(ν > 0) {
 		return fmt.Sprintf("the AOM shifts (%s in all) take laser %q at %s to a frequency of %s, which is not positive",
-			FormatFrequency(shift), p.Laser.Name, FormatLength(p.Laser.Wavelength), FormatFrequency(ν))
+			FormatFrequency(shift), las.Name, FormatLength(las.Wavelength), FormatFrequency(ν))
 	}
-	Δ, source := detuningAt(p, e, tr)
+	Δ, source := detuningAt(las, e, shift, tr)
 	if source == DetuningFromWavelengths {
 		return ""
 	}
@@ -254,7 +277,7 @@ func checkDetuning(p *Path, e *Element, tr *atoms.Transition) string {
 	stated := ν0 + Δ/(2*math.Pi)
 	if diff := math.Abs(stated - ν); diff > DetuningTolerance*ν0 {
 		return fmt.Sprintf("the stated detuning (%s) puts the light at %s, %s from %s, but laser %q at %s (with %s of AOM shifts) is at %s; they differ by %s, more than the %.1f %% of the transition frequency allowed; correct the wavelength or the detuning",
-			source, FormatFrequency(stated), FormatFrequency(Δ/(2*math.Pi)), tr.Name, p.Laser.Name, FormatLength(p.Laser.Wavelength), FormatFrequency(shift), FormatFrequency(ν), FormatFrequency(diff), 100*DetuningTolerance)
+			source, FormatFrequency(stated), FormatFrequency(Δ/(2*math.Pi)), tr.Name, las.Name, FormatLength(las.Wavelength), FormatFrequency(shift), FormatFrequency(ν), FormatFrequency(diff), 100*DetuningTolerance)
 	}
 	return ""
 }

@@ -84,54 +84,78 @@ const PoorModeOverlap = 0.5
 func (b *Budget) Findings() []Finding {
 	var out []Finding
 	used := map[*Laser]bool{}
-	for _, pb := range b.Paths {
-		used[pb.Laser] = true
-		p := pb.Path
-		max := pb.Laser.Power
-		for _, r := range pb.Rows {
-			e := r.Element
-			where := fmt.Sprintf("%s %d (%s)", "element", e.Index, e.Label())
-			clear := e.ClearAperture()
-			if clear > 0 {
-				wx, wy := r.BeamIn.Radii()
-				w := math.Max(wx, wy)
-				if clipped := r.FractionIn * (1 - r.ClipFraction) * max; clipped >= ClippedPowerAction {
-					out = append(out, Finding{Severity: SeverityAction, Kind: FindingClippedPower, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: up to %s (%.1f %% of the arriving beam, at the laser's maximum power) falls outside its %s clear aperture onto the mount or iris; that much absorbed power can burn, melt or start a fire: enlarge the aperture, or make the part a rated dump",
-						where, FormatPower(clipped), 100*(1-r.ClipFraction), FormatLength(clear))}.Figure(clipped, ClippedPowerAction, "W"))
-				} else if clear < ClearApertureFactor*w {
-					out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingClipping, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: clear aperture %s is under π·W = %s for the beam there; %.2f %% of the power is clipped (included in the budget; diffraction from the edge is not modelled)",
-						where, FormatLength(clear), FormatLength(ClearApertureFactor*w), 100*(1-r.ClipFraction))}.Figure(clear, ClearApertureFactor*w, "m"))
+	for _, own := range b.Paths {
+		p := own.Path
+		for _, pb := range own.Beams() {
+			used[pb.Laser] = true
+			max := pb.Laser.Power
+			beamNote := ""
+			if pb.IsJoined() {
+				beamNote = fmt.Sprintf(", beam of laser %q", pb.Laser.Name)
+			}
+			for _, r := range pb.Rows {
+				e := r.Element
+				where := fmt.Sprintf("%s %d (%s%s)", "element", e.Index, e.Label(), beamNote)
+				clear := e.ClearAperture()
+				if clear > 0 {
+					wx, wy := r.BeamIn.Radii()
+					w := math.Max(wx, wy)
+					if clipped := r.FractionIn * (1 - r.ClipFraction) * max; clipped >= ClippedPowerAction {
+						out = append(out, Finding{Severity: SeverityAction, Kind: FindingClippedPower, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: up to %s (%.1f %% of the arriving beam, at the laser's maximum power) falls outside its %s clear aperture onto the mount or iris; that much absorbed power can burn, melt or start a fire: enlarge the aperture, or make the part a rated dump",
+							where, FormatPower(clipped), 100*(1-r.ClipFraction), FormatLength(clear))}.Figure(clipped, ClippedPowerAction, "W"))
+					} else if clear < ClearApertureFactor*w {
+						out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingClipping, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: clear aperture %s is under π·W = %s for the beam there; %.2f %% of the power is clipped (included in the budget; diffraction from the edge is not modelled)",
+							where, FormatLength(clear), FormatLength(ClearApertureFactor*w), 100*(1-r.ClipFraction))}.Figure(clear, ClearApertureFactor*w, "m"))
+					}
+				}
+				if !r.BeamOut.Paraxial() {
+					out = append(out, Finding{Severity: SeverityAction, Kind: FindingNotParaxial, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the beam leaving it diverges at a half-angle of %.3g rad, past the %g rad the Gaussian beam model holds to; the figures after it are not reliable (check the focal lengths and distances, or the optic's real aperture)",
+						where, r.BeamOut.HalfAngle(), MaxParaxialAngle)}.Figure(r.BeamOut.HalfAngle(), MaxParaxialAngle, "rad"))
+				}
+				if r.Fiber != nil && !r.Fiber.Given && r.Fiber.Overlap < PoorModeOverlap {
+					out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingModeMatch, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: mode overlap with the fibre is only %.1f %%; the coupling optics do not match the beam to the mode (ideal coupling-lens focal length %s)",
+						where, 100*r.Fiber.Overlap, formatFocalPair(r.Fiber.IdealFocalLength))}.Figure(r.Fiber.Overlap, PoorModeOverlap, "1"))
 				}
 			}
-			if !r.BeamOut.Paraxial() {
-				out = append(out, Finding{Severity: SeverityAction, Kind: FindingNotParaxial, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the beam leaving it diverges at a half-angle of %.3g rad, past the %g rad the Gaussian beam model holds to; the figures after it are not reliable (check the focal lengths and distances, or the optic's real aperture)",
-					where, r.BeamOut.HalfAngle(), MaxParaxialAngle)}.Figure(r.BeamOut.HalfAngle(), MaxParaxialAngle, "rad"))
+			for _, e := range pb.UnfollowedPorts {
+				r := pb.row(e)
+				pw := r.FractionIn * r.ClipFraction * (1 - *e.For(pb.Laser).Transmission) * max
+				out = append(out, Finding{Severity: SeverityAction, Kind: FindingUnfollowed, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("element %d (%s%s): up to %s leaves the other port and no path follows it; describe where it goes (a path from %q) or block it",
+					e.Index, e.Label(), beamNote, FormatPower(pw), p.Name+":"+e.Name)})
 			}
-			if r.Fiber != nil && !r.Fiber.Given && r.Fiber.Overlap < PoorModeOverlap {
-				out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingModeMatch, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: mode overlap with the fibre is only %.1f %%; the coupling optics do not match the beam to the mode (ideal coupling-lens focal length %s)",
-					where, 100*r.Fiber.Overlap, formatFocalPair(r.Fiber.IdealFocalLength))}.Figure(r.Fiber.Overlap, PoorModeOverlap, "1"))
+		}
+		// A dump and an open end receive every beam on the path.
+		maxWord := "the laser's"
+		if len(own.Joined) > 0 {
+			maxWord = "the lasers'"
+		}
+		for _, e := range p.Elements {
+			if e.Type != TypeDump {
+				continue
 			}
-			if e.Type == TypeDump {
-				pw := r.FractionIn * max
-				if e.Rating == 0 {
-					out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingDumpUnrated, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: no rating stated; it receives up to %s at the laser's maximum power", where, FormatPower(pw))})
-				} else if pw > e.Rating {
-					out = append(out, Finding{Severity: SeverityAction, Kind: FindingDumpRating, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: receives up to %s at the laser's maximum power, above its rating of %s", where, FormatPower(pw), FormatPower(e.Rating))}.Figure(pw, e.Rating, "W"))
+			pw := 0.0
+			for _, pb := range own.Beams() {
+				if r := pb.row(e); r != nil {
+					pw += r.FractionIn * pb.Laser.Power
 				}
 			}
+			where := fmt.Sprintf("element %d (%s)", e.Index, e.Label())
+			if e.Rating == 0 {
+				out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingDumpUnrated, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: no rating stated; it receives up to %s at %s maximum power", where, FormatPower(pw), maxWord)})
+			} else if pw > e.Rating {
+				out = append(out, Finding{Severity: SeverityAction, Kind: FindingDumpRating, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: receives up to %s at %s maximum power, above its rating of %s", where, FormatPower(pw), maxWord, FormatPower(e.Rating))}.Figure(pw, e.Rating, "W"))
+			}
 		}
-		for _, e := range pb.UnfollowedPorts {
-			r := pb.row(e)
-			pw := r.FractionIn * r.ClipFraction * (1 - *e.Transmission) * max
-			out = append(out, Finding{Severity: SeverityAction, Kind: FindingUnfollowed, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("element %d (%s): up to %s leaves the other port and no path follows it; describe where it goes (a path from %q) or block it",
-				e.Index, e.Label(), FormatPower(pw), p.Name+":"+e.Name)})
-		}
-		if pb.OpenEnd {
+		if own.OpenEnd {
 			at := 0.0
 			if n := len(p.Elements); n > 0 {
 				at = p.Elements[n-1].At
 			}
-			out = append(out, Finding{Severity: SeverityAction, Kind: FindingOpenEnd, Path: p.Name, Element: 0, At: at, Message: fmt.Sprintf("the path ends without a dump: up to %s leaves it at %s; end it in a rated dump", FormatPower(pb.EndFraction*max), FormatLength(at))})
+			pw := 0.0
+			for _, pb := range own.Beams() {
+				pw += pb.EndFraction * pb.Laser.Power
+			}
+			out = append(out, Finding{Severity: SeverityAction, Kind: FindingOpenEnd, Path: p.Name, Element: 0, At: at, Message: fmt.Sprintf("the path ends without a dump: up to %s leaves it at %s; end it in a rated dump", FormatPower(pw), FormatLength(at))})
 		}
 	}
 	for _, las := range b.Setup.Lasers {

@@ -17,6 +17,8 @@ const (
 	TypeFiber    ElementType = "fiber"
 	TypeAtoms    ElementType = "atoms"
 	TypeDump     ElementType = "dump"
+	TypeCombiner ElementType = "combiner"
+	TypeCylLens  ElementType = "cylindrical_lens"
 )
 
 // ElementKind describes one element type in one place: the keys it takes
@@ -52,6 +54,8 @@ var Kinds = []*ElementKind{
 	{Type: TypeFiber, Does: "a single-mode fibre: couples the beam's mode overlap × alignment (or the stated coupling) and launches a new Gaussian beam", Keys: []string{"mode_field_diameter", "alignment", "coupling", "output_waist", "output_focal_length"}, Surfaces: 1, read: readFiber, apply: applyFiber},
 	{Type: TypeAtoms, Does: "an atom cloud: the drive is evaluated here; the beam passes unchanged", Keys: []string{"cloud", "goal", "goal_value", "goal_factor", "detuning"}, Surfaces: 0, read: readAtoms, apply: applyAtoms},
 	{Type: TypeDump, Does: "a beam dump: absorbs everything and ends the path", Keys: []string{"rating", "diffuse_reflectance"}, Surfaces: 0, read: readDump, apply: applyDump},
+	{Type: TypeCombiner, Does: "a combiner (polarizing cube, dichroic): the path whose into names it joins here; transmission of this path's own beams and join_transmission of the joining ones go on, the rest leaves the path at its other port", Keys: []string{"join_transmission"}, Surfaces: 2, read: readCombiner, apply: applyCombiner},
+	{Type: TypeCylLens, Does: "a thin cylindrical lens: the ABCD matrix (1, 0; −1/f, 1) in its plane (x or y) only; loss: its stated transmission", Keys: []string{"focal_length", "plane"}, Surfaces: 2, read: readCylLens, apply: applyCylLens},
 }
 
 // KindOf returns the description of an element type.
@@ -74,6 +78,8 @@ type stage struct {
 	beam     Beam
 	frac     float64 // power fraction of the source
 	row      *Row
+	// joining is set at the combiner where the beam joins the path.
+	joining bool
 }
 
 // lose records a named loss of a fraction f of the source's power.
@@ -135,7 +141,7 @@ func readAOM(t *table, e *Element, m map[string]any) {
 }
 
 func readFilter(t *table, e *Element, m map[string]any) {
-	if !t.has("optical_density") && !t.has("transmission") {
+	if !t.has("optical_density") && !t.has("transmission") && e.PerLaser["optical_density"] == nil && e.PerLaser["transmission"] == nil {
 		t.fail("optical_density", "missing (a filter needs optical_density or transmission)")
 	}
 	if od, ok := t.quantity("optical_density", Dimensionless, false); ok {
@@ -152,7 +158,7 @@ func readAperture(t *table, e *Element, m map[string]any) {
 }
 
 func readSplitter(t *table, e *Element, m map[string]any) {
-	if !t.has("transmission") {
+	if !t.has("transmission") && e.PerLaser["transmission"] == nil {
 		t.fail("transmission", "missing (a splitter needs the fraction sent on along this path)")
 	}
 }
@@ -215,6 +221,18 @@ func readAtoms(t *table, e *Element, m map[string]any) {
 	}
 }
 
+func readCombiner(t *table, e *Element, m map[string]any) {
+	e.JoinTransmission = t.fraction("join_transmission", 0, 1)
+}
+
+func readCylLens(t *table, e *Element, m map[string]any) {
+	readLens(t, e, m)
+	e.Plane = t.enum("plane", "", "x", "y")
+	if e.Plane == "" && !t.has("plane") {
+		t.fail("plane", "missing (want \"x\" or \"y\", the plane the lens focuses in)")
+	}
+}
+
 func readDump(t *table, e *Element, m map[string]any) {
 	e.Rating = t.positive("rating", Power, false)
 	e.DiffuseReflectance = t.fraction("diffuse_reflectance", 0, 1)
@@ -269,9 +287,9 @@ func applyAtoms(s *stage, e *Element) {
 }
 
 func applySplitter(s *stage, e *Element) {
-	if s.followed[e] == nil {
+	if s.followed[s.row.Element] == nil {
 		s.lose(LossSplitterPort, s.frac*(1-*e.Transmission))
-		s.pb.UnfollowedPorts = append(s.pb.UnfollowedPorts, e)
+		s.pb.UnfollowedPorts = append(s.pb.UnfollowedPorts, s.row.Element)
 	}
 	s.frac *= *e.Transmission
 }
@@ -288,6 +306,26 @@ func applyFiber(s *stage, e *Element) {
 	}
 	s.beam = Beam{Wavelength: s.beam.Wavelength, X: NewPlane(w, 0, 1, s.beam.Wavelength), Y: NewPlane(w, 0, 1, s.beam.Wavelength)}
 	s.lastLens = -1
+}
+
+func applyCombiner(s *stage, e *Element) {
+	t := e.Transmission
+	if s.joining {
+		t = e.JoinTransmission
+	}
+	s.stated(LossCombiner, t)
+	s.row.AssumedLossless = t == nil
+}
+
+func applyCylLens(s *stage, e *Element) {
+	if e.Plane == "x" {
+		s.beam.X = s.beam.X.Lens(e.FocalLength)
+	} else {
+		s.beam.Y = s.beam.Y.Lens(e.FocalLength)
+	}
+	s.stated(LossAbsorption, e.Transmission)
+	s.row.AssumedLossless = e.Transmission == nil
+	s.lastLens = s.index
 }
 
 func applyDump(s *stage, e *Element) {

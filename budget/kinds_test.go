@@ -15,7 +15,7 @@ import (
 func TestElementKindsComplete(t *testing.T) {
 	var gen strings.Builder
 	for seed := uint64(1); seed <= 20; seed++ {
-		gen.WriteString(synth.Lab(seed, synth.Options{Lasers: 2, ElementsPerPath: 12, Splits: 1, Fibers: true}))
+		gen.WriteString(synth.Lab(seed, synth.Options{Lasers: 2, ElementsPerPath: 12, Splits: 1, Fibers: true, Merges: true}))
 	}
 	readme, err := os.ReadFile("../README.md")
 	if err != nil {

@@ -2,6 +2,8 @@ package budget
 
 import (
 	"fmt"
+	"maps"
+	"slices"
 	"strings"
 )
 
@@ -77,22 +79,10 @@ func (l *loader) link(s *Setup) {
 				p.From, listNames(len(s.Lasers), func(i int) string { return s.Lasers[i].Name }))
 			continue
 		}
-		parent, ok := paths[pathName]
-		if !ok {
-			l.addf(line, ctx, "from: no path named %q", pathName)
-			continue
-		}
-		var port *Element
-		for _, e := range parent.Elements {
-			if e.Name == elemName {
-				port = e
-			}
-		}
+		parent, port, problem := portOf(paths, pathName, elemName, TypeSplitter)
 		switch {
-		case port == nil:
-			l.addf(line, ctx, "from: path %q has no element named %q", pathName, elemName)
-		case port.Type != TypeSplitter:
-			l.addf(line, ctx, "from: element %q of path %q is a %s, not a splitter", elemName, pathName, port.Type)
+		case problem != "":
+			l.addf(line, ctx, "from: %s", problem)
 		default:
 			p.Parent, p.ParentPort = parent, port
 		}
@@ -145,6 +135,14 @@ func (l *loader) link(s *Setup) {
 			w.Laser = las
 		}
 	}
+	if len(l.problems) > 0 {
+		return
+	}
+	l.linkInto(s, paths, locs)
+	if len(l.problems) > 0 {
+		return
+	}
+	l.checkPerLaser(s, lasers, locs)
 	if len(l.problems) > 0 {
 		return
 	}
@@ -221,4 +219,213 @@ func listNames(n int, name func(int) string) string {
 		out = append(out, fmt.Sprintf("%q", name(i)))
 	}
 	return strings.Join(out, ", ")
+}
+
+// portOf finds the element named elemName of the path named pathName and
+// checks that it is of type want; problem says what is wrong, if anything.
+func portOf(paths map[string]*Path, pathName, elemName string, want ElementType) (*Path, *Element, string) {
+	p, ok := paths[pathName]
+	if !ok {
+		return nil, nil, fmt.Sprintf("no path named %q", pathName)
+	}
+	var port *Element
+	for _, e := range p.Elements {
+		if e.Name == elemName {
+			port = e
+		}
+	}
+	switch {
+	case port == nil:
+		return nil, nil, fmt.Sprintf("path %q has no element named %q", pathName, elemName)
+	case port.Type != want:
+		return nil, nil, fmt.Sprintf("element %q of path %q is a %s, not a %s", elemName, pathName, port.Type, want)
+	}
+	return p, port, ""
+}
+
+// linkInto resolves each path's into ("<path>:<combiner name>"), checks
+// that the path's elements lie before into_at and that it does not end in a
+// dump, and refuses cycles through splitters and combiners together.
+func (l *loader) linkInto(s *Setup, paths map[string]*Path, locs map[*Path]int) {
+	joinedBy := map[*Element]*Path{}
+	for _, p := range s.Paths {
+		if p.Into == "" {
+			continue
+		}
+		ctx := fmt.Sprintf("path %q", p.Name)
+		line := l.lines.line(pathLoc(locs, p), "into")
+		pathName, elemName, ok := strings.Cut(p.Into, ":")
+		if !ok {
+			l.addf(line, ctx, "into: want \"<path>:<combiner name>\", got %q", p.Into)
+			continue
+		}
+		target, port, problem := portOf(paths, pathName, elemName, TypeCombiner)
+		switch {
+		case problem != "":
+			l.addf(line, ctx, "into: %s", problem)
+			continue
+		case target == p:
+			l.addf(line, ctx, "into: a path cannot go into its own combiner")
+			continue
+		}
+		if prev, dup := joinedBy[port]; dup {
+			l.addf(line, ctx, "into: combiner %q of path %q is already joined by path %q; one path joins a combiner", elemName, pathName, prev.Name)
+			continue
+		}
+		joinedBy[port] = p
+		p.IntoPath, p.IntoPort = target, port
+		if n := len(p.Elements); n > 0 {
+			last := p.Elements[n-1]
+			if last.Type == TypeDump {
+				l.addf(line, ctx, "into: the path ends in a dump (element %d), so no light goes on into %q", last.Index, p.Into)
+			}
+			if last.At > p.IntoAt {
+				l.addf(l.lines.line(pathLoc(locs, p), "into_at"), ctx, "into_at: %s comes before element %d (at %s); the combiner ends the path", FormatLength(p.IntoAt), last.Index, FormatLength(last.At))
+			}
+		}
+	}
+	if len(l.problems) > 0 {
+		return
+	}
+	// A path feeds its splitter branches and the path it goes into; light
+	// must never come back to a path it has left. One depth-first walk.
+	next := map[*Path][]*Path{}
+	for _, p := range s.Paths {
+		if p.Parent != nil {
+			next[p.Parent] = append(next[p.Parent], p)
+		}
+		if p.IntoPath != nil {
+			next[p] = append(next[p], p.IntoPath)
+		}
+	}
+	const (
+		unvisited = iota
+		onStack
+		finished
+	)
+	state := make(map[*Path]int, len(s.Paths))
+	type frame struct {
+		p *Path
+		i int
+	}
+	for _, root := range s.Paths {
+		if state[root] != unvisited {
+			continue
+		}
+		stack := []frame{{root, 0}}
+		state[root] = onStack
+		for len(stack) > 0 {
+			top := &stack[len(stack)-1]
+			if top.i == len(next[top.p]) {
+				state[top.p] = finished
+				stack = stack[:len(stack)-1]
+				continue
+			}
+			q := next[top.p][top.i]
+			top.i++
+			switch state[q] {
+			case unvisited:
+				state[q] = onStack
+				stack = append(stack, frame{q, 0})
+			case onStack:
+				var names []string
+				for k := range stack {
+					if stack[k].p == q || len(names) > 0 {
+						names = append(names, fmt.Sprintf("%q", stack[k].p.Name))
+					}
+				}
+				names = append(names, fmt.Sprintf("%q", q.Name))
+				if len(names) > 10 {
+					names = append(append(names[:4:4], fmt.Sprintf("… %d more …", len(names)-8)), names[len(names)-4:]...)
+				}
+				l.addf(l.lines.line(pathLoc(locs, q), "from"), fmt.Sprintf("path %q", q.Name), "light comes back to this path through splitters and combiners (%s); a beam's route must not loop", strings.Join(names, " → "))
+				return
+			}
+		}
+	}
+}
+
+// checkPerLaser checks each per-laser table: every laser that reaches the
+// element is in it, and it names no laser the setup does not have.
+func (l *loader) checkPerLaser(s *Setup, lasers map[string]*Laser, locs map[*Path]int) {
+	reach := Arrivals(s)
+	for _, p := range s.Paths {
+		for k, e := range p.Elements {
+			for _, key := range slices.Sorted(maps.Keys(e.PerLaser)) {
+				by := e.PerLaser[key]
+				line := l.lines.line(fmt.Sprintf("%s.element[%d]", pathLoc(locs, p), k), key)
+				ctx := fmt.Sprintf("path %q, element %d (%s)", p.Name, e.Index, e.Type)
+				for _, name := range slices.Sorted(maps.Keys(by)) {
+					if _, ok := lasers[name]; !ok {
+						l.addf(line, ctx, "%s: no laser named %q (lasers: %s)", key, name, listNames(len(s.Lasers), func(i int) string { return s.Lasers[i].Name }))
+					}
+				}
+				for _, a := range reach[e] {
+					// At a combiner, join_transmission is for the beams that join
+					// there and transmission for the others.
+					if e.Type == TypeCombiner && (key == "join_transmission") != a.Joins {
+						continue
+					}
+					if _, ok := by[a.Laser.Name]; !ok {
+						l.addf(line, ctx, "%s: laser %q reaches this element but is missing from its table", key, a.Laser.Name)
+					}
+				}
+			}
+		}
+	}
+}
+
+// Arrival is one laser's light reaching an element; Joins is set at the
+// combiner where it joins the path.
+type Arrival struct {
+	Laser *Laser
+	Joins bool
+}
+
+// Arrivals lists, for every element, the lasers whose light reaches it, in
+// the order the path order meets them: the path's own laser, the other
+// lasers the splitter feeding the path carries, and from a combiner on, the
+// lasers of the path that goes into it (as Compute propagates them).
+func Arrivals(s *Setup) map[*Element][]Arrival {
+	type arrival struct {
+		las   *Laser
+		first int
+		joins bool // at the element first, a combiner
+	}
+	on := map[*Path][]arrival{}
+	out := map[*Element][]Arrival{}
+	for _, p := range PathOrder(s) {
+		var arr []arrival
+		if p.Parent == nil {
+			arr = append(arr, arrival{p.Laser, 0, false})
+		} else {
+			k := elementIndex(p.Parent, p.ParentPort)
+			for _, a := range on[p.Parent] {
+				if a.first <= k {
+					arr = append(arr, arrival{a.las, 0, false})
+				}
+			}
+		}
+		for _, j := range s.Paths {
+			if j.IntoPath == p {
+				k := elementIndex(p, j.IntoPort)
+				for _, a := range on[j] {
+					arr = append(arr, arrival{a.las, k, true})
+				}
+			}
+		}
+		on[p] = arr
+		for k, e := range p.Elements {
+			for _, a := range arr {
+				if a.first > k {
+					continue
+				}
+				joins := a.joins && a.first == k
+				if !slices.ContainsFunc(out[e], func(x Arrival) bool { return x.Laser == a.las && x.Joins == joins }) {
+					out[e] = append(out[e], Arrival{a.las, joins})
+				}
+			}
+		}
+	}
+	return out
 }

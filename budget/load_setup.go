@@ -2,7 +2,9 @@ package budget
 
 import (
 	"fmt"
+	"maps"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -158,7 +160,7 @@ func (l *loader) laser(i int, m map[string]any) *Laser {
 			}
 		}
 	}
-	las.WaistAt, _ = t.quantity("waist_at", Length, false)
+	las.WaistAt, _ = t.pair("waist_at", Length, false, math.Inf(-1))
 	las.Emission = t.enum("emission", EmissionCW, EmissionCW, EmissionPulsed)
 	if las.Emission == EmissionPulsed {
 		las.PulseDuration = t.positive("pulse_duration", Time, true)
@@ -278,11 +280,64 @@ func (l *loader) path(i int, m map[string]any) *Path {
 	p := &Path{Line: l.lines[loc], Name: name}
 	p.From = t.str("from", true)
 	p.Access = Access(t.enum("access", string(AccessOpen), string(AccessOpen), string(AccessEnclosed), string(AccessVacuum)))
+	p.Into = t.str("into", false)
+	if p.Into != "" {
+		var ok bool
+		if p.IntoAt, ok = t.quantity("into_at", Length, true); ok && p.IntoAt < 0 {
+			t.fail("into_at", "must not be negative, got %s", show(m["into_at"]))
+		}
+	} else if t.has("into_at") {
+		t.get("into_at")
+		t.fail("into_at", "given without into")
+	}
 	for k, em := range t.tables("element") {
 		p.Elements = append(p.Elements, l.element(p, t.where(), loc+".element["+strconv.Itoa(k)+"]", k, em))
 	}
 	t.done()
 	return p
+}
+
+// perLaser reads the keys of an element given per laser, as inline tables
+// keyed by laser name, into e.PerLaser, and takes them out of m so that the
+// kind's reader sees only bare values. The names are checked against the
+// lasers that reach the element once the paths are linked.
+func (l *loader) perLaser(t *table, e *Element, m map[string]any) {
+	for _, key := range PerLaserKeys {
+		by, ok := m[key].(map[string]any)
+		if !ok {
+			continue
+		}
+		t.get(key)
+		delete(m, key)
+		lo, hi := 0.0, 1.0
+		if key == "optical_density" {
+			hi = 20
+		}
+		vals := make(map[string]float64, len(by))
+		for _, name := range slices.Sorted(maps.Keys(by)) {
+			sub := l.table("", t.loc+"."+key, map[string]any{name: by[name]})
+			sub.describe = func() string { return t.where() + ", " + key }
+			var q *float64
+			if key == "optical_density" {
+				if v, ok := sub.quantity(name, Dimensionless, true); ok {
+					if v < lo || v > hi {
+						sub.fail(name, "%s is outside [%g, %g]", show(by[name]), lo, hi)
+					} else {
+						q = &v
+					}
+				}
+			} else {
+				q = sub.fraction(name, lo, hi)
+			}
+			if q != nil {
+				vals[name] = *q
+			}
+		}
+		if e.PerLaser == nil {
+			e.PerLaser = map[string]map[string]float64{}
+		}
+		e.PerLaser[key] = vals
+	}
 }
 
 // commonElementKeys are taken by every element type.
@@ -318,7 +373,13 @@ func (l *loader) element(p *Path, pathContext, loc string, k int, m map[string]a
 		}
 		return fmt.Sprintf("%s, element %d (%s)", pathContext, k+1, e.Type)
 	}
-	e.Name = t.name(e.Type == TypeSplitter)
+	e.Name = t.name(e.Type == TypeSplitter || e.Type == TypeCombiner)
+	l.perLaser(t, e, m)
+	for _, key := range slices.Sorted(maps.Keys(e.PerLaser)) {
+		if (!slices.Contains(kind.Keys, key) && !slices.Contains(commonElementKeys, key)) || (e.Type == TypeMirror && key == "transmission") {
+			t.fail(key, "not a key of a %s (it takes %s)", e.Type, strings.Join(append(append([]string{}, kind.Keys...), commonElementKeys...), ", "))
+		}
+	}
 	e.At, _ = t.quantity("at", Length, true)
 	if e.At < 0 {
 		t.fail("at", "must not be negative, got %s", show(m["at"]))

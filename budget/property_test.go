@@ -25,10 +25,20 @@ func generated(t testing.TB, seed uint64, o synth.Options) *budget.Budget {
 
 // The budget closes: for every laser, dumps + open ends + every named loss =
 // the source power, to 1e-9 relative (energy conservation; the property the
-// budget must keep whatever the optics).
+// budget must keep whatever the optics), merged paths included: a beam that
+// goes into a combiner is accounted for on the path it joins.
 func TestBudgetCloses(t *testing.T) {
+	joined := 0
+	defer func() {
+		if joined == 0 {
+			t.Error("no generated lab merged a beam into another path")
+		}
+	}()
 	for seed := uint64(1); seed <= 300; seed++ {
-		b := generated(t, seed, synth.Options{Lasers: 2, ElementsPerPath: 8, Splits: 2, OpenEnds: seed%2 == 0, Fibers: seed%3 == 0})
+		b := generated(t, seed, synth.Options{Lasers: 2 + int(seed%3), ElementsPerPath: 8, Splits: 2, OpenEnds: seed%2 == 0, Fibers: seed%3 == 0, Merges: seed%4 < 2})
+		for _, pb := range b.Paths {
+			joined += len(pb.Joined)
+		}
 		for _, bal := range b.Balances {
 			if got := bal.Total(); math.Abs(got-1) > 1e-9 {
 				t.Fatalf("seed %d, laser %q: balance sums to %.12f of the source", seed, bal.Laser.Name, got)

@@ -66,9 +66,9 @@ type Laser struct {
 	Waist [2]float64
 	// M2 is the beam quality factor in x and y.
 	M2 [2]float64
-	// WaistAt is the waist position relative to the output, m (positive:
-	// after the output, along the first path).
-	WaistAt  float64
+	// WaistAt is the waist position relative to the output in x and y, m
+	// (positive: after the output, along the first path).
+	WaistAt  [2]float64
 	Emission string
 	// PulseDuration is the pulse length, s (pulsed only).
 	PulseDuration float64
@@ -99,10 +99,18 @@ type Path struct {
 	Access   Access
 	Elements []*Element
 
+	// Into names the combiner on another path this path ends at,
+	// "<path>:<combiner name>" ("": none); IntoAt is the free-space distance
+	// from the path's start to that combiner, m.
+	Into   string
+	IntoAt float64
+
 	// Resolved by the loader:
 	Laser      *Laser   // the source that feeds the path
 	Parent     *Path    // the path whose splitter feeds this one, or nil
 	ParentPort *Element // that splitter
+	IntoPath   *Path    // the path whose combiner this one ends at, or nil
+	IntoPort   *Element // that combiner
 }
 
 // Element is one optic, cloud or dump along a path. Optional numbers are
@@ -152,12 +160,61 @@ type Element struct {
 	// dump
 	Rating float64 // W
 
+	// combiner: the fraction of a joining beam passed on (nil: not stated)
+	JoinTransmission *float64
+	// cylindrical lens: the plane it focuses in, "x" or "y"
+	Plane string
+
+	// PerLaser holds values stated per laser: key → laser name → value
+	// (PerLaserKeys); For applies them.
+	PerLaser map[string]map[string]float64
+
 	// hazard inputs
 	SurfaceReflectance  *float64
 	DiffuseReflectance  *float64
 	DamageThreshold     float64 // W/m (cw) or J/m² (pulsed)
 	DamagePulseDuration float64 // s
 	DamageIsFluence     bool
+}
+
+// PerLaserKeys are the keys that may be given per laser, as an inline table
+// keyed by laser name ({ cool = 0.98, repump = 0.6 }).
+var PerLaserKeys = []string{"transmission", "reflectivity", "efficiency", "optical_density", "alignment", "coupling", "join_transmission", "surface_reflectance"}
+
+// For returns the element as laser las sees it: with the values stated for
+// that laser in place of the per-laser tables (the element itself when it
+// has none). The loader makes sure every laser that reaches the element is
+// in each of its tables.
+func (e *Element) For(las *Laser) *Element {
+	if len(e.PerLaser) == 0 || las == nil {
+		return e
+	}
+	c := *e
+	for key, by := range e.PerLaser {
+		v, ok := by[las.Name]
+		if !ok {
+			continue
+		}
+		switch key {
+		case "transmission":
+			c.Transmission = &v
+		case "reflectivity":
+			c.Reflectivity = &v
+		case "efficiency":
+			c.Efficiency = &v
+		case "optical_density":
+			c.OpticalDensity = &v
+		case "alignment":
+			c.Alignment = &v
+		case "coupling":
+			c.Coupling = &v
+		case "join_transmission":
+			c.JoinTransmission = &v
+		case "surface_reflectance":
+			c.SurfaceReflectance = &v
+		}
+	}
+	return &c
 }
 
 // ClearAperture is the diameter that limits the beam at the element, m (0:

@@ -49,6 +49,8 @@
 //	| 1/e diameter | d/√2 | Gaussian profile, common practice | OneOverEDiameter | ExampleOneOverEDiameter |
 //	| aperture-averaged irradiance | P(1 − exp(−2(D/2)²/W²))/(πD²/4) | Gaussian profile | ApertureAverage | TestRoundingIsUpward |
 //	| optical density | ⌈log10(ratio)⌉ | EN 207; common practice | OpticalDensity | TestRoundingIsUpward |
+//	| additive effects | eye: both in 400–1400 nm or both outside; skin: always | IEC 60825-1:2014, table of additive effects (from memory) | EffectsAdd | TestEffectsAdd |
+//	| OD on a shared segment | ⌈log10(n · ratio)⌉ for n additive wavelengths | our rule (equal shares keep the sum ≤ 1) | SharedOD | TestEffectsAdd |
 //	| EN 207 test condition | D, I, R, M by pulse duration | EN 207 (from memory) | EN207Mode | TestEN207 |
 //	| EN 207 scale number | LB by irradiance (D) or radiant exposure per pulse (I, R, M) | EN 207 scale table (from memory) | EN207Scale | TestEN207 |
 package limits

@@ -115,3 +115,38 @@ func ApertureAverage(p, w, D float64) float64 {
 	r := D / 2
 	return p * -math.Expm1(-2*r*r/(w*w)) / (math.Pi * r * r)
 }
+
+// Spectral regions for the additivity of effects.
+func additivityRegion(λ float64) int {
+	switch nm := λ * 1e9; {
+	case nm < 315:
+		return 0 // UV-C and UV-B
+	case nm < 400:
+		return 1 // UV-A
+	case nm < 1400:
+		return 2 // visible and IR-A: the retina
+	}
+	return 3 // IR-B and IR-C
+}
+
+// EffectsAdd says whether exposures at wavelengths λ1 and λ2 (m) add, on
+// the eye and on the skin: on the eye when both reach the same tissue (both
+// in 400–1400 nm, the retina; or both outside it, the cornea and lens), on
+// the skin always. This is our reading of the standard's table of additive
+// effects (from memory), resolved towards adding where we were unsure
+// (summing ratios can only overstate the hazard).
+func EffectsAdd(λ1, λ2 float64) (eye, skin bool) {
+	r1, r2 := additivityRegion(λ1), additivityRegion(λ2)
+	return (r1 == 2) == (r2 == 2), true
+}
+
+// AdditivityRow is where the additivity rule comes from.
+func AdditivityRow() Provenance {
+	return memory("additivity of effects of different spectral regions", "eye: 400–1400 nm with 400–1400 nm, and 180–400 nm with 1400 nm–1 mm; skin: all (unsure cells resolved towards adding)")
+}
+
+// SharedOD is the OD eyewear needs at one of n wavelengths on a segment
+// whose exposure ratios add, for that wavelength's ratio: each of the n
+// additive wavelengths is held to 1/n of the limit, ⌈log10(n · ratio)⌉, so
+// that the attenuated ratios sum to at most 1 (our rule).
+func SharedOD(ratio float64, n int) float64 { return OpticalDensity(float64(max(n, 1)) * ratio) }

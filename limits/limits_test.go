@@ -518,3 +518,20 @@ func ExampleOneOverEDiameter() {
 	fmt.Printf("%.4f mm\n", OneOverEDiameter(2e-3)*1e3)
 	// Output: 1.4142 mm
 }
+
+// Effects add on the eye within 400–1400 nm and within 180–400 nm with
+// 1400 nm–1 mm, not across (retina against cornea and lens); on the skin
+// always (the standard's table of additive effects, from memory).
+func TestEffectsAdd(t *testing.T) {
+	for _, c := range []struct {
+		a, b      float64
+		eye, skin bool
+	}{{780e-9, 1064e-9, true, true}, {532e-9, 1550e-9, false, true}, {355e-9, 10.6e-6, true, true}, {355e-9, 532e-9, false, true}} {
+		if eye, skin := EffectsAdd(c.a, c.b); eye != c.eye || skin != c.skin {
+			t.Errorf("%g and %g m: eye %v skin %v", c.a, c.b, eye, skin)
+		}
+	}
+	if SharedOD(500, 2) != 3 || SharedOD(500, 1) != 3 || SharedOD(600, 2) != 4 {
+		t.Error("shared OD: ⌈log10(n·ratio)⌉")
+	}
+}

@@ -167,7 +167,15 @@ type Exposure struct {
 	// worst point (W/m²).
 	PulseRadiantExposure, PulsePeakIrr float64
 	OpenEnd                            bool
-	NOHD                               float64 // for an open end: distance beyond the last element, m
+	// Wavelengths lists every wavelength on the segment (the beams sharing
+	// it). CombinedEyeRatio and CombinedSkinRatio sum the ratios on the
+	// segment whose effects add to this one's (limits.EffectsAdd), itself
+	// included; Additive counts the beams in the eye sum. OD is then the
+	// shared OD of limits.SharedOD.
+	Wavelengths                         []float64
+	CombinedEyeRatio, CombinedSkinRatio float64
+	Additive                            int
+	NOHD                                float64 // for an open end: distance beyond the last element, m
 }
 
 // ReflectionKind says how light leaves a path at a surface.
@@ -265,7 +273,7 @@ func evaluateHazards(s *budget.Setup, b *budget.Budget) (*Hazards, error) {
 	workers := min(runtime.GOMAXPROCS(0), len(b.Paths)/pathsPerWorker)
 	if workers <= 1 {
 		for i, pb := range b.Paths {
-			results[i] = pathHazards(pb, byLaser[pb.Laser])
+			results[i] = pathHazards(pb, byLaser)
 		}
 	} else {
 		var (
@@ -277,8 +285,7 @@ func evaluateHazards(s *budget.Setup, b *budget.Budget) (*Hazards, error) {
 			go func() {
 				defer wg.Done()
 				for i := int(next.Add(1) - 1); i < len(b.Paths); i = int(next.Add(1) - 1) {
-					pb := b.Paths[i]
-					results[i] = pathHazards(pb, byLaser[pb.Laser])
+					results[i] = pathHazards(b.Paths[i], byLaser)
 				}
 			}()
 		}
@@ -289,8 +296,8 @@ func evaluateHazards(s *budget.Setup, b *budget.Budget) (*Hazards, error) {
 		h.Exposures = append(h.Exposures, r.exposures...)
 		h.Reflections = append(h.Reflections, r.reflections...)
 		h.Findings = append(h.Findings, r.findings...)
-		strayDefault += r.strayDefault
-		diffuseDefault += r.diffuseDefault
+		strayDefault += len(r.strayDefault)
+		diffuseDefault += len(r.diffuseDefault)
 	}
 	if strayDefault > 0 {
 		h.DefaultsAssumed = append(h.DefaultsAssumed, fmt.Sprintf("surface reflectance %g per surface (uncoated glass, common practice) at %d element(s) without surface_reflectance", DefaultSurfaceReflectance, strayDefault))
@@ -305,39 +312,51 @@ func evaluateHazards(s *budget.Setup, b *budget.Budget) (*Hazards, error) {
 
 // pathHazardResult is what one path contributes to the hazards.
 type pathHazardResult struct {
-	exposures                    []*Exposure
-	reflections                  []*Reflection
-	findings                     []budget.Finding
-	strayDefault, diffuseDefault int
+	exposures   []*Exposure
+	reflections []*Reflection
+	findings    []budget.Finding
+	// the elements (nil: the open end) where a default reflectance was
+	// assumed, each counted once however many beams reach it
+	strayDefault, diffuseDefault map[*budget.Element]bool
 }
 
 // pathHazards evaluates the open segments, reflections and damage of one
-// path at the laser's maximum power.
-func pathHazards(pb *budget.PathBudget, ll *LaserLimits) pathHazardResult {
-	var res pathHazardResult
-	for _, seg := range pb.Segments {
-		res.segment(pb, ll, seg)
-	}
-	for i := range pb.Rows {
-		res.element(pb, ll, i)
-	}
-	if pb.OpenEnd && pb.EndFraction > 0 {
-		// What the escaping beam hits may reflect diffusely.
-		n := len(pb.Rows)
-		var last *budget.Element
-		if n > 0 {
-			last = pb.Rows[n-1].Element
+// path, for every beam on it, at the lasers' maximum powers; exposures of
+// beams that share a segment are combined (combine).
+func pathHazards(own *budget.PathBudget, byLaser map[*budget.Laser]*LaserLimits) pathHazardResult {
+	res := pathHazardResult{strayDefault: map[*budget.Element]bool{}, diffuseDefault: map[*budget.Element]bool{}}
+	for _, pb := range own.Beams() {
+		ll := byLaser[pb.Laser]
+		for _, seg := range pb.Segments {
+			res.segment(pb, ll, seg)
 		}
-		res.diffuseDefault++
-		res.reflections = append(res.reflections, diffuse(pb, last, ll, pb.EndFraction*pb.Laser.Power, DefaultDiffuseReflectance, true))
+		for i := range pb.Rows {
+			res.element(pb, ll, i)
+		}
+		if pb.OpenEnd && pb.EndFraction > 0 {
+			// What the escaping beam hits may reflect diffusely.
+			n := len(pb.Rows)
+			var last *budget.Element
+			if n > 0 {
+				last = pb.Rows[n-1].Element
+			}
+			res.diffuseDefault[last] = true
+			res.reflections = append(res.reflections, diffuse(pb, last, ll, pb.EndFraction*pb.Laser.Power, DefaultDiffuseReflectance, true))
+		}
 	}
+	// The segments' findings come first, as they always have.
+	elementFindings := res.findings
+	res.findings = nil
+	res.combine()
+	res.findings = append(res.findings, elementFindings...)
 	return res
 }
 
-// segment evaluates one open segment at its worst point, with the NOHD of
-// an open end.
+// segment evaluates one open segment of a beam at its worst point, with the
+// NOHD of an open end. Its finding is made by combine, which knows the
+// other beams on the segment.
 func (res *pathHazardResult) segment(pb *budget.PathBudget, ll *LaserLimits, seg budget.Segment) {
-	if seg.Access != budget.AccessOpen || seg.Fraction <= 0 {
+	if seg.Access != budget.AccessOpen || seg.Fraction <= 0 || seg.Arrival {
 		return
 	}
 	p := seg.Fraction * pb.Laser.Power
@@ -347,6 +366,8 @@ func (res *pathHazardResult) segment(pb *budget.PathBudget, ll *LaserLimits, seg
 		Ratio: irr / ll.EyeIrradiance, SkinIrr: skin, SkinRatio: skin / ll.SkinIrradiance,
 		PeakIrr: seg.Beam.Propagate(at).PeakIrradiance(p), OpenEnd: math.IsInf(seg.To, 1)}
 	e.OD = limits.OpticalDensity(e.Ratio)
+	e.Wavelengths = []float64{pb.Laser.Wavelength}
+	e.CombinedEyeRatio, e.CombinedSkinRatio, e.Additive = e.Ratio, e.SkinRatio, 1
 	if las := pb.Laser; las.Emission == budget.EmissionPulsed {
 		e.PulseRadiantExposure = budget.PulseEnergy(irr, las.RepetitionRate)
 		e.PulsePeakIrr = budget.PulsePeakPower(budget.PulseEnergy(e.PeakIrr, las.RepetitionRate), las.PulseDuration)
@@ -355,16 +376,84 @@ func (res *pathHazardResult) segment(pb *budget.PathBudget, ll *LaserLimits, seg
 		e.NOHD = hazardDistance(seg.Beam, p, ll.EyeAperture, ll.EyeIrradiance)
 	}
 	res.exposures = append(res.exposures, e)
-	if e.Ratio > 1 || e.SkinRatio > 1 {
-		msg := fmt.Sprintf("%s: up to %s reaches %s × the eye MPE (%s averaged over %s, %s exposure) and %s × the skin MPE; eyewear needs OD %g at %s",
-			segmentName(seg), budget.FormatPower(p), fmtX(e.Ratio), budget.FormatIrradiance(irr), budget.FormatLength(ll.EyeAperture),
-			budget.FormatSI(ll.Duration, "s"), fmtX(e.SkinRatio), e.OD, fmtNM(pb.Laser.Wavelength))
-		if e.OpenEnd {
-			msg += fmt.Sprintf("; the escaping beam stays above the MPE for %s beyond the path's end (NOHD)", FormatDistance(e.NOHD))
+}
+
+// combine adds up the exposures of the beams that share a segment of the
+// path: each exposure's combined eye (skin) ratio is the sum of the ratios
+// on the segment whose effects on the eye (skin) add to its own
+// (limits.EffectsAdd), and its OD holds it to an equal share of the limit
+// (limits.SharedOD). It then makes one finding per segment above a limit.
+func (res *pathHazardResult) combine() {
+	var order []int
+	groups := map[int][]*Exposure{}
+	for _, e := range res.exposures {
+		k := e.Segment.After
+		if _, ok := groups[k]; !ok {
+			order = append(order, k)
 		}
-		res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingExposure, Path: pb.Path.Name,
-			Element: seg.After, At: e.At, Message: msg}.Figure(irr, ll.EyeIrradiance, "W/m2"))
+		groups[k] = append(groups[k], e)
 	}
+	for _, k := range order {
+		g := groups[k]
+		if len(g) > 1 {
+			var λs []float64
+			for _, f := range g {
+				if !slices.Contains(λs, f.Laser.Laser.Wavelength) {
+					λs = append(λs, f.Laser.Laser.Wavelength)
+				}
+			}
+			for _, e := range g {
+				e.Wavelengths = λs
+				e.CombinedEyeRatio, e.CombinedSkinRatio, e.Additive = 0, 0, 0
+				for _, f := range g {
+					eye, skin := limits.EffectsAdd(e.Laser.Laser.Wavelength, f.Laser.Laser.Wavelength)
+					if eye {
+						e.CombinedEyeRatio += f.Ratio
+						e.Additive++
+					}
+					if skin {
+						e.CombinedSkinRatio += f.SkinRatio
+					}
+				}
+				e.OD = limits.SharedOD(e.Ratio, e.Additive)
+			}
+		}
+		res.segmentFinding(g)
+	}
+}
+
+// segmentFinding is the finding of one segment whose exposures (one per
+// beam on it) reach a limit, alone or added up.
+func (res *pathHazardResult) segmentFinding(g []*Exposure) {
+	worst := g[0]
+	for _, e := range g {
+		if max(e.CombinedEyeRatio, e.CombinedSkinRatio) > max(worst.CombinedEyeRatio, worst.CombinedSkinRatio) {
+			worst = e
+		}
+	}
+	if worst.CombinedEyeRatio <= 1 && worst.CombinedSkinRatio <= 1 {
+		return
+	}
+	pb, ll, seg := worst.Path, worst.Laser, worst.Segment
+	var msg string
+	if len(g) == 1 {
+		msg = fmt.Sprintf("%s: up to %s reaches %s × the eye MPE (%s averaged over %s, %s exposure) and %s × the skin MPE; eyewear needs OD %g at %s",
+			segmentName(pb.Path, seg), budget.FormatPower(worst.Power), fmtX(worst.Ratio), budget.FormatIrradiance(worst.Irradiance), budget.FormatLength(ll.EyeAperture),
+			budget.FormatSI(ll.Duration, "s"), fmtX(worst.SkinRatio), worst.OD, fmtNM(pb.Laser.Wavelength))
+	} else {
+		var parts, ods []string
+		for _, e := range g {
+			parts = append(parts, fmt.Sprintf("%s %s × (eye), %s × (skin)", fmtNM(e.Laser.Laser.Wavelength), fmtX(e.Ratio), fmtX(e.SkinRatio)))
+			ods = append(ods, fmt.Sprintf("OD %g at %s", e.OD, fmtNM(e.Laser.Laser.Wavelength)))
+		}
+		msg = fmt.Sprintf("%s: %d beams share the segment (%s); where their effects add the exposures sum to %s × the eye MPE and %s × the skin MPE; eyewear needs %s (each additive wavelength held to an equal share of the limit)",
+			segmentName(pb.Path, seg), len(g), strings.Join(parts, "; "), fmtX(worst.CombinedEyeRatio), fmtX(worst.CombinedSkinRatio), strings.Join(ods, ", "))
+	}
+	if worst.OpenEnd {
+		msg += fmt.Sprintf("; the escaping beam stays above the MPE for %s beyond the path's end (NOHD)", FormatDistance(worst.NOHD))
+	}
+	res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingExposure, Path: pb.Path.Name,
+		Element: seg.After, At: worst.At, Message: msg}.Figure(worst.CombinedEyeRatio*ll.EyeIrradiance, ll.EyeIrradiance, "W/m2"))
 }
 
 // element evaluates the surfaces of row i: its stray reflections, the beams
@@ -389,7 +478,7 @@ func (res *pathHazardResult) element(pb *budget.PathBudget, ll *LaserLimits, i i
 			ρ, assumed = *el.DiffuseReflectance, false
 		}
 		if assumed {
-			res.diffuseDefault++
+			res.diffuseDefault[el] = true
 		}
 		res.reflections = append(res.reflections, diffuse(pb, el, ll, p, ρ, assumed))
 	}
@@ -401,11 +490,11 @@ func (res *pathHazardResult) element(pb *budget.PathBudget, ll *LaserLimits, i i
 func (res *pathHazardResult) stray(pb *budget.PathBudget, ll *LaserLimits, r *budget.Row, surfaces int, p float64) {
 	el := r.Element
 	R, assumed := DefaultSurfaceReflectance, true
-	if el.SurfaceReflectance != nil {
-		R, assumed = *el.SurfaceReflectance, false
+	if sr := el.For(pb.Laser).SurfaceReflectance; sr != nil {
+		R, assumed = *sr, false
 	}
 	if assumed {
-		res.strayDefault++
+		res.strayDefault[el] = true
 	}
 	pr := R * p
 	irr := apertureIrradiance(r.BeamIn, pr, ll.EyeAperture)
@@ -415,8 +504,8 @@ func (res *pathHazardResult) stray(pb *budget.PathBudget, ll *LaserLimits, r *bu
 	if ref.Ratio > 1 {
 		res.reflections = append(res.reflections, ref)
 		res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingStray, Path: pb.Path.Name,
-			Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s): each of its %d surface(s) reflects %s (R = %g%s), %.3g × the eye MPE at the surface; block or enclose the back-reflection",
-				el.Index, el.Label(), surfaces, budget.FormatPower(pr), R, assumedNote(assumed), ref.Ratio)}.Figure(irr, ll.EyeIrradiance, "W/m2"))
+			Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s%s): each of its %d surface(s) reflects %s (R = %g%s), %.3g × the eye MPE at the surface; block or enclose the back-reflection",
+				el.Index, el.Label(), beamNote(pb), surfaces, budget.FormatPower(pr), R, assumedNote(assumed), ref.Ratio)}.Figure(irr, ll.EyeIrradiance, "W/m2"))
 	}
 }
 
@@ -431,6 +520,8 @@ func (res *pathHazardResult) escaping(pb *budget.PathBudget, ll *LaserLimits, r 
 			what = "leaks through the mirror"
 		case budget.LossDiffraction:
 			what = "leaves in the undiffracted (and other) orders"
+		case budget.LossCombiner:
+			what = "leaves the combiner's other port"
 		default:
 			continue
 		}
@@ -442,8 +533,8 @@ func (res *pathHazardResult) escaping(pb *budget.PathBudget, ll *LaserLimits, r 
 		if ref.Ratio > 1 {
 			res.reflections = append(res.reflections, ref)
 			res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingEscaping, Path: pb.Path.Name,
-				Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s): %s %s, %s × the eye MPE; describe where it goes or end it in a rated dump",
-					el.Index, el.Label(), budget.FormatPower(pl), what, fmtX(ref.Ratio))}.Figure(irr, ll.EyeIrradiance, "W/m2"))
+				Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s%s): %s %s, %s × the eye MPE; describe where it goes or end it in a rated dump",
+					el.Index, el.Label(), beamNote(pb), budget.FormatPower(pl), what, fmtX(ref.Ratio))}.Figure(irr, ll.EyeIrradiance, "W/m2"))
 		}
 	}
 }
@@ -500,7 +591,7 @@ func damage(pb *budget.PathBudget, r *budget.Row, p float64) []budget.Finding {
 	wx, wy := r.BeamIn.Radii()
 	add := func(sev budget.Severity, kind budget.FindingKind, msg string, value, limit float64, unit string) {
 		out = append(out, budget.Finding{Severity: sev, Kind: kind, Path: pb.Path.Name, Element: el.Index, At: el.At,
-			Message: fmt.Sprintf("element %d (%s): %s", el.Index, el.Label(), msg)}.Figure(value, limit, unit))
+			Message: fmt.Sprintf("element %d (%s%s): %s", el.Index, el.Label(), beamNote(pb), msg)}.Figure(value, limit, unit))
 	}
 	if el.DamageThreshold > 0 && p > 0 {
 		switch {
@@ -625,7 +716,22 @@ func checkEyewear(s *budget.Setup, needs []*EyewearNeed) []budget.Finding {
 	return out
 }
 
-func segmentName(seg budget.Segment) string {
+// beamNote names, in a message about an element, another laser's beam on a
+// shared path ("" for the path's own).
+func beamNote(pb *budget.PathBudget) string {
+	if !pb.IsJoined() {
+		return ""
+	}
+	return fmt.Sprintf(", beam of laser %q", pb.Laser.Name)
+}
+
+func segmentName(p *budget.Path, seg budget.Segment) string {
+	if p.IntoPath != nil && seg.To == p.IntoAt && (len(p.Elements) == 0 || seg.After == p.Elements[len(p.Elements)-1].Index) {
+		if seg.After == 0 {
+			return fmt.Sprintf("from the start to the combiner it goes into, %s (%s)", p.Into, budget.FormatLength(seg.To))
+		}
+		return fmt.Sprintf("from element %d to the combiner it goes into, %s (%s to %s)", seg.After, p.Into, budget.FormatLength(seg.From), budget.FormatLength(seg.To))
+	}
 	if math.IsInf(seg.To, 1) {
 		return fmt.Sprintf("after element %d (open end, from %s)", seg.After, budget.FormatLength(seg.From))
 	}

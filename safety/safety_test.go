@@ -453,3 +453,64 @@ func TestPulsedSourceFigures(t *testing.T) {
 		t.Errorf("eyewear %s LB%d (%v)", n.Mode, n.LB, n.LBValid)
 	}
 }
+
+// On table D the trap (1064 nm) joins the probe (780.2 nm) at the dichroic;
+// between the dichroic and the objective both beams are open. Both lie in
+// 400–1400 nm, where effects on the retina (and the skin) add (the
+// standard's table of additive effects, from memory), so each exposure's
+// combined ratio is the sum of the two single-wavelength ratios, worked out
+// here by hand from the parts; and the equal-share OD holds the attenuated
+// sum to at most 1.
+func TestSharedSegmentAddsByHand(t *testing.T) {
+	s, err := budget.Load("../testdata/examples/table-d.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	a, err := Evaluate(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var parts []*Exposure
+	for _, e := range a.Hazards.Exposures {
+		if e.Path.Path.Name == "probe" && e.Segment.After == 2 {
+			parts = append(parts, e)
+		}
+	}
+	if len(parts) != 2 {
+		t.Fatalf("%d exposures on the shared segment, want the probe's and the trap's", len(parts))
+	}
+	probe, trap := parts[0], parts[1]
+	if probe.Laser.Laser.Name != "probe" || trap.Laser.Laser.Name != "trap" {
+		t.Fatalf("parts %q, %q", probe.Laser.Laser.Name, trap.Laser.Laser.Name)
+	}
+	eye := probe.Ratio + trap.Ratio
+	skin := probe.SkinRatio + trap.SkinRatio
+	for _, e := range parts {
+		if math.Abs(e.CombinedEyeRatio-eye) > 1e-12*eye || math.Abs(e.CombinedSkinRatio-skin) > 1e-12*skin {
+			t.Errorf("%s: combined %g (eye), %g (skin); by hand %g, %g", e.Laser.Laser.Name, e.CombinedEyeRatio, e.CombinedSkinRatio, eye, skin)
+		}
+		if len(e.Wavelengths) != 2 || e.Additive != 2 {
+			t.Errorf("%s: wavelengths %v, %d additive", e.Laser.Laser.Name, e.Wavelengths, e.Additive)
+		}
+	}
+	// 8.44 × + 4216 × = 4224 × the eye MPE, as the golden text prints.
+	if math.Abs(eye-4224) > 1 {
+		t.Errorf("combined eye ratio %g, want about 4224", eye)
+	}
+	if left := probe.Ratio/math.Pow(10, probe.OD) + trap.Ratio/math.Pow(10, trap.OD); left > 1 {
+		t.Errorf("with OD %g and %g the exposures still sum to %g × the MPE", probe.OD, trap.OD, left)
+	}
+	// One finding speaks for the segment, with the sum.
+	n := 0
+	for _, f := range a.Hazards.Findings {
+		if f.Kind == FindingExposure && f.Path == "probe" && f.Element == 2 {
+			n++
+			if math.Abs(f.Ratio()-eye) > 1e-9*eye {
+				t.Errorf("finding ratio %g, want the sum %g", f.Ratio(), eye)
+			}
+		}
+	}
+	if n != 1 {
+		t.Errorf("%d findings for the shared segment, want 1", n)
+	}
+}

@@ -17,6 +17,10 @@ type Options struct {
 	// Fibers starts every path with a fibre (left out of the older labs, so
 	// that their seeds still give the same files).
 	Fibers bool
+	// Merges sends every odd laser's first path into a combiner on the
+	// previous laser's first path (with per-laser values there), and gives
+	// each merged path a cylindrical lens.
+	Merges bool
 }
 
 // Lab returns the text of a setup file drawn from the seeded generator.
@@ -41,21 +45,42 @@ func Lab(seed uint64, o Options) string {
 		}
 		for pi, name := range paths {
 			fmt.Fprintf(&b, "[[path]]\nname = %q\nfrom = %q\n", name, froms[pi])
+			var eb strings.Builder // the path's elements, after its own keys
 			at := 0.0
 			if o.Fibers {
 				at += 0.05 + 0.1*r.Float64()
-				fmt.Fprintf(&b, "  [[path.element]]\n  type = \"fiber\"\n  at = \"%.6g m\"\n  coupling = %.4g\n  output_waist = \"%.4g mm\"\n", at, 0.4+0.4*r.Float64(), 0.5+1.5*r.Float64())
+				fmt.Fprintf(&eb, "  [[path.element]]\n  type = \"fiber\"\n  at = \"%.6g m\"\n  coupling = %.4g\n  output_waist = \"%.4g mm\"\n", at, 0.4+0.4*r.Float64(), 0.5+1.5*r.Float64())
 			}
 			for e := 0; e < o.ElementsPerPath; e++ {
 				at += 0.02 + 0.2*r.Float64()
 				if pi < len(paths)-1 && e == o.ElementsPerPath/2 {
-					fmt.Fprintf(&b, "  [[path.element]]\n  type = \"splitter\"\n  name = \"split%d\"\n  at = \"%.6g m\"\n  transmission = %.4g\n", pi, at, 0.05+0.9*r.Float64())
+					fmt.Fprintf(&eb, "  [[path.element]]\n  type = \"splitter\"\n  name = \"split%d\"\n  at = \"%.6g m\"\n  transmission = %.4g\n", pi, at, 0.05+0.9*r.Float64())
 					continue
 				}
-				writeElement(&b, r, at)
+				writeElement(&eb, r, at)
 			}
-			if !o.OpenEnds || r.IntN(2) == 0 {
+			if o.Merges && pi == 0 {
+				at += 0.02 + 0.1*r.Float64()
+				fmt.Fprintf(&eb, "  [[path.element]]\n  type = \"cylindrical_lens\"\n  focal_length = \"%.4g mm\"\n  plane = %q\n  at = \"%.6g m\"\n", 100+400*r.Float64(), []string{"x", "y"}[r.IntN(2)], at)
+				if l%2 == 0 && l+1 < o.Lasers {
+					// the combiner the next laser's first path goes into
+					at += 0.02 + 0.1*r.Float64()
+					fmt.Fprintf(&eb, "  [[path.element]]\n  type = \"combiner\"\n  name = \"comb%d\"\n  at = \"%.6g m\"\n  transmission = { L%d = %.4g }\n  join_transmission = { L%d = %.4g }\n", l+1, at, l, 0.8+0.2*r.Float64(), l+1, 0.8+0.2*r.Float64())
+					for e := 0; e < 2; e++ {
+						at += 0.02 + 0.2*r.Float64()
+						writeElement(&eb, r, at)
+					}
+				}
+			}
+			switch {
+			case o.Merges && l%2 == 1 && pi == 0:
+				fmt.Fprintf(&b, "into = \"L%dp0:comb%d\"\ninto_at = \"%.6g m\"\n", l-1, l, at+0.05)
+				b.WriteString(eb.String())
+			case !o.OpenEnds || r.IntN(2) == 0:
+				b.WriteString(eb.String())
 				fmt.Fprintf(&b, "  [[path.element]]\n  type = \"dump\"\n  at = \"%.6g m\"\n  rating = \"%.4g W\"\n", at+0.1, 1+20*r.Float64())
+			default:
+				b.WriteString(eb.String())
 			}
 			b.WriteString("\n")
 		}

@@ -138,22 +138,32 @@ func (b *builder) pathRecord(pb *budget.PathBudget) Record {
 		r.F(Num(dPulsePeakFactor, 1/(las.RepetitionRate*las.PulseDuration), fmtG(1/(las.RepetitionRate*las.PulseDuration))))
 		r.Line("  pulsed source: powers and peak irradiances here are of the average power; during a pulse the irradiance is {pulse_peak_factor} times higher (1/(f τ), rectangular pulse)")
 	}
-	els := &List{Key: "elements", Columns: []string{"index", "element", "at_m", "radius_x_m", "radius_y_m", "power_in_w", "power_out_w", "peak_irradiance_w_m2", "cumulative_loss_db", "losses_here"}, Left: 2, Indent: 1, Records: make([]Record, 0, len(pb.Rows))}
-	lead := &Record{Members: b.members(10)}
-	lead.F(Whole(dIndex, 0)).F(Field{d: dElement4, Kind: String, Text: "start", People: true}).
-		F(Field{d: dAtM3, Kind: Number, SI: 0, Text: "0 mm"}).
-		F(Field{d: dRadiusXM2, Kind: Number, SI: sx, Text: budget.FormatLength(sx)}).
-		F(Field{d: dRadiusYM2, Kind: Number, SI: sy, Text: budget.FormatLength(sy)}).
-		F(Field{d: dPowerInW2, Kind: Number, SI: math.NaN(), Text: ""}).
-		F(Field{d: dPowerOutW2, Kind: Number, SI: startP, Text: budget.FormatPower(startP)}).
-		F(Field{d: dPeakIrradianceWM23, Kind: Number, SI: pb.Start.PeakIrradiance(startP), Text: budget.FormatIrradiance(pb.Start.PeakIrradiance(startP))}).
-		F(Field{d: dCumulativeLossDb2, Kind: Number, Text: fmtDB(pb.StartFraction)}).
-		F(Field{d: dLossesHere, Kind: String, Text: ""})
-	els.Lead = lead
-	for i := range pb.Rows {
-		els.Records = append(els.Records, b.elementRecord(&pb.Rows[i], op))
-	}
+	els := b.elementsList(pb, op, "start")
 	r.L(els)
+	joined := &List{Key: "joined", Indent: 1, Records: make([]Record, 0, len(pb.Joined))}
+	for _, jb := range pb.Joined {
+		jr := Record{Members: b.members(6)}
+		jop := jb.Laser.OperatingPower
+		how := "from the path's start (the splitter feeding the path carries it)"
+		if jb.Combiner != nil {
+			how = "at combiner " + strconv.Quote(jb.Combiner.Label())
+		}
+		jr.F(Str(dLaser3, jb.Laser.Name)).
+			F(Num(dWavelengthM5, jb.Laser.Wavelength, fmt.Sprintf("%.2f nm", jb.Laser.Wavelength*1e9))).
+			F(Len(dJoinedAtM, jb.JoinedAt)).
+			F(Pow(dOperatingPowerW2, jop)).
+			F(Field{d: dJoinedHow, Kind: String, Text: how, People: true})
+		jr.Line("beam of laser {laser} ({wavelength_m}, operating power {operating_power_w}) joins at {joined_at_m}, {how}:")
+		jr.L(b.elementsList(jb, jop, "joins"))
+		joined.Records = append(joined.Records, jr)
+	}
+	r.L(joined)
+	if p.IntoPath != nil {
+		r.F(Str(dInto, p.Into)).F(Len(dIntoAtM, p.IntoAt))
+		r.After = append(r.After, "  goes into {into} at {into_at_m}: {end_power_w} arrives at the combiner")
+	} else {
+		r.F(Absent(dInto, true)).F(Absent(dIntoAtM, true))
+	}
 	r.F(Flag(dOpenEnd2, pb.OpenEnd, yesNo(pb.OpenEnd)))
 	endP := pb.EndFraction * op
 	r.F(Pow(dEndPowerW, endP))
@@ -169,6 +179,38 @@ func (b *builder) pathRecord(pb *budget.PathBudget) Record {
 // negligibleLoss is the fraction of the source below which the table does not
 // list a loss (the JSON output and the balance keep it).
 const negligibleLoss = 1e-9
+
+// startAt writes where a beam starts on a path.
+func startAt(at float64) string {
+	if at == 0 {
+		return "0 mm"
+	}
+	return budget.FormatLength(at)
+}
+
+// elementsList is the table of one beam's elements, after a lead row at the
+// beam's start on the path (lead names it: "start", or "joins" for a beam
+// that joins at a combiner).
+func (b *builder) elementsList(pb *budget.PathBudget, op float64, lead string) *List {
+	sx, sy := pb.Start.Radii()
+	startP := pb.StartFraction * op
+	els := &List{Key: "elements", Columns: []string{"index", "element", "at_m", "radius_x_m", "radius_y_m", "power_in_w", "power_out_w", "peak_irradiance_w_m2", "cumulative_loss_db", "losses_here"}, Left: 2, Indent: 1, Records: make([]Record, 0, len(pb.Rows))}
+	lr := &Record{Members: b.members(10)}
+	lr.F(Whole(dIndex, 0)).F(Field{d: dElement4, Kind: String, Text: lead, People: true}).
+		F(Field{d: dAtM3, Kind: Number, SI: pb.JoinedAt, Text: startAt(pb.JoinedAt)}).
+		F(Field{d: dRadiusXM2, Kind: Number, SI: sx, Text: budget.FormatLength(sx)}).
+		F(Field{d: dRadiusYM2, Kind: Number, SI: sy, Text: budget.FormatLength(sy)}).
+		F(Field{d: dPowerInW2, Kind: Number, SI: math.NaN(), Text: ""}).
+		F(Field{d: dPowerOutW2, Kind: Number, SI: startP, Text: budget.FormatPower(startP)}).
+		F(Field{d: dPeakIrradianceWM23, Kind: Number, SI: pb.Start.PeakIrradiance(startP), Text: budget.FormatIrradiance(pb.Start.PeakIrradiance(startP))}).
+		F(Field{d: dCumulativeLossDb2, Kind: Number, Text: fmtDB(pb.StartFraction)}).
+		F(Field{d: dLossesHere, Kind: String, Text: ""})
+	els.Lead = lr
+	for i := range pb.Rows {
+		els.Records = append(els.Records, b.elementRecord(&pb.Rows[i], op))
+	}
+	return els
+}
 
 func (b *builder) elementRecord(row *budget.Row, op float64) Record {
 	e := row.Element

@@ -5,6 +5,17 @@ package view
 // with its descriptor (Num(dPowerW, …)), so that every field of a kind
 // shares these strings. A new field gets its descriptor here.
 var (
+	dInto                        = &Desc{"into", "into", "Path.Into"}
+	dIntoAtM                     = &Desc{"into_at_m", "into at", "Path.IntoAt"}
+	dJoinedAtM                   = &Desc{"joined_at_m", "joined at", "PathBudget.JoinedAt"}
+	dJoinedHow                   = &Desc{"how", "how", ""}
+	dLaser3                      = &Desc{"laser", "laser", "PathBudget.Laser"}
+	dOperatingPowerW2            = &Desc{"operating_power_w", "operating power", "Laser.OperatingPower"}
+	dWavelengthM5                = &Desc{"wavelength_m", "λ", "Laser.Wavelength"}
+	dCombinedEyeRatio            = &Desc{"combined_eye_ratio", "Σ eye ratio", "Exposure.CombinedEyeRatio"}
+	dCombinedSkinRatio           = &Desc{"combined_skin_ratio", "Σ skin ratio", "Exposure.CombinedSkinRatio"}
+	dWavelengthsM                = &Desc{"wavelengths_m", "wavelengths", "Exposure.Wavelengths"}
+	dAdditive                    = &Desc{"additive_beams", "additive beams", "Exposure.Additive"}
 	dPulsePeakFactor             = &Desc{"pulse_peak_factor", "pulse peak ÷ average", ""}
 	dFactorsFrom                 = &Desc{"factors_provenance", "factors from", "Limit.Factors"}
 	dAverageBeamPeakWM2          = &Desc{"average_power_peak_irradiance_w_m2", "peak irr. (average power)", "Exposure.PeakIrr"}

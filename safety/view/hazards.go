@@ -130,6 +130,12 @@ func (b *builder) hazards(a *safety.Assessment) hazardView {
 	if len(h.Eyewear) > 0 {
 		rows = append(rows, limits.EN207Row())
 	}
+	for _, e := range h.Exposures {
+		if len(e.Wavelengths) > 1 {
+			rows = append(rows, limits.AdditivityRow())
+			break
+		}
+	}
 	v.provenance = provenanceList(rows)
 	v.json.L(v.lasers).L(v.exposures).L(v.reflections).L(v.eyewear).
 		F(StrList(dDefaultsAssumed, h.DefaultsAssumed)).L(v.provenance)
@@ -260,6 +266,17 @@ func (b *builder) exposureRecord(e *safety.Exposure) Record {
 	}
 	r.F(Field{d: dSegment, Kind: String, Text: segLabel(e), People: true}).
 		F(Field{d: dNohd, Kind: String, Text: nohd, People: true})
+	var nms []string
+	for _, λ := range e.Wavelengths {
+		nms = append(nms, budget.FormatNumber(λ*1e9)+" nm")
+	}
+	r.F(NumList(dWavelengthsM, e.Wavelengths, strings.Join(nms, " + "))).
+		F(Ratio(dCombinedEyeRatio, e.CombinedEyeRatio)).
+		F(Ratio(dCombinedSkinRatio, e.CombinedSkinRatio)).
+		F(Whole(dAdditive, e.Additive))
+	if len(e.Wavelengths) > 1 {
+		r.Line("      {segment}: {wavelengths_m} share this segment; with the beams whose effects add ({additive_beams} on the eye) the ratios sum to {combined_eye_ratio} (eye) and {combined_skin_ratio} (skin); OD {od_required} holds this wavelength to an equal share")
+	}
 	if e.Laser.Pulsed != nil {
 		r.F(Num(dPulseRadiantExposureJM2, e.PulseRadiantExposure, withUnit(e.PulseRadiantExposure, "J/m²"))).
 			F(Irr(dPulsePeakIrradianceWM2, e.PulsePeakIrr)).
@@ -271,14 +288,22 @@ func (b *builder) exposureRecord(e *safety.Exposure) Record {
 
 func segLabel(e *safety.Exposure) string {
 	s := e.Segment
-	name := e.Path.Path.Name
+	p := e.Path.Path
+	name := p.Name
+	if e.Path.IsJoined() {
+		name += " (" + e.Path.Laser.Name + ")"
+	}
+	from := strconv.Itoa(s.After)
+	if s.After == 0 {
+		from = "start"
+	}
 	switch {
 	case math.IsInf(s.To, 1):
 		return name + ": after " + strconv.Itoa(s.After) + " (open end)"
-	case s.After == 0:
-		return name + ": start → 1"
+	case p.IntoPath != nil && s.To == p.IntoAt && (len(p.Elements) == 0 || s.After == p.Elements[len(p.Elements)-1].Index):
+		return name + ": " + from + " → " + p.Into
 	}
-	return name + ": " + strconv.Itoa(s.After) + " → " + strconv.Itoa(s.After+1)
+	return name + ": " + from + " → " + strconv.Itoa(s.After+1)
 }
 
 func (b *builder) reflectionRecord(rf *safety.Reflection) Record {
@@ -309,6 +334,10 @@ func (b *builder) reflectionRecord(rf *safety.Reflection) Record {
 	// A diffuse zone sits at a dump, or where an open end's beam lands.
 	where := make([]byte, 0, 64)
 	where = strconv.AppendQuote(append(where, "path "...), rf.Path.Path.Name)
+	if rf.Path.IsJoined() {
+		where = strconv.AppendQuote(append(where, " (beam of laser "...), rf.Path.Laser.Name)
+		where = append(where, ')')
+	}
 	if rf.Element != nil && (rf.Kind != safety.ReflectionDiffuse || rf.Element.Type == budget.TypeDump) {
 		where = strconv.AppendInt(append(where, ", element "...), int64(rf.Element.Index), 10)
 		where = append(append(append(where, " ("...), rf.Element.Label()...), ')')

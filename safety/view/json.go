@@ -181,6 +181,24 @@ func (w *jsonWriter) value(f *Field, depth int) error {
 		}
 		w.newline(depth)
 		w.b = append(w.b, ']')
+	case Numbers:
+		vals := f.extra.rows[0]
+		if len(vals) == 0 {
+			w.b = append(w.b, '[', ']')
+			return nil
+		}
+		w.b = append(w.b, '[')
+		for i, v := range vals {
+			if i > 0 {
+				w.b = append(w.b, ',')
+			}
+			w.newline(depth + 1)
+			if err := w.number(v); err != nil {
+				return err
+			}
+		}
+		w.newline(depth)
+		w.b = append(w.b, ']')
 	case Strings:
 		list := f.List()
 		if len(list) == 0 {

@@ -29,6 +29,7 @@ const (
 	Bool
 	Strings // a list of strings
 	Matrix  // rows of numbers
+	Numbers // a list of numbers
 )
 
 // Desc describes a field: its JSON key (snake_case with the unit as a
@@ -165,6 +166,11 @@ func (f *Field) List() []string {
 // StrList is a list-of-strings field; its text joins them.
 func StrList(d *Desc, list []string) Field {
 	return Field{d: d, Kind: Strings, Text: strings.Join(list, ", "), extra: &extra{list: append([]string{}, list...)}}
+}
+
+// NumList is a field of a list of numbers, with its text for people.
+func NumList(d *Desc, vals []float64, text string) Field {
+	return Field{d: d, Kind: Numbers, Text: text, extra: &extra{rows: [][]float64{append([]float64{}, vals...)}}}
 }
 
 // NumRows is a field of rows of numbers.

@@ -55,6 +55,8 @@ func TestFieldCoverage(t *testing.T) {
 		"Row.BeamOut":               "the beam leaving an element is the next one's BeamIn, shown there",
 		"Segment.Beam":              "the beam at a segment's start is the previous element's, shown there",
 		"Segment.Fraction":          "the power of a segment is shown as its exposure's power",
+		"PathBudget.First":          "an index into the path's elements; the view shows where the beam joins (joined_at_m) and its table from that element",
+		"PathBudget.ShiftIn":        "the AOM shift a beam carries onto a path; its effect is the detuning shown at the atoms",
 		"DipoleResult.PerIntensity": "U/I words the potential attractive or repulsive; its value is U/k_B over the peak irradiance, both shown",
 	}
 	shown := map[string]bool{}
