@@ -210,11 +210,14 @@ func paths(a *safety.Assessment, l *view.List) Section {
 	sec := Section{Heading: "Beam paths"}
 	for i, pb := range a.Budget.Paths {
 		r := &l.Records[i]
-		var els *view.List
+		var els, joined *view.List
 		for i := range r.Members {
 			m := &r.Members[i]
-			if m.List != nil && m.List.Key == "elements" {
+			switch {
+			case m.List != nil && m.List.Key == "elements":
 				els = m.List
+			case m.List != nil && m.List.Key == "joined":
+				joined = m.List
 			}
 		}
 		sec.Blocks = append(sec.Blocks,
@@ -232,6 +235,24 @@ func paths(a *safety.Assessment, l *view.List) Section {
 		}
 		if len(notes) > 0 {
 			sec.Blocks = append(sec.Blocks, Block{Bullets: notes})
+		}
+		// Every other laser's beam on the path, from where it joins.
+		for k := range joined.Records {
+			jr := &joined.Records[k]
+			var jels *view.List
+			for i := range jr.Members {
+				if m := &jr.Members[i]; m.List != nil && m.List.Key == "elements" {
+					jels = m.List
+				}
+			}
+			sec.Blocks = append(sec.Blocks, Block{Paragraph: ownLines(jr)}, Block{Table: table(jels)})
+			var jnotes []string
+			for i := range jels.Records {
+				jnotes = append(jnotes, lines(&jels.Records[i])...)
+			}
+			if len(jnotes) > 0 {
+				sec.Blocks = append(sec.Blocks, Block{Bullets: jnotes})
+			}
 		}
 	}
 	return sec
@@ -332,6 +353,10 @@ func hazards(lists map[string]*view.List) Section {
 		sec.Blocks = append(sec.Blocks, Block{Paragraph: ex.Empty})
 	} else {
 		sec.Blocks = append(sec.Blocks, Block{Table: table(ex)})
+		// Pulse figures and the sums on shared segments.
+		if notes := listLines(ex); len(notes) > 0 {
+			sec.Blocks = append(sec.Blocks, Block{Bullets: notes})
+		}
 	}
 	var stray, escaping, diffuse []string
 	refl := lists["reflections"]
