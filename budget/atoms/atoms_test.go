@@ -2,6 +2,7 @@ package atoms
 
 import (
 	"math"
+	"strings"
 	"testing"
 
 	"gonum.org/v1/gonum/integrate/quad"
@@ -21,9 +22,9 @@ func TestTransitionData(t *testing.T) {
 		{"Na23 D2", 589.1583264, 9.7946, 6.2600, 13.4144, 1e-6},    // Steck, Sodium D Line Data, table 3 (isotropic value from memory)
 		{"K39 D2", 766.700674872, 6.035, 1.75, 0, 1e-6},            // Tiecke, Properties of Potassium, D2 line table
 		{"Li6 D2", 670.977338, 5.8724, 2.54, 0, 1e-6},              // Gehm, Properties of 6Li, D2 line table
-		{"Rb87 D1", 794.978851156, 5.7500, 0, 0, 1e-6},             // Steck, Rubidium 87 D Line Data, table 5 (D1)
-		{"Rb85 D1", 794.979014933, 5.7500, 0, 0, 1e-6},             // Steck, Rubidium 85 D Line Data, table 5 (D1)
-		{"Cs133 D1", 894.59295986, 4.5612, 0, 0, 1e-6},             // Steck, Cesium D Line Data, table 5 (D1)
+		{"Rb87 D1", 794.978851156, 5.7500, 4.4876, 0, 1e-6},        // Steck, Rubidium 87 D Line Data, table 5 (D1): effective far-detuned I_sat, π-polarized light (value from memory; 3 × the two-level value)
+		{"Rb85 D1", 794.979014933, 5.7500, 4.4876, 0, 1e-6},        // Steck, Rubidium 85 D Line Data, table 5 (D1): effective far-detuned I_sat, π-polarized (value from memory; 3 × the two-level value)
+		{"Cs133 D1", 894.59295986, 4.5612, 2.4981, 0, 1e-6},        // Steck, Cesium D Line Data, table 5 (D1): effective far-detuned I_sat, π-polarized light, 2.4981 mW/cm²
 		{"Sr88 461 nm", 460.862, 30.24, 0, 0, 1e-3},                // Yasuda et al. 2006, τ = 5.263 ns (Γ/2π from 1/τ)
 		{"Sr88 689 nm", 689.4489, 0.0074, 0, 0, 1e-6},              // Ferrari et al. 2003 frequency; NIST ASD linewidth (from memory)
 		{"Yb174 399 nm", 398.9115, 29.1, 0, 0, 1e-6},               // Takasu et al. 2004 (from memory)
@@ -53,6 +54,25 @@ func TestTransitionData(t *testing.T) {
 				t.Errorf("%s: mass, source and lines are required", c.name)
 			}
 		})
+	}
+
+	// A D1 line's I_sat is the data sheet's effective value for π light, three
+	// times the two-level formula (J = 1/2 → J' = 1/2: the far-detuned
+	// effective dipole is 1/3 of the two-level one), and its cross-section
+	// follows from it, σ0 = ħωΓ/(2 I_sat) = λ²/(2π) (Steck, D1 tables:
+	// effective far-detuned resonant cross-section).
+	for _, name := range []string{"Rb87 D1", "Rb85 D1", "Cs133 D1"} {
+		tr, _ := Lookup(name)
+		if r := tr.IsatCycling / TwoLevelIsat(tr.Wavelength, tr.Gamma); !close(r, 3, 2e-3) {
+			t.Errorf("%s: I_sat is %.4f × the two-level value, want 3", name, r)
+		}
+		σ := CrossSection(tr.Wavelength, tr.Gamma, tr.IsatCycling)
+		if want := tr.Wavelength * tr.Wavelength / (2 * math.Pi); !close(σ, want, 2e-3) {
+			t.Errorf("%s: σ0 = %g m², want λ²/2π = %g", name, σ, want)
+		}
+		if !strings.Contains(tr.CyclingNote, "π") {
+			t.Errorf("%s: the note %q does not name the polarization case", name, tr.CyclingNote)
+		}
 	}
 
 	if len(Names()) != len(tests) {

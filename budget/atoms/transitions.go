@@ -137,21 +137,24 @@ func add(ts ...*Transition) {
 const (
 	cyclingAlkali = "cycling transition: σ± light between the stretched states F = I+1/2, m_F = ±F and F' = F+1, m_F' = ±F'"
 	twoLevelNote  = "two-level value π h c Γ / (3 λ³)"
-	d1Note        = "two-level value π h c Γ / (3 λ³); a D1 line has no cycling transition"
+	d1Note        = "the data sheet's effective far-detuned value for π-polarized light; a D1 line has no cycling transition"
 )
 
 func init() {
 	// Rb-87: D. A. Steck, "Rubidium 87 D Line Data" (revision 2.2.1, 2019),
 	// tables 2 (mass), 3 (D2: λ, Γ/2π = 6.0666 MHz, I_sat 1.66933 mW/cm²
-	// cycling, 3.57713 mW/cm² isotropic) and 5 (D1: λ, Γ/2π = 5.7500 MHz).
+	// cycling, 3.57713 mW/cm² isotropic) and 5 (D1: λ, Γ/2π = 5.7500 MHz,
+	// effective far-detuned I_sat for π light 4.4876 mW/cm², from memory).
 	rb87 := alkali("Rb87", 780.241209686e-9, 6.0666e6, 794.978851156e-9, 5.7500e6)
 	// Rb-85: D. A. Steck, "Rubidium 85 D Line Data" (revision 2.2.1, 2019),
 	// tables 2, 3 (D2 I_sat 1.66933 mW/cm² cycling, 2.50399 mW/cm² isotropic)
-	// and 5.
+	// and 5 (D1: effective far-detuned I_sat for π light 4.4876 mW/cm², from
+	// memory).
 	rb85 := alkali("Rb85", 780.241368271e-9, 6.0666e6, 794.979014933e-9, 5.7500e6)
 	// Cs-133: D. A. Steck, "Cesium D Line Data" (revision 2.1.4, 2010),
 	// tables 2, 3 (D2: Γ/2π = 5.2227 MHz, I_sat 1.1023 mW/cm² cycling,
-	// 2.7059 mW/cm² isotropic) and 5 (D1: Γ/2π = 4.5612 MHz). Later
+	// 2.7059 mW/cm² isotropic) and 5 (D1: Γ/2π = 4.5612 MHz, effective
+	// far-detuned I_sat for π light 2.4981 mW/cm²). Later
 	// revisions use a shorter D2 lifetime (I_sat ≈ 1.105 mW/cm²).
 	cs := alkali("Cs133", 852.34727582e-9, 5.2227e6, 894.59295986e-9, 4.5612e6)
 	// Na-23: D. A. Steck, "Sodium D Line Data" (revision 2.2.1, 2019), tables
@@ -199,11 +202,11 @@ func init() {
 	mYb := 173.9388664 * AMU
 	add(
 		&Transition{"Rb87 D2", rb87[0].Wavelength, rb87[0].Gamma, 1.66933 * mWcm, cyclingAlkali, 3.57713 * mWcm, mRb87, rb87, steck87},
-		&Transition{"Rb87 D1", rb87[1].Wavelength, rb87[1].Gamma, TwoLevelIsat(rb87[1].Wavelength, rb87[1].Gamma), d1Note, 0, mRb87, rb87, steck87},
+		&Transition{"Rb87 D1", rb87[1].Wavelength, rb87[1].Gamma, 4.4876 * mWcm, d1Note, 0, mRb87, rb87, steck87},
 		&Transition{"Rb85 D2", rb85[0].Wavelength, rb85[0].Gamma, 1.66933 * mWcm, cyclingAlkali, 2.50399 * mWcm, mRb85, rb85, steck85},
-		&Transition{"Rb85 D1", rb85[1].Wavelength, rb85[1].Gamma, TwoLevelIsat(rb85[1].Wavelength, rb85[1].Gamma), d1Note, 0, mRb85, rb85, steck85},
+		&Transition{"Rb85 D1", rb85[1].Wavelength, rb85[1].Gamma, 4.4876 * mWcm, d1Note, 0, mRb85, rb85, steck85},
 		&Transition{"Cs133 D2", cs[0].Wavelength, cs[0].Gamma, 1.1023 * mWcm, cyclingAlkali, 2.7059 * mWcm, mCs, cs, steckCs},
-		&Transition{"Cs133 D1", cs[1].Wavelength, cs[1].Gamma, TwoLevelIsat(cs[1].Wavelength, cs[1].Gamma), d1Note, 0, mCs, cs, steckCs},
+		&Transition{"Cs133 D1", cs[1].Wavelength, cs[1].Gamma, 2.4981 * mWcm, d1Note, 0, mCs, cs, steckCs},
 		&Transition{"Na23 D2", na[0].Wavelength, na[0].Gamma, 6.2600 * mWcm, cyclingAlkali, 13.4144 * mWcm, mNa, na, steckNa},
 		&Transition{"K39 D2", k[0].Wavelength, k[0].Gamma, 1.75 * mWcm, cyclingAlkali, 0, mK, k, tiecke},
 		&Transition{"Li6 D2", li[0].Wavelength, li[0].Gamma, 2.54 * mWcm, "cycling transition, σ± light (data sheet value)", 0, mLi, li, gehm},
