@@ -48,6 +48,12 @@
 //	| light frequency | ν = c/λ + AOM shifts | CODATA c; Steck Rb-87 table 3 | LightFrequency | TestLightFrequency |
 //	| default viewing duration | 0.25 s in 400–700 nm, else 10 s | IEC 60825-1:2014 (from memory) | DefaultViewingDuration | TestDefaultViewingDuration |
 //	| loss in dB | 10 log10(ratio) | common practice | Decibels | TestDecibels |
+//	| standing-wave depth | sign · (√U₁ + √U₂)², magnitudes | Grimm et al. (2000) §4.1 | StandingWavePotential | TestCloudStandingWave |
+//	| lattice frequency | ω = (2π/λ) √(2U/m) | Grimm et al. (2000) eq. (40) | LatticeFrequency | TestCloudStandingWave |
+//	| excited-state light shift | U/I = −α/(2 ε0 c), α in a.u. × 4π ε0 a0³ | Grimm et al. (2000) eq. (2) | ExcitedShiftPerIntensity | TestExcitedShiftPerIntensity |
+//	| multi-beam scattering | (Γ/2) s_i/(1 + s_total + 4Δ²/Γ²) | rate equations, common practice | MultiBeamScattering | TestCloudNearResonantTotals |
+//	| beam axes in the cloud frame | x plane ∋ first cloud axis not along the beam | our convention | BeamAxes | TestBeamAxes |
+//	| cloud rms along a direction | √Σ dᵢ² σᵢ² | Gaussian cloud | Cloud.RMSAlong | TestBeamAxes |
 //	| pulse energy | Q = P/f | definition of the average power, common practice | PulseEnergy | ExamplePulseEnergy |
 //	| pulse peak power | P_peak = Q/τ (rectangular pulse) | common practice | PulsePeakPower | ExamplePulseEnergy |
 package budget

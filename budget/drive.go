@@ -133,8 +133,12 @@ func (b *Budget) atomsAt(pb *PathBudget, r *Row, c *Cloud) *AtomsResult {
 	wx, wy := beam.Radii()
 	a.Power = r.FractionIn * las.OperatingPower
 	a.PeakIrradiance = beam.PeakIrradiance(a.Power)
-	a.EdgeRelative = [2]float64{math.Exp(-2 * c.RMSSize[0] * c.RMSSize[0] / (wx * wx)), math.Exp(-2 * c.RMSSize[1] * c.RMSSize[1] / (wy * wy))}
-	for k, dz := range []float64{-c.RMSSize[2], c.RMSSize[2]} {
+	// The cloud's rms sizes across the beam (its x and y planes) and along it.
+	n := r.Element.Direction
+	u, v := BeamAxes(n)
+	σu, σv, σn := c.RMSAlong(u), c.RMSAlong(v), c.RMSAlong(n)
+	a.EdgeRelative = [2]float64{math.Exp(-2 * σu * σu / (wx * wx)), math.Exp(-2 * σv * σv / (wy * wy))}
+	for k, dz := range []float64{-σn, σn} {
 		ex, ey := beam.RadiiAt(dz)
 		a.EndRadii[k] = [2]float64{ex, ey}
 	}
@@ -148,7 +152,7 @@ func (b *Budget) atomsAt(pb *PathBudget, r *Row, c *Cloud) *AtomsResult {
 	a.Saturation = atoms.Saturation(a.PeakIrradiance, a.Isat)
 	a.Rabi = atoms.Rabi(tr.Gamma, a.Saturation)
 	a.CrossSection = atoms.CrossSection(tr.Wavelength, tr.Gamma, a.Isat)
-	a.OpticalDepth = atoms.OpticalDepth(a.CrossSection, c.Atoms, c.RMSSize[0], c.RMSSize[1])
+	a.OpticalDepth = atoms.OpticalDepth(a.CrossSection, c.Atoms, σu, σv)
 	ω := tr.Frequency() + a.Detuning
 	near, δ := tr.NearestLine(ω)
 	nearDriven := math.Abs(a.Detuning) <= FarDetuningFactor*tr.Gamma
@@ -305,8 +309,17 @@ func (b *Budget) goal(a *AtomsResult, e *Element) *GoalResult {
 			g.Impossible = fmt.Sprintf("the beam is %s from the transition, not far detuned (more than %d Γ); the trap-depth formula does not apply", FormatFrequency(a.Detuning/(2*math.Pi)), FarDetuningFactor)
 		case a.Dipole.PerIntensity >= 0:
 			g.Impossible = "the beam is blue detuned: a single beam repels the atoms and makes no trap"
+		case !(a.Row.FractionIn > 0):
+			g.Impossible = NoLightAtAtoms
 		default:
-			g.Intensity = g.Target * atoms.KB / -a.Dipole.PerIntensity
+			// Judged at the beam's real trap minimum, with gravity: the
+			// factor on the power whose trap is just that deep.
+			k, why := trapDepthScale(a, g.Target*atoms.KB)
+			if why != "" {
+				g.Impossible = why
+			} else {
+				g.Intensity = k * a.PeakIrradiance
+			}
 		}
 	case GoalCollective:
 		g.Factor = e.GoalFactor

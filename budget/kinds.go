@@ -52,7 +52,7 @@ var Kinds = []*ElementKind{
 	{Type: TypeAperture, Does: "an iris: clips the beam at its diameter", Keys: []string{"diameter"}, Surfaces: 0, read: readAperture, apply: applyAperture},
 	{Type: TypeSplitter, Does: "a splitter: transmission goes on along this path, the rest feeds the path whose from names it (or is lost)", Keys: []string{}, Surfaces: 2, read: readSplitter, apply: applySplitter},
 	{Type: TypeFiber, Does: "a single-mode fibre: couples the beam's mode overlap × alignment (or the stated coupling) and launches a new Gaussian beam", Keys: []string{"mode_field_diameter", "alignment", "coupling", "output_waist", "output_focal_length"}, Surfaces: 1, read: readFiber, apply: applyFiber},
-	{Type: TypeAtoms, Does: "an atom cloud: the drive is evaluated here; the beam passes unchanged", Keys: []string{"cloud", "goal", "goal_value", "goal_factor", "detuning"}, Surfaces: 0, read: readAtoms, apply: applyAtoms},
+	{Type: TypeAtoms, Does: "an atom cloud: the drive is evaluated here; the beam passes unchanged", Keys: []string{"cloud", "goal", "goal_value", "goal_factor", "detuning", "axis", "direction", "interference"}, Surfaces: 0, read: readAtoms, apply: applyAtoms},
 	{Type: TypeDump, Does: "a beam dump: absorbs everything and ends the path", Keys: []string{"rating", "diffuse_reflectance"}, Surfaces: 0, read: readDump, apply: applyDump},
 	{Type: TypeCombiner, Does: "a combiner (polarizing cube, dichroic): the path whose into names it joins here; transmission of this path's own beams and join_transmission of the joining ones go on, the rest leaves the path at its other port", Keys: []string{"join_transmission"}, Surfaces: 2, read: readCombiner, apply: applyCombiner},
 	{Type: TypeCylLens, Does: "a thin cylindrical lens: the ABCD matrix (1, 0; −1/f, 1) in its plane (x or y) only; loss: its stated transmission", Keys: []string{"focal_length", "plane"}, Surfaces: 2, read: readCylLens, apply: applyCylLens},
@@ -184,15 +184,29 @@ func readFiber(t *table, e *Element, m map[string]any) {
 
 func readAtoms(t *table, e *Element, m map[string]any) {
 	e.Cloud = t.str("cloud", true)
-	e.Goal = t.enum("goal", "", GoalCollective, GoalSaturation, GoalRabi, GoalTrapDepth)
-	e.GoalFactor = 1
-	switch e.Goal {
+	e.Direction = t.direction()
+	e.Interference = t.enum("interference", "", "none", "standing_wave")
+	if e.Interference == "none" {
+		e.Interference = ""
+	}
+	readGoal(t, &e.Goal, &e.GoalValue, &e.GoalFactor, m)
+	if d, ok := t.quantity("detuning", Frequency, false); ok {
+		e.Detuning = &d
+	}
+}
+
+// readGoal reads goal, goal_value and goal_factor (of an atoms element or a
+// cloud).
+func readGoal(t *table, goal *string, value **float64, factor *float64, m map[string]any) {
+	*goal = t.enum("goal", "", GoalCollective, GoalSaturation, GoalRabi, GoalTrapDepth)
+	*factor = 1
+	switch *goal {
 	case GoalSaturation:
-		e.GoalValue = t.positivePtr("goal_value", Dimensionless, "a saturation parameter s")
+		*value = t.positivePtr("goal_value", Dimensionless, "a saturation parameter s")
 	case GoalRabi:
-		e.GoalValue = t.positivePtr("goal_value", Frequency, "a Rabi frequency Ω/2π")
+		*value = t.positivePtr("goal_value", Frequency, "a Rabi frequency Ω/2π")
 	case GoalTrapDepth:
-		e.GoalValue = t.positivePtr("goal_value", Temperature, "a trap depth U/k_B")
+		*value = t.positivePtr("goal_value", Temperature, "a trap depth U/k_B")
 	case GoalCollective:
 		if t.has("goal_value") {
 			t.get("goal_value")
@@ -205,19 +219,16 @@ func readAtoms(t *table, e *Element, m map[string]any) {
 		}
 	}
 	if t.has("goal_factor") {
-		if e.Goal != GoalCollective {
+		if *goal != GoalCollective {
 			t.get("goal_factor")
 			t.fail("goal_factor", "only for goal = \"collective\"")
 		} else if f, ok := t.quantity("goal_factor", Dimensionless, true); ok {
 			if f <= 0 {
 				t.fail("goal_factor", "must be positive, got %s", show(m["goal_factor"]))
 			} else {
-				e.GoalFactor = f
+				*factor = f
 			}
 		}
-	}
-	if d, ok := t.quantity("detuning", Frequency, false); ok {
-		e.Detuning = &d
 	}
 }
 

@@ -143,6 +143,7 @@ func (l *loader) link(s *Setup) {
 		return
 	}
 	l.checkPerLaser(s, lasers, locs)
+	l.checkClouds(s, lasers, locs)
 	if len(l.problems) > 0 {
 		return
 	}
@@ -429,3 +430,44 @@ func Arrivals(s *Setup) map[*Element][]Arrival {
 	}
 	return out
 }
+
+// checkClouds checks the laser names a cloud gives (goal_lasers,
+// excited_polarizability) and that every standing wave has its forward pass:
+// an earlier atoms element on the same path, on the same cloud, running the
+// opposite way.
+func (l *loader) checkClouds(s *Setup, lasers map[string]*Laser, locs map[*Path]int) {
+	laserNames := listNames(len(s.Lasers), func(i int) string { return s.Lasers[i].Name })
+	for i, c := range s.Clouds {
+		loc := fmt.Sprintf("cloud[%d]", i)
+		ctx := fmt.Sprintf("cloud %q", c.Name)
+		for _, name := range c.GoalLasers {
+			if _, ok := lasers[name]; !ok {
+				l.addf(l.lines.line(loc, "goal_lasers"), ctx, "goal_lasers: no laser named %q (lasers: %s)", name, laserNames)
+			}
+		}
+		for _, name := range slices.Sorted(maps.Keys(c.ExcitedPolarizability)) {
+			if _, ok := lasers[name]; !ok {
+				l.addf(l.lines.line(loc, "excited_polarizability"), ctx, "excited_polarizability: no laser named %q (lasers: %s)", name, laserNames)
+			}
+		}
+	}
+	for _, p := range s.Paths {
+		for k, e := range p.Elements {
+			if e.Type != TypeAtoms || e.Interference != "standing_wave" {
+				continue
+			}
+			found := false
+			for _, f := range p.Elements[:k] {
+				if f.Type == TypeAtoms && f.Cloud == e.Cloud && dot(f.Direction, e.Direction) < -0.999 {
+					found = true
+				}
+			}
+			if !found {
+				l.addf(l.lines.line(fmt.Sprintf("%s.element[%d]", pathLoc(locs, p), k), "interference"), fmt.Sprintf("path %q, element %d (atoms)", p.Name, e.Index),
+					"interference: a standing wave is the return pass of a beam: an earlier atoms element on this path must reach cloud %q running the opposite way (direction reversed)", e.Cloud)
+			}
+		}
+	}
+}
+
+func dot(a, b [3]float64) float64 { return a[0]*b[0] + a[1]*b[1] + a[2]*b[2] }

@@ -372,6 +372,39 @@ func (t *table) positive(key string, dim Dimension, required bool) float64 {
 }
 
 // fraction reads a bare number or percentage in [lo, hi].
+// direction reads an atoms element's beam direction in the cloud frame:
+// axis = "x", "y" or "z" (the default), or direction = [dx, dy, dz] (any
+// length but zero; made a unit vector). Not both.
+func (t *table) direction() [3]float64 {
+	axes := map[string][3]float64{"x": {1, 0, 0}, "y": {0, 1, 0}, "z": {0, 0, 1}}
+	if t.has("axis") && t.has("direction") {
+		t.get("direction")
+		t.fail("direction", "give axis or direction, not both")
+	}
+	if v, ok := t.get("direction"); ok {
+		arr, isArr := v.([]any)
+		if !isArr || len(arr) != 3 {
+			t.fail("direction", "want [dx, dy, dz], three numbers in the cloud's frame")
+			return axes["z"]
+		}
+		var d [3]float64
+		for k, e := range arr {
+			q, ok := t.quantityValue("direction", e, Dimensionless)
+			if !ok {
+				return axes["z"]
+			}
+			d[k] = q
+		}
+		n := math.Sqrt(d[0]*d[0] + d[1]*d[1] + d[2]*d[2])
+		if !(n > 1e-9) || math.IsInf(n, 0) {
+			t.fail("direction", "must not be zero")
+			return axes["z"]
+		}
+		return [3]float64{d[0] / n, d[1] / n, d[2] / n}
+	}
+	return axes[t.enum("axis", "z", "x", "y", "z")]
+}
+
 func (t *table) fraction(key string, lo, hi float64) *float64 {
 	q, ok := t.quantity(key, Dimensionless, false)
 	if !ok {

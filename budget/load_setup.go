@@ -213,6 +213,44 @@ func (l *loader) cloud(i int, m map[string]any) *Cloud {
 	}
 	c.Saturation = t.enum("saturation", SaturationCycling, SaturationCycling, SaturationIsotropic)
 	c.CollectiveRate = t.positive("collective_rate", Frequency, false)
+	downs := map[string][3]float64{"+x": {1, 0, 0}, "-x": {-1, 0, 0}, "+y": {0, 1, 0}, "-y": {0, -1, 0}, "+z": {0, 0, 1}, "-z": {0, 0, -1}, "none": {}}
+	c.Down = downs[t.enum("down", "-y", "+x", "-x", "+y", "-y", "+z", "-z", "none")]
+	if v, ok := t.get("excited_polarizability"); ok {
+		by, isMap := v.(map[string]any)
+		if !isMap {
+			t.fail("excited_polarizability", "want an inline table of laser = polarizability in atomic units, e.g. { trap = -1200 }")
+		} else {
+			c.ExcitedPolarizability = map[string]float64{}
+			for _, name := range slices.Sorted(maps.Keys(by)) {
+				sub := l.table("", loc+".excited_polarizability", map[string]any{name: by[name]})
+				sub.describe = func() string { return t.where() + ", excited_polarizability" }
+				if q, ok := sub.quantity(name, Dimensionless, true); ok {
+					if math.Abs(q) > 1e7 {
+						sub.fail(name, "%s atomic units is beyond any atom's polarizability", show(by[name]))
+					}
+					c.ExcitedPolarizability[name] = q
+				}
+			}
+		}
+	}
+	readGoal(t, &c.Goal, &c.GoalValue, &c.GoalFactor, m)
+	if v, ok := t.get("goal_lasers"); ok {
+		arr, isArr := v.([]any)
+		if !isArr || len(arr) == 0 {
+			t.fail("goal_lasers", "want a list of laser names, e.g. [\"trap-a\", \"trap-b\"]")
+		}
+		for _, e := range arr {
+			name, isStr := e.(string)
+			if !isStr {
+				t.fail("goal_lasers", "want laser names, got %s", show(e))
+				break
+			}
+			c.GoalLasers = append(c.GoalLasers, name)
+		}
+		if c.Goal == "" {
+			t.fail("goal_lasers", "given without goal")
+		}
+	}
 	custom := c.Transition == "custom"
 	for _, k := range []string{"wavelength", "linewidth", "saturation_intensity", "mass"} {
 		if !custom && t.has(k) {

@@ -88,3 +88,40 @@ func BenchmarkComputeLargeLab(b *testing.B) {
 		}
 	}
 }
+
+// Every beam at a cloud is counted, and the combined figures are finite:
+// the potential at the cloud, a trap's depth (≥ 0), frequencies (> 0) and
+// position, the totals of the near-resonant beams (generated labs put
+// several beams of several lasers on one cloud).
+func TestCloudsFiniteOnGeneratedLabs(t *testing.T) {
+	for seed := uint64(1); seed <= 60; seed++ {
+		b := generated(t, seed, synth.Options{Lasers: 3, ElementsPerPath: 8, Splits: 1, Merges: seed%2 == 0})
+		drive := b.Drive()
+		clouds := b.Clouds(drive)
+		for _, cr := range clouds {
+			n := 0
+			for _, a := range drive {
+				if a.Cloud == cr.Cloud {
+					n++
+				}
+			}
+			if n != len(cr.Beams) {
+				t.Fatalf("seed %d: %d beams at cloud %q, %d atoms results", seed, len(cr.Beams), cr.Cloud.Name, n)
+			}
+			bad := func(v float64) bool { return math.IsNaN(v) || math.IsInf(v, 0) }
+			if bad(cr.PotentialAtCloud) || bad(cr.SaturationTotal) || cr.SaturationTotal < 0 || bad(cr.ScatteringRate) || bad(cr.GroundShift) {
+				t.Fatalf("seed %d: cloud figures %+v", seed, cr)
+			}
+			if tr := cr.Trap; tr != nil && tr.Found {
+				if bad(tr.Depth) || tr.Depth < 0 || bad(tr.Sag) {
+					t.Fatalf("seed %d: trap %+v", seed, tr)
+				}
+				for i, f := range tr.Frequencies {
+					if !(f > 0) || bad(f) || bad(tr.Minimum[i]) {
+						t.Fatalf("seed %d: trap frequencies %v at %v", seed, tr.Frequencies, tr.Minimum)
+					}
+				}
+			}
+		}
+	}
+}

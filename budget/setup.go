@@ -156,6 +156,12 @@ type Element struct {
 	GoalValue  *float64 // SI: saturation (bare), rabi (Hz), trap_depth (K)
 	GoalFactor float64  // collective: multiple of the threshold
 	Detuning   *float64 // Hz, overrides the laser's plus AOM shifts
+	// Direction is the unit vector the beam runs along in the cloud's frame
+	// (axis = "z" by default: [0, 0, 1]).
+	Direction [3]float64
+	// Interference is "standing_wave" on the return pass of a retro-reflected
+	// beam whose fields add coherently with the forward pass ("": none).
+	Interference string
 
 	// dump
 	Rating float64 // W
@@ -260,6 +266,18 @@ type Cloud struct {
 	Saturation string
 	// CollectiveRate is N Γ_c / 2π, Hz (0: estimate from optical depth).
 	CollectiveRate float64
+	// Down is the unit vector of gravity in the cloud's frame (zero: no
+	// gravity).
+	Down [3]float64
+	// ExcitedPolarizability is the excited state's polarizability at each
+	// trap laser's wavelength, in atomic units, keyed by laser name.
+	ExcitedPolarizability map[string]float64
+	// A goal for the whole cloud: kind, value (as for an atoms element),
+	// factor (collective), and the lasers it scales (none: by kind).
+	Goal       string
+	GoalValue  *float64
+	GoalFactor float64
+	GoalLasers []string
 
 	// Data is the resolved transition (built-in or custom).
 	Data *atoms.Transition

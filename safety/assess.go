@@ -4,9 +4,11 @@ import "beamledger/budget"
 
 // Assessment is the whole evaluation of one setup.
 type Assessment struct {
-	Setup    *budget.Setup
-	Budget   *budget.Budget
-	Atoms    []*budget.AtomsResult
+	Setup  *budget.Setup
+	Budget *budget.Budget
+	Atoms  []*budget.AtomsResult
+	// Clouds counts every beam at each cloud together.
+	Clouds   []*budget.CloudResult
 	Hazards  *Hazards
 	Findings []budget.Finding
 }
@@ -18,8 +20,10 @@ func Evaluate(s *budget.Setup) (*Assessment, error) {
 		return nil, err
 	}
 	a := &Assessment{Setup: s, Budget: b, Atoms: b.Drive()}
+	a.Clouds = b.Clouds(a.Atoms)
 	a.Findings = append(a.Findings, b.Findings()...)
 	a.Findings = append(a.Findings, budget.DriveFindings(a.Atoms)...)
+	a.Findings = append(a.Findings, budget.CloudFindings(a.Clouds)...)
 	h, err := evaluateHazards(s, b)
 	if err != nil {
 		return nil, err

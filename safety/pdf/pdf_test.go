@@ -135,8 +135,8 @@ func TestPDFValidAndComplete(t *testing.T) {
 	}
 	flat := strings.Join(strings.Fields(text), " ")
 	for _, want := range []string{
-		"Elongated cloud, table C", "Summary", "1 Sources", "2 Beam paths", "3 At the atoms", "4 Hazards", "5 Eyewear",
-		"6 Where the limits come from", "7 Assumptions", "8 Cautions", "9 Sign-off", "from memory", "Directive 2006/25/EC", "Reviewed by (laser safety officer)", "Approved by (responsible person)",
+		"Elongated cloud, table C", "Summary", "1 Sources", "2 Beam paths", "3 At the atoms", "4 At each cloud", "5 Hazards", "6 Eyewear",
+		"7 Where the limits come from", "8 Assumptions", "9 Cautions", "10 Sign-off", "from memory", "Directive 2006/25/EC", "Reviewed by (laser safety officer)", "Approved by (responsible person)",
 		doc.SetupSHA256, "page 1 of", "2694", "25.7", "19.49 MHz", "µm", "W/cm²", "Ω/2π", "Δ/2π", "λ", "≤", "IEC 60825-1:2014",
 		"laser safety officer",
 	} {

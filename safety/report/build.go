@@ -45,6 +45,9 @@ func Build(a *safety.Assessment, m Meta) *Document {
 	if len(a.Atoms) > 0 {
 		d.Sections = append(d.Sections, atomsSection(a, lists["atoms"]))
 	}
+	if len(a.Clouds) > 0 {
+		d.Sections = append(d.Sections, cloudsSection(a, lists["clouds"]))
+	}
 	d.Sections = append(d.Sections, hazards(lists), eyewear(lists["eyewear"]), provenance(lists["limits_used"]), assumptions(a), cautions(), signOff())
 	return d
 }
@@ -321,6 +324,37 @@ func atomsSection(a *safety.Assessment, l *view.List) Section {
 			Block{Bullets: lines(&l.Records[i])})
 		if g := at.Goal; g != nil && g.Collective != nil && g.Impossible == "" {
 			sec.Blocks = append(sec.Blocks, Block{Plot: collectivePlot(at, g)})
+		}
+	}
+	return sec
+}
+
+// cloudsSection draws each cloud: the table of its beams, the combined
+// figures, and the combined potential along the weakest escape direction.
+func cloudsSection(a *safety.Assessment, l *view.List) Section {
+	sec := Section{Heading: "At each cloud, every beam counted together"}
+	for i, cr := range a.Clouds {
+		r := &l.Records[i]
+		var beams *view.List
+		for k := range r.Members {
+			if m := &r.Members[k]; m.List != nil && m.List.Key == "beams" {
+				beams = m.List
+			}
+		}
+		sec.Blocks = append(sec.Blocks, Block{Subheading: fmt.Sprintf("Cloud %q", cr.Cloud.Name)}, Block{Paragraph: ownLines(r)}, Block{Table: table(beams)})
+		var notes []string
+		for _, x := range r.After {
+			notes = append(notes, strings.TrimSpace(r.Expand(x)))
+		}
+		sec.Blocks = append(sec.Blocks, Block{Bullets: notes})
+		if t := cr.Trap; t != nil && t.Found && len(t.Profile) > 0 {
+			pl := &Plot{Title: "combined potential along the weakest escape direction, through the trap minimum", XLabel: "distance from the minimum (mm)", YLabel: "U/k_B (mK)"}
+			var xs, ys []float64
+			for _, p := range t.Profile {
+				xs, ys = append(xs, p[0]*1e3), append(ys, p[1]*1e3)
+			}
+			pl.Series = append(pl.Series, Series{Name: "U/k_B, gravity included", X: xs, Y: ys})
+			sec.Blocks = append(sec.Blocks, Block{Plot: pl})
 		}
 	}
 	return sec

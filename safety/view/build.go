@@ -85,6 +85,11 @@ func Build(a *safety.Assessment) *Doc {
 	if len(atomsL.Records) > 0 {
 		d.Sections = append(d.Sections, Section{Heading: "At the atoms", Blocks: []Block{{Indent: 1, List: atomsL}}})
 	}
+	clouds := b.cloudsList(a)
+	d.JSON.L(clouds)
+	if len(clouds.Records) > 0 {
+		d.Sections = append(d.Sections, Section{Heading: "At each cloud, every beam counted together (cloud frame: x, y, z of rms_size)", Blocks: []Block{{Indent: 1, List: clouds}}})
+	}
 
 	d.JSON.Members = append(d.JSON.Members, hz.json.Members...)
 	d.JSON.L(balances)

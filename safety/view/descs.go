@@ -5,6 +5,40 @@ package view
 // with its descriptor (Num(dPowerW, …)), so that every field of a kind
 // shares these strings. A new field gets its descriptor here.
 var (
+	dGoalFactor2                 = &Desc{"goal_factor", "multiple of the threshold", "CloudGoal.Factor"}
+	dName5                       = &Desc{"name", "cloud", "Cloud.Name"}
+	dTransition2                 = &Desc{"transition", "transition", "Cloud.Transition"}
+	dDownText                    = &Desc{"down", "gravity", "Cloud.Down"}
+	dPath4                       = &Desc{"path", "path", "Path.Name"}
+	dElementIndex                = &Desc{"element_index", "element", "Element.Index"}
+	dLaser4                      = &Desc{"laser", "laser", "Laser.Name"}
+	dPowerW6                     = &Desc{"power_w", "power", "AtomsResult.Power"}
+	dDirection                   = &Desc{"direction", "direction", "CloudBeam.Direction"}
+	dDetuningHz2                 = &Desc{"detuning_hz", "detuning Δ/2π", "AtomsResult.Detuning"}
+	dRole                        = &Desc{"role", "counts as", ""}
+	dDipoleAtCloudK              = &Desc{"dipole_potential_at_cloud_k", "U/k_B at the cloud", "CloudResult.PotentialAtCloud"}
+	dTrapMinimumOffsetM          = &Desc{"trap_minimum_offset_m", "minimum offset", "Trap.Minimum"}
+	dTrapDepthK2                 = &Desc{"trap_depth_k", "trap depth", "Trap.Depth"}
+	dTrapFrequenciesHz           = &Desc{"trap_frequencies_hz", "trap frequencies", "Trap.Frequencies"}
+	dTrapAxes                    = &Desc{"trap_axes", "principal axes", "Trap.Axes"}
+	dGravitySagM                 = &Desc{"gravity_sag_m", "sag", "Trap.Sag"}
+	dHoldsAgainstGravity         = &Desc{"holds_against_gravity", "holds", "Trap.Holds"}
+	dForceAtCloudG               = &Desc{"force_at_cloud_g", "force at the cloud", "Trap.ForceAtCloud"}
+	dLatticeFrequencyHz          = &Desc{"lattice_frequency_hz", "lattice frequency", "Trap.Lattice"}
+	dEscapeDirection             = &Desc{"escape_direction", "escape", "Trap.Escape"}
+	dTrapNote                    = &Desc{"trap_note", "trap", "Trap.Skipped"}
+	dGroundLightShiftHz          = &Desc{"ground_light_shift_hz", "ground light shift", "CloudResult.GroundShift"}
+	dDifferentialLightShiftHz    = &Desc{"differential_light_shift_hz", "differential light shift", "CloudResult.DifferentialShift"}
+	dSaturationTotal             = &Desc{"saturation_total", "s in all", "CloudResult.SaturationTotal"}
+	dScatteringRatePerS2         = &Desc{"scattering_rate_per_s", "scattering rate", "CloudResult.ScatteringRate"}
+	dKind6                       = &Desc{"kind", "goal", "CloudGoal.Kind"}
+	dGoalLasers                  = &Desc{"lasers", "lasers", "CloudGoal.Lasers"}
+	dTargetSI                    = &Desc{"target_si", "target", "CloudGoal.Target"}
+	dScaleFactor                 = &Desc{"scale_factor", "scale factor", "CloudGoal.Scale"}
+	dMarginDb2                   = &Desc{"margin_db", "margin", "CloudGoal.MarginDB"}
+	dMet2                        = &Desc{"met", "met", "CloudGoal.Met"}
+	dImpossible2                 = &Desc{"impossible", "cannot be met", "CloudGoal.Impossible"}
+	dNeededW                     = &Desc{"needed_w", "needed", "CloudGoal.Needed"}
 	dInto                        = &Desc{"into", "into", "Path.Into"}
 	dIntoAtM                     = &Desc{"into_at_m", "into at", "Path.IntoAt"}
 	dJoinedAtM                   = &Desc{"joined_at_m", "joined at", "PathBudget.JoinedAt"}

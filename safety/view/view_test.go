@@ -55,6 +55,8 @@ func TestFieldCoverage(t *testing.T) {
 		"Row.BeamOut":               "the beam leaving an element is the next one's BeamIn, shown there",
 		"Segment.Beam":              "the beam at a segment's start is the previous element's, shown there",
 		"Segment.Fraction":          "the power of a segment is shown as its exposure's power",
+		"CloudBeam.U":               "the beam's x plane in the cloud frame follows from its direction by the documented rule (budget.BeamAxes); the direction is shown",
+		"CloudBeam.V":               "the beam's y plane completes the right-handed set with its direction and x plane (budget.BeamAxes)",
 		"PathBudget.First":          "an index into the path's elements; the view shows where the beam joins (joined_at_m) and its table from that element",
 		"PathBudget.ShiftIn":        "the AOM shift a beam carries onto a path; its effect is the detuning shown at the atoms",
 		"DipoleResult.PerIntensity": "U/I words the potential attractive or repulsive; its value is U/k_B over the peak irradiance, both shown",
@@ -68,7 +70,7 @@ func TestFieldCoverage(t *testing.T) {
 	}
 	types := []any{budget.Row{}, budget.FiberCoupling{}, budget.PathBudget{}, budget.LaserBalance{}, budget.Segment{},
 		budget.AtomsResult{}, budget.DipoleResult{}, budget.GoalResult{}, atoms.Collective{},
-		safety.LaserLimits{}, safety.Exposure{}, safety.Reflection{}, safety.EyewearNeed{}, budget.Finding{}, limits.PulsedLimit{}}
+		safety.LaserLimits{}, safety.Exposure{}, safety.Reflection{}, safety.EyewearNeed{}, budget.Finding{}, limits.PulsedLimit{}, budget.CloudResult{}, budget.Trap{}, budget.CloudGoal{}, budget.CloudBeam{}}
 	for _, v := range types {
 		typ := reflect.TypeOf(v)
 		for i := 0; i < typ.NumField(); i++ {

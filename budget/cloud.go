@@ -1,0 +1,810 @@
+package budget
+
+import (
+	"fmt"
+	"math"
+	"slices"
+
+	"gonum.org/v1/gonum/mat"
+	"gonum.org/v1/gonum/optimize"
+	"gonum.org/v1/gonum/unit/constant"
+
+	"beamledger/budget/atoms"
+)
+
+// G is the gravitational acceleration used for the clouds, m/s² (the
+// standard gravity of CODATA, via gonum).
+var G = float64(constant.StandardGravity)
+
+// CloudBeam is one beam at a cloud: an atoms element's result, and how it
+// enters the combined potential.
+type CloudBeam struct {
+	Atoms *AtomsResult
+	// Direction is the unit vector it runs along in the cloud frame; U and V
+	// those of its x and y planes (BeamAxes).
+	Direction, U, V [3]float64
+	// Forward is set on the return pass of a standing wave: the forward
+	// pass it interferes with.
+	Forward *CloudBeam
+	// Far and Near say how it counts: in the dipole potential (far
+	// detuned) or in the saturation and scattering (near resonance). A beam
+	// near another line is in neither.
+	Far, Near bool
+}
+
+// CloudResult is everything at one cloud, all beams counted together.
+type CloudResult struct {
+	Cloud *Cloud
+	Beams []*CloudBeam
+	// PotentialAtCloud is the combined dipole potential at the cloud's
+	// position, J.
+	PotentialAtCloud float64
+	// Trap is the combined trap of the far-detuned beams (nil when there is
+	// none).
+	Trap *Trap
+	// GroundShift is the light shift of the ground state of the driven
+	// transition at the trap minimum (at the cloud when there is no trap),
+	// Hz; DifferentialShift that of the transition (excited minus ground),
+	// NaN when the excited-state polarizability is not given for every trap
+	// laser.
+	GroundShift, DifferentialShift float64
+	// SaturationTotal and ScatteringRate are the near-resonant beams' at
+	// the cloud centre (s = I/I_sat summed; photons/s).
+	SaturationTotal, ScatteringRate float64
+	Goal                            *CloudGoal
+}
+
+// Trap is the trap the far-detuned beams make together, found numerically.
+type Trap struct {
+	// Found is set when the combined potential has a minimum near the cloud
+	// (with gravity); Holds when it also has a barrier all round.
+	Found, Holds bool
+	// HoldsWithoutGravity says whether it would hold with gravity off.
+	HoldsWithoutGravity bool
+	// Minimum is the minimum's offset from the cloud position, m.
+	Minimum [3]float64
+	// Depth is the lowest barrier to escape from the minimum, J, and Escape
+	// the direction it lies in.
+	Depth  float64
+	Escape [3]float64
+	// Frequencies are the harmonic trap frequencies at the minimum, Hz,
+	// ascending, along Axes (unit vectors in the cloud frame).
+	Frequencies [3]float64
+	Axes        [3][3]float64
+	// Sag is g/ω² along gravity, m (0 without gravity).
+	Sag float64
+	// ForceAtCloud is the force at the cloud's position in units of m g
+	// (the atoms there are pulled towards the minimum).
+	ForceAtCloud float64
+	// Lattice is the axial frequency of a standing wave's lattice, Hz (NaN
+	// without one).
+	Lattice float64
+	// Profile is the combined potential along the escape direction from the
+	// minimum: distances (m) and U/k_B (K), for the plot.
+	Profile [][2]float64
+	// Skipped says why the trap was not searched for ("": it was).
+	Skipped string
+}
+
+// MaxTrapBeams is the most far-detuned beams on one cloud whose combined
+// trap is searched for (a real table puts a handful on a cloud; beyond this
+// the search would cost seconds and the potential at the cloud is given
+// alone).
+const MaxTrapBeams = 16
+
+// CloudGoal is a goal for the whole cloud: the common factor k on the
+// operating powers of the lasers it scales that just meets it.
+type CloudGoal struct {
+	Kind   string
+	Target float64 // SI: K for a trap depth, rad/s for a Rabi frequency, s for saturation
+	Factor float64 // the collective goal's multiple of the threshold
+	Lasers []*Laser
+	// Scale is k; Needed the operating power each laser then needs, W;
+	// MarginDB is −10 log10 k.
+	Scale      float64
+	Needed     []float64
+	MarginDB   float64
+	Met        bool
+	Impossible string
+}
+
+// field is the combined potential of far-detuned beams with gravity.
+type field struct {
+	beams []fieldBeam
+	mass  float64
+	down  [3]float64 // gravity's direction (zero: none)
+}
+
+type fieldBeam struct {
+	x, y     Plane // at the cloud
+	λ, power float64
+	perI     float64 // U/I, J per W/m²
+	n, u, v  [3]float64
+	laser    *Laser
+	// back is the return pass of a standing wave, added coherently.
+	back *fieldBeam
+}
+
+// intensity of a beam at r (cloud frame, m from the cloud), W/m².
+func (b *fieldBeam) intensity(r [3]float64) float64 {
+	s, a, c := dot(r, b.n), dot(r, b.u), dot(r, b.v)
+	wx, wy := b.x.Propagate(s).Radius(b.λ), b.y.Propagate(s).Radius(b.λ)
+	return 2 * b.power / (math.Pi * wx * wy) * math.Exp(-2*a*a/(wx*wx)-2*c*c/(wy*wy))
+}
+
+// potential of a beam (or a standing wave at its antinodes: the fields add,
+// U = sign · (√|U₁| + √|U₂|)²), J.
+func (b *fieldBeam) potential(r [3]float64) float64 {
+	u := b.perI * b.intensity(r)
+	if b.back == nil {
+		return u
+	}
+	u2 := b.back.perI * b.back.intensity(r)
+	return StandingWavePotential(u, u2)
+}
+
+// StandingWavePotential is the potential at the antinodes of two
+// counter-propagating beams of one laser whose fields add coherently, J:
+// sign · (√|U₁| + √|U₂|)², four times one beam's for equal powers (Grimm,
+// Weidemüller and Ovchinnikov (2000), §4.1, the standing-wave trap).
+func StandingWavePotential(u1, u2 float64) float64 {
+	s := math.Sqrt(math.Abs(u1)) + math.Sqrt(math.Abs(u2))
+	return math.Copysign(s*s, u1)
+}
+
+// LatticeFrequency is the axial trap frequency in a standing wave of depth
+// U0 (J, > 0) at wavelength λ for mass m: ω = (2π/λ) √(2U0/m), rad/s
+// (Grimm et al. (2000), eq. (40)).
+func LatticeFrequency(u0, λ, m float64) float64 { return 2 * math.Pi / λ * math.Sqrt(2*u0/m) }
+
+// V is the total potential at r, J: the beams' sum and gravity's −m g (r·down).
+func (f *field) V(r [3]float64) float64 {
+	u := -f.mass * G * dot(r, f.down)
+	for i := range f.beams {
+		u += f.beams[i].potential(r)
+	}
+	return u
+}
+
+// scale is the field's natural length: its smallest beam radius at the
+// cloud, m; reach is how far the beams' influence goes: a few of their
+// longest Rayleigh ranges and radii, m.
+func (f *field) scale() (scale, reach float64) {
+	scale, reach = math.Inf(1), 0.0
+	for _, b := range f.beams {
+		for _, p := range []Plane{b.x, b.y} {
+			w := p.Radius(b.λ)
+			scale = math.Min(scale, w)
+			reach = math.Max(reach, 100*math.Max(w, math.Abs(p.RayleighRange())+math.Abs(p.WaistDistance())))
+		}
+	}
+	return scale, reach
+}
+
+// findTrap looks for the minimum of the field near the cloud and measures
+// it.
+func (f *field) findTrap() Trap {
+	t := Trap{Lattice: math.NaN()}
+	L, reach := f.scale()
+	if len(f.beams) == 0 || !(L > 0) || math.IsInf(L, 0) {
+		return t
+	}
+	v0 := math.Abs(f.V([3]float64{}))
+	for _, b := range f.beams {
+		v0 = math.Max(v0, math.Abs(b.potential(b.focusPoint())))
+	}
+	if v0 == 0 {
+		return t
+	}
+	// Start at the cloud and at the foci of the deepest beams; keep the
+	// lowest minimum found that lies within the beams' reach.
+	deep := f.deepest(maxStarts)
+	starts := [][3]float64{{}}
+	for _, b := range deep {
+		starts = append(starts, b.focusPoint())
+	}
+	best, bestV := [3]float64{}, math.Inf(1)
+	for _, st := range starts {
+		r, ok := f.minimize(st, L, v0)
+		if !ok || math.Sqrt(dot(r, r)) > reach {
+			continue
+		}
+		if v := f.V(r); v < bestV {
+			best, bestV = r, v
+		}
+	}
+	if math.IsInf(bestV, 1) {
+		return t
+	}
+	// The search's own noise (far below any size here) is not a position.
+	for i := range best {
+		best[i] = math.Round(best[i]/(L*1e-6)) * (L * 1e-6)
+	}
+	h := f.hessian(best, L/100)
+	var eig mat.EigenSym
+	if !eig.Factorize(h, true) {
+		return t
+	}
+	vals := eig.Values(nil)
+	var vecs mat.Dense
+	eig.VectorsTo(&vecs)
+	if vals[0] <= 0 {
+		return t
+	}
+	t.Found, t.Minimum = true, best
+	for i := range 3 {
+		t.Frequencies[i] = math.Sqrt(vals[i]/f.mass) / (2 * math.Pi)
+		t.Axes[i] = [3]float64{vecs.At(0, i), vecs.At(1, i), vecs.At(2, i)}
+	}
+	if dot(f.down, f.down) > 0 {
+		hd := 0.0
+		for i := range 3 {
+			for j := range 3 {
+				hd += f.down[i] * h.At(i, j) * f.down[j]
+			}
+		}
+		t.Sag = G * f.mass / hd
+	}
+	g := f.gradient([3]float64{}, L/100)
+	t.ForceAtCloud = math.Sqrt(dot(g, g)) / (f.mass * G)
+	// The lowest barrier along straight lines from the minimum: along and
+	// across every beam, along gravity and along the principal axes.
+	// Along a beam's own axis the atoms have escaped once they are beyond
+	// the other beams (three of their radii out; the beam alone then holds
+	// them only as a weaker trap of its own): the barrier is measured up to
+	// there. Everywhere else it is measured out to the beams' reach.
+	type ray struct {
+		d    [3]float64
+		tmax float64
+	}
+	var rays []ray
+	for _, b := range deep {
+		beyond := 0.0
+		for i := range f.beams {
+			if o := &f.beams[i]; o != b {
+				beyond = math.Max(beyond, 3*math.Max(o.x.Radius(o.λ), o.y.Radius(o.λ)))
+			}
+		}
+		if beyond == 0 {
+			beyond = reach
+		}
+		rays = append(rays, ray{b.n, beyond}, ray{b.u, reach}, ray{b.v, reach})
+	}
+	if dot(f.down, f.down) > 0 {
+		rays = append(rays, ray{f.down, reach})
+	}
+	for _, ax := range t.Axes {
+		rays = append(rays, ray{ax, reach})
+	}
+	t.Depth = math.Inf(1)
+	vmin := f.V(best)
+	for _, r := range rays {
+		for _, sgn := range []float64{1, -1} {
+			dd := [3]float64{sgn * r.d[0], sgn * r.d[1], sgn * r.d[2]}
+			if barrier := f.barrier(best, vmin, dd, L/50, math.Max(r.tmax, L)); barrier < t.Depth {
+				t.Depth, t.Escape = barrier, dd
+			}
+		}
+	}
+	t.Holds = t.Depth > 0
+	t.Depth = math.Max(t.Depth, 0)
+	// The potential along the escape direction, for the plot.
+	for k := -60; k <= 60; k++ {
+		s := float64(k) / 60 * math.Min(reach, 20*L)
+		r := [3]float64{best[0] + s*t.Escape[0], best[1] + s*t.Escape[1], best[2] + s*t.Escape[2]}
+		t.Profile = append(t.Profile, [2]float64{s, f.V(r) / atoms.KB})
+	}
+	return t
+}
+
+// maxStarts is how many of the deepest beams the trap search starts from
+// and measures escape along (the others still add to the potential).
+const maxStarts = 2
+
+// deepest returns up to n beams with the deepest potential at the cloud.
+func (f *field) deepest(n int) []*fieldBeam {
+	out := make([]*fieldBeam, 0, len(f.beams))
+	for i := range f.beams {
+		out = append(out, &f.beams[i])
+	}
+	slices.SortStableFunc(out, func(a, b *fieldBeam) int {
+		return cmpFloat(a.potential(a.focusPoint()), b.potential(b.focusPoint()))
+	})
+	return out[:min(n, len(out))]
+}
+
+func cmpFloat(a, b float64) int {
+	switch {
+	case a < b:
+		return -1
+	case a > b:
+		return 1
+	}
+	return 0
+}
+
+// focusPoint is where the beam's on-axis intensity peaks (the mean of its
+// x and y waist positions), in the cloud frame.
+func (b *fieldBeam) focusPoint() [3]float64 {
+	z := (b.x.WaistDistance() + b.y.WaistDistance()) / 2
+	return [3]float64{z * b.n[0], z * b.n[1], z * b.n[2]}
+}
+
+// minimize finds a local minimum from start, in units of the length L and
+// the potential scale v0 (Nelder–Mead, gonum/optimize).
+func (f *field) minimize(start [3]float64, L, v0 float64) ([3]float64, bool) {
+	p := optimize.Problem{Func: func(x []float64) float64 {
+		return f.V([3]float64{x[0] * L, x[1] * L, x[2] * L}) / v0
+	}}
+	x0 := []float64{start[0] / L, start[1] / L, start[2] / L}
+	res, err := optimize.Minimize(p, x0, &optimize.Settings{FuncEvaluations: 600, Converger: &optimize.FunctionConverge{Absolute: 1e-10, Iterations: 40}}, &optimize.NelderMead{})
+	if err != nil && res == nil {
+		return [3]float64{}, false
+	}
+	x := res.X
+	return [3]float64{x[0] * L, x[1] * L, x[2] * L}, !math.IsNaN(res.F)
+}
+
+// hessian of V at r by central differences of step h, J/m².
+func (f *field) hessian(r [3]float64, h float64) *mat.SymDense {
+	H := mat.NewSymDense(3, nil)
+	at := func(i, j int, si, sj float64) float64 {
+		q := r
+		q[i] += si * h
+		q[j] += sj * h
+		return f.V(q)
+	}
+	v := f.V(r)
+	for i := range 3 {
+		H.SetSym(i, i, (at(i, i, 0.5, 0.5)-2*v+at(i, i, -0.5, -0.5))/(h*h))
+		for j := i + 1; j < 3; j++ {
+			H.SetSym(i, j, (at(i, j, 1, 1)-at(i, j, 1, -1)-at(i, j, -1, 1)+at(i, j, -1, -1))/(4*h*h))
+		}
+	}
+	return H
+}
+
+// gradient of V at r by central differences, J/m.
+func (f *field) gradient(r [3]float64, h float64) [3]float64 {
+	var g [3]float64
+	for i := range 3 {
+		a, b := r, r
+		a[i] += h
+		b[i] -= h
+		g[i] = (f.V(a) - f.V(b)) / (2 * h)
+	}
+	return g
+}
+
+// barrier is the highest the potential rises above vmin along the ray from
+// r in direction d, J (a negative value: it only falls): sampled on a
+// logarithmic grid from t0 to tmax, the highest sample then refined by a
+// golden-section search between its neighbours.
+func (f *field) barrier(r [3]float64, vmin float64, d [3]float64, t0, tmax float64) float64 {
+	const n = 60
+	at := func(t float64) float64 { return f.V([3]float64{r[0] + t*d[0], r[1] + t*d[1], r[2] + t*d[2]}) }
+	q := math.Pow(tmax/t0, 1.0/n)
+	best, top := 0, math.Inf(-1)
+	t := t0
+	for k := range n + 1 {
+		if v := at(t); v > top {
+			best, top = k, v
+		}
+		t *= q
+	}
+	if best > 0 && best < n {
+		a, b := t0*math.Pow(q, float64(best-1)), t0*math.Pow(q, float64(best+1))
+		const φ = 0.6180339887498949
+		c, e := b-φ*(b-a), a+φ*(b-a)
+		vc, ve := at(c), at(e)
+		for range 30 {
+			if vc > ve {
+				b, e, ve = e, c, vc
+				c = b - φ*(b-a)
+				vc = at(c)
+			} else {
+				a, c, vc = c, e, ve
+				e = a + φ*(b-a)
+				ve = at(e)
+			}
+		}
+		top = math.Max(top, math.Max(vc, ve))
+	}
+	return top - vmin
+}
+
+// Clouds counts every beam at each cloud together: the combined potential
+// and its trap (with gravity), the light shifts, the near-resonant
+// saturation and scattering, and the cloud's own goal.
+func (b *Budget) Clouds(drive []*AtomsResult) []*CloudResult {
+	var out []*CloudResult
+	for _, c := range b.Setup.Clouds {
+		if c.Data == nil {
+			continue
+		}
+		cr := &CloudResult{Cloud: c, DifferentialShift: math.NaN()}
+		var prev []*CloudBeam
+		for _, a := range drive {
+			if a.Cloud != c {
+				continue
+			}
+			n := a.Row.Element.Direction
+			u, v := BeamAxes(n)
+			cb := &CloudBeam{Atoms: a, Direction: n, U: u, V: v,
+				Far:  a.FarDetuned && a.Dipole != nil && a.Row.FractionIn > 0,
+				Near: !a.FarDetuned && a.NearLine == "" && a.Row.FractionIn > 0}
+			if a.Row.Element.Interference == "standing_wave" {
+				for k := len(prev) - 1; k >= 0; k-- {
+					f := prev[k]
+					if f.Atoms.Path == a.Path && dot(f.Direction, n) < -0.999 && f.Forward == nil {
+						cb.Forward = f
+						break
+					}
+				}
+			}
+			prev = append(prev, cb)
+			cr.Beams = append(cr.Beams, cb)
+		}
+		if len(cr.Beams) == 0 {
+			continue
+		}
+		cr.evaluate(nil, 1, true)
+		if c.Goal != "" {
+			cr.Goal = cr.goal()
+		}
+		out = append(out, cr)
+	}
+	return out
+}
+
+// fieldOf builds the field of the far-detuned beams, the powers of the
+// lasers in scaled multiplied by k (all lasers when scaled is nil and k is
+// 1), with or without gravity.
+func (cr *CloudResult) fieldOf(scaled []*Laser, k float64, gravity bool) *field {
+	f := &field{mass: cr.Cloud.Data.Mass, beams: make([]fieldBeam, 0, len(cr.Beams))}
+	if gravity {
+		f.down = cr.Cloud.Down
+	}
+	fb := map[*CloudBeam]*fieldBeam{}
+	for _, cb := range cr.Beams {
+		if !cb.Far {
+			continue
+		}
+		a := cb.Atoms
+		p := a.Row.FractionIn * a.Path.Laser.OperatingPower
+		if slices.Contains(scaled, a.Path.Laser) {
+			p *= k
+		}
+		beam := a.Row.BeamIn
+		x := fieldBeam{x: beam.X, y: beam.Y, λ: beam.Wavelength, power: p, perI: a.Dipole.PerIntensity, n: cb.Direction, u: cb.U, v: cb.V, laser: a.Path.Laser}
+		if fwd := fb[cb.Forward]; cb.Forward != nil && fwd != nil {
+			// The return pass joins its forward pass coherently.
+			back := x
+			fwd.back = &back
+			continue
+		}
+		f.beams = append(f.beams, x) // within its capacity: the pointers stay valid
+		fb[cb] = &f.beams[len(f.beams)-1]
+	}
+	return f
+}
+
+// evaluate fills the combined figures, with the powers of the lasers in
+// scaled multiplied by k; full also asks whether a trap that fails against
+// gravity would hold without it (a goal's trial powers skip that).
+func (cr *CloudResult) evaluate(scaled []*Laser, k float64, full bool) {
+	c := cr.Cloud
+	tr := c.Data
+	f := cr.fieldOf(scaled, k, true)
+	cr.PotentialAtCloud = f.V([3]float64{})
+	var at [3]float64
+	switch {
+	case len(f.beams) > MaxTrapBeams:
+		cr.Trap = &Trap{Lattice: math.NaN(), Skipped: fmt.Sprintf("%d far-detuned beams reach the cloud; the combined trap is searched for with at most %d", len(f.beams), MaxTrapBeams)}
+	case len(f.beams) > 0 && tr.Mass == 0:
+		cr.Trap = &Trap{Lattice: math.NaN(), Skipped: "the transition's data give no mass"}
+	case len(f.beams) > 0:
+		t := f.findTrap()
+		if t.Found {
+			at = t.Minimum
+		}
+		if full && !t.Holds && dot(c.Down, c.Down) > 0 {
+			t.HoldsWithoutGravity = cr.fieldOf(scaled, k, false).findTrap().Holds
+		} else {
+			t.HoldsWithoutGravity = t.Holds
+		}
+		for _, b := range f.beams {
+			if b.back != nil && t.Found {
+				t.Lattice = LatticeFrequency(math.Abs(b.potential(t.Minimum)), b.λ, tr.Mass) / (2 * math.Pi)
+			}
+		}
+		cr.Trap = &t
+	}
+	// Light shifts at the trap minimum (or the cloud).
+	cr.GroundShift = 0
+	differential, known := 0.0, true
+	for _, b := range f.beams {
+		u := b.potential(at)
+		cr.GroundShift += u / atoms.H
+		i := b.intensity(at)
+		if b.back != nil {
+			i = u / b.perI
+		}
+		αe, ok := c.ExcitedPolarizability[b.laser.Name]
+		if !ok {
+			known = false
+			continue
+		}
+		ue := ExcitedShiftPerIntensity(αe) * i
+		differential += (ue - u) / atoms.H
+	}
+	cr.DifferentialShift = math.NaN()
+	if known && len(f.beams) > 0 {
+		cr.DifferentialShift = differential
+	}
+	// Near-resonant beams at the cloud centre; a standing wave's return
+	// pass joins its forward pass coherently, (√s₁ + √s₂)².
+	var s, Δs []float64
+	index := map[*CloudBeam]int{}
+	for _, cb := range cr.Beams {
+		if !cb.Near {
+			continue
+		}
+		a := cb.Atoms
+		p := a.Power
+		if slices.Contains(scaled, a.Path.Laser) {
+			p *= k
+		}
+		si := atoms.Saturation(a.Row.BeamIn.PeakIrradiance(p), a.Isat)
+		if j, ok := index[cb.Forward]; ok && cb.Forward != nil {
+			s[j] = StandingWavePotential(s[j], si)
+			continue
+		}
+		Δ := a.Detuning
+		if !math.IsNaN(cr.DifferentialShift) {
+			Δ -= 2 * math.Pi * cr.DifferentialShift
+		}
+		index[cb] = len(s)
+		s = append(s, si)
+		Δs = append(Δs, Δ)
+	}
+	cr.SaturationTotal, cr.ScatteringRate = 0, 0
+	for _, si := range s {
+		cr.SaturationTotal += si
+	}
+	for i, si := range s {
+		cr.ScatteringRate += MultiBeamScattering(tr.Gamma, si, cr.SaturationTotal, Δs[i])
+	}
+}
+
+// ExcitedShiftPerIntensity is the light shift per unit intensity of a state
+// of polarizability α (atomic units): U/I = −α/(2 ε0 c), J per W/m² (the
+// dipole potential of a state in a light field, Grimm et al. (2000), eq.
+// (2), with α in SI = α(a.u.) · 4π ε0 a0³).
+func ExcitedShiftPerIntensity(αAU float64) float64 {
+	return -αAU * atoms.AUPol / (2 * atoms.Eps0 * atoms.C)
+}
+
+// MultiBeamScattering is one beam's scattering rate among several
+// near-resonant beams whose saturation parameters add to sTotal:
+// (Γ/2) s/(1 + sTotal + 4Δ²/Γ²), photons/s (the rate-equation
+// approximation common in laser cooling, e.g. Metcalf and van der Straten,
+// Laser Cooling and Trapping (1999), §7.3; common practice).
+func MultiBeamScattering(Γ, s, sTotal, Δ float64) float64 {
+	return Γ / 2 * s / (1 + sTotal + 4*Δ*Δ/(Γ*Γ))
+}
+
+// goalLasers are the lasers a cloud goal scales: those it names, else the
+// far-detuned ones for a trap depth and the near-resonant ones otherwise.
+func (cr *CloudResult) goalLasers() []*Laser {
+	c := cr.Cloud
+	var out []*Laser
+	for _, cb := range cr.Beams {
+		las := cb.Atoms.Path.Laser
+		want := cb.Near
+		if c.Goal == GoalTrapDepth {
+			want = cb.Far
+		}
+		if len(c.GoalLasers) > 0 {
+			want = slices.Contains(c.GoalLasers, las.Name)
+		}
+		if want && !slices.Contains(out, las) {
+			out = append(out, las)
+		}
+	}
+	return out
+}
+
+// metric is what the cloud goal measures with the lasers scaled by k:
+// trap depth (K), s, or Ω (rad/s).
+func (cr *CloudResult) metric(lasers []*Laser, k float64) float64 {
+	trial := *cr
+	trial.evaluate(lasers, k, false)
+	switch cr.Cloud.Goal {
+	case GoalTrapDepth:
+		if trial.Trap == nil || !trial.Trap.Holds || trial.Trap.Skipped != "" {
+			return 0
+		}
+		return trial.Trap.Depth / atoms.KB
+	case GoalSaturation:
+		return trial.SaturationTotal
+	}
+	return atoms.Rabi(cr.Cloud.Data.Gamma, trial.SaturationTotal)
+}
+
+// goal finds the common factor k on the scaled lasers' operating powers
+// that just meets the cloud's goal, by bisection on log k (every figure
+// grows with the power; the trap depth is not linear in it once gravity
+// counts).
+func (cr *CloudResult) goal() *CloudGoal {
+	c := cr.Cloud
+	tr := c.Data
+	g := &CloudGoal{Kind: c.Goal, Factor: c.GoalFactor, Lasers: cr.goalLasers()}
+	switch c.Goal {
+	case GoalTrapDepth, GoalSaturation:
+		g.Target = *c.GoalValue
+	case GoalRabi:
+		g.Target = 2 * math.Pi * *c.GoalValue
+	case GoalCollective:
+		// The threshold of the first near-resonant beam's cloud column.
+		for _, cb := range cr.Beams {
+			if cb.Near {
+				a := cb.Atoms
+				col := atoms.CollectiveThreshold(a.OpticalDepth, tr.Gamma)
+				if c.CollectiveRate > 0 {
+					col = atoms.CollectiveFromRate(2*math.Pi*c.CollectiveRate, tr.Gamma, a.OpticalDepth)
+				}
+				g.Target = c.GoalFactor * col.OmegaC
+				break
+			}
+		}
+	}
+	switch {
+	case len(g.Lasers) == 0:
+		g.Impossible = fmt.Sprintf("no beam at the cloud can serve a %s goal (%s)", c.Goal, map[bool]string{true: "no far-detuned beam", false: "no near-resonant beam"}[c.Goal == GoalTrapDepth])
+		return g
+	case !(g.Target > 0):
+		g.Impossible = "no near-resonant beam to set the collective threshold"
+		return g
+	}
+	if t := cr.Trap; c.Goal == GoalTrapDepth && t != nil && t.Skipped != "" {
+		g.Impossible = "the combined trap was not searched for: " + t.Skipped
+		return g
+	}
+	lo, hi, ok := bracket(func(k float64) bool { return cr.metric(g.Lasers, k) >= g.Target })
+	if !ok {
+		g.Impossible = fmt.Sprintf("even a million times the operating powers of %s does not reach it", laserNames(g.Lasers))
+		return g
+	}
+	hi = bisect(lo, hi, func(k float64) bool { return cr.metric(g.Lasers, k) >= g.Target })
+	g.Scale = hi
+	for _, las := range g.Lasers {
+		g.Needed = append(g.Needed, hi*las.OperatingPower)
+	}
+	g.MarginDB = -Decibels(hi)
+	g.Met = hi <= 1
+	return g
+}
+
+func laserNames(ls []*Laser) string {
+	out := ""
+	for i, l := range ls {
+		if i > 0 {
+			out += ", "
+		}
+		out += fmt.Sprintf("%q", l.Name)
+	}
+	return out
+}
+
+// Cloud finding kinds.
+const (
+	FindingNoHold              FindingKind = "trap_does_not_hold"
+	FindingTrapOffset          FindingKind = "trap_offset"
+	FindingCloudGoalShort      FindingKind = "cloud_goal_short"
+	FindingCloudGoalImpossible FindingKind = "cloud_goal_impossible"
+)
+
+// CloudFindings lists what the clouds' combined figures found: a trap that
+// would hold but for gravity (action), a trap whose minimum lies more than
+// one rms size from the cloud (advice), and a cloud goal short or
+// impossible (action).
+func CloudFindings(clouds []*CloudResult) []Finding {
+	var out []Finding
+	for _, cr := range clouds {
+		c := cr.Cloud
+		where := fmt.Sprintf("cloud %q", c.Name)
+		if t := cr.Trap; t != nil {
+			switch {
+			case !t.Holds && t.HoldsWithoutGravity:
+				out = append(out, Finding{Severity: SeverityAction, Kind: FindingNoHold, Message: fmt.Sprintf("%s: the far-detuned beams make a trap that does not hold against gravity (it would without it); raise their power or add confinement along gravity", where)})
+			case t.Holds:
+				off := math.Sqrt(dot(t.Minimum, t.Minimum))
+				if rms := c.RMSAlong(normalizeOr(t.Minimum)); off > rms {
+					out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingTrapOffset, Message: fmt.Sprintf("%s: the trap minimum lies %s from the cloud's position (more than its rms size there, %s); the force at the cloud is %.3g g",
+						where, FormatLength(off), FormatLength(rms), t.ForceAtCloud)}.Figure(off, rms, "m"))
+				}
+			}
+		}
+		if g := cr.Goal; g != nil {
+			switch {
+			case g.Impossible != "":
+				out = append(out, Finding{Severity: SeverityAction, Kind: FindingCloudGoalImpossible, Message: fmt.Sprintf("%s: goal %s cannot be met: %s", where, g.Kind, g.Impossible)})
+			case !g.Met:
+				out = append(out, Finding{Severity: SeverityAction, Kind: FindingCloudGoalShort, Message: fmt.Sprintf("%s: goal %s is short by %.1f dB: it needs %.3g × the operating powers of %s", where, g.Kind, -g.MarginDB, g.Scale, laserNames(g.Lasers))}.Figure(g.Scale, 1, "1"))
+			}
+		}
+	}
+	return out
+}
+
+// normalizeOr is the unit vector along a, or z for the zero vector.
+func normalizeOr(a [3]float64) [3]float64 {
+	if dot(a, a) == 0 {
+		return [3]float64{0, 0, 1}
+	}
+	return normalize(a)
+}
+
+// trapDepthScale is the factor k on a single far-detuned beam's power at
+// which its own trap, found at its real minimum with the cloud's gravity,
+// is depth deep (J), by bisection on log k; why says why there is none.
+func trapDepthScale(a *AtomsResult, depth float64) (k float64, why string) {
+	c := a.Cloud
+	if c.Data.Mass == 0 {
+		return 0, "the transition's data give no mass"
+	}
+	n := a.Row.Element.Direction
+	u, v := BeamAxes(n)
+	beam := a.Row.BeamIn
+	at := func(k float64) float64 {
+		f := &field{mass: c.Data.Mass, down: c.Down, beams: []fieldBeam{{x: beam.X, y: beam.Y, λ: beam.Wavelength, power: k * a.Power,
+			perI: a.Dipole.PerIntensity, n: n, u: u, v: v, laser: a.Path.Laser}}}
+		t := f.findTrap()
+		if !t.Holds {
+			return 0
+		}
+		return t.Depth
+	}
+	lo, hi, ok := bracket(func(k float64) bool { return at(k) >= depth })
+	if !ok {
+		return 0, "even a million times the power makes no trap that deep against gravity"
+	}
+	hi = bisect(lo, hi, func(k float64) bool { return at(k) >= depth })
+	return hi, ""
+}
+
+// bracket finds factors lo < hi around the least k in [1e-6, 1e6] for which
+// enough(k) holds (enough grows with k), starting from 1 and stepping by
+// tens; ok is false when even 1e6 is not enough.
+func bracket(enough func(float64) bool) (lo, hi float64, ok bool) {
+	if enough(1) {
+		hi = 1
+		for hi > 1e-6 && enough(hi/10) {
+			hi /= 10
+		}
+		return hi / 10, hi, true
+	}
+	lo = 1
+	for lo < 1e6 {
+		if enough(lo * 10) {
+			return lo, lo * 10, true
+		}
+		lo *= 10
+	}
+	return 0, 0, false
+}
+
+// bisect narrows [lo, hi] on log k to 1e-3 relative and returns the upper
+// end, where enough holds.
+func bisect(lo, hi float64, enough func(float64) bool) float64 {
+	for hi/lo > 1+1e-3 {
+		mid := math.Sqrt(lo * hi)
+		if enough(mid) {
+			hi = mid
+		} else {
+			lo = mid
+		}
+	}
+	return hi
+}

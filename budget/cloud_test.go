@@ -1,0 +1,287 @@
+package budget
+
+import (
+	"fmt"
+	"math"
+	"strings"
+	"testing"
+
+	"beamledger/budget/atoms"
+)
+
+// beamOn is a laser and a path putting its beam on cloud "c" along axis at
+// 100 mm, focused there with waist w0, then dumped.
+func beamOn(name, λ, power, w0, axis string) string {
+	return fmt.Sprintf(`
+[[laser]]
+name = %[1]q
+wavelength = %[2]q
+power = %[3]q
+waist = %[4]q
+waist_at = "100 mm"
+
+[[path]]
+name = %[1]q
+from = %[1]q
+  [[path.element]]
+  type = "atoms"
+  at = "100 mm"
+  cloud = "c"
+  axis = %[5]q
+  [[path.element]]
+  type = "dump"
+  at = "300 mm"
+`, name, λ, power, w0, axis)
+}
+
+func cloudC(down, extra string) string {
+	return fmt.Sprintf(`
+[[cloud]]
+name = "c"
+transition = "Rb87 D2"
+atoms = 1e5
+rms_size = ["10 um", "10 um", "10 um"]
+down = %q
+%s
+`, down, extra)
+}
+
+func cloudsOf(t *testing.T, src string) (*Budget, []*CloudResult) {
+	t.Helper()
+	s, err := Parse("clouds.toml", []byte(src))
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := Compute(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return b, b.Clouds(b.Drive())
+}
+
+// u0 is a focused beam's depth U0 = |U/I| · 2P/(π w0²), J (Grimm,
+// Weidemüller and Ovchinnikov (2000), eq. (10) with the peak intensity of a
+// Gaussian beam).
+func u0(t *testing.T, λ, p, w0 float64) float64 {
+	t.Helper()
+	tr, _ := atoms.Lookup("Rb87 D2")
+	d := atoms.FarDetuned(tr.Lines, 2*math.Pi*atoms.C/λ)
+	return -d.PotentialPerIntensity * 2 * p / (math.Pi * w0 * w0)
+}
+
+func relNear(a, b, rel float64) bool { return math.Abs(a-b) <= rel*math.Abs(b) }
+
+// A single focused beam without gravity: depth U0, radial frequencies
+// √(4U0/(m w0²)) and axial √(2U0/(m z_R²)) with z_R = π w0²/λ (Grimm et al.
+// (2000), eq. (37)).
+func TestCloudSingleBeamAgainstGrimm(t *testing.T) {
+	_, cs := cloudsOf(t, beamOn("trap", "1064 nm", "5 W", "50 um", "z")+cloudC("none", ""))
+	tr := cs[0].Trap
+	if tr == nil || !tr.Holds {
+		t.Fatalf("no trap: %+v", tr)
+	}
+	m := cs[0].Cloud.Data.Mass
+	U := u0(t, 1064e-9, 5, 50e-6)
+	zR := math.Pi * 50e-6 * 50e-6 / 1064e-9
+	radial := math.Sqrt(4*U/(m*50e-6*50e-6)) / (2 * math.Pi)
+	axial := math.Sqrt(2*U/(m*zR*zR)) / (2 * math.Pi)
+	if !relNear(tr.Depth, U, 1e-3) {
+		t.Errorf("depth %g K, want U0/k_B = %g K", tr.Depth/atoms.KB, U/atoms.KB)
+	}
+	for i, want := range []float64{axial, radial, radial} {
+		if !relNear(tr.Frequencies[i], want, 1e-2) {
+			t.Errorf("frequency %d: %g Hz, want %g Hz", i, tr.Frequencies[i], want)
+		}
+	}
+	if off := math.Sqrt(dot(tr.Minimum, tr.Minimum)); off > 1e-7 {
+		t.Errorf("minimum %g m from the focus", off)
+	}
+}
+
+// Two equal beams crossed at 90° (along z and x), no gravity: the depth is
+// one beam's (the atoms escape along either beam once out of the other),
+// and the frequencies are ω_r along each beam's axis (the other beam's
+// radial confinement, plus a small axial part) and √2 ω_r across both (by
+// hand: the curvatures add).
+func TestCloudCrossedBeamsByHand(t *testing.T) {
+	src := beamOn("a", "1064 nm", "5 W", "50 um", "z") + beamOn("b", "1064 nm", "5 W", "50 um", "x") + cloudC("none", "")
+	_, cs := cloudsOf(t, src)
+	tr := cs[0].Trap
+	if tr == nil || !tr.Holds {
+		t.Fatalf("no trap: %+v", tr)
+	}
+	m := cs[0].Cloud.Data.Mass
+	U := u0(t, 1064e-9, 5, 50e-6)
+	ωr := math.Sqrt(4*U/(m*50e-6*50e-6)) / (2 * math.Pi)
+	if !relNear(tr.Depth, U, 0.02) {
+		t.Errorf("depth %g K, want one beam's %g K", tr.Depth/atoms.KB, U/atoms.KB)
+	}
+	for i, want := range []float64{ωr, ωr, math.Sqrt2 * ωr} {
+		if !relNear(tr.Frequencies[i], want, 0.01) {
+			t.Errorf("frequency %d: %g Hz, want %g Hz", i, tr.Frequencies[i], want)
+		}
+	}
+}
+
+// A retro-reflected beam whose return pass is declared a standing wave: the
+// antinode depth is (√|U₁| + √|U₂|)², four times one pass's for equal powers
+// (Grimm et al. (2000), §4.1), and the lattice frequency is
+// (2π/λ) √(2U/m) (eq. (40)). A large waist keeps the return pass nearly
+// the forward one.
+func TestCloudStandingWave(t *testing.T) {
+	src := `
+[[laser]]
+name = "lat"
+wavelength = "1064 nm"
+power = "2 W"
+waist = "500 um"
+waist_at = "100 mm"
+
+[[path]]
+name = "lat"
+from = "lat"
+  [[path.element]]
+  type = "atoms"
+  at = "100 mm"
+  cloud = "c"
+  [[path.element]]
+  type = "mirror"
+  at = "110 mm"
+  reflectivity = 1
+  [[path.element]]
+  type = "atoms"
+  at = "120 mm"
+  cloud = "c"
+  direction = [0, 0, -1]
+  interference = "standing_wave"
+  [[path.element]]
+  type = "dump"
+  at = "300 mm"
+` + cloudC("none", "")
+	_, cs := cloudsOf(t, src)
+	cr := cs[0]
+	tr := cr.Trap
+	if tr == nil || !tr.Holds {
+		t.Fatalf("no trap: %+v", tr)
+	}
+	var u []float64
+	for _, b := range cr.Beams {
+		u = append(u, b.Atoms.Dipole.Depth)
+	}
+	want := math.Pow(math.Sqrt(-u[0])+math.Sqrt(-u[1]), 2)
+	if got := StandingWavePotential(u[0], u[1]); !relNear(-got, want, 1e-12) {
+		t.Errorf("StandingWavePotential = %g, by hand %g", got, -want)
+	}
+	if !relNear(tr.Depth, want, 1e-3) || !relNear(tr.Depth, 4*-u[0], 0.01) {
+		t.Errorf("depth %g, want (√U1+√U2)² = %g ≈ 4 U1 = %g", tr.Depth, want, 4*-u[0])
+	}
+	m := cr.Cloud.Data.Mass
+	lat := 2 * math.Pi / 1064e-9 * math.Sqrt(2*want/m) / (2 * math.Pi)
+	if got := LatticeFrequency(want, 1064e-9, m) / (2 * math.Pi); !relNear(got, lat, 1e-12) {
+		t.Errorf("LatticeFrequency = %g Hz, by hand %g Hz", got, lat)
+	}
+	if !relNear(tr.Lattice, lat, 1e-3) {
+		t.Errorf("lattice frequency %g Hz, want %g Hz", tr.Lattice, lat)
+	}
+}
+
+// Gravity along −y on a horizontal beam: the atoms sag by g/ω_y² below the
+// focus, with ω_y the radial frequency √(4U0/(m w0²)) (by hand, harmonic).
+func TestCloudSagByHand(t *testing.T) {
+	_, cs := cloudsOf(t, beamOn("trap", "1064 nm", "5 W", "50 um", "z")+cloudC("-y", ""))
+	tr := cs[0].Trap
+	m := cs[0].Cloud.Data.Mass
+	U := u0(t, 1064e-9, 5, 50e-6)
+	ω := math.Sqrt(4 * U / (m * 50e-6 * 50e-6))
+	if sag := G / (ω * ω); !relNear(tr.Sag, sag, 0.02) || !relNear(-tr.Minimum[1], sag, 0.05) {
+		t.Errorf("sag %g m, minimum at y = %g m; want g/ω² = %g m", tr.Sag, tr.Minimum[1], sag)
+	}
+}
+
+// A beam too weak to hold atoms against gravity (it would hold without
+// gravity) is an action finding.
+func TestCloudTrapNotHoldingIsAFinding(t *testing.T) {
+	_, cs := cloudsOf(t, beamOn("weak", "1064 nm", "20 uW", "50 um", "z")+cloudC("-y", ""))
+	tr := cs[0].Trap
+	if tr.Holds || !tr.HoldsWithoutGravity {
+		t.Fatalf("holds %v, without gravity %v", tr.Holds, tr.HoldsWithoutGravity)
+	}
+	fs := CloudFindings(cs)
+	if len(fs) != 1 || fs[0].Kind != FindingNoHold || fs[0].Severity != SeverityAction {
+		t.Errorf("findings %+v", fs)
+	}
+}
+
+// A whole-cloud trap-depth goal on the crossed trap without gravity: the
+// depth is linear in the power, so the factor is the target over today's
+// depth, and the margin −10 log10 k.
+func TestCloudGoalScale(t *testing.T) {
+	src := beamOn("a", "1064 nm", "5 W", "50 um", "z") + beamOn("b", "1064 nm", "5 W", "50 um", "x") +
+		cloudC("none", "goal = \"trap_depth\"\ngoal_value = \"1 mK\"")
+	_, cs := cloudsOf(t, src)
+	g := cs[0].Goal
+	if g == nil || g.Impossible != "" {
+		t.Fatalf("goal %+v", g)
+	}
+	k := 1e-3 * atoms.KB / cs[0].Trap.Depth
+	if !relNear(g.Scale, k, 1e-3) || !relNear(g.MarginDB, -10*math.Log10(k), 1e-2) || len(g.Needed) != 2 || !relNear(g.Needed[0], 5*k, 1e-3) {
+		t.Errorf("scale %g (want %g), margin %g dB, needed %v", g.Scale, k, g.MarginDB, g.Needed)
+	}
+}
+
+// Near-resonant beams: their saturation parameters add (incoherent), and
+// each scatters (Γ/2) s_i/(1 + s_total + 4Δ_i²/Γ²).
+func TestCloudNearResonantTotals(t *testing.T) {
+	src := strings.ReplaceAll(beamOn("p1", "780.241209686 nm", "1 mW", "1 mm", "z"), "waist_at", "detuning = \"0 MHz\"\nwaist_at") +
+		strings.ReplaceAll(beamOn("p2", "780.241209686 nm", "2 mW", "1 mm", "x"), "waist_at", "detuning = \"0 MHz\"\nwaist_at") + cloudC("none", "")
+	_, cs := cloudsOf(t, src)
+	cr := cs[0]
+	sum, rate := 0.0, 0.0
+	var ss []float64
+	for _, b := range cr.Beams {
+		ss = append(ss, b.Atoms.Saturation)
+		sum += b.Atoms.Saturation
+	}
+	Γ := cr.Cloud.Data.Gamma
+	for _, s := range ss {
+		rate += Γ / 2 * s / (1 + sum)
+		if got, want := MultiBeamScattering(Γ, s, sum, 0), Γ/2*s/(1+sum); !relNear(got, want, 1e-12) {
+			t.Errorf("MultiBeamScattering %g, by hand %g", got, want)
+		}
+	}
+	if !relNear(cr.SaturationTotal, sum, 1e-12) || !relNear(cr.ScatteringRate, rate, 1e-12) {
+		t.Errorf("s %g (want %g), rate %g (want %g)", cr.SaturationTotal, sum, cr.ScatteringRate, rate)
+	}
+}
+
+// The excited state's shift per intensity for a polarizability in atomic
+// units: U/I = −α/(2 ε0 c) (Grimm et al. (2000), eq. (2)); for the ground
+// state of Rb at 1064 nm, α ≈ 687 a.u. (Safronova, Arora and Clark, PRA 73,
+// 022505 (2006), from memory), the same expression must give the dipole
+// potential per intensity within 3 % (the core is not modelled there).
+func TestExcitedShiftPerIntensity(t *testing.T) {
+	tr, _ := atoms.Lookup("Rb87 D2")
+	d := atoms.FarDetuned(tr.Lines, 2*math.Pi*atoms.C/1064e-9)
+	if got := ExcitedShiftPerIntensity(687); !relNear(got, d.PotentialPerIntensity, 0.03) {
+		t.Errorf("U/I for 687 a.u. = %g, the dipole potential gives %g", got, d.PotentialPerIntensity)
+	}
+}
+
+// The beam's planes in the cloud frame: along z they are x and y; along x,
+// y and z; along −z, x and −y (right-handed); and the rms size along a
+// direction of a Gaussian cloud is √Σ dᵢ² σᵢ² (by hand).
+func TestBeamAxes(t *testing.T) {
+	for _, c := range []struct{ n, u, v [3]float64 }{
+		{[3]float64{0, 0, 1}, [3]float64{1, 0, 0}, [3]float64{0, 1, 0}},
+		{[3]float64{1, 0, 0}, [3]float64{0, 1, 0}, [3]float64{0, 0, 1}},
+		{[3]float64{0, 0, -1}, [3]float64{1, 0, 0}, [3]float64{0, -1, 0}},
+	} {
+		if u, v := BeamAxes(c.n); u != c.u || v != c.v {
+			t.Errorf("along %v: x plane %v, y plane %v; want %v, %v", c.n, u, v, c.u, c.v)
+		}
+	}
+	cl := &Cloud{RMSSize: [3]float64{3, 4, 12}}
+	if got := cl.RMSAlong([3]float64{0.6, 0.8, 0}); !relNear(got, math.Sqrt(0.36*9+0.64*16), 1e-12) {
+		t.Errorf("rms along (0.6, 0.8, 0) = %g", got)
+	}
+}

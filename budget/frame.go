@@ -1,0 +1,43 @@
+package budget
+
+import "math"
+
+// The cloud frame. A cloud's rms_size = [x, y, z] are its axes; an atoms
+// element's beam runs along Direction in that frame. The beam's own x plane
+// contains the first of the cloud's axes (x, then y, then z) that is not
+// along the beam, and its y plane is the third direction of a right-handed
+// set (y_beam = along × x_beam): for a beam along z its x and y planes are
+// the cloud's x and y; along x they are the cloud's y and z; along y, x and
+// z (with the sign of along × x).
+
+// BeamAxes returns the unit vectors of a beam's x and y planes in the cloud
+// frame for a beam running along the unit vector n.
+func BeamAxes(n [3]float64) (u, v [3]float64) {
+	for _, e := range [][3]float64{{1, 0, 0}, {0, 1, 0}, {0, 0, 1}} {
+		if math.Abs(dot(e, n)) < 0.9 {
+			d := dot(e, n)
+			u = normalize([3]float64{e[0] - d*n[0], e[1] - d*n[1], e[2] - d*n[2]})
+			break
+		}
+	}
+	return u, cross(n, u)
+}
+
+// RMSAlong is the cloud's rms size along the unit vector d, m: √Σ dᵢ² σᵢ²
+// for a Gaussian cloud with rms sizes σ along its axes.
+func (c *Cloud) RMSAlong(d [3]float64) float64 {
+	s := 0.0
+	for i := range 3 {
+		s += d[i] * d[i] * c.RMSSize[i] * c.RMSSize[i]
+	}
+	return math.Sqrt(s)
+}
+
+func cross(a, b [3]float64) [3]float64 {
+	return [3]float64{a[1]*b[2] - a[2]*b[1], a[2]*b[0] - a[0]*b[2], a[0]*b[1] - a[1]*b[0]}
+}
+
+func normalize(a [3]float64) [3]float64 {
+	n := math.Sqrt(dot(a, a))
+	return [3]float64{a[0] / n, a[1] / n, a[2] / n}
+}

@@ -1,0 +1,173 @@
+package view
+
+import (
+	"fmt"
+	"math"
+	"slices"
+	"strings"
+
+	"beamledger/budget"
+	"beamledger/budget/atoms"
+	"beamledger/safety"
+)
+
+// cloudsList is every cloud with all its beams counted together.
+func (b *builder) cloudsList(a *safety.Assessment) *List {
+	l := &List{Key: "clouds", Gap: true, Records: make([]Record, 0, len(a.Clouds))}
+	for _, cr := range a.Clouds {
+		l.Records = append(l.Records, b.cloudRecord(cr))
+	}
+	return l
+}
+
+// vec writes a vector of the cloud frame.
+func vec(v [3]float64) string {
+	return fmt.Sprintf("[%s, %s, %s]", fmtG(round6(v[0])), fmtG(round6(v[1])), fmtG(round6(v[2])))
+}
+
+// round6 drops the last digits of a unit vector's components (so that
+// −1.2e-17 reads 0).
+func round6(x float64) float64 { return math.Round(x*1e6) / 1e6 }
+
+func lengths(v [3]float64) string {
+	return fmt.Sprintf("[%s, %s, %s]", budget.FormatLength(v[0]), budget.FormatLength(v[1]), budget.FormatLength(v[2]))
+}
+
+func (b *builder) cloudRecord(cr *budget.CloudResult) Record {
+	c := cr.Cloud
+	r := Record{Members: b.members(24)}
+	r.F(Str(dName5, c.Name)).F(Str(dTransition2, c.Transition))
+	down := "none"
+	if c.Down != [3]float64{} {
+		down = vec(c.Down)
+	}
+	r.F(Field{d: dDownText, Kind: String, Text: down, People: true})
+	beams := &List{Key: "beams", Columns: []string{"path", "element_index", "laser", "power_w", "direction", "detuning_hz", "role"}, Left: 3, Indent: 1, Records: make([]Record, 0, len(cr.Beams))}
+	for _, cb := range cr.Beams {
+		at := cb.Atoms
+		role := "neither (near another line)"
+		switch {
+		case cb.Far && cb.Forward != nil:
+			role = "far detuned, standing wave with its forward pass"
+		case cb.Far:
+			role = "far detuned (dipole potential)"
+		case cb.Near && cb.Forward != nil:
+			role = "near resonance, standing wave"
+		case cb.Near:
+			role = "near resonance"
+		case at.Row.FractionIn <= 0:
+			role = "no light"
+		}
+		br := Record{Members: b.members(8)}
+		br.F(Str(dPath4, at.Path.Path.Name)).F(Whole(dElementIndex, at.Row.Element.Index)).F(Str(dLaser4, at.Path.Laser.Name)).
+			F(Pow(dPowerW6, at.Power)).
+			F(NumList(dDirection, cb.Direction[:], vec(cb.Direction))).
+			F(Num(dDetuningHz2, at.Detuning/(2*math.Pi), budget.FormatFrequency(at.Detuning/(2*math.Pi)))).
+			F(Field{d: dRole, Kind: String, Text: role, People: true})
+		beams.Records = append(beams.Records, br)
+	}
+	r.L(beams)
+	r.Line(fmt.Sprintf("cloud %q ({transition}), gravity along {down}: %d beam(s)", c.Name, len(cr.Beams)))
+	r.F(Num(dDipoleAtCloudK, cr.PotentialAtCloud/atoms.KB, budget.FormatSI(cr.PotentialAtCloud/atoms.KB, "K")))
+	if cr.Trap != nil {
+		r.After = append(r.After, "  dipole potential of the far-detuned beams at the cloud U/k_B = {dipole_potential_at_cloud_k}")
+	}
+	t := cr.Trap
+	switch {
+	case t == nil:
+		r.F(Absent(dTrapMinimumOffsetM, false)).F(Absent(dTrapDepthK2, false)).F(Absent(dTrapFrequenciesHz, false)).F(Absent(dTrapAxes, false)).
+			F(Absent(dGravitySagM, false)).F(Absent(dHoldsAgainstGravity, false)).F(Absent(dForceAtCloudG, false)).F(Absent(dLatticeFrequencyHz, false)).F(Absent(dEscapeDirection, false)).F(Absent(dTrapNote, true))
+		r.After = append(r.After, "  no far-detuned beam: no dipole trap")
+	case t.Skipped != "":
+		r.F(Absent(dTrapMinimumOffsetM, false)).F(Absent(dTrapDepthK2, false)).F(Absent(dTrapFrequenciesHz, false)).F(Absent(dTrapAxes, false)).
+			F(Absent(dGravitySagM, false)).F(Absent(dHoldsAgainstGravity, false)).F(Absent(dForceAtCloudG, false)).F(Absent(dLatticeFrequencyHz, false)).F(Absent(dEscapeDirection, false)).F(Str(dTrapNote, t.Skipped))
+		r.After = append(r.After, "  trap: not searched for: {trap_note}")
+	case !t.Found:
+		r.F(Absent(dTrapMinimumOffsetM, false)).F(Absent(dTrapDepthK2, false)).F(Absent(dTrapFrequenciesHz, false)).F(Absent(dTrapAxes, false)).
+			F(Absent(dGravitySagM, false)).F(Flag(dHoldsAgainstGravity, false, "no")).F(Absent(dForceAtCloudG, false)).F(Absent(dLatticeFrequencyHz, false)).F(Absent(dEscapeDirection, false)).F(Absent(dTrapNote, true))
+		r.After = append(r.After, "  trap: the combined potential has no minimum near the cloud (with gravity): the beams do not trap the atoms")
+	default:
+		var freqs []string
+		for _, f := range t.Frequencies {
+			freqs = append(freqs, budget.FormatFrequency(f))
+		}
+		axes := [][]float64{t.Axes[0][:], t.Axes[1][:], t.Axes[2][:]}
+		r.F(NumList(dTrapMinimumOffsetM, t.Minimum[:], lengths(t.Minimum))).
+			F(Num(dTrapDepthK2, t.Depth/atoms.KB, budget.FormatSI(t.Depth/atoms.KB, "K"))).
+			F(NumList(dTrapFrequenciesHz, t.Frequencies[:], strings.Join(freqs, ", "))).
+			F(NumRows(dTrapAxes, axes, vec(t.Axes[0])+", "+vec(t.Axes[1])+", "+vec(t.Axes[2]))).
+			F(Len(dGravitySagM, t.Sag)).
+			F(Flag(dHoldsAgainstGravity, t.Holds, yesNo(t.Holds))).
+			F(Num(dForceAtCloudG, t.ForceAtCloud, fmtG(t.ForceAtCloud))).
+			F(NumList(dEscapeDirection, t.Escape[:], vec(t.Escape))).
+			F(Absent(dTrapNote, true))
+		if math.IsNaN(t.Lattice) {
+			r.F(Absent(dLatticeFrequencyHz, false))
+		} else {
+			r.F(Num(dLatticeFrequencyHz, t.Lattice, budget.FormatFrequency(t.Lattice)))
+		}
+		r.After = append(r.After,
+			"  trap minimum {trap_minimum_offset_m} from the cloud (x, y, z); force at the cloud {force_at_cloud_g} g",
+			"  depth U/k_B = {trap_depth_k}: the lowest barrier from the minimum (along each beam beyond the others, across the beams, along gravity and the principal axes), towards {escape_direction}; holds against gravity: {holds_against_gravity}",
+			"  trap frequencies {trap_frequencies_hz} along the principal axes {trap_axes}; sag under gravity g/ω² = {gravity_sag_m}")
+		if !math.IsNaN(t.Lattice) {
+			r.After = append(r.After, "  standing wave: lattice spacing λ/2, axial lattice frequency {lattice_frequency_hz} (Grimm et al. 2000)")
+		}
+	}
+	r.F(Num(dGroundLightShiftHz, cr.GroundShift, budget.FormatFrequency(cr.GroundShift)))
+	switch {
+	case cr.Trap == nil:
+		r.F(Absent(dDifferentialLightShiftHz, false))
+	case math.IsNaN(cr.DifferentialShift):
+		r.F(Absent(dDifferentialLightShiftHz, false))
+		r.After = append(r.After, "  light shift of the ground state {ground_light_shift_hz} at the trap minimum (at the cloud when there is none); the excited state's shift is not included (give excited_polarizability for every trap laser)")
+	default:
+		r.F(Num(dDifferentialLightShiftHz, cr.DifferentialShift, budget.FormatFrequency(cr.DifferentialShift)))
+		r.After = append(r.After, "  light shift of the ground state {ground_light_shift_hz}, of the transition (excited − ground) {differential_light_shift_hz} at the trap minimum, added to the near-resonant beams' detuning")
+	}
+	r.F(Plain(dSaturationTotal, cr.SaturationTotal)).F(Num(dScatteringRatePerS2, cr.ScatteringRate, fmtG(cr.ScatteringRate)+" photons/s"))
+	if slices.ContainsFunc(cr.Beams, func(cb *budget.CloudBeam) bool { return cb.Near }) {
+		r.After = append(r.After, "  near-resonant beams at the cloud centre: s = {saturation_total} in all, scattering rate {scattering_rate_per_s} ((Γ/2) s_i/(1 + s_total + 4Δ_i²/Γ²) summed)")
+	}
+	var goal *Record
+	if g := cr.Goal; g != nil {
+		goal = &Record{Members: b.members(10)}
+		var names []string
+		for _, las := range g.Lasers {
+			names = append(names, las.Name)
+		}
+		goal.F(Str(dKind6, g.Kind)).F(StrList(dGoalLasers, names))
+		if g.Kind == budget.GoalCollective {
+			goal.F(Plain(dGoalFactor2, g.Factor))
+		} else {
+			goal.F(Absent(dGoalFactor2, true))
+		}
+		target := fmtG(g.Target)
+		switch g.Kind {
+		case budget.GoalTrapDepth:
+			target = budget.FormatSI(g.Target, "K")
+		case budget.GoalRabi, budget.GoalCollective:
+			target = "Ω/2π = " + budget.FormatFrequency(g.Target/(2*math.Pi))
+		case budget.GoalSaturation:
+			target = "s = " + fmtG(g.Target)
+		}
+		goal.F(Num(dTargetSI, g.Target, target))
+		if g.Impossible != "" {
+			goal.F(Absent(dScaleFactor, false)).F(Absent(dMarginDb2, false)).F(Flag(dMet2, false, "no")).F(Str(dImpossible2, g.Impossible))
+			r.After = append(r.After, "  goal for the whole cloud: {goal.kind} {goal.target_si}: cannot be met: {goal.impossible}")
+		} else {
+			var needed []string
+			for i, las := range g.Lasers {
+				needed = append(needed, fmt.Sprintf("%s %s", las.Name, budget.FormatPower(g.Needed[i])))
+			}
+			goal.F(Num(dScaleFactor, g.Scale, fmtG(g.Scale))).
+				F(Num(dMarginDb2, g.MarginDB, fmt.Sprintf("%+.1f dB", g.MarginDB))).
+				F(Flag(dMet2, g.Met, map[bool]string{true: "met", false: "NOT met"}[g.Met])).
+				F(NumList(dNeededW, g.Needed, strings.Join(needed, ", "))).
+				F(Absent(dImpossible2, true))
+			r.After = append(r.After, "  goal for the whole cloud: {goal.kind} {goal.target_si} scaling {goal.lasers}: factor {goal.scale_factor} on their operating powers ({goal.needed_w}); margin {goal.margin_db}: {goal.met}")
+		}
+	}
+	r.O("goal", goal, true)
+	return r
+}
