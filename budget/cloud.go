@@ -52,6 +52,8 @@ type CloudResult struct {
 	// the cloud centre (s = I/I_sat summed; photons/s).
 	SaturationTotal, ScatteringRate float64
 	Goal                            *CloudGoal
+
+	hint *[3]float64 // the trap minimum of the operating powers, to start a goal's trial searches from
 }
 
 // Trap is the trap the far-detuned beams make together, found numerically.
@@ -113,6 +115,9 @@ type field struct {
 	beams []fieldBeam
 	mass  float64
 	down  [3]float64 // gravity's direction (zero: none)
+	// hint, when set, is where a search of a nearby field (the same beams at
+	// other powers) found its minimum: the search starts there alone.
+	hint *[3]float64
 }
 
 type fieldBeam struct {
@@ -202,6 +207,9 @@ func (f *field) findTrap() Trap {
 	starts := [][3]float64{{}}
 	for _, b := range deep {
 		starts = append(starts, b.focusPoint())
+	}
+	if f.hint != nil {
+		starts = [][3]float64{*f.hint}
 	}
 	best, bestV := [3]float64{}, math.Inf(1)
 	for _, st := range starts {
@@ -496,6 +504,9 @@ func (cr *CloudResult) evaluate(scaled []*Laser, k float64, full bool) {
 	c := cr.Cloud
 	tr := c.Data
 	f := cr.fieldOf(scaled, k, true)
+	if !full {
+		f.hint = cr.hint
+	}
 	cr.PotentialAtCloud = f.V([3]float64{})
 	var at [3]float64
 	switch {
@@ -507,6 +518,10 @@ func (cr *CloudResult) evaluate(scaled []*Laser, k float64, full bool) {
 		t := f.findTrap()
 		if t.Found {
 			at = t.Minimum
+			if full {
+				m := t.Minimum
+				cr.hint = &m
+			}
 		}
 		if full && !t.Holds && dot(c.Down, c.Down) > 0 {
 			t.HoldsWithoutGravity = cr.fieldOf(scaled, k, false).findTrap().Holds
@@ -757,10 +772,15 @@ func trapDepthScale(a *AtomsResult, depth float64) (k float64, why string) {
 	n := a.Row.Element.Direction
 	u, v := BeamAxes(n)
 	beam := a.Row.BeamIn
+	var hint *[3]float64
 	at := func(k float64) float64 {
-		f := &field{mass: c.Data.Mass, down: c.Down, beams: []fieldBeam{{x: beam.X, y: beam.Y, λ: beam.Wavelength, power: k * a.Power,
+		f := &field{mass: c.Data.Mass, down: c.Down, hint: hint, beams: []fieldBeam{{x: beam.X, y: beam.Y, λ: beam.Wavelength, power: k * a.Power,
 			perI: a.Dipole.PerIntensity, n: n, u: u, v: v, laser: a.Path.Laser}}}
 		t := f.findTrap()
+		if hint == nil && t.Found {
+			m := t.Minimum
+			hint = &m
+		}
 		if !t.Holds {
 			return 0
 		}
