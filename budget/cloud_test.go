@@ -285,3 +285,37 @@ func TestBeamAxes(t *testing.T) {
 		t.Errorf("rms along (0.6, 0.8, 0) = %g", got)
 	}
 }
+
+// With the excited state's polarizability given for the trap laser, the
+// differential light shift at the minimum is (U_e − U_g)/h with
+// U_e = −α_e I/(2 ε0 c) (by hand, at the focus of a single beam without
+// gravity, where I = 2P/(π w0²)).
+func TestCloudDifferentialLightShiftByHand(t *testing.T) {
+	_, cs := cloudsOf(t, beamOn("trap", "1064 nm", "5 W", "50 um", "z")+cloudC("none", "excited_polarizability = { trap = -1200 }"))
+	cr := cs[0]
+	I := 2 * 5 / (math.Pi * 50e-6 * 50e-6)
+	ug := cr.Beams[0].Atoms.Dipole.PerIntensity * I
+	ue := 1200 * atoms.AUPol / (2 * atoms.Eps0 * atoms.C) * I
+	if want := (ue - ug) / atoms.H; !relNear(cr.DifferentialShift, want, 1e-3) {
+		t.Errorf("differential shift %g Hz, want %g Hz", cr.DifferentialShift, want)
+	}
+	if !relNear(cr.GroundShift, ug/atoms.H, 1e-3) {
+		t.Errorf("ground shift %g Hz, want %g Hz", cr.GroundShift, ug/atoms.H)
+	}
+}
+
+// A whole-cloud saturation goal on two near-resonant beams: s is linear in
+// the power, so the factor is the target over today's s_total.
+func TestCloudSaturationGoal(t *testing.T) {
+	src := strings.ReplaceAll(beamOn("p1", "780.241209686 nm", "1 mW", "1 mm", "z"), "waist_at", "detuning = \"0 MHz\"\nwaist_at") +
+		strings.ReplaceAll(beamOn("p2", "780.241209686 nm", "2 mW", "1 mm", "x"), "waist_at", "detuning = \"0 MHz\"\nwaist_at") +
+		cloudC("none", "goal = \"saturation\"\ngoal_value = 100")
+	_, cs := cloudsOf(t, src)
+	g := cs[0].Goal
+	if g == nil || g.Impossible != "" || len(g.Lasers) != 2 {
+		t.Fatalf("goal %+v", g)
+	}
+	if k := 100 / cs[0].SaturationTotal; !relNear(g.Scale, k, 2e-3) || g.Met != (k <= 1) {
+		t.Errorf("scale %g, want %g", g.Scale, k)
+	}
+}
