@@ -8,15 +8,16 @@ import (
 
 // Loss kinds, each a named way power leaves a beam path.
 const (
-	LossClipping     = "clipping"              // outside a clear aperture
-	LossAbsorption   = "absorption/reflection" // an element's stated transmission
-	LossMirror       = "mirror leakage"        // 1 − reflectivity
-	LossDiffraction  = "undiffracted light"    // an AOM's other orders
-	LossFilter       = "filter"                // optical density
-	LossSplitterPort = "splitter port"         // the other port of a splitter, not followed by any path
-	LossCoupling     = "fibre coupling"        // not coupled into the fibre mode
-	LossDump         = "dump"                  // absorbed in a beam dump
-	LossCombiner     = "combiner port"         // rejected by a combiner, leaving at its other port
+	LossClipping     = "clipping"               // outside a clear aperture
+	LossAbsorption   = "absorption/reflection"  // an element's stated transmission
+	LossMirror       = "mirror leakage"         // 1 − reflectivity
+	LossDiffraction  = "undiffracted light"     // an AOM's other orders
+	LossFilter       = "filter"                 // optical density
+	LossSplitterPort = "splitter port"          // the other port of a splitter, not followed by any path
+	LossCoupling     = "fibre coupling"         // not coupled into the fibre mode
+	LossDump         = "dump"                   // absorbed in a beam dump
+	LossCombiner     = "combiner port"          // rejected by a combiner, leaving at its other port
+	LossScattered    = "scattered by the atoms" // absorbed by a cloud and scattered in all directions
 )
 
 // Loss is power leaving the path at an element, as a fraction of the source's
@@ -194,6 +195,10 @@ func Compute(s *Setup) (*Budget, error) {
 			followed[p.ParentPort] = p
 		}
 	}
+	clouds := map[string]*Cloud{}
+	for _, c := range s.Clouds {
+		clouds[c.Name] = c
+	}
 	own := map[*Path]*PathBudget{}
 	lossless := map[*Element]bool{}
 	for _, p := range PathOrder(s) {
@@ -228,7 +233,7 @@ func Compute(s *Setup) (*Budget, error) {
 			}
 		}
 		for _, pb := range beams {
-			if err := pb.propagate(s.File, followed); err != nil {
+			if err := pb.propagate(s.File, followed, clouds); err != nil {
 				return nil, err
 			}
 			if pb.IsJoined() {
@@ -328,7 +333,7 @@ func (pb *PathBudget) row(e *Element) *Row {
 }
 
 // propagate walks the beam through the path's elements from First.
-func (pb *PathBudget) propagate(file string, followed map[*Element]*Path) error {
+func (pb *PathBudget) propagate(file string, followed map[*Element]*Path, clouds map[string]*Cloud) error {
 	p := pb.Path
 	beam := pb.Start
 	frac := pb.StartFraction
@@ -359,7 +364,7 @@ func (pb *PathBudget) propagate(file string, followed map[*Element]*Path) error 
 			}
 			frac *= row.ClipFraction
 		}
-		st := &stage{pb: pb, followed: followed, index: len(pb.Rows), lastLens: lastLens, beam: beam, frac: frac, row: &row, joining: joining}
+		st := &stage{pb: pb, followed: followed, clouds: clouds, index: len(pb.Rows), lastLens: lastLens, beam: beam, frac: frac, row: &row, joining: joining}
 		kind, _ := KindOf(e.Type)
 		kind.apply(st, el)
 		beam, frac, lastLens = st.beam, st.frac, st.lastLens

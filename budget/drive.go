@@ -53,7 +53,16 @@ type AtomsResult struct {
 	ScatteringRate float64 // photons/s, two-level near resonance, or far-detuned
 	CrossSection   float64 // σ0, m²
 	OpticalDepth   float64 // b0
-	FarDetuned     bool
+	// Absorption is what the cloud does to this beam at the operating
+	// power (transmission; s at the entrance, centre and exit on the axis),
+	// and ScatteredPower the power it scatters, W.
+	Absorption     Absorption
+	ScatteredPower float64
+	// FractionAboveGoal is the share of the atoms (density-weighted) whose
+	// s reaches the goal's at the operating power (NaN without a
+	// saturation, Rabi or collective goal).
+	FractionAboveGoal float64
+	FarDetuned        bool
 	// NearLine names another line of the ground state within
 	// FarDetuningFactor of its linewidths of the light ("" when none); the
 	// dipole and two-level figures are then not computed.
@@ -98,7 +107,18 @@ type GoalResult struct {
 	Impossible string
 	Collective *atoms.Collective
 	Factor     float64
+	// At is where in the cloud the goal must hold: "centre", "exit" or
+	// "all" (then Fraction of the atoms, density-weighted, must reach it).
+	At       string
+	Fraction float64
 }
+
+// Where a goal must hold.
+const (
+	GoalAtCentre = "centre"
+	GoalAtExit   = "exit"
+	GoalAtAll    = "all"
+)
 
 // Drive evaluates every atoms element of the budget.
 func (b *Budget) Drive() []*AtomsResult {
@@ -153,6 +173,10 @@ func (b *Budget) atomsAt(pb *PathBudget, r *Row, c *Cloud) *AtomsResult {
 	a.Rabi = atoms.Rabi(tr.Gamma, a.Saturation)
 	a.CrossSection = atoms.CrossSection(tr.Wavelength, tr.Gamma, a.Isat)
 	a.OpticalDepth = atoms.OpticalDepth(a.CrossSection, c.Atoms, σu, σv)
+	col := columnFor(pb, pb.First+pb.rowIndex(r), r.Element, c)
+	a.Absorption = col.absorb(a.Power, wx, wy)
+	a.ScatteredPower = a.Power * (1 - a.Absorption.Transmission)
+	a.FractionAboveGoal = math.NaN()
 	ω := tr.Frequency() + a.Detuning
 	near, δ := tr.NearestLine(ω)
 	nearDriven := math.Abs(a.Detuning) <= FarDetuningFactor*tr.Gamma
@@ -335,6 +359,23 @@ func (b *Budget) goal(a *AtomsResult, e *Element) *GoalResult {
 	}
 	if g.Impossible == "" && !(a.Row.FractionIn > 0) {
 		g.Impossible = NoLightAtAtoms
+	}
+	// A drive goal holds at a place in the cloud: the incident intensity
+	// must get through the atoms in front of it.
+	g.At, g.Fraction = e.GoalAt, e.GoalFraction
+	if g.Impossible == "" && e.Goal != GoalTrapDepth {
+		sGoal := g.Intensity / a.Isat
+		col := columnFor(a.Path, a.Path.First+a.Path.rowIndex(a.Row), e, a.Cloud)
+		wx, wy := a.Row.BeamIn.Radii()
+		switch g.At {
+		case GoalAtExit:
+			g.Intensity = a.Isat * atoms.IncomingIntensity(sGoal, col.b0*atoms.ColumnFraction(2), col.a)
+		case GoalAtAll:
+			g.Intensity = a.Isat * col.incidentForFraction(sGoal, g.Fraction, wx, wy)
+		default:
+			g.Intensity = a.Isat * atoms.IncomingIntensity(sGoal, col.b0*atoms.ColumnFraction(0), col.a)
+		}
+		a.FractionAboveGoal = col.fractionAbove(a.PeakIrradiance/a.Isat, wx, wy, sGoal)
 	}
 	if g.Impossible != "" {
 		// No figure: the needed powers are not finite numbers.

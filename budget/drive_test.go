@@ -49,11 +49,19 @@ func TestDemoDriveByHand(t *testing.T) {
 	if !near(g.Collective.SatC, 20.64, 3e-4) {
 		t.Errorf("s_c = %g, want 20.64", g.Collective.SatC)
 	}
-	// Power needed: s = (1.5)² s_c, I = s I_sat, P = I π W²/2 at the atoms,
-	// divided by the path's transmission to the atoms.
+	// Power needed: s = (1.5)² s_c at the cloud centre, reached through the
+	// half of the column in front of it: at resonance (a = 1) the incident
+	// s_in satisfies ln(s_in/s) + s_in − s = b0/2 (the saturable-absorber
+	// relation, Reinaudi et al., Opt. Lett. 32, 3143 (2007), eq. (1));
+	// I = s_in I_sat, P = I π W²/2 at the atoms, divided by the path's
+	// transmission to the atoms.
 	wx, wy := a.Row.BeamIn.Radii()
 	s := 1.5 * 1.5 * g.Collective.SatC
-	pAtoms := s * 16.6933 * math.Pi * wx * wy / 2
+	sIn := g.Intensity / 16.6933
+	if rel := math.Log(sIn/s) + sIn - s; !near(rel, a.OpticalDepth/2, 1e-9) {
+		t.Errorf("ln(s_in/s) + s_in − s = %g, want b0/2 = %g", rel, a.OpticalDepth/2)
+	}
+	pAtoms := sIn * 16.6933 * math.Pi * wx * wy / 2
 	if !near(g.PowerAtAtoms, pAtoms, 1e-9) || !near(g.SourcePower, pAtoms/a.Row.FractionIn, 1e-9) {
 		t.Errorf("power at atoms %g (want %g), at source %g", g.PowerAtAtoms, pAtoms, g.SourcePower)
 	}
@@ -144,17 +152,24 @@ func goalFor(t *testing.T, goal, cloud string) (*AtomsResult, []Finding) {
 func TestGoalSaturationByHand(t *testing.T) {
 	a, f := goalFor(t, `goal = "saturation"`+"\n  goal_value = 1", "")
 	w := 1e-3 * math.Sqrt(1+math.Pow(0.2/(math.Pi*1e-6/780.241e-9), 2))
-	want := 20 * math.Pi * w * w / 2
+	// s = 1 at the centre, through half the cloud's column: at resonance
+	// ln(s_in) + s_in − 1 = b0/2 (Reinaudi et al. 2007, eq. (1)).
+	sIn := a.Goal.Intensity / 20
+	if rel := math.Log(sIn) + sIn - 1; !near(rel, a.OpticalDepth/2, 1e-9) {
+		t.Errorf("ln(s_in) + s_in − 1 = %g, want b0/2 = %g", rel, a.OpticalDepth/2)
+	}
+	want := 20 * sIn * math.Pi * w * w / 2
 	if g := a.Goal; !near(g.PowerAtAtoms, want, 1e-9) || !near(g.SourcePower, 2*want, 1e-9) || !g.Met {
 		t.Errorf("goal %+v, want %g W at the atoms", *g, want)
 	}
 	if len(f) != 0 {
 		t.Errorf("findings %v", f)
 	}
-	// Ω/2π = Γ/2π √(s/2): for Ω/2π = 6 MHz, s = 2.
+	// Ω/2π = Γ/2π √(s/2): for Ω/2π = 6 MHz, s = 2 at the centre.
 	a, _ = goalFor(t, `goal = "rabi"`+"\n  goal_value = \"6 MHz\"", "")
-	if g := a.Goal; !near(g.Intensity, 2*20, 1e-12) {
-		t.Errorf("rabi goal needs %g W/m², want 40", g.Intensity)
+	sIn = a.Goal.Intensity / 20
+	if rel := math.Log(sIn/2) + sIn - 2; !near(rel, a.OpticalDepth/2, 1e-9) {
+		t.Errorf("rabi goal: ln(s_in/2) + s_in − 2 = %g, want b0/2 = %g", rel, a.OpticalDepth/2)
 	}
 }
 

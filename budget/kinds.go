@@ -52,7 +52,7 @@ var Kinds = []*ElementKind{
 	{Type: TypeAperture, Does: "an iris: clips the beam at its diameter", Keys: []string{"diameter"}, Surfaces: 0, read: readAperture, apply: applyAperture},
 	{Type: TypeSplitter, Does: "a splitter: transmission goes on along this path, the rest feeds the path whose from names it (or is lost)", Keys: []string{}, Surfaces: 2, read: readSplitter, apply: applySplitter},
 	{Type: TypeFiber, Does: "a single-mode fibre: couples the beam's mode overlap × alignment (or the stated coupling) and launches a new Gaussian beam", Keys: []string{"mode_field_diameter", "alignment", "coupling", "output_waist", "output_focal_length"}, Surfaces: 1, read: readFiber, apply: applyFiber},
-	{Type: TypeAtoms, Does: "an atom cloud: the drive is evaluated here; the beam passes unchanged", Keys: []string{"cloud", "goal", "goal_value", "goal_factor", "detuning", "axis", "direction", "interference"}, Surfaces: 0, read: readAtoms, apply: applyAtoms},
+	{Type: TypeAtoms, Does: "an atom cloud: the drive is evaluated here; the beam passes unchanged", Keys: []string{"cloud", "goal", "goal_value", "goal_factor", "goal_at", "goal_fraction", "detuning", "axis", "direction", "interference"}, Surfaces: 0, read: readAtoms, apply: applyAtoms},
 	{Type: TypeDump, Does: "a beam dump: absorbs everything and ends the path", Keys: []string{"rating", "diffuse_reflectance"}, Surfaces: 0, read: readDump, apply: applyDump},
 	{Type: TypeCombiner, Does: "a combiner (polarizing cube, dichroic): the path whose into names it joins here; transmission of this path's own beams and join_transmission of the joining ones go on, the rest leaves the path at its other port", Keys: []string{"join_transmission"}, Surfaces: 2, read: readCombiner, apply: applyCombiner},
 	{Type: TypeCylLens, Does: "a thin cylindrical lens: the ABCD matrix (1, 0; −1/f, 1) in its plane (x or y) only; loss: its stated transmission", Keys: []string{"focal_length", "plane"}, Surfaces: 2, read: readCylLens, apply: applyCylLens},
@@ -73,6 +73,7 @@ func KindOf(t ElementType) (*ElementKind, bool) {
 type stage struct {
 	pb       *PathBudget
 	followed map[*Element]*Path // splitters whose other port a path follows
+	clouds   map[string]*Cloud  // by name
 	index    int                // the element's index in the path, 0-based
 	lastLens int                // index of the last lens since the start or the last fibre, -1 if none
 	beam     Beam
@@ -190,6 +191,20 @@ func readAtoms(t *table, e *Element, m map[string]any) {
 		e.Interference = ""
 	}
 	readGoal(t, &e.Goal, &e.GoalValue, &e.GoalFactor, m)
+	e.GoalAt = t.enum("goal_at", GoalAtCentre, GoalAtCentre, GoalAtExit, GoalAtAll)
+	e.GoalFraction = 0.9
+	if f := t.fraction("goal_fraction", 0, 1); f != nil {
+		if e.GoalAt != GoalAtAll {
+			t.fail("goal_fraction", "only with goal_at = \"all\"")
+		} else if *f == 0 {
+			t.fail("goal_fraction", "must be above 0")
+		} else {
+			e.GoalFraction = *f
+		}
+	}
+	if (t.has("goal_at") || t.has("goal_fraction")) && e.Goal == "" {
+		t.fail("goal_at", "given without goal")
+	}
 	if d, ok := t.quantity("detuning", Frequency, false); ok {
 		e.Detuning = &d
 	}
@@ -295,6 +310,15 @@ func applyAperture(s *stage, e *Element) {
 
 func applyAtoms(s *stage, e *Element) {
 	s.stated(LossAbsorption, e.Transmission)
+	// The cloud scatters what it absorbs, at the laser's maximum power
+	// (the most that saturation lets through: conservative downstream).
+	if c := s.clouds[e.Cloud]; c != nil && c.Data != nil && s.frac > 0 {
+		col := columnFor(s.pb, s.pb.First+s.index, s.row.Element, c)
+		wx, wy := s.beam.Radii()
+		t := col.absorb(s.frac*s.pb.Laser.Power, wx, wy).Transmission
+		s.lose(LossScattered, s.frac*(1-t))
+		s.frac *= t
+	}
 }
 
 func applySplitter(s *stage, e *Element) {

@@ -155,7 +155,11 @@ type Element struct {
 	Goal       string
 	GoalValue  *float64 // SI: saturation (bare), rabi (Hz), trap_depth (K)
 	GoalFactor float64  // collective: multiple of the threshold
-	Detuning   *float64 // Hz, overrides the laser's plus AOM shifts
+	// GoalAt is where the goal must hold ("centre", "exit", "all");
+	// GoalFraction the share of the atoms for "all".
+	GoalAt       string
+	GoalFraction float64
+	Detuning     *float64 // Hz, overrides the laser's plus AOM shifts
 	// Direction is the unit vector the beam runs along in the cloud's frame
 	// (axis = "z" by default: [0, 0, 1]).
 	Direction [3]float64

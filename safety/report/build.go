@@ -9,6 +9,7 @@ import (
 	"strings"
 
 	"beamledger/budget"
+	"beamledger/budget/atoms"
 	"beamledger/limits"
 	"beamledger/safety"
 	"beamledger/safety/view"
@@ -325,6 +326,9 @@ func atomsSection(a *safety.Assessment, l *view.List) Section {
 		if g := at.Goal; g != nil && g.Collective != nil && g.Impossible == "" {
 			sec.Blocks = append(sec.Blocks, Block{Plot: collectivePlot(at, g)})
 		}
+		if !at.FarDetuned && at.NearLine == "" && at.Row.FractionIn > 0 && at.OpticalDepth > 0 {
+			sec.Blocks = append(sec.Blocks, Block{Plot: saturationPlot(at)})
+		}
 	}
 	return sec
 }
@@ -358,6 +362,29 @@ func cloudsSection(a *safety.Assessment, l *view.List) Section {
 		}
 	}
 	return sec
+}
+
+// saturationPlot shows s on the beam axis through the cloud (positions in
+// rms sizes along the beam), at the operating power and, with a drive goal,
+// at the goal's power: the saturable absorber through the column in front.
+func saturationPlot(at *budget.AtomsResult) *Plot {
+	tr := at.Transition
+	a := atoms.DetuningFactor(at.Detuning, tr.Gamma)
+	pl := &Plot{Title: "s = I/I_sat on the beam axis through the cloud", XLabel: "position along the beam (rms sizes from the centre)", YLabel: "s", LogY: true}
+	series := func(name string, i0 float64, dashed bool) {
+		var xs, ys []float64
+		for k := -30; k <= 30; k++ {
+			z := float64(k) / 10
+			xs = append(xs, z)
+			ys = append(ys, atoms.OutgoingIntensity(i0, at.OpticalDepth*atoms.ColumnFraction(z), a))
+		}
+		pl.Series = append(pl.Series, Series{Name: name, X: xs, Y: ys, Dashed: dashed})
+	}
+	series("at the operating power", at.PeakIrradiance/at.Isat, false)
+	if g := at.Goal; g != nil && g.Impossible == "" && g.Kind != budget.GoalTrapDepth {
+		series("at the goal's power", g.Intensity/at.Isat, true)
+	}
+	return pl
 }
 
 // collectivePlot shows the source power needed against the multiple of the

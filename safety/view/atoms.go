@@ -79,7 +79,7 @@ func (b *builder) atomsRecord(a *budget.AtomsResult) Record {
 		a.Path.Path.Name, e.Index, a.Cloud.Name, tr.Name, fmtG(a.Cloud.Atoms), las.Name, budget.FormatPower(las.OperatingPower)))
 	r.Line("  beam: Wx {radius_x_m}, Wy {radius_y_m}; waist {focus_x} (x), {focus_y} (y) from the cloud (+ downstream)")
 	r.Line("  power {power_w}, peak irradiance {peak_irradiance_w_m2}")
-	r.Line(fmt.Sprintf("  across the cloud: I at ±1 rms is {irradiance_at_rms_x_relative} (x), {irradiance_at_rms_y_relative} (y) of the centre; W at ±1 rms along the beam (%s): {radius_at_cloud_ends_m}", budget.FormatLength(a.Cloud.RMSSize[2])))
+	r.Line(fmt.Sprintf("  across the cloud: I at ±1 rms is {irradiance_at_rms_x_relative} (x), {irradiance_at_rms_y_relative} (y) of the centre; W at ±1 rms along the beam (%s): {radius_at_cloud_ends_m}", budget.FormatLength(a.Cloud.RMSAlong(a.Row.Element.Direction))))
 	r.Line("  detuning Δ/2π = {detuning_hz} ({detuning_source})")
 	r.Line("  I_sat = {saturation_intensity_w_m2} ({saturation_intensity_kind})")
 	switch {
@@ -105,6 +105,23 @@ func (b *builder) atomsRecord(a *budget.AtomsResult) Record {
 		r.Line("  s = I/I_sat = {saturation}, Ω/2π = {rabi_frequency_hz}, scattering rate {scattering_rate_per_s} photons/s (two-level)")
 	}
 	r.Line("  resonant optical depth along the beam b0 = σ0 N/(2π σx σy) = {optical_depth} (σ0 = {cross_section_m2} m²)")
+	ab := a.Absorption
+	r.F(Plain(dCloudTransmission, ab.Transmission)).
+		F(Pow(dScatteredPowerW, a.ScatteredPower)).
+		F(Plain(dSaturationEntrance, ab.Entrance)).
+		F(Plain(dSaturationCentre, ab.Centre)).
+		F(Plain(dSaturationExit, ab.Exit))
+	if math.IsNaN(a.FractionAboveGoal) {
+		r.F(Absent(dFractionAboveGoal, false))
+	} else {
+		r.F(Num(dFractionAboveGoal, a.FractionAboveGoal, fixed(100*a.FractionAboveGoal, 1, " %")))
+	}
+	if !a.FarDetuned && a.NearLine == "" {
+		r.Line("  through the cloud (saturable absorption along each ray, with I_sat as above; independent two-level atoms, no diffraction, lensing or Doppler broadening, the detuning above): transmission {cloud_transmission}, {scattered_power_w} scattered; s on the beam axis {saturation_entrance} at the entrance (−2 rms), {saturation_centre} at the centre, {saturation_exit} at the exit (+2 rms)")
+		if !math.IsNaN(a.FractionAboveGoal) {
+			r.Line("  {fraction_above_goal} of the atoms (weighted by density) reach the goal's s at the operating power")
+		}
+	}
 	if goal != nil {
 		for _, l := range goal.Lines {
 			r.Line(prefixKeys([]string{l}, "goal.")[0])
@@ -145,11 +162,22 @@ func (b *builder) goalRecord(a *budget.AtomsResult, g *budget.GoalResult) *Recor
 	}
 	r.F(Flag(dMet, g.Met, verdict))
 	r.F(Field{d: dImpossible, Kind: String, Text: g.Impossible, OmitEmpty: true})
+	if g.Kind != budget.GoalTrapDepth {
+		r.F(Str(dGoalAt, g.At))
+		where := map[string]string{budget.GoalAtCentre: "at the cloud centre, reached through the atoms in front of it", budget.GoalAtExit: "at the cloud's exit (+2 rms, the weakest-driven end), reached through the atoms in front of it"}[g.At]
+		if g.At == budget.GoalAtAll {
+			r.F(Plain(dGoalFraction, g.Fraction))
+			where = fmt.Sprintf("for %s of the atoms (weighted by density), reached through the atoms in front of them", fixed(100*g.Fraction, 0, " %"))
+		} else {
+			r.F(Absent(dGoalFraction, true))
+		}
+		r.F(Field{d: dGoalWhere, Kind: String, Text: where, People: true})
+	}
 	switch g.Kind {
 	case budget.GoalSaturation:
-		r.Line("  goal: saturation s = {target_si}")
+		r.Line("  goal: saturation s = {target_si}, {goal_where}")
 	case budget.GoalRabi:
-		r.Line("  goal: Rabi frequency Ω/2π = {target_si}")
+		r.Line("  goal: Rabi frequency Ω/2π = {target_si}, {goal_where}")
 	case budget.GoalTrapDepth:
 		r.Line("  goal: trap depth U/k_B = {target_si}")
 	case budget.GoalCollective:
@@ -178,7 +206,7 @@ func (b *builder) goalRecord(a *budget.AtomsResult, g *budget.GoalResult) *Recor
 	if g.Impossible != "" {
 		r.Line("    cannot be met: {impossible}")
 	} else {
-		r.Line(fmt.Sprintf("    needs {irradiance_needed_w_m2} at the cloud centre → {power_at_atoms_w} at the atoms → {source_power_w} at laser %q; operating power {available_source_power_w}; margin {margin_db}: {met}", a.Path.Laser.Name))
+		r.Line(fmt.Sprintf("    needs a peak of {irradiance_needed_w_m2} arriving at the cloud → {power_at_atoms_w} at the atoms → {source_power_w} at laser %q; operating power {available_source_power_w}; margin {margin_db}: {met}", a.Path.Laser.Name))
 	}
 	return r
 }

@@ -5,6 +5,15 @@ package view
 // with its descriptor (Num(dPowerW, …)), so that every field of a kind
 // shares these strings. A new field gets its descriptor here.
 var (
+	dCloudTransmission           = &Desc{"cloud_transmission", "cloud transmission", "Absorption.Transmission"}
+	dScatteredPowerW             = &Desc{"scattered_power_w", "scattered", "AtomsResult.ScatteredPower"}
+	dSaturationEntrance          = &Desc{"saturation_entrance", "s entrance", "Absorption.Entrance"}
+	dSaturationCentre            = &Desc{"saturation_centre", "s centre", "Absorption.Centre"}
+	dSaturationExit              = &Desc{"saturation_exit", "s exit", "Absorption.Exit"}
+	dFractionAboveGoal           = &Desc{"fraction_above_goal", "above the goal", "AtomsResult.FractionAboveGoal"}
+	dGoalAt                      = &Desc{"goal_at", "where", "GoalResult.At"}
+	dGoalFraction                = &Desc{"goal_fraction", "share of the atoms", "GoalResult.Fraction"}
+	dGoalWhere                   = &Desc{"goal_where", "where", ""}
 	dGoalFactor2                 = &Desc{"goal_factor", "multiple of the threshold", "CloudGoal.Factor"}
 	dName5                       = &Desc{"name", "cloud", "Cloud.Name"}
 	dTransition2                 = &Desc{"transition", "transition", "Cloud.Transition"}

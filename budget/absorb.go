@@ -1,0 +1,164 @@
+package budget
+
+import (
+	"math"
+
+	"gonum.org/v1/gonum/integrate/quad"
+
+	"beamledger/budget/atoms"
+)
+
+// Absorption is what an optically thick cloud does to a beam crossing it:
+// each transverse ray is a saturable absorber (atoms.OutgoingIntensity)
+// through the cloud's Gaussian column, and the ray results are integrated
+// over the beam's Gaussian profile.
+type Absorption struct {
+	// Transmission is the fraction of the beam's power that passes the
+	// cloud; the rest is scattered by the atoms.
+	Transmission float64
+	// Entrance, Centre and Exit are s = I/I_sat on the beam axis at −2, 0
+	// and +2 rms sizes along the beam.
+	Entrance, Centre, Exit float64
+}
+
+// cloudColumn is a cloud as one beam sees it: its peak resonant optical
+// depth b0 along the beam, its rms sizes across the beam (in the beam's x
+// and y planes), the detuning factor a = 1 + 4Δ²/Γ² and I_sat (W/m²).
+type cloudColumn struct {
+	b0, σx, σy, a, isat float64
+}
+
+// weakLimit is the optical depth b0/a below which the cloud is treated as
+// weak (Beer–Lambert, linear in b): the absorbed fraction is then below
+// 1e-6 of the light crossing it.
+const weakLimit = 1e-6
+
+// quadNodes is the number of Gauss–Legendre nodes across each transverse
+// direction.
+const quadNodes = 32
+
+// nodes holds the Gauss–Legendre nodes and weights on [−1, 1].
+var nodes = func() (n struct{ x, w []float64 }) {
+	n.x, n.w = make([]float64, quadNodes), make([]float64, quadNodes)
+	quad.Legendre{}.FixedLocations(n.x, n.w, -1, 1)
+	return n
+}()
+
+// absorb is the absorption of a beam of power p (W) and 1/e² radii wx, wy
+// at the cloud.
+func (col cloudColumn) absorb(p, wx, wy float64) Absorption {
+	i0 := 2 * p / (math.Pi * wx * wy) / col.isat
+	ab := Absorption{Transmission: 1}
+	for k, z := range []float64{-2, 0, 2} {
+		s := atoms.OutgoingIntensity(i0, col.b0*atoms.ColumnFraction(z), col.a)
+		switch k {
+		case 0:
+			ab.Entrance = s
+		case 1:
+			ab.Centre = s
+		default:
+			ab.Exit = s
+		}
+	}
+	if !(p > 0) || !(col.b0 > 0) {
+		return ab
+	}
+	if col.b0/col.a < weakLimit {
+		// ∬ I (b/a) dx dy for the two Gaussians in closed form.
+		kx := 2/(wx*wx) + 1/(2*col.σx*col.σx)
+		ky := 2/(wy*wy) + 1/(2*col.σy*col.σy)
+		absorbed := i0 * col.isat * col.b0 / col.a * math.Pi / math.Sqrt(kx*ky)
+		ab.Transmission = 1 - absorbed/p
+		return ab
+	}
+	// The absorbed intensity I_in − I_out over the region where both the
+	// beam and the column are.
+	X, Y := math.Min(3.5*wx, 6*col.σx), math.Min(3.5*wy, 6*col.σy)
+	var ix, iy, bx, by [quadNodes]float64 // the profiles at the nodes, separable
+	for k, u := range nodes.x {
+		x, y := u*X, u*Y
+		ix[k], iy[k] = math.Exp(-2*x*x/(wx*wx)), math.Exp(-2*y*y/(wy*wy))
+		bx[k], by[k] = math.Exp(-x*x/(2*col.σx*col.σx)), math.Exp(-y*y/(2*col.σy*col.σy))
+	}
+	absorbed := 0.0
+	for i := range nodes.x {
+		for j := range nodes.x {
+			in := i0 * ix[i] * iy[j]
+			b := col.b0 * bx[i] * by[j]
+			absorbed += nodes.w[i] * nodes.w[j] * (in - atoms.OutgoingIntensity(in, b, col.a))
+		}
+	}
+	absorbed *= X * Y * col.isat
+	ab.Transmission = math.Max(0, 1-absorbed/p)
+	return ab
+}
+
+// fractionAbove is the share of the atoms (weighted by density) where s
+// reaches sGoal, for a beam of peak incident s i0 and 1/e² radii wx, wy:
+// along each ray the atoms in front of the depth b* where s falls to
+// sGoal, b* = a ln(i_in/s_goal) + i_in − s_goal, are above it, so the ray
+// contributes min(b, b*) of its column b.
+func (col cloudColumn) fractionAbove(i0, wx, wy, sGoal float64) float64 {
+	if !(col.b0 > 0) {
+		if i0 >= sGoal {
+			return 1
+		}
+		return 0
+	}
+	X, Y := 6*col.σx, 6*col.σy
+	var ix, iy, bx, by [quadNodes]float64
+	for k, u := range nodes.x {
+		x, y := u*X, u*Y
+		ix[k], iy[k] = math.Exp(-2*x*x/(wx*wx)), math.Exp(-2*y*y/(wy*wy))
+		bx[k], by[k] = math.Exp(-x*x/(2*col.σx*col.σx)), math.Exp(-y*y/(2*col.σy*col.σy))
+	}
+	num, den := 0.0, 0.0
+	for i := range nodes.x {
+		for j := range nodes.x {
+			in := i0 * ix[i] * iy[j]
+			b := col.b0 * bx[i] * by[j]
+			w := nodes.w[i] * nodes.w[j]
+			den += w * b
+			if in > sGoal {
+				num += w * math.Min(b, col.a*math.Log(in/sGoal)+in-sGoal)
+			}
+		}
+	}
+	return num / den
+}
+
+// columnFor is cloud c as the beam pb sees it at element k of its path
+// (element e): the peak resonant optical depth across the beam's planes,
+// the detuning factor at the light's detuning there and the cloud's I_sat.
+func columnFor(pb *PathBudget, k int, e *Element, c *Cloud) cloudColumn {
+	tr := c.Data
+	isat, _, _ := tr.Isat(c.Saturation)
+	u, v := BeamAxes(e.Direction)
+	σx, σy := c.RMSAlong(u), c.RMSAlong(v)
+	σ0 := atoms.CrossSection(tr.Wavelength, tr.Gamma, isat)
+	var own *Element
+	if !pb.IsJoined() {
+		own = e
+	}
+	Δ, _ := detuningAt(pb.Laser, own, pb.ShiftBefore(k), tr)
+	return cloudColumn{b0: atoms.OpticalDepth(σ0, c.Atoms, σx, σy), σx: σx, σy: σy, a: atoms.DetuningFactor(Δ, tr.Gamma), isat: isat}
+}
+
+// incidentForFraction is the peak incident s (units of I_sat) at which the
+// share frac of the atoms reaches sGoal, by bisection on log s (the share
+// grows with the drive).
+func (col cloudColumn) incidentForFraction(sGoal, frac, wx, wy float64) float64 {
+	lo, hi := sGoal, sGoal
+	for col.fractionAbove(hi, wx, wy, sGoal) < frac && hi < 1e12*sGoal {
+		lo, hi = hi, hi*4
+	}
+	for hi/lo > 1+1e-4 {
+		mid := math.Sqrt(lo * hi)
+		if col.fractionAbove(mid, wx, wy, sGoal) >= frac {
+			hi = mid
+		} else {
+			lo = mid
+		}
+	}
+	return hi
+}

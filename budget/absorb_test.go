@@ -1,0 +1,60 @@
+package budget
+
+import (
+	"math"
+	"testing"
+
+	"gonum.org/v1/gonum/integrate/quad"
+
+	"beamledger/budget/atoms"
+)
+
+// A round beam far narrower than the cloud sees one optical depth b0: its
+// transmission is (1/I0) ∫₀¹ I_out(I0 u)/u du (the Gaussian profile in the
+// variable u = exp(−2r²/w²)), computed here by gonum's Gauss–Legendre
+// quadrature in one dimension against the two-dimensional sum of absorb.
+func TestAbsorbNarrowBeamAgainstRadialIntegral(t *testing.T) {
+	for _, c := range []struct{ p, b0, a float64 }{{1e-3, 25, 1}, {50e-3, 25, 1}, {10e-3, 5, 4}} {
+		w := 50e-6
+		col := cloudColumn{b0: c.b0, σx: 100 * w, σy: 100 * w, a: c.a, isat: 16.6933}
+		i0 := 2 * c.p / (math.Pi * w * w) / col.isat
+		f := func(u float64) float64 {
+			if u == 0 {
+				return math.Exp(-c.b0 / c.a) // the weak limit of i_out/(i0 u)
+			}
+			return atoms.OutgoingIntensity(i0*u, c.b0, c.a) / (i0 * u)
+		}
+		want := quad.Fixed(f, 0, 1, 400, quad.Legendre{}, 0)
+		if got := col.absorb(c.p, w, w).Transmission; math.Abs(got-want) > 2e-4 {
+			t.Errorf("P %g W, b0 %g, a %g: T = %.6f, radial integral %.6f", c.p, c.b0, c.a, got, want)
+		}
+	}
+}
+
+// On the demo's pencil cloud (b0 = 25.7 on resonance) the budget names the
+// scattered light at the atoms element, at the laser's maximum power, and
+// the drive gives the transmission at the operating power; the balance
+// closes.
+func TestScatteredByTheAtoms(t *testing.T) {
+	d := demoDrive(t)
+	a := d[0]
+	r := a.Row
+	scattered := 0.0
+	for _, l := range r.Losses {
+		if l.Kind == LossScattered {
+			scattered = l.Fraction
+		}
+	}
+	wx, wy := r.BeamIn.Radii()
+	col := columnFor(a.Path, a.Path.First+a.Path.rowIndex(r), r.Element, a.Cloud)
+	atMax := col.absorb(r.FractionIn*a.Path.Laser.Power, wx, wy).Transmission
+	if want := r.FractionIn * (1 - atMax); math.Abs(scattered-want) > 1e-12 || scattered <= 0 {
+		t.Errorf("scattered %g of the source, want %g", scattered, want)
+	}
+	if !(a.Absorption.Transmission > 0 && a.Absorption.Transmission < 1) || math.Abs(a.ScatteredPower-a.Power*(1-a.Absorption.Transmission)) > 1e-15 {
+		t.Errorf("transmission %g, scattered %g W of %g W", a.Absorption.Transmission, a.ScatteredPower, a.Power)
+	}
+	if !(a.Absorption.Entrance > a.Absorption.Centre && a.Absorption.Centre > a.Absorption.Exit) {
+		t.Errorf("s along the axis %g, %g, %g must fall", a.Absorption.Entrance, a.Absorption.Centre, a.Absorption.Exit)
+	}
+}
