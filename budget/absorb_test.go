@@ -58,3 +58,21 @@ func TestScatteredByTheAtoms(t *testing.T) {
 		t.Errorf("s along the axis %g, %g, %g must fall", a.Absorption.Entrance, a.Absorption.Centre, a.Absorption.Exit)
 	}
 }
+
+// The goal's places: at the exit the incident s satisfies ln(s_in/s) + s_in
+// − s = b0 Φ(2) (the column in front of +2 rms; Reinaudi et al. 2007,
+// eq. (1) at resonance); for "all", the incident drive found puts the asked
+// share of the atoms above the goal.
+func TestGoalAtExitAndAll(t *testing.T) {
+	a, _ := goalFor(t, "goal = \"saturation\"\n  goal_value = 1\n  goal_at = \"exit\"", "")
+	sIn := a.Goal.Intensity / 20
+	if rel := math.Log(sIn) + sIn - 1; !near(rel, a.OpticalDepth*atoms.ColumnFraction(2), 1e-9) {
+		t.Errorf("exit: ln(s_in) + s_in − 1 = %g, want b0 Φ(2) = %g", rel, a.OpticalDepth*atoms.ColumnFraction(2))
+	}
+	a, _ = goalFor(t, "goal = \"saturation\"\n  goal_value = 1\n  goal_at = \"all\"\n  goal_fraction = 0.8", "")
+	col := columnFor(a.Path, a.Path.First+a.Path.rowIndex(a.Row), a.Row.Element, a.Cloud)
+	wx, wy := a.Row.BeamIn.Radii()
+	if f := col.fractionAbove(a.Goal.Intensity/20, wx, wy, 1); math.Abs(f-0.8) > 1e-3 || a.Goal.At != GoalAtAll || a.Goal.Fraction != 0.8 {
+		t.Errorf("all: %g of the atoms above the goal at the goal's drive, want 0.8", f)
+	}
+}
