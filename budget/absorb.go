@@ -33,6 +33,11 @@ type cloudColumn struct {
 // 1e-6 of the light crossing it.
 const weakLimit = 1e-6
 
+// thinLimit is the optical depth b0/a below which each ray is taken to
+// first order in b, ΔI = I_sat b i/(a + i) (saturation kept; the neglected
+// terms are below b0/a = 1 % of the absorbed light).
+const thinLimit = 1e-2
+
 // quadNodes is the number of Gauss–Legendre nodes across each transverse
 // direction.
 const quadNodes = 32
@@ -81,11 +86,16 @@ func (col cloudColumn) absorb(p, wx, wy float64) Absorption {
 		bx[k], by[k] = math.Exp(-x*x/(2*col.σx*col.σx)), math.Exp(-y*y/(2*col.σy*col.σy))
 	}
 	absorbed := 0.0
+	thin := col.b0/col.a < thinLimit
 	for i := range nodes.x {
 		for j := range nodes.x {
 			in := i0 * ix[i] * iy[j]
 			b := col.b0 * bx[i] * by[j]
-			absorbed += nodes.w[i] * nodes.w[j] * (in - atoms.OutgoingIntensity(in, b, col.a))
+			if thin {
+				absorbed += nodes.w[i] * nodes.w[j] * b * in / (col.a + in)
+			} else {
+				absorbed += nodes.w[i] * nodes.w[j] * (in - atoms.OutgoingIntensity(in, b, col.a))
+			}
 		}
 	}
 	absorbed *= X * Y * col.isat

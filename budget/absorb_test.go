@@ -14,7 +14,7 @@ import (
 // variable u = exp(−2r²/w²)), computed here by gonum's Gauss–Legendre
 // quadrature in one dimension against the two-dimensional sum of absorb.
 func TestAbsorbNarrowBeamAgainstRadialIntegral(t *testing.T) {
-	for _, c := range []struct{ p, b0, a float64 }{{1e-3, 25, 1}, {50e-3, 25, 1}, {10e-3, 5, 4}} {
+	for _, c := range []struct{ p, b0, a float64 }{{1e-3, 25, 1}, {50e-3, 25, 1}, {10e-3, 5, 4}, {10e-3, 0.5, 100}, {1e-6, 1e-3, 1e3}} { // the last two: optically thin rays, first order in b
 		w := 50e-6
 		col := cloudColumn{b0: c.b0, σx: 100 * w, σy: 100 * w, a: c.a, isat: 16.6933}
 		i0 := 2 * c.p / (math.Pi * w * w) / col.isat
