@@ -686,12 +686,15 @@ func (cr *CloudResult) goal() *CloudGoal {
 		g.Impossible = "the combined trap was not searched for: " + t.Skipped
 		return g
 	}
-	lo, hi, ok := bracket(func(k float64) bool { return cr.metric(g.Lasers, k) >= g.Target })
+	γ := 1.0 // the figure's power law in k: s and U grow as k, Ω as √k
+	if c.Goal == GoalRabi || c.Goal == GoalCollective {
+		γ = 0.5
+	}
+	hi, ok := solveScale(func(k float64) float64 { return cr.metric(g.Lasers, k) }, g.Target, γ)
 	if !ok {
 		g.Impossible = fmt.Sprintf("even a million times the operating powers of %s does not reach it", laserNames(g.Lasers))
 		return g
 	}
-	hi = bisect(lo, hi, func(k float64) bool { return cr.metric(g.Lasers, k) >= g.Target })
 	g.Scale = hi
 	for _, las := range g.Lasers {
 		g.Needed = append(g.Needed, hi*las.OperatingPower)
@@ -786,12 +789,55 @@ func trapDepthScale(a *AtomsResult, depth float64) (k float64, why string) {
 		}
 		return t.Depth
 	}
-	lo, hi, ok := bracket(func(k float64) bool { return at(k) >= depth })
+	k, ok := solveScale(at, depth, 1)
 	if !ok {
 		return 0, "even a million times the power makes no trap that deep against gravity"
 	}
-	hi = bisect(lo, hi, func(k float64) bool { return at(k) >= depth })
-	return hi, ""
+	return k, ""
+}
+
+// solveScale finds the least factor k on the powers at which metric(k)
+// (growing with k, about as k^γ) reaches target: first by secant steps on
+// log k – log metric, which take a few evaluations when the figure is close
+// to a power law; if they do not settle within 1e-4, by bracketing and
+// bisection. The answer is where metric(k) ≥ target, within 0.1 %.
+func solveScale(metric func(float64) float64, target, γ float64) (float64, bool) {
+	k, m := 1.0, metric(1)
+	if m > 0 {
+		lk, lm := math.Log(k), math.Log(m)
+		for range 8 {
+			nk := math.Exp(lk + (math.Log(target)-lm)/γ)
+			if !(nk > 1e-6 && nk < 1e6) {
+				break
+			}
+			nm := metric(nk)
+			if !(nm > 0) {
+				break
+			}
+			if math.Abs(nm/target-1) < 1e-4 {
+				if nm >= target {
+					return nk, true
+				}
+				// just short: step up to the safe side of the 0.1 % tolerance
+				if up := nk * (1 + 1e-3); metric(up) >= target {
+					return up, true
+				}
+				break
+			}
+			if d := math.Log(nk) - lk; math.Abs(d) > 1e-12 {
+				if g := (math.Log(nm) - lm) / d; g > 0.05 && g < 20 {
+					γ = g
+				}
+			}
+			lk, lm = math.Log(nk), math.Log(nm)
+		}
+	}
+	enough := func(k float64) bool { return metric(k) >= target }
+	lo, hi, ok := bracket(enough)
+	if !ok {
+		return 0, false
+	}
+	return bisect(lo, hi, enough), true
 }
 
 // bracket finds factors lo < hi around the least k in [1e-6, 1e6] for which
