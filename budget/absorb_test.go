@@ -95,3 +95,17 @@ func TestAbsorbWideBeamUniformForm(t *testing.T) {
 		}
 	}
 }
+
+// The two-dimensional sum (used for elliptical beams or clouds) agrees with
+// the radial integral of a round beam on a round cloud when the ellipticity
+// is negligible (1e-6).
+func TestAbsorbEllipticalSumMatchesRound(t *testing.T) {
+	col := cloudColumn{b0: 25, σx: 100e-6, σy: 100e-6, a: 1, isat: 16.6933}
+	for _, p := range []float64{1e-4, 1e-2} {
+		round := col.absorb(p, 300e-6, 300e-6).Transmission
+		ell := col.absorb(p, 300e-6*(1+1e-6), 300e-6).Transmission
+		if math.Abs(round-ell) > 2e-4 {
+			t.Errorf("P %g: round %.6f, 2D sum %.6f", p, round, ell)
+		}
+	}
+}

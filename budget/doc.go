@@ -54,6 +54,8 @@
 //	| multi-beam scattering | (Γ/2) s_i/(1 + s_total + 4Δ²/Γ²) | rate equations, common practice | MultiBeamScattering | TestCloudNearResonantTotals |
 //	| beam axes in the cloud frame | x plane ∋ first cloud axis not along the beam | our convention | BeamAxes | TestBeamAxes |
 //	| cloud rms along a direction | √Σ dᵢ² σᵢ² | Gaussian cloud | Cloud.RMSAlong | TestBeamAxes |
+//	| percentile of samples | linear between ranks at (n−1)p | common practice (numerical packages' default) | Percentile | TestPercentile |
+//	| goal probability | share of Monte Carlo samples with margin ≥ 0 | uniform: (b − η*)/(b − a); normal: Φ((μ − η*)/σ), gonum distuv | Tolerances | TestToleranceUniformProbability |
 //	| pulse energy | Q = P/f | definition of the average power, common practice | PulseEnergy | ExamplePulseEnergy |
 //	| pulse peak power | P_peak = Q/τ (rectangular pulse) | common practice | PulsePeakPower | ExamplePulseEnergy |
 package budget

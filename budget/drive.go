@@ -138,14 +138,17 @@ func (b *Budget) Drive() []*AtomsResult {
 				if c == nil || c.Data == nil {
 					continue
 				}
-				out = append(out, b.atomsAt(pb, r, c))
+				out = append(out, b.atomsAt(pb, r, c, true))
 			}
 		}
 	}
 	return out
 }
 
-func (b *Budget) atomsAt(pb *PathBudget, r *Row, c *Cloud) *AtomsResult {
+// atomsAt evaluates the drive at one atoms element; full also integrates
+// the cloud's absorption over the beam (a tolerance sample needs only the
+// goal's margin).
+func (b *Budget) atomsAt(pb *PathBudget, r *Row, c *Cloud, full bool) *AtomsResult {
 	las := pb.Laser
 	tr := c.Data
 	a := &AtomsResult{Path: pb, Row: r, Cloud: c, Transition: tr}
@@ -173,10 +176,12 @@ func (b *Budget) atomsAt(pb *PathBudget, r *Row, c *Cloud) *AtomsResult {
 	a.Rabi = atoms.Rabi(tr.Gamma, a.Saturation)
 	a.CrossSection = atoms.CrossSection(tr.Wavelength, tr.Gamma, a.Isat)
 	a.OpticalDepth = atoms.OpticalDepth(a.CrossSection, c.Atoms, σu, σv)
-	col := columnFor(pb, pb.First+pb.rowIndex(r), r.Element, c)
-	a.Absorption = col.absorb(a.Power, wx, wy)
-	a.ScatteredPower = a.Power * (1 - a.Absorption.Transmission)
 	a.FractionAboveGoal = math.NaN()
+	if full {
+		col := columnFor(pb, pb.First+pb.rowIndex(r), r.Element, c)
+		a.Absorption = col.absorb(a.Power, wx, wy)
+		a.ScatteredPower = a.Power * (1 - a.Absorption.Transmission)
+	}
 	ω := tr.Frequency() + a.Detuning
 	near, δ := tr.NearestLine(ω)
 	nearDriven := math.Abs(a.Detuning) <= FarDetuningFactor*tr.Gamma
@@ -208,7 +213,7 @@ func (b *Budget) atomsAt(pb *PathBudget, r *Row, c *Cloud) *AtomsResult {
 	// A goal is the path's own laser's; another laser's beam on the path
 	// is shown beside it.
 	if e := r.Element; e.Goal != "" && !pb.IsJoined() {
-		a.Goal = b.goal(a, e)
+		a.Goal = b.goal(a, e, full)
 	}
 	return a
 }
@@ -311,7 +316,7 @@ func detuningProblem(las *Laser, e *Element, shift float64, tr *atoms.Transition
 }
 
 // goal works out the power a goal needs at the atoms and at the laser.
-func (b *Budget) goal(a *AtomsResult, e *Element) *GoalResult {
+func (b *Budget) goal(a *AtomsResult, e *Element, full bool) *GoalResult {
 	tr := a.Transition
 	g := &GoalResult{Kind: e.Goal, Available: a.Path.Laser.OperatingPower, Factor: 1}
 	if a.NearLine != "" {
@@ -375,7 +380,9 @@ func (b *Budget) goal(a *AtomsResult, e *Element) *GoalResult {
 		default:
 			g.Intensity = a.Isat * atoms.IncomingIntensity(sGoal, col.b0*atoms.ColumnFraction(0), col.a)
 		}
-		a.FractionAboveGoal = col.fractionAbove(a.PeakIrradiance/a.Isat, wx, wy, sGoal)
+		if full {
+			a.FractionAboveGoal = col.fractionAbove(a.PeakIrradiance/a.Isat, wx, wy, sGoal)
+		}
 	}
 	if g.Impossible != "" {
 		// No figure: the needed powers are not finite numbers.

@@ -100,6 +100,7 @@ type loader struct {
 	file     string
 	lines    lineIndex
 	problems []string
+	tols     []*pendingTol
 }
 
 func (l *loader) addf(line int, context, format string, args ...any) {
@@ -132,11 +133,16 @@ type table struct {
 	m        map[string]any
 	// used lists the keys of m that a reader asked for.
 	used []string
-	hint func() string // added to "unknown key" messages, built only when needed
+	// keyAs is the key a per-laser table's entries stand for ("": the
+	// table's own keys); pairIndex the index of the value of an [x, y]
+	// pair being read (−1: a single value).
+	keyAs     string
+	pairIndex int
+	hint      func() string // added to "unknown key" messages, built only when needed
 }
 
 func (l *loader) table(context, loc string, m map[string]any) *table {
-	return &table{l: l, context: context, loc: loc, m: m}
+	return &table{l: l, context: context, loc: loc, m: m, pairIndex: -1}
 }
 
 // where names the table in messages.
@@ -322,7 +328,11 @@ func (t *table) quantityValue(key string, v any, dim Dimension) (float64, bool) 
 	if !ok {
 		return 0, false
 	}
-	if r, bounded := fieldRange[key]; bounded && q != 0 {
+	rk := key
+	if t.keyAs != "" {
+		rk = t.keyAs
+	}
+	if r, bounded := fieldRange[rk]; bounded && q != 0 {
 		if a := math.Abs(q); a < r[0] || a > r[1] {
 			t.fail(key, "%s is outside what a setup may hold (magnitude %g to %g in SI units)", show(v), r[0], r[1])
 			return 0, false
@@ -334,7 +344,14 @@ func (t *table) quantityValue(key string, v any, dim Dimension) (float64, bool) 
 func (t *table) rawQuantity(key string, v any, dim Dimension) (float64, bool) {
 	switch x := v.(type) {
 	case string:
-		if dim == Dimensionless && !percentKeys[key] && strings.Contains(x, "%") {
+		if a, b, normal, ok := splitTolerance(x); ok {
+			return t.tolerance(key, x, a, b, normal, dim)
+		}
+		pk := key
+		if t.keyAs != "" {
+			pk = t.keyAs
+		}
+		if dim == Dimensionless && !percentKeys[pk] && strings.Contains(x, "%") {
 			t.fail(key, "%q: a bare number is wanted here; only fractions (transmission, efficiency, …) may be written as a percentage", x)
 			return 0, false
 		}
@@ -432,17 +449,23 @@ func (t *table) pair(key string, dim Dimension, required bool, min float64) ([2]
 	}
 	var out [2]float64
 	var vals []any
-	if arr, isArr := v.([]any); isArr {
+	arr, isArr := v.([]any)
+	if isArr {
 		if len(arr) != 2 {
 			t.fail(key, "want one value or [x, y], got %d values", len(arr))
 			return out, false
 		}
 		vals = arr
 	} else {
-		vals = []any{v, v}
+		vals = []any{v} // read once (a tolerance is recorded once), used for both
 	}
 	for i, e := range vals {
+		t.pairIndex = -1
+		if isArr {
+			t.pairIndex = i
+		}
 		q, ok := t.quantityValue(key, e, dim)
+		t.pairIndex = -1
 		if !ok {
 			return out, false
 		}
@@ -455,6 +478,9 @@ func (t *table) pair(key string, dim Dimension, required bool, min float64) ([2]
 			return out, false
 		}
 		out[i] = q
+	}
+	if !isArr {
+		out[1] = out[0]
 	}
 	return out, true
 }

@@ -117,6 +117,9 @@ func (l *loader) setup(raw map[string]any) *Setup {
 	if len(l.problems) == 0 {
 		l.link(s)
 	}
+	if len(l.problems) == 0 {
+		l.resolveTolerances(s)
+	}
 	return s
 }
 
@@ -355,6 +358,7 @@ func (l *loader) perLaser(t *table, e *Element, m map[string]any) {
 		for _, name := range slices.Sorted(maps.Keys(by)) {
 			sub := l.table("", t.loc+"."+key, map[string]any{name: by[name]})
 			sub.describe = func() string { return t.where() + ", " + key }
+			sub.keyAs = key
 			var q *float64
 			if key == "optical_density" {
 				if v, ok := sub.quantity(name, Dimensionless, true); ok {

@@ -125,3 +125,22 @@ func TestCloudsFiniteOnGeneratedLabs(t *testing.T) {
 		}
 	}
 }
+
+// The tolerance analysis of a generated 200-element lab with 62
+// tolerances and 28 goals, 10 000 samples on all cores (README's figure).
+func BenchmarkTolerances200(b *testing.B) {
+	src := synth.Lab(5, synth.Options{Lasers: 10, ElementsPerPath: 19, Tolerances: true})
+	s, err := budget.Parse("lab200.toml", []byte(src))
+	if err != nil {
+		b.Fatal(err)
+	}
+	bu, err := budget.Compute(s)
+	if err != nil {
+		b.Fatal(err)
+	}
+	d := bu.Drive()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		budget.Tolerances(s, d, budget.DefaultSamples, budget.DefaultSeed, 0)
+	}
+}

@@ -11,6 +11,9 @@ type Setup struct {
 	Paths   []*Path
 	Clouds  []*Cloud
 	Eyewear []*Eyewear
+	// Tolerances lists the values written as ranges or ± tolerances; every
+	// figure but the tolerance analysis uses their nominal values.
+	Tolerances []*Toleranced
 }
 
 // Meta is the [setup] table: who, where, and evaluation-wide choices.

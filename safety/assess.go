@@ -11,26 +11,71 @@ type Assessment struct {
 	Clouds   []*budget.CloudResult
 	Hazards  *Hazards
 	Findings []budget.Finding
+	// Tolerances is the tolerance analysis of each goal (nil when the
+	// setup has no tolerances).
+	Tolerances map[*budget.AtomsResult]*budget.GoalTolerance
+	// HazardBudget is the budget the hazards were evaluated on: the
+	// nominal one, or with tolerances every loss value at its highest
+	// transmission.
+	HazardBudget *budget.Budget
 }
 
-// Evaluate computes everything `check` reports.
-func Evaluate(s *budget.Setup) (*Assessment, error) {
+// Options are the tolerance analysis's: the number of samples, the seed,
+// and the goroutines (0: all cores).
+type Options struct {
+	Samples int
+	Seed    uint64
+	Workers int
+}
+
+// DefaultOptions are the analysis's defaults.
+var DefaultOptions = Options{Samples: budget.DefaultSamples, Seed: budget.DefaultSeed}
+
+// Evaluate computes everything `check` reports, with the default tolerance
+// analysis.
+func Evaluate(s *budget.Setup) (*Assessment, error) { return EvaluateWith(s, DefaultOptions) }
+
+// EvaluateWith is Evaluate with the tolerance analysis's options.
+func EvaluateWith(s *budget.Setup, o Options) (*Assessment, error) {
 	b, err := budget.Compute(s)
 	if err != nil {
 		return nil, err
 	}
-	a := &Assessment{Setup: s, Budget: b, Atoms: b.Drive()}
+	a := &Assessment{Setup: s, Budget: b, Atoms: b.Drive(), HazardBudget: b}
 	a.Clouds = b.Clouds(a.Atoms)
-	a.Findings = append(a.Findings, b.Findings()...)
+	// Hazards at the conservative end of every tolerance: the highest
+	// transmission of each toleranced loss value.
+	hs := s
+	if len(s.Tolerances) > 0 {
+		hs = ConservativeSetup(s)
+		if a.HazardBudget, err = budget.Compute(hs); err != nil {
+			return nil, err
+		}
+		a.Tolerances = budget.Tolerances(s, a.Atoms, o.Samples, o.Seed, o.Workers)
+	}
+	a.Findings = append(a.Findings, a.HazardBudget.Findings()...)
 	a.Findings = append(a.Findings, budget.DriveFindings(a.Atoms)...)
 	a.Findings = append(a.Findings, budget.CloudFindings(a.Clouds)...)
-	h, err := evaluateHazards(s, b)
+	h, err := evaluateHazards(hs, a.HazardBudget)
 	if err != nil {
 		return nil, err
 	}
 	a.Hazards = h
 	a.Findings = append(a.Findings, h.Findings...)
 	return a, nil
+}
+
+// ConservativeSetup is a copy of s with every toleranced loss value at its
+// highest transmission (the optical density's low end); positions, focal
+// lengths, waists and operating powers stay nominal.
+func ConservativeSetup(s *budget.Setup) *budget.Setup {
+	c := s.Clone()
+	for _, t := range s.Tolerances {
+		if v, ok := t.HighTransmission(); ok {
+			t.Apply(c, v)
+		}
+	}
+	return c
 }
 
 // NeedsAction reports whether any finding must be dealt with.

@@ -5,6 +5,7 @@ package synth
 import (
 	"fmt"
 	"math/rand/v2"
+	"regexp"
 	"strings"
 )
 
@@ -17,6 +18,10 @@ type Options struct {
 	// Fibers starts every path with a fibre (left out of the older labs, so
 	// that their seeds still give the same files).
 	Fibers bool
+	// Tolerances writes every laser's operating power and every lens's
+	// transmission as tolerances and gives every atoms element a
+	// saturation goal (for the tolerance analysis's benchmarks).
+	Tolerances bool
 	// Merges sends every odd laser's first path into a combiner on the
 	// previous laser's first path (with per-laser values there), and gives
 	// each merged path a cylindrical lens.
@@ -85,8 +90,24 @@ func Lab(seed uint64, o Options) string {
 			b.WriteString("\n")
 		}
 	}
-	return b.String()
+	if !o.Tolerances {
+		return b.String()
+	}
+	// Tolerances on the text already drawn, so that a seed's lab is the same
+	// lab with or without them.
+	out := b.String()
+	out = opRE.ReplaceAllString(out, `operating_power = "$1 W ± ${2}e-2 W"`)
+	out = transRE.ReplaceAllString(out, `transmission = "$1 ± 0.005"`)
+	out = strings.ReplaceAll(out, "  type = \"atoms\"\n  cloud = \"c\"\n", "  type = \"atoms\"\n  cloud = \"c\"\n  goal = \"saturation\"\n  goal_value = 1\n")
+	return out
 }
+
+// The patterns the tolerance mode rewrites: an operating power (its σ is 1 %
+// of it: the mantissa, read as hundredths) and a bare transmission.
+var (
+	opRE    = regexp.MustCompile(`operating_power = "(([0-9.]+)) W"`)
+	transRE = regexp.MustCompile(`(?m)transmission = (0\.[0-9]+)$`)
+)
 
 func writeElement(b *strings.Builder, r *rand.Rand, at float64) {
 	fmt.Fprintf(b, "  [[path.element]]\n")

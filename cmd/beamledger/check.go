@@ -1,6 +1,8 @@
 package main
 
 import (
+	"fmt"
+
 	"github.com/spf13/cobra"
 
 	"beamledger/budget"
@@ -11,6 +13,27 @@ import (
 type checkOptions struct {
 	file string
 	json bool
+	tol  toleranceFlags
+}
+
+// toleranceFlags are the tolerance analysis's flags, shared by check and
+// report.
+type toleranceFlags struct {
+	samples int
+	seed    uint64
+}
+
+func (t *toleranceFlags) add(cmd *cobra.Command) {
+	cmd.Flags().IntVar(&t.samples, "samples", budget.DefaultSamples, "Monte Carlo samples of the tolerance analysis (0 turns it off; at most 1000000)")
+	cmd.Flags().Uint64Var(&t.seed, "seed", budget.DefaultSeed, "seed of the tolerance analysis (the same seed gives the same figures on any machine)")
+}
+
+// options checks the flags and turns them into the evaluation's options.
+func (t *toleranceFlags) options() (safety.Options, error) {
+	if t.samples < 0 || t.samples > 1000000 {
+		return safety.Options{}, fmt.Errorf("--samples: %d is outside 0 to 1000000", t.samples)
+	}
+	return safety.Options{Samples: t.samples, Seed: t.seed}, nil
 }
 
 func (e *env) newCheck() *cobra.Command {
@@ -38,6 +61,7 @@ needs action, 1 a finding needs action, 2 the setup could not be used.`,
 		},
 	}
 	cmd.Flags().BoolVar(&o.json, "json", false, "write JSON (SI units, unit-suffixed keys) instead of text")
+	o.tol.add(cmd)
 	return cmd
 }
 
@@ -46,7 +70,11 @@ func (e *env) runCheck(o *checkOptions) error {
 	if err != nil {
 		return err
 	}
-	a, err := safety.Evaluate(s)
+	opts, err := o.tol.options()
+	if err != nil {
+		return err
+	}
+	a, err := safety.EvaluateWith(s, opts)
 	if err != nil {
 		return err
 	}

@@ -20,6 +20,7 @@ import (
 type reportOptions struct {
 	file, output, date string
 	force              bool
+	tol                toleranceFlags
 }
 
 func (e *env) newReport() *cobra.Command {
@@ -49,6 +50,7 @@ only with --force, and nothing is written when the setup cannot be used.`,
 	cmd.Flags().StringVarP(&o.output, "output", "o", "", "the PDF to write (required)")
 	cmd.Flags().StringVar(&o.date, "date", "", "the document date, YYYY-MM-DD (default: SOURCE_DATE_EPOCH, else today)")
 	cmd.Flags().BoolVar(&o.force, "force", false, "replace an existing output file")
+	o.tol.add(cmd)
 	return cmd
 }
 
@@ -93,7 +95,11 @@ func (e *env) runReport(o *reportOptions) error {
 	if err != nil {
 		return err
 	}
-	a, err := safety.Evaluate(s)
+	opts, err := o.tol.options()
+	if err != nil {
+		return err
+	}
+	a, err := safety.EvaluateWith(s, opts)
 	if err != nil {
 		return err
 	}

@@ -329,6 +329,9 @@ func atomsSection(a *safety.Assessment, l *view.List) Section {
 		if !at.FarDetuned && at.NearLine == "" && at.Row.FractionIn > 0 && at.OpticalDepth > 0 {
 			sec.Blocks = append(sec.Blocks, Block{Plot: saturationPlot(at)})
 		}
+		if gt := a.Tolerances[at]; gt != nil {
+			sec.Blocks = append(sec.Blocks, Block{Plot: marginHistogram(gt)}, Block{Table: contributorTable(gt)})
+		}
 	}
 	return sec
 }
@@ -362,6 +365,56 @@ func cloudsSection(a *safety.Assessment, l *view.List) Section {
 		}
 	}
 	return sec
+}
+
+// marginHistogram shows how a goal's margin spreads over the tolerance
+// samples, with the 0 dB line (the goal just met) marked.
+func marginHistogram(gt *budget.GoalTolerance) *Plot {
+	lo, hi := math.Inf(1), math.Inf(-1)
+	impossible := 0
+	for _, m := range gt.Margins {
+		if math.IsInf(m, 0) || math.IsNaN(m) {
+			impossible++
+			continue
+		}
+		lo, hi = math.Min(lo, m), math.Max(hi, m)
+	}
+	pl := &Plot{Title: fmt.Sprintf("goal margin over %d tolerance samples (seed %d)", gt.Samples, gt.Seed), XLabel: "margin (dB)", YLabel: "samples per bin"}
+	if math.IsInf(lo, 1) {
+		return pl
+	}
+	lo, hi = math.Min(lo, 0), math.Max(hi, 0)
+	if hi-lo < 1e-9 {
+		lo, hi = lo-0.5, hi+0.5
+	}
+	const bins = 30
+	counts := make([]float64, bins)
+	for _, m := range gt.Margins {
+		if math.IsInf(m, 0) || math.IsNaN(m) {
+			continue
+		}
+		counts[min(bins-1, int((m-lo)/(hi-lo)*bins))]++
+	}
+	var xs, ys []float64
+	for k, c := range counts {
+		a, b := lo+(hi-lo)*float64(k)/bins, lo+(hi-lo)*float64(k+1)/bins
+		xs, ys = append(xs, a, b), append(ys, c, c)
+	}
+	pl.Series = append(pl.Series, Series{Name: "samples", X: xs, Y: ys})
+	pl.Markers = append(pl.Markers, Marker{X: 0, Label: "0 dB: just met"})
+	if impossible > 0 {
+		pl.Title += fmt.Sprintf("; %d samples cannot meet it", impossible)
+	}
+	return pl
+}
+
+// contributorTable lists the inputs' shares of a goal's spread.
+func contributorTable(gt *budget.GoalTolerance) *Table {
+	t := &Table{Header: []string{"toleranced input", "share of the spread (SRC²/ΣSRC²)"}, Right: []bool{false, true}}
+	for _, c := range gt.Contributors {
+		t.Rows = append(t.Rows, []string{c.Input.Label, fmt.Sprintf("%.0f %%", 100*c.Share)})
+	}
+	return t
 }
 
 // saturationPlot shows s on the beam axis through the cloud (positions in

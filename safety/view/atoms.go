@@ -3,6 +3,7 @@ package view
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 
 	"beamledger/budget"
@@ -72,6 +73,14 @@ func (b *builder) atomsRecord(a *budget.AtomsResult) Record {
 	var goal *Record
 	if g := a.Goal; g != nil {
 		goal = b.goalRecord(a, g)
+		var tr *Record
+		if gt := b.tol[a]; gt != nil {
+			tr = toleranceRecord(gt)
+			for _, l := range prefixKeys(tr.Lines, "tolerance.") {
+				goal.Line(l)
+			}
+		}
+		goal.O("tolerance", tr, true)
 	}
 	r.O("goal", goal, false)
 
@@ -207,6 +216,48 @@ func (b *builder) goalRecord(a *budget.AtomsResult, g *budget.GoalResult) *Recor
 		r.Line("    cannot be met: {impossible}")
 	} else {
 		r.Line(fmt.Sprintf("    needs a peak of {irradiance_needed_w_m2} arriving at the cloud → {power_at_atoms_w} at the atoms → {source_power_w} at laser %q; operating power {available_source_power_w}; margin {margin_db}: {met}", a.Path.Laser.Name))
+	}
+	return r
+}
+
+// toleranceRecord shows a goal's tolerance analysis.
+func toleranceRecord(gt *budget.GoalTolerance) *Record {
+	r := &Record{}
+	db := func(d *Desc, v float64) Field {
+		if math.IsInf(v, 0) || math.IsNaN(v) {
+			f := Absent(d, false)
+			f.Text = "cannot be met"
+			return f
+		}
+		return Num(d, v, fmt.Sprintf("%+.1f dB", v))
+	}
+	r.F(Whole(dSamples, gt.Samples)).
+		F(Field{d: dSeed, Kind: Int, SI: float64(gt.Seed), Text: strconv.FormatUint(gt.Seed, 10)}).
+		F(Num(dProbabilityMet, gt.ProbabilityMet, fixed(100*gt.ProbabilityMet, 1, " %"))).
+		F(db(dMarginNominal, gt.Nominal)).
+		F(db(dMarginP05, gt.P05)).F(db(dMarginP50, gt.P50)).F(db(dMarginP95, gt.P95)).
+		F(db(dMarginWorst, gt.Worst))
+	cl := &List{Key: "contributors"}
+	var top []string
+	for i, c := range gt.Contributors {
+		cr := Record{}
+		in := c.Input
+		path, idx := "", 0
+		if in.Laser < 0 {
+			path, idx = in.PathName, in.Element+1
+		}
+		cr.F(Str(dContribPath, path)).F(Whole(dElementIndex2, idx)).F(Str(dContribKey, in.Key)).F(Str(dContribLabel, in.Label)).
+			F(Num(dShare2, c.Share, fixed(100*c.Share, 0, " %")))
+		cl.Records = append(cl.Records, cr)
+		if i < 3 {
+			top = append(top, fmt.Sprintf("%s (%s)", in.Label, fixed(100*c.Share, 0, " %")))
+		}
+	}
+	r.L(cl)
+	r.F(Field{d: dTopContributors, Kind: String, Text: strings.Join(top, "; "), People: true})
+	r.Line("    tolerances ({samples} samples, seed {seed}): margin {margin_db_nominal} nominal, {margin_db_worst} worst case (every value at its bad end, ±3σ), {margin_db_p05} / {margin_db_p50} / {margin_db_p95} at the 5th / 50th / 95th percentile; met with probability {probability_met}")
+	if len(top) > 0 {
+		r.Line("    largest shares of the spread (standardized regression coefficients, SRC²/ΣSRC²): {top_contributors}")
 	}
 	return r
 }

@@ -17,6 +17,7 @@ import (
 // goroutine.
 type builder struct {
 	slab []Member
+	tol  map[*budget.AtomsResult]*budget.GoalTolerance
 }
 
 // slabSize is the number of members allocated at once.
@@ -41,7 +42,7 @@ const parallelPaths = 64
 // people read, from one pass over the results.
 func Build(a *safety.Assessment) *Doc {
 	s := a.Setup
-	b := &builder{}
+	b := &builder{tol: a.Tolerances}
 	d := &Doc{JSON: &Record{Members: b.members(16)}}
 	setup := &Record{}
 	setup.F(Str(dFile, s.File)).F(Str(dTitle, s.Meta.Title)).F(Str(dSite, s.Meta.Site)).

@@ -5,6 +5,20 @@ package view
 // with its descriptor (Num(dPowerW, …)), so that every field of a kind
 // shares these strings. A new field gets its descriptor here.
 var (
+	dSamples                     = &Desc{"samples", "samples", "GoalTolerance.Samples"}
+	dSeed                        = &Desc{"seed", "seed", "GoalTolerance.Seed"}
+	dProbabilityMet              = &Desc{"probability_met", "probability met", "GoalTolerance.ProbabilityMet"}
+	dMarginNominal               = &Desc{"margin_db_nominal", "nominal", "GoalTolerance.Nominal"}
+	dMarginP05                   = &Desc{"margin_db_p05", "5th percentile", "GoalTolerance.P05"}
+	dMarginP50                   = &Desc{"margin_db_p50", "median", "GoalTolerance.P50"}
+	dMarginP95                   = &Desc{"margin_db_p95", "95th percentile", "GoalTolerance.P95"}
+	dMarginWorst                 = &Desc{"margin_db_worst", "worst case", "GoalTolerance.Worst"}
+	dContribPath                 = &Desc{"path", "path", "Toleranced.Path"}
+	dElementIndex2               = &Desc{"element_index", "element", "Toleranced.Element"}
+	dContribKey                  = &Desc{"key", "key", "Toleranced.Key"}
+	dContribLabel                = &Desc{"input", "input", "Toleranced.Label"}
+	dShare2                      = &Desc{"share", "share", "Contributor.Share"}
+	dTopContributors             = &Desc{"top_contributors", "largest shares", ""}
 	dCloudTransmission           = &Desc{"cloud_transmission", "cloud transmission", "Absorption.Transmission"}
 	dScatteredPowerW             = &Desc{"scattered_power_w", "scattered", "AtomsResult.ScatteredPower"}
 	dSaturationEntrance          = &Desc{"saturation_entrance", "s entrance", "Absorption.Entrance"}

@@ -21,13 +21,17 @@ var Cautions = []string{
 
 // Assumptions lists what the hazard figures assume, for every output.
 func Assumptions(s *budget.Setup) []string {
-	return []string{
+	out := []string{
 		"intrabeam viewing of a small source (angular subtense at most 1.5 mrad)",
 		"each laser at its maximum power",
 		"exposure duration (duration_s of each source): " + safety.DurationAssumption(s),
 		"irradiance averaged over the limiting aperture of the eye or skin",
 		"reflections evaluated where the beam arrives through an open segment",
 	}
+	if len(s.Tolerances) > 0 {
+		out = append(out, "toleranced loss values at their highest transmission (the conservative end); positions, focal lengths, waists and operating powers at their nominal values")
+	}
+	return out
 }
 
 type hazardView struct {

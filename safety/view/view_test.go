@@ -57,6 +57,8 @@ func TestFieldCoverage(t *testing.T) {
 		"Segment.Fraction":          "the power of a segment is shown as its exposure's power",
 		"CloudBeam.U":               "the beam's x plane in the cloud frame follows from its direction by the documented rule (budget.BeamAxes); the direction is shown",
 		"CloudBeam.V":               "the beam's y plane completes the right-handed set with its direction and x plane (budget.BeamAxes)",
+		"Toleranced.Laser":          "an index into the setup's lasers; the input's label names the laser",
+		"Toleranced.Index":          "which value of an [x, y] pair; the input's label says x or y",
 		"PathBudget.First":          "an index into the path's elements; the view shows where the beam joins (joined_at_m) and its table from that element",
 		"PathBudget.ShiftIn":        "the AOM shift a beam carries onto a path; its effect is the detuning shown at the atoms",
 		"DipoleResult.PerIntensity": "U/I words the potential attractive or repulsive; its value is U/k_B over the peak irradiance, both shown",
@@ -70,7 +72,7 @@ func TestFieldCoverage(t *testing.T) {
 	}
 	types := []any{budget.Row{}, budget.FiberCoupling{}, budget.PathBudget{}, budget.LaserBalance{}, budget.Segment{},
 		budget.AtomsResult{}, budget.DipoleResult{}, budget.GoalResult{}, atoms.Collective{},
-		safety.LaserLimits{}, safety.Exposure{}, safety.Reflection{}, safety.EyewearNeed{}, budget.Finding{}, limits.PulsedLimit{}, budget.CloudResult{}, budget.Trap{}, budget.CloudGoal{}, budget.CloudBeam{}}
+		safety.LaserLimits{}, safety.Exposure{}, safety.Reflection{}, safety.EyewearNeed{}, budget.Finding{}, limits.PulsedLimit{}, budget.CloudResult{}, budget.Trap{}, budget.CloudGoal{}, budget.CloudBeam{}, budget.GoalTolerance{}, budget.Contributor{}, budget.Toleranced{}}
 	for _, v := range types {
 		typ := reflect.TypeOf(v)
 		for i := 0; i < typ.NumField(); i++ {

@@ -1,0 +1,155 @@
+package budget
+
+import (
+	"math"
+	"slices"
+	"strings"
+	"testing"
+
+	"gonum.org/v1/gonum/stat/distuv"
+)
+
+// tolLab is one laser through an AOM whose efficiency is toleranced (EFF)
+// and a second toleranced transmission (T2), onto a thin cloud with a
+// saturation goal (GOAL).
+const tolLab = `
+[[laser]]
+name = "l"
+wavelength = "780.241 nm"
+power = "20 mW"
+operating_power = "10 mW"
+waist = "1 mm"
+detuning = "0 MHz"
+
+[[path]]
+name = "p"
+from = "l"
+  [[path.element]]
+  type = "aom"
+  at = "10 cm"
+  efficiency = EFF
+  [[path.element]]
+  type = "window"
+  at = "15 cm"
+  transmission = T2
+  [[path.element]]
+  type = "atoms"
+  at = "20 cm"
+  cloud = "c"
+  goal = "saturation"
+  goal_value = GOAL
+  [[path.element]]
+  type = "dump"
+  at = "30 cm"
+  rating = "1 W"
+
+[[cloud]]
+name = "c"
+transition = "Rb87 D2"
+atoms = 1
+rms_size = ["10 um", "10 um", "10 um"]
+`
+
+func tolSetup(t *testing.T, eff, t2, goal string) (*Setup, []*AtomsResult) {
+	t.Helper()
+	src := strings.NewReplacer("EFF", eff, "T2", t2, "GOAL", goal).Replace(tolLab)
+	s, err := Parse("tol.toml", []byte(src))
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := Compute(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return s, b.Drive()
+}
+
+// A single efficiency uniform on [a, b]: the margin is M0 + 10 log10(η/η0)
+// for the nominal η0 = (a + b)/2, so the goal is met for η ≥ η* = η0
+// 10^(−M0/10), with probability (b − η*)/(b − a) (the uniform
+// distribution's tail); the Monte Carlo share agrees within three binomial
+// standard errors at 10 000 samples.
+func TestToleranceUniformProbability(t *testing.T) {
+	s, d := tolSetup(t, `"0.5 .. 0.9"`, "1", "250")
+	gt, a := Tolerances(s, d, 10000, DefaultSeed, 0)[d[0]], d[0]
+	η0 := 0.7
+	ηs := η0 * math.Pow(10, -a.Goal.MarginDB/10)
+	if ηs < 0.5 || ηs > 0.9 {
+		t.Fatalf("η* = %g is outside the range; adjust the goal", ηs)
+	}
+	want := (0.9 - ηs) / 0.4
+	se := math.Sqrt(want * (1 - want) / 10000)
+	if math.Abs(gt.ProbabilityMet-want) > 3*se {
+		t.Errorf("P(met) = %g, want %g ± %g", gt.ProbabilityMet, want, 3*se)
+	}
+	if math.Abs(gt.Nominal-a.Goal.MarginDB) > 1e-9 {
+		t.Errorf("nominal %g dB, the goal's %g dB", gt.Nominal, a.Goal.MarginDB)
+	}
+	if w := a.Goal.MarginDB + 10*math.Log10(0.5/0.7); math.Abs(gt.Worst-w) > 1e-6 {
+		t.Errorf("worst %g dB, want %g dB (η at 0.5)", gt.Worst, w)
+	}
+}
+
+// A normal efficiency 0.7 ± 0.05: P(met) = Φ((μ − η*)/σ) (gonum's
+// distuv.Normal; the truncation to [0, 1] is 14 σ away and negligible).
+func TestToleranceNormalProbability(t *testing.T) {
+	s, d := tolSetup(t, `"0.7 ± 0.05"`, "1", "250")
+	gt, a := Tolerances(s, d, 10000, DefaultSeed, 0)[d[0]], d[0]
+	ηs := 0.7 * math.Pow(10, -a.Goal.MarginDB/10)
+	want := distuv.Normal{Mu: 0, Sigma: 1}.CDF((0.7 - ηs) / 0.05)
+	se := math.Sqrt(want * (1 - want) / 10000)
+	if math.Abs(gt.ProbabilityMet-want) > 3*se+1e-9 {
+		t.Errorf("P(met) = %g, want %g ± %g", gt.ProbabilityMet, want, 3*se)
+	}
+}
+
+// Two small independent normal transmissions: the margin in dB is their
+// sum of 10 log10 T_i plus a constant, so (delta method) its variance is
+// (10/ln 10)² Σ σ_i²/μ_i² and its mean the nominal margin less
+// (10/ln 10) Σ σ_i²/(2 μ_i²); the Monte Carlo agrees within three standard
+// errors (mean) and 5 % (variance); the two inputs share the spread in the
+// ratio of their σ_i²/μ_i².
+func TestToleranceDeltaMethod(t *testing.T) {
+	s, d := tolSetup(t, `"0.8 ± 0.008"`, `"0.9 ± 0.018"`, "1")
+	gt := Tolerances(s, d, 10000, DefaultSeed, 0)[d[0]]
+	k := 10 / math.Ln10
+	v1, v2 := 0.008*0.008/(0.8*0.8), 0.018*0.018/(0.9*0.9)
+	wantVar := k * k * (v1 + v2)
+	wantMean := gt.Nominal - k*(v1+v2)/2
+	mean, vari := 0.0, 0.0
+	for _, m := range gt.Margins {
+		mean += m
+	}
+	mean /= float64(len(gt.Margins))
+	for _, m := range gt.Margins {
+		vari += (m - mean) * (m - mean)
+	}
+	vari /= float64(len(gt.Margins) - 1)
+	if math.Abs(mean-wantMean) > 3*math.Sqrt(wantVar/float64(len(gt.Margins))) {
+		t.Errorf("mean margin %g dB, want %g dB", mean, wantMean)
+	}
+	if math.Abs(vari-wantVar) > 0.05*wantVar {
+		t.Errorf("variance %g dB², want %g dB²", vari, wantVar)
+	}
+	if len(gt.Contributors) != 2 || gt.Contributors[0].Input.Key != "transmission" || math.Abs(gt.Contributors[0].Share-v2/(v1+v2)) > 0.03 {
+		t.Errorf("contributors %+v, want the window first with %.2f", gt.Contributors, v2/(v1+v2))
+	}
+}
+
+// The same seed gives the same samples on one goroutine and on sixteen.
+func TestToleranceDeterminism(t *testing.T) {
+	s, d := tolSetup(t, `"0.5 .. 0.9"`, `"0.9 ± 0.02"`, "1")
+	a := Tolerances(s, d, 2000, DefaultSeed, 1)[d[0]]
+	b := Tolerances(s, d, 2000, DefaultSeed, 16)[d[0]]
+	if !slices.Equal(a.Margins, b.Margins) || a.P05 != b.P05 || a.ProbabilityMet != b.ProbabilityMet {
+		t.Error("the analysis depends on the number of goroutines")
+	}
+}
+
+// Percentiles interpolate between the nearest ranks.
+func TestPercentile(t *testing.T) {
+	v := []float64{1, 2, 3, 4, 5}
+	if Percentile(v, 0.5) != 3 || Percentile(v, 0.25) != 2 || Percentile(v, 0.1) != 1.4 {
+		t.Errorf("percentiles %g %g %g", Percentile(v, 0.5), Percentile(v, 0.25), Percentile(v, 0.1))
+	}
+}
