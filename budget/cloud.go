@@ -427,42 +427,51 @@ func (f *field) barrier(r [3]float64, vmin float64, d [3]float64, t0, tmax float
 func (b *Budget) Clouds(drive []*AtomsResult) []*CloudResult {
 	var out []*CloudResult
 	for _, c := range b.Setup.Clouds {
-		if c.Data == nil {
-			continue
+		if cr := cloudResult(c, drive, true); cr != nil {
+			out = append(out, cr)
 		}
-		cr := &CloudResult{Cloud: c, DifferentialShift: math.NaN()}
-		var prev []*CloudBeam
-		for _, a := range drive {
-			if a.Cloud != c {
-				continue
-			}
-			n := a.Row.Element.Direction
-			u, v := BeamAxes(n)
-			cb := &CloudBeam{Atoms: a, Direction: n, U: u, V: v,
-				Far:  a.FarDetuned && a.Dipole != nil && a.Row.FractionIn > 0,
-				Near: !a.FarDetuned && a.NearLine == "" && a.Row.FractionIn > 0}
-			if a.Row.Element.Interference == "standing_wave" {
-				for k := len(prev) - 1; k >= 0; k-- {
-					f := prev[k]
-					if f.Atoms.Path == a.Path && dot(f.Direction, n) < -0.999 && f.Forward == nil {
-						cb.Forward = f
-						break
-					}
-				}
-			}
-			prev = append(prev, cb)
-			cr.Beams = append(cr.Beams, cb)
-		}
-		if len(cr.Beams) == 0 {
-			continue
-		}
-		cr.evaluate(nil, 1, true)
-		if c.Goal != "" {
-			cr.Goal = cr.goal()
-		}
-		out = append(out, cr)
 	}
 	return out
+}
+
+// cloudResult counts the beams in drive that reach cloud c together (nil
+// when none does); full also asks the findings' questions (a tolerance
+// sample needs only the goal).
+func cloudResult(c *Cloud, drive []*AtomsResult, full bool) *CloudResult {
+	if c.Data == nil {
+		return nil
+	}
+	cr := &CloudResult{Cloud: c, DifferentialShift: math.NaN()}
+	var prev []*CloudBeam
+	for _, a := range drive {
+		if a.Cloud != c {
+			continue
+		}
+		n := a.Row.Element.Direction
+		u, v := BeamAxes(n)
+		cb := &CloudBeam{Atoms: a, Direction: n, U: u, V: v,
+			Far:  a.FarDetuned && a.Dipole != nil && a.Row.FractionIn > 0,
+			Near: !a.FarDetuned && a.NearLine == "" && a.Row.FractionIn > 0}
+		if a.Row.Element.Interference == "standing_wave" {
+			for k := len(prev) - 1; k >= 0; k-- {
+				f := prev[k]
+				if f.Atoms.Path == a.Path && dot(f.Direction, n) < -0.999 && f.Forward == nil {
+					cb.Forward = f
+					break
+				}
+			}
+		}
+		prev = append(prev, cb)
+		cr.Beams = append(cr.Beams, cb)
+	}
+	if len(cr.Beams) == 0 {
+		return nil
+	}
+	cr.evaluate(nil, 1, full)
+	if c.Goal != "" {
+		cr.Goal = cr.goal()
+	}
+	return cr
 }
 
 // fieldOf builds the field of the far-detuned beams, the powers of the

@@ -121,7 +121,10 @@ const (
 )
 
 // Drive evaluates every atoms element of the budget.
-func (b *Budget) Drive() []*AtomsResult {
+func (b *Budget) Drive() []*AtomsResult { return b.driveAll(true) }
+
+// driveAll is Drive; full as for atomsAt.
+func (b *Budget) driveAll(full bool) []*AtomsResult {
 	clouds := map[string]*Cloud{}
 	for _, c := range b.Setup.Clouds {
 		clouds[c.Name] = c
@@ -138,7 +141,7 @@ func (b *Budget) Drive() []*AtomsResult {
 				if c == nil || c.Data == nil {
 					continue
 				}
-				out = append(out, b.atomsAt(pb, r, c, true))
+				out = append(out, b.atomsAt(pb, r, c, full))
 			}
 		}
 	}

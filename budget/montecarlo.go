@@ -47,9 +47,10 @@ type Contributor struct {
 }
 
 // goalRef finds a goal again in the budget of a copy of the setup: the
-// path's index and the element's.
+// path's index and the element's row, or (cloud ≥ 0) a cloud's index.
 type goalRef struct {
 	path, element int
+	cloud         int
 }
 
 // margins computes every referenced goal's margin for setup s.
@@ -66,7 +67,20 @@ func margins(s *Setup, refs []goalRef) []float64 {
 	for _, c := range s.Clouds {
 		clouds[c.Name] = c
 	}
+	var drive []*AtomsResult // every beam at every cloud, for cloud goals
 	for i, ref := range refs {
+		if ref.cloud >= 0 {
+			if drive == nil {
+				drive = b.driveAll(false)
+			}
+			cr := cloudResult(s.Clouds[ref.cloud], drive, false)
+			if cr != nil && cr.Goal != nil && cr.Goal.Impossible == "" {
+				out[i] = cr.Goal.MarginDB
+			} else {
+				out[i] = math.Inf(-1)
+			}
+			continue
+		}
 		pb := b.Paths[ref.path]
 		r := &pb.Rows[ref.element]
 		a := b.atomsAt(pb, r, clouds[r.Element.Cloud], false)
@@ -79,22 +93,28 @@ func margins(s *Setup, refs []goalRef) []float64 {
 	return out
 }
 
-// Tolerances analyses every goal of the path's own beams (element goals)
-// in samples Monte Carlo samples from seed, on up to workers goroutines
-// (0: all cores). It returns one analysis per goal, keyed by the atoms
-// result it belongs to. Whole-cloud goals are not sampled.
-func Tolerances(s *Setup, drive []*AtomsResult, samples int, seed uint64, workers int) map[*AtomsResult]*GoalTolerance {
+// Tolerances analyses every goal, of the paths' own beams at atoms
+// elements and of whole clouds, in samples Monte Carlo samples from seed,
+// on up to workers goroutines (0: all cores). It returns one analysis per
+// goal, keyed by the *AtomsResult or the *Cloud it belongs to.
+func Tolerances(s *Setup, drive []*AtomsResult, samples int, seed uint64, workers int) map[any]*GoalTolerance {
 	if len(s.Tolerances) == 0 || samples <= 0 {
 		return nil
 	}
 	var refs []goalRef
-	var owners []*AtomsResult
+	var owners []any // the *AtomsResult or *Cloud each goal belongs to
 	for _, a := range drive {
 		if a.Goal == nil || a.Path.IsJoined() {
 			continue
 		}
-		refs = append(refs, goalRef{slices.Index(s.Paths, a.Path.Path), a.Path.rowIndex(a.Row)})
+		refs = append(refs, goalRef{slices.Index(s.Paths, a.Path.Path), a.Path.rowIndex(a.Row), -1})
 		owners = append(owners, a)
+	}
+	for i, c := range s.Clouds {
+		if c.Goal != "" {
+			refs = append(refs, goalRef{cloud: i})
+			owners = append(owners, c)
+		}
 	}
 	if len(refs) == 0 {
 		return nil
@@ -138,7 +158,7 @@ func Tolerances(s *Setup, drive []*AtomsResult, samples int, seed uint64, worker
 		highs[j] = margins(c, refs)
 		t.Apply(c, t.Tol.Nominal())
 	}
-	out := map[*AtomsResult]*GoalTolerance{}
+	out := map[any]*GoalTolerance{}
 	for g, a := range owners {
 		w := s.Clone()
 		for j, t := range s.Tolerances {

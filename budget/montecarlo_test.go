@@ -153,3 +153,30 @@ func TestPercentile(t *testing.T) {
 		t.Errorf("percentiles %g %g %g", Percentile(v, 0.5), Percentile(v, 0.25), Percentile(v, 0.1))
 	}
 }
+
+// A whole-cloud goal is sampled too: a single trap beam without gravity,
+// its operating power uniform on [4 W, 6 W]; the depth is linear in the
+// power, so the goal is met for P ≥ P* = 5 W · 10^(−M0/10), with
+// probability (6 W − P*)/(2 W), within three binomial standard errors.
+func TestToleranceCloudGoal(t *testing.T) {
+	src := strings.Replace(beamOn("trap", "1064 nm", "7 W", "50 um", "z"), `power = "7 W"`, "power = \"7 W\"\noperating_power = \"4 W .. 6 W\"", 1) +
+		cloudC("none", "goal = \"trap_depth\"\ngoal_value = \"190 uK\"")
+	s, err := Parse("t.toml", []byte(src))
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, _ := Compute(s)
+	d := b.Drive()
+	cs := b.Clouds(d)
+	res := Tolerances(s, d, 2000, DefaultSeed, 0)
+	gt := res[s.Clouds[0]]
+	if gt == nil || cs[0].Goal == nil {
+		t.Fatalf("no cloud goal analysis: %v", res)
+	}
+	ps := 5 * math.Pow(10, -cs[0].Goal.MarginDB/10)
+	want := math.Max(0, math.Min(1, (6-ps)/2))
+	se := math.Sqrt(want*(1-want)/2000) + 1e-3
+	if math.Abs(gt.ProbabilityMet-want) > 3*se {
+		t.Errorf("P(met) = %g, want %g ± %g (P* = %g W)", gt.ProbabilityMet, want, 3*se, ps)
+	}
+}

@@ -13,7 +13,7 @@ type Assessment struct {
 	Findings []budget.Finding
 	// Tolerances is the tolerance analysis of each goal (nil when the
 	// setup has no tolerances).
-	Tolerances map[*budget.AtomsResult]*budget.GoalTolerance
+	Tolerances map[any]*budget.GoalTolerance
 	// HazardBudget is the budget the hazards were evaluated on: the
 	// nominal one, or with tolerances every loss value at its highest
 	// transmission.

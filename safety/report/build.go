@@ -363,6 +363,9 @@ func cloudsSection(a *safety.Assessment, l *view.List) Section {
 			pl.Series = append(pl.Series, Series{Name: "U/k_B, gravity included", X: xs, Y: ys})
 			sec.Blocks = append(sec.Blocks, Block{Plot: pl})
 		}
+		if gt := a.Tolerances[cr.Cloud]; gt != nil {
+			sec.Blocks = append(sec.Blocks, Block{Plot: marginHistogram(gt)}, Block{Table: contributorTable(gt)})
+		}
 	}
 	return sec
 }

@@ -17,7 +17,7 @@ import (
 // goroutine.
 type builder struct {
 	slab []Member
-	tol  map[*budget.AtomsResult]*budget.GoalTolerance
+	tol  map[any]*budget.GoalTolerance
 }
 
 // slabSize is the number of members allocated at once.

@@ -168,6 +168,16 @@ func (b *builder) cloudRecord(cr *budget.CloudResult) Record {
 			r.After = append(r.After, "  goal for the whole cloud: {goal.kind} {goal.target_si} scaling {goal.lasers}: factor {goal.scale_factor} on their operating powers ({goal.needed_w}); margin {goal.margin_db}: {goal.met}")
 		}
 	}
+	if goal != nil {
+		var tr *Record
+		if gt := b.tol[c]; gt != nil {
+			tr = toleranceRecord(gt)
+			for _, l := range prefixKeys(tr.Lines, "goal.tolerance.") {
+				r.After = append(r.After, l)
+			}
+		}
+		goal.O("tolerance", tr, true)
+	}
 	r.O("goal", goal, true)
 	return r
 }
