@@ -172,9 +172,7 @@ func (b *builder) cloudRecord(cr *budget.CloudResult) Record {
 		var tr *Record
 		if gt := b.tol[c]; gt != nil {
 			tr = toleranceRecord(gt)
-			for _, l := range prefixKeys(tr.Lines, "goal.tolerance.") {
-				r.After = append(r.After, l)
-			}
+			r.After = append(r.After, prefixKeys(tr.Lines, "goal.tolerance.")...)
 		}
 		goal.O("tolerance", tr, true)
 	}
