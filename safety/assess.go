@@ -1,6 +1,10 @@
 package safety
 
-import "beamledger/budget"
+import (
+	"fmt"
+
+	"beamledger/budget"
+)
 
 // Assessment is the whole evaluation of one setup.
 type Assessment struct {
@@ -86,4 +90,38 @@ func (a *Assessment) NeedsAction() bool {
 		}
 	}
 	return false
+}
+
+// HazardDigest lists the hazards of an assessment, one line each, with
+// ratios to three figures (so that the last digits of a new version's
+// arithmetic do not count as a change): every source's class, every open
+// segment's eye and skin ratio and OD, every eyewear need, and every
+// finding that needs action (kind, path and element). verify and diff
+// compare these lines.
+func HazardDigest(a *Assessment) []string {
+	var out []string
+	h := a.Hazards
+	for _, ll := range h.Lasers {
+		out = append(out, fmt.Sprintf("class: laser %q %s", ll.Laser.Name, orNone(ll.Class)))
+	}
+	for _, e := range h.Exposures {
+		out = append(out, fmt.Sprintf("open segment: path %q after element %d, laser %q: eye ratio %s, skin ratio %s, OD %g",
+			e.Path.Path.Name, e.Segment.After, e.Laser.Laser.Name, fmtX(e.CombinedEyeRatio), fmtX(e.CombinedSkinRatio), e.OD))
+	}
+	for _, n := range h.Eyewear {
+		out = append(out, fmt.Sprintf("eyewear: %s %s, OD %g, %s", fmtNM(n.Wavelength), n.Mode, n.OD, n.EN207Label()))
+	}
+	for _, f := range a.Findings {
+		if f.Severity == budget.SeverityAction {
+			out = append(out, fmt.Sprintf("finding: %s, path %q, element %d", f.Kind, f.Path, f.Element))
+		}
+	}
+	return out
+}
+
+func orNone(s string) string {
+	if s == "" {
+		return "not assessed"
+	}
+	return s
 }

@@ -304,3 +304,25 @@ func TestSourceDateEpochRange(t *testing.T) {
 		t.Errorf("exit %d, %q", code, errOut)
 	}
 }
+
+// verify's exit statuses: 0 for the document and its own setup, 1 for
+// another setup, 2 for a file that is not a document.
+func TestVerifyExitStatus(t *testing.T) {
+	dir := t.TempDir()
+	doc := filepath.Join(dir, "c.pdf")
+	if _, errOut, code := runCLI(t, "report", "../../testdata/examples/table-c.toml", "-o", doc, "--date", "2026-01-02"); code == exitBadInput {
+		t.Fatalf("report: %s", errOut)
+	}
+	if out, errOut, code := runCLI(t, "verify", doc, "../../testdata/examples/table-c.toml"); code != exitOK || !strings.Contains(out, "The document matches") {
+		t.Errorf("its own setup: exit %d, stdout %q, stderr %q", code, out, errOut)
+	}
+	if out, _, code := runCLI(t, "verify", doc, "../../testdata/examples/table-d.toml"); code != exitFindings || !strings.Contains(out, "differs from the attached setup") {
+		t.Errorf("another setup: exit %d, stdout %q", code, out)
+	}
+	if _, errOut, code := runCLI(t, "verify", "../../testdata/examples/table-c.toml"); code != exitBadInput || !strings.Contains(errOut, "not a readable PDF") {
+		t.Errorf("a setup given as the document: exit %d, stderr %q", code, errOut)
+	}
+	if _, _, code := runCLI(t, "verify", doc, "/no/such/setup.toml"); code != exitBadInput {
+		t.Errorf("a missing setup file: exit %d", code)
+	}
+}

@@ -54,7 +54,7 @@ func (e *env) execute(args []string) int {
 	switch {
 	case err == nil:
 		return exitOK
-	case errors.Is(err, errFindings):
+	case errors.Is(err, errFindings), errors.Is(err, errDiffer):
 		return exitFindings
 	default:
 		fmt.Fprintf(e.stderr, "beamledger: %v\n", err)
@@ -79,6 +79,6 @@ officer under local regulations.`,
 	}
 	root.SetOut(e.stdout)
 	root.SetErr(e.stderr)
-	root.AddCommand(e.newCheck(), e.newReport(), e.newLimits(), e.newInit(), e.newTransitions(), e.newVersion())
+	root.AddCommand(e.newCheck(), e.newReport(), e.newLimits(), e.newInit(), e.newTransitions(), e.newVerify(), e.newVersion())
 	return root
 }

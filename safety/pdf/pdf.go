@@ -8,6 +8,7 @@ package pdf
 import (
 	"fmt"
 	"io"
+	"path/filepath"
 	"strings"
 	"time"
 
@@ -53,6 +54,10 @@ type writer struct {
 // printed as Missing before drawing, so no text can imitate it.
 const pageCount = "\ue000\ue001"
 
+// AttachmentName is the name the setup file is attached under: its base
+// name, so that `verify` finds it whatever directory it came from.
+func AttachmentName(file string) string { return filepath.Base(file) }
+
 // Write draws the document to w. Characters the embedded font cannot draw
 // are printed as Missing, and the title block says how many; every footer
 // reads "page N of M".
@@ -85,6 +90,12 @@ func draw(doc *report.Document, o Options, replaced int) (*fpdf.Fpdf, error) {
 	f.AliasNbPages(pageCount)
 	wr := &writer{f: f, doc: doc, pageW: pw, textW: pw - marginLeft - marginRight, replaced: replaced}
 	f.SetFooterFunc(wr.footer)
+	if len(doc.Setup) > 0 {
+		f.SetAttachments([]fpdf.Attachment{
+			{Content: doc.Setup, Filename: AttachmentName(doc.SetupFile), Description: "the setup file this document covers, SHA-256 " + doc.SetupSHA256},
+			{Content: []byte(strings.Join(doc.Hazards, "\n") + "\n"), Filename: report.HazardsAttachment, Description: "the hazards found at sign-off, one per line"},
+		})
+	}
 	f.AddPage()
 	wr.titleBlock()
 	for i, s := range doc.Sections {

@@ -31,7 +31,8 @@ func Build(a *safety.Assessment, m Meta) *Document {
 	sum := sha256.Sum256(m.SetupBytes)
 	d := &Document{
 		Title: orDefault(s.Meta.Title, "(untitled setup)"), Site: s.Meta.Site, Revision: s.Meta.Revision, PreparedBy: s.Meta.PreparedBy,
-		Date: m.Date, ToolVersion: m.ToolVersion, SetupFile: s.File, SetupSHA256: hex.EncodeToString(sum[:]),
+		Date: m.Date, ToolVersion: m.ToolVersion, SetupFile: s.File, SetupSHA256: hex.EncodeToString(sum[:]), Setup: m.SetupBytes,
+		Hazards: safety.HazardDigest(a),
 	}
 	d.Summary = summary(a)
 	v := view.Build(a)

@@ -10,9 +10,18 @@ type Document struct {
 	ToolVersion                       string
 	SetupFile                         string
 	SetupSHA256                       string
-	Summary                           string
-	Sections                          []Section
+	// Setup is the setup file as read, attached to the document so that
+	// the document carries what it covers; Hazards the hazards found, one
+	// line each (safety.HazardDigest), attached as HazardsAttachment for
+	// verify to compare with a later version's.
+	Setup    []byte
+	Hazards  []string
+	Summary  string
+	Sections []Section
 }
+
+// HazardsAttachment is the name of the attached list of hazards.
+const HazardsAttachment = "hazards-at-sign-off.txt"
 
 // Section is a numbered part of the document.
 type Section struct {

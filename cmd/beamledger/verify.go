@@ -1,0 +1,100 @@
+package main
+
+import (
+	"errors"
+	"fmt"
+	"os"
+	"strings"
+
+	"github.com/spf13/cobra"
+
+	"beamledger/budget"
+	"beamledger/safety/verify"
+)
+
+// errDiffer is returned by verify and diff when what they compare differs
+// (exit status 1).
+var errDiffer = errors.New("differences found")
+
+func (e *env) newVerify() *cobra.Command {
+	return &cobra.Command{
+		Use:   "verify REPORT.pdf [SETUP.toml]",
+		Short: "Check that a sign-off document carries its setup, and what this version finds for it",
+		Long: `verify reads the setup file attached to a sign-off document written by
+report, recomputes its SHA-256 and compares it with the hash the document
+states. Given a setup file, it says whether that file is the one the document
+covers, byte for byte. It then evaluates the attached setup with this version
+of the tool and lists every hazard (class, open-segment ratio and OD, eyewear
+need, finding that needs action) that differs from those the document recorded.
+
+Exit status: 0 everything matches, 1 something differs, 2 the document or the
+setup cannot be used (not a PDF, no attached setup).`,
+		Example: `  beamledger verify table-c.pdf
+  beamledger verify table-c.pdf testdata/examples/table-c.toml`,
+		Args: cobra.RangeArgs(1, 2),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			return e.runVerify(args)
+		},
+	}
+}
+
+func (e *env) runVerify(args []string) error {
+	doc, err := os.ReadFile(args[0])
+	if err != nil {
+		return err
+	}
+	var given []byte
+	if len(args) == 2 {
+		if given, err = budget.ReadSetupFile(args[1]); err != nil {
+			return err
+		}
+	}
+	r, err := verify.Check(doc, given)
+	if err != nil {
+		return fmt.Errorf("%s: %w", args[0], err)
+	}
+	var b strings.Builder
+	fmt.Fprintf(&b, "%s carries the setup %s\n", args[0], r.SetupName)
+	if r.SetupSHA256 == r.RecordedSHA256 {
+		fmt.Fprintf(&b, "  SHA-256 %s, as the document states\n", r.SetupSHA256)
+	} else {
+		fmt.Fprintf(&b, "  SHA-256 %s, but the document states %s: the attachment is not the setup signed\n", r.SetupSHA256, orDash(r.RecordedSHA256))
+	}
+	if r.Given {
+		if r.GivenMatches {
+			fmt.Fprintf(&b, "  %s is the attached setup, byte for byte\n", args[1])
+		} else {
+			fmt.Fprintf(&b, "  %s differs from the attached setup: the document does not cover it (beamledger diff shows what changed)\n", args[1])
+		}
+	}
+	if len(r.Removed) == 0 && len(r.Added) == 0 {
+		fmt.Fprintf(&b, "  beamledger %s finds the hazards the document recorded\n", version)
+	} else {
+		fmt.Fprintf(&b, "  beamledger %s finds different hazards for the attached setup:\n", version)
+		for _, l := range r.Removed {
+			fmt.Fprintf(&b, "    recorded, no longer found: %s\n", l)
+		}
+		for _, l := range r.Added {
+			fmt.Fprintf(&b, "    found now, not recorded:   %s\n", l)
+		}
+	}
+	if r.Match() {
+		b.WriteString("The document matches. This checks the file, not the table: the laser safety officer confirms that the table is built as described.\n")
+	} else {
+		b.WriteString("The document does not match; ask the laser safety officer before relying on it.\n")
+	}
+	if _, err := fmt.Fprint(e.stdout, b.String()); err != nil {
+		return err
+	}
+	if !r.Match() {
+		return errDiffer
+	}
+	return nil
+}
+
+func orDash(s string) string {
+	if s == "" {
+		return "none"
+	}
+	return s
+}

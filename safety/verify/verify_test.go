@@ -1,0 +1,120 @@
+package verify
+
+import (
+	"bytes"
+	"errors"
+	"os"
+	"slices"
+	"testing"
+	"time"
+
+	"beamledger/safety/pdf"
+	"beamledger/safety/report"
+	"beamledger/safety/safetytest"
+)
+
+const example = "../../testdata/examples/table-c.toml"
+
+// document writes the sign-off of the shipped example, after edit changes
+// the document model (nil: as report writes it).
+func document(t *testing.T, edit func(*report.Document)) ([]byte, []byte) {
+	t.Helper()
+	a, data := safetytest.EvaluateFile(t, example)
+	doc := report.Build(a, report.Meta{Date: "2026-01-02", ToolVersion: "test", SetupBytes: data})
+	if edit != nil {
+		edit(doc)
+	}
+	var b bytes.Buffer
+	if err := pdf.Write(&b, doc, pdf.Options{Date: time.Date(2026, 1, 2, 0, 0, 0, 0, time.UTC), Compress: true}); err != nil {
+		t.Fatal(err)
+	}
+	return b.Bytes(), data
+}
+
+func TestMatch(t *testing.T) {
+	doc, setup := document(t, nil)
+	r, err := Check(doc, setup)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !r.Match() || !r.Given || !r.GivenMatches {
+		t.Fatalf("the report of an unchanged setup does not match: %+v", r)
+	}
+	if r.SetupName != "table-c.toml" {
+		t.Errorf("attached setup named %q, want table-c.toml", r.SetupName)
+	}
+	if r.SetupSHA256 != r.RecordedSHA256 || len(r.SetupSHA256) != 64 {
+		t.Errorf("hash %q, recorded %q", r.SetupSHA256, r.RecordedSHA256)
+	}
+	// Without a setup file beside it, the document still checks itself.
+	r, err = Check(doc, nil)
+	if err != nil || !r.Match() || r.Given {
+		t.Fatalf("document alone: %+v, %v", r, err)
+	}
+}
+
+func TestModifiedSetup(t *testing.T) {
+	doc, setup := document(t, nil)
+	changed := bytes.Replace(setup, []byte("revision"), []byte("# edited\nrevision"), 1)
+	if bytes.Equal(changed, setup) {
+		t.Fatal("the example has no revision key to edit before")
+	}
+	r, err := Check(doc, changed)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.Match() || r.GivenMatches {
+		t.Fatalf("a setup edited after sign-off matches: %+v", r)
+	}
+}
+
+func TestHashStatedDiffers(t *testing.T) {
+	doc, _ := document(t, func(d *report.Document) { d.SetupSHA256 = "00" + d.SetupSHA256[2:] })
+	r, err := Check(doc, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.Match() || r.SetupSHA256 == r.RecordedSHA256 {
+		t.Fatalf("an attachment whose hash differs from the stated one matches: %+v", r)
+	}
+}
+
+// A document whose recorded hazards differ from those this version finds
+// (as one written by another version would) lists both sides.
+func TestHazardsDiffer(t *testing.T) {
+	var gone string
+	doc, _ := document(t, func(d *report.Document) {
+		gone = d.Hazards[0]
+		d.Hazards = append([]string{"class: laser \"retired\" Class 4"}, d.Hazards[1:]...)
+	})
+	r, err := Check(doc, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.Match() {
+		t.Fatal("different hazards match")
+	}
+	if !slices.Equal(r.Removed, []string{"class: laser \"retired\" Class 4"}) || !slices.Equal(r.Added, []string{gone}) {
+		t.Errorf("removed %q, added %q; want the edited line removed and %q added", r.Removed, r.Added, gone)
+	}
+}
+
+func TestNoAttachment(t *testing.T) {
+	doc, _ := document(t, func(d *report.Document) { d.Setup = nil })
+	_, err := Check(doc, nil)
+	if !errors.Is(err, ErrUnusable) {
+		t.Fatalf("a PDF without an attached setup: error %v, want ErrUnusable", err)
+	}
+}
+
+func TestNotAPDF(t *testing.T) {
+	data, err := os.ReadFile(example)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for name, b := range map[string][]byte{"setup": data, "empty": nil, "truncated": []byte("%PDF-1.4\n1 0 obj\n")} {
+		if _, err := Check(b, nil); !errors.Is(err, ErrUnusable) {
+			t.Errorf("%s: error %v, want ErrUnusable", name, err)
+		}
+	}
+}
