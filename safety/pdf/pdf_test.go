@@ -144,6 +144,15 @@ func TestPDFValidAndComplete(t *testing.T) {
 			t.Errorf("the PDF text lacks %q", want)
 		}
 	}
+	// The alignment practice is one of the cautions, printed once.
+	if n := strings.Count(flat, "Align at the lowest power that works"); n != 1 {
+		t.Errorf("the alignment practice appears %d times", n)
+	}
+	// Findings of one kind on one path share a line: the demo's 26 action
+	// findings take 10 lines.
+	if !strings.Contains(flat, "26 findings need action before alignment (10 lines in the findings list") || !strings.Contains(flat, "5 findings of kind stray_reflection") {
+		t.Errorf("the PDF does not group the demo's findings")
+	}
 	if n := strings.Count(flat, doc.SetupSHA256); n < pages+1 {
 		t.Errorf("the hash appears %d times; want the title block and every footer (%d pages)", n, pages)
 	}

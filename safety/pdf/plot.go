@@ -2,6 +2,7 @@ package pdf
 
 import (
 	"math"
+	"sort"
 	"strconv"
 	"strings"
 
@@ -62,7 +63,10 @@ func niceStep(raw float64) float64 {
 // else a short exponent form ("1e-6").
 func label(v float64) string {
 	a := math.Abs(v)
-	if v == 0 || (a >= 1e-3 && a < 1e6) {
+	if v == 0 {
+		return "0" // never "-0"
+	}
+	if a >= 1e-3 && a < 1e6 {
 		return strconv.FormatFloat(v, 'f', -1, 64)
 	}
 	s := strconv.FormatFloat(v, 'g', 3, 64)
@@ -151,20 +155,39 @@ func (w *writer) plot(p *report.Plot) {
 	f.SetFont(font, "", 7.5)
 	f.Text((x0+x1)/2-f.GetStringWidth(p.XLabel)/2, y1+7, p.XLabel)
 	f.ClipRect(x0, y0, x1-x0, y1-y0, false)
-	// Markers: dotted verticals with labels along them.
-	f.SetFont(font, "", 5.5)
+	// Markers: dotted verticals, each with its label running down beside
+	// it; labels that would overlap are moved apart and joined to their
+	// line by a short leader.
+	var mx []float64
+	var ms []report.Marker
 	for _, m := range p.Markers {
-		if !plottable(m.X, p.LogX) {
-			continue
+		if plottable(m.X, p.LogX) {
+			x := ax.at(m.X)
+			f.SetDashPattern([]float64{0.4, 0.8}, 0)
+			f.SetLineWidth(0.15)
+			f.SetDrawColor(90, 90, 90)
+			f.Line(x, y0, x, y1)
+			mx, ms = append(mx, x), append(ms, m)
 		}
-		x := ax.at(m.X)
-		f.SetDashPattern([]float64{0.4, 0.8}, 0)
-		f.SetLineWidth(0.15)
-		f.SetDrawColor(90, 90, 90)
-		f.Line(x, y0, x, y1)
+	}
+	size, every := markerLabelSize(len(mx), x1-x0-2)
+	var wx []float64
+	var wm []report.Marker
+	for i := 0; i < len(mx); i += every {
+		wx, wm = append(wx, mx[i]), append(wm, ms[i])
+	}
+	lx := spread(wx, markerPitch(size), x0+markerPitch(size), x1)
+	f.SetFont(font, "", size)
+	f.SetDashPattern(nil, 0)
+	for i, m := range wm {
+		top := y0 + 1
+		if math.Abs(lx[i]-wx[i]) > 0.05 {
+			f.Line(wx[i], y0, lx[i]-markerPitch(size)/2, y0+2.5)
+			top = y0 + 3
+		}
 		f.TransformBegin()
-		f.TransformRotate(90, x-0.6, y0+1)
-		f.Text(x-0.6-f.GetStringWidth(m.Label), y0+1, m.Label)
+		f.TransformRotate(90, lx[i]-0.6, top)
+		f.Text(lx[i]-0.6-f.GetStringWidth(m.Label), top, m.Label)
 		f.TransformEnd()
 	}
 	f.SetDrawColor(0, 0, 0)
@@ -205,7 +228,7 @@ func (w *writer) plot(p *report.Plot) {
 	f.SetDashPattern(nil, 0)
 	f.ClipEnd()
 	// Legend under the axis label.
-	lx := x0
+	legendX := x0
 	ly := y1 + 11
 	f.SetFont(font, "", 7)
 	for _, s := range p.Series {
@@ -213,10 +236,10 @@ func (w *writer) plot(p *report.Plot) {
 			f.SetDashPattern([]float64{1.6, 1}, 0)
 		}
 		f.SetLineWidth(0.35)
-		f.Line(lx, ly-1, lx+8, ly-1)
+		f.Line(legendX, ly-1, legendX+8, ly-1)
 		f.SetDashPattern(nil, 0)
-		f.Text(lx+10, ly, s.Name)
-		lx += 14 + f.GetStringWidth(s.Name)
+		f.Text(legendX+10, ly, s.Name)
+		legendX += 14 + f.GetStringWidth(s.Name)
 	}
 	f.SetLineWidth(0.2)
 	f.SetY(top + plotHeight)
@@ -277,4 +300,49 @@ func (w *writer) yAxisAndFrame(ay axis, ylabel string, x0, x1, y0, y1 float64) {
 	f.TransformRotate(90, marginLeft+3, (y0+y1)/2)
 	f.Text(marginLeft+3-f.GetStringWidth(ylabel)/2, (y0+y1)/2, ylabel)
 	f.TransformEnd()
+}
+
+// markerPitch is the width across the page that a marker label of the
+// given font size takes when it runs down the plot (its line height), with
+// a small gap: 1 pt is 0.3528 mm.
+func markerPitch(size float64) float64 { return size * 0.3528 * 1.15 }
+
+// markerLabelSize picks the font size of n marker labels across a plot
+// width wide: 5.5 pt when they fit side by side, smaller down to 3 pt, and
+// below that only every k-th marker labelled (the markers are numbered, so
+// the labels left out follow from their neighbours).
+func markerLabelSize(n int, width float64) (size float64, every int) {
+	size, every = 5.5, 1
+	if n == 0 || float64(n)*markerPitch(size) <= width {
+		return size, every
+	}
+	size = math.Max(3, width/float64(n)/markerPitch(1))
+	every = int(math.Ceil(float64(n) * markerPitch(size) / width))
+	return size, every
+}
+
+// spread places labels wanted at the page positions want (in any order) so
+// that no two are closer than pitch, each as near its wish as that allows,
+// all within [lo, hi] when they fit: a pass left to right pushes crowded
+// labels right, a pass right to left pulls back those past hi. Labels that
+// already stand apart keep their positions.
+func spread(want []float64, pitch, lo, hi float64) []float64 {
+	idx := make([]int, len(want))
+	for i := range idx {
+		idx[i] = i
+	}
+	sort.SliceStable(idx, func(a, b int) bool { return want[idx[a]] < want[idx[b]] })
+	out := make([]float64, len(want))
+	prev := math.Inf(-1)
+	for _, i := range idx {
+		out[i] = math.Max(math.Max(want[i], lo), prev+pitch)
+		prev = out[i]
+	}
+	next := math.Inf(1)
+	for k := len(idx) - 1; k >= 0; k-- {
+		i := idx[k]
+		out[i] = math.Min(math.Min(out[i], hi), next-pitch)
+		next = out[i]
+	}
+	return out
 }

@@ -172,6 +172,15 @@ func summary(a *safety.Assessment) string {
 		b.WriteString("1 finding needs action before alignment")
 	default:
 		fmt.Fprintf(&b, "%d findings need action before alignment", action)
+		lines := 0
+		for i, n := range view.FindingGroups(a.Findings) {
+			if n > 0 && a.Findings[i].Severity == budget.SeverityAction {
+				lines++
+			}
+		}
+		if lines < action {
+			fmt.Fprintf(&b, " (%d lines in the findings list, where findings of one kind on one path share a line)", lines)
+		}
 	}
 	fmt.Fprintf(&b, ", and %d more are advice. ", advice)
 	met, goals := 0, 0

@@ -343,9 +343,45 @@ func (b *builder) balancesList(a *safety.Assessment) *List {
 // only read).
 var findingLines = []string{"[{severity}] {where}{message}"}
 
+// groupedFindingLines is the sentence of a group of findings of one kind on
+// one path: the count and the worst of them.
+var groupedFindingLines = []string{"[{severity}] {where}{group}{message}"}
+
+// FindingGroups groups findings for people: findings of the same severity
+// and kind on the same path share one line, with their count and the worst
+// of them (the highest ratio to its limit; the first on a tie). It returns,
+// for each finding, the size of its group at the group's worst member and 0
+// at the others; a finding alone, or not on a path, counts 1.
+func FindingGroups(fs []budget.Finding) []int {
+	type key struct {
+		sev  budget.Severity
+		kind budget.FindingKind
+		path string
+	}
+	n := make([]int, len(fs))
+	worst := map[key]int{}
+	count := map[key]int{}
+	for i, f := range fs {
+		if f.Path == "" {
+			n[i] = 1
+			continue
+		}
+		k := key{f.Severity, f.Kind, f.Path}
+		count[k]++
+		if w, ok := worst[k]; !ok || f.Ratio() > fs[w].Ratio() {
+			worst[k] = i
+		}
+	}
+	for k, w := range worst {
+		n[w] = count[k]
+	}
+	return n
+}
+
 func (b *builder) findingsList(a *safety.Assessment) *List {
 	l := &List{Key: "findings", Empty: "none in what was evaluated (see the assumptions above)", Records: make([]Record, 0, len(a.Findings))}
-	for _, f := range a.Findings {
+	groups := FindingGroups(a.Findings)
+	for i, f := range a.Findings {
 		r := Record{Members: b.members(11)}
 		r.F(Str(dSeverity, string(f.Severity))).F(Str(dKind4, string(f.Kind))).
 			F(Str(dPath2, f.Path)).F(Whole(dElement3, f.Element)).
@@ -361,7 +397,15 @@ func (b *builder) findingsList(a *safety.Assessment) *List {
 			where = "path " + strconv.Quote(f.Path) + ": "
 		}
 		r.F(Field{d: dWhere2, Kind: String, Text: where, People: true})
-		r.Lines = findingLines
+		switch n := groups[i]; {
+		case n == 1:
+			r.Lines = findingLines
+		case n > 1:
+			// The group's line stands at its worst member; JSON keeps
+			// every finding.
+			r.F(Field{d: dGroup, Kind: String, Text: strconv.Itoa(n) + " findings of kind " + string(f.Kind) + ", each one in the JSON output; the worst: ", People: true})
+			r.Lines = groupedFindingLines
+		}
 		l.Records = append(l.Records, r)
 	}
 	return l

@@ -302,5 +302,6 @@ var (
 	dWavelengthM4                = &Desc{"wavelength_m", "wavelength", "Laser.Wavelength"}
 	dWhere                       = &Desc{"where", "", ""}
 	dWhere2                      = &Desc{"where", "where", ""}
+	dGroup                       = &Desc{"group", "group", ""}
 	dWorstAtM                    = &Desc{"worst_at_m", "worst at", "Exposure.At"}
 )

@@ -4,6 +4,7 @@ import (
 	"math"
 	"path/filepath"
 	"reflect"
+	"slices"
 	"strings"
 	"testing"
 
@@ -111,4 +112,25 @@ func numeric(t reflect.Type) bool {
 		return t.Name() == "Beam"
 	}
 	return false
+}
+
+// Findings of one kind on one path share a line at the worst of them;
+// findings on no path, or of another severity, stay alone.
+func TestFindingGroups(t *testing.T) {
+	f := func(sev budget.Severity, kind budget.FindingKind, path string, ratio float64) budget.Finding {
+		return budget.Finding{Severity: sev, Kind: kind, Path: path}.Figure(ratio, 1, "W")
+	}
+	fs := []budget.Finding{
+		f(budget.SeverityAction, "stray_reflection", "a", 3),
+		f(budget.SeverityAction, "stray_reflection", "a", 9),
+		f(budget.SeverityAction, "stray_reflection", "b", 1),
+		f(budget.SeverityAdvice, "stray_reflection", "a", 50),
+		f(budget.SeverityAction, "eyewear_gap", "", 1),
+		f(budget.SeverityAction, "eyewear_gap", "", 2),
+		f(budget.SeverityAction, "stray_reflection", "a", 9),
+	}
+	want := []int{0, 3, 1, 1, 1, 1, 0}
+	if got := FindingGroups(fs); !slices.Equal(got, want) {
+		t.Errorf("groups %v, want %v", got, want)
+	}
 }
