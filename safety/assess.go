@@ -106,7 +106,7 @@ func HazardDigest(a *Assessment) []string {
 	}
 	for _, e := range h.Exposures {
 		out = append(out, fmt.Sprintf("open segment: path %q after element %d, laser %q: eye ratio %s, skin ratio %s, OD %g",
-			e.Path.Path.Name, e.Segment.After, e.Laser.Laser.Name, fmtX(e.CombinedEyeRatio), fmtX(e.CombinedSkinRatio), e.OD))
+			e.Path.Path.Name, e.Segment.After, e.Laser.Laser.Name, FormatRatio(e.CombinedEyeRatio), FormatRatio(e.CombinedSkinRatio), e.OD))
 	}
 	for _, n := range h.Eyewear {
 		out = append(out, fmt.Sprintf("eyewear: %s %s, OD %g, %s", fmtNM(n.Wavelength), n.Mode, n.OD, n.EN207Label()))

@@ -438,16 +438,16 @@ func (res *pathHazardResult) segmentFinding(g []*Exposure) {
 	var msg string
 	if len(g) == 1 {
 		msg = fmt.Sprintf("%s: up to %s reaches %s × the eye MPE (%s averaged over %s, %s exposure) and %s × the skin MPE; eyewear needs OD %g at %s",
-			segmentName(pb.Path, seg), budget.FormatPower(worst.Power), fmtX(worst.Ratio), budget.FormatIrradiance(worst.Irradiance), budget.FormatLength(ll.EyeAperture),
-			budget.FormatSI(ll.Duration, "s"), fmtX(worst.SkinRatio), worst.OD, fmtNM(pb.Laser.Wavelength))
+			segmentName(pb.Path, seg), budget.FormatPower(worst.Power), FormatRatio(worst.Ratio), budget.FormatIrradiance(worst.Irradiance), budget.FormatLength(ll.EyeAperture),
+			budget.FormatSI(ll.Duration, "s"), FormatRatio(worst.SkinRatio), worst.OD, fmtNM(pb.Laser.Wavelength))
 	} else {
 		var parts, ods []string
 		for _, e := range g {
-			parts = append(parts, fmt.Sprintf("%s %s × (eye), %s × (skin)", fmtNM(e.Laser.Laser.Wavelength), fmtX(e.Ratio), fmtX(e.SkinRatio)))
+			parts = append(parts, fmt.Sprintf("%s %s × (eye), %s × (skin)", fmtNM(e.Laser.Laser.Wavelength), FormatRatio(e.Ratio), FormatRatio(e.SkinRatio)))
 			ods = append(ods, fmt.Sprintf("OD %g at %s", e.OD, fmtNM(e.Laser.Laser.Wavelength)))
 		}
 		msg = fmt.Sprintf("%s: %d beams share the segment (%s); where their effects add the exposures sum to %s × the eye MPE and %s × the skin MPE; eyewear needs %s (each additive wavelength held to an equal share of the limit)",
-			segmentName(pb.Path, seg), len(g), strings.Join(parts, "; "), fmtX(worst.CombinedEyeRatio), fmtX(worst.CombinedSkinRatio), strings.Join(ods, ", "))
+			segmentName(pb.Path, seg), len(g), strings.Join(parts, "; "), FormatRatio(worst.CombinedEyeRatio), FormatRatio(worst.CombinedSkinRatio), strings.Join(ods, ", "))
 	}
 	if worst.OpenEnd {
 		msg += fmt.Sprintf("; the escaping beam stays above the MPE for %s beyond the path's end (NOHD)", FormatDistance(worst.NOHD))
@@ -534,7 +534,7 @@ func (res *pathHazardResult) escaping(pb *budget.PathBudget, ll *LaserLimits, r 
 			res.reflections = append(res.reflections, ref)
 			res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingEscaping, Path: pb.Path.Name,
 				Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s%s): %s %s, %s × the eye MPE; describe where it goes or end it in a rated dump",
-					el.Index, el.Label(), beamNote(pb), budget.FormatPower(pl), what, fmtX(ref.Ratio))}.Figure(irr, ll.EyeIrradiance, "W/m2"))
+					el.Index, el.Label(), beamNote(pb), budget.FormatPower(pl), what, FormatRatio(ref.Ratio))}.Figure(irr, ll.EyeIrradiance, "W/m2"))
 		}
 	}
 }
@@ -741,8 +741,8 @@ func segmentName(p *budget.Path, seg budget.Segment) string {
 	return fmt.Sprintf("between elements %d and %d (%s to %s)", seg.After, seg.After+1, budget.FormatLength(seg.From), budget.FormatLength(seg.To))
 }
 
-// fmtX writes a ratio to the MPE with three figures.
-func fmtX(r float64) string { return budget.FormatNumber(limits.RoundUp(r, 3)) }
+// FormatRatio writes a ratio to its limit to three figures, rounded up.
+func FormatRatio(r float64) string { return budget.FormatNumber(limits.RoundUp(r, 3)) }
 
 func fmtNM(λ float64) string { return fmt.Sprintf("%s nm", budget.FormatNumber(λ*1e9)) }
 

@@ -326,3 +326,29 @@ func TestVerifyExitStatus(t *testing.T) {
 		t.Errorf("a missing setup file: exit %d", code)
 	}
 }
+
+// diff's exit statuses: 0 for a file against itself, 1 for the shipped
+// revision that raises a power, 2 for a file that does not load.
+func TestDiffExitStatus(t *testing.T) {
+	c, c4 := "../../testdata/examples/table-c.toml", "../../testdata/examples/table-c-rev4.toml"
+	if out, errOut, code := runCLI(t, "diff", c, c); code != exitOK || !strings.Contains(out, "No change affects safety") {
+		t.Errorf("a file against itself: exit %d, stdout %q, stderr %q", code, out, errOut)
+	}
+	if out, _, code := runCLI(t, "diff", c, c4); code != exitFindings || !strings.Contains(out, "needs a new sign-off") {
+		t.Errorf("the shipped revision: exit %d, stdout %q", code, out)
+	}
+	out, _, code := runCLI(t, "diff", "--json", c, c4)
+	var back struct {
+		AffectsSafety bool `json:"affects_safety"`
+	}
+	if code != exitFindings || json.Unmarshal([]byte(out), &back) != nil || !back.AffectsSafety {
+		t.Errorf("--json: exit %d, %q", code, out)
+	}
+	bad := filepath.Join(t.TempDir(), "bad.toml")
+	if err := os.WriteFile(bad, []byte("[[laser]]\nname = 1\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if out, errOut, code := runCLI(t, "diff", c, bad); code != exitBadInput || out != "" || !strings.Contains(errOut, "bad.toml") {
+		t.Errorf("a setup that does not load: exit %d, stdout %q, stderr %q", code, out, errOut)
+	}
+}

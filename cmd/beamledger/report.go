@@ -15,10 +15,12 @@ import (
 	"beamledger/safety"
 	"beamledger/safety/pdf"
 	"beamledger/safety/report"
+	"beamledger/safety/revision"
 )
 
 type reportOptions struct {
 	file, output, date string
+	since              string
 	force              bool
 	tol                toleranceFlags
 }
@@ -35,6 +37,10 @@ hazards against IEC 60825-1:2014, the eyewear needed, the assumptions, the
 cautions and a sign-off block for the preparer, the laser safety officer and
 the responsible person.
 
+With --since OLD.toml the document opens with the changes since that
+revision: its title, revision and SHA-256, then what changed in the setup,
+the hazards and the drive, as diff shows them.
+
 The date comes from --date, else from SOURCE_DATE_EPOCH, else today; the same
 setup, tool version and date give the same bytes. The PDF is written to a
 temporary file beside OUT and renamed into place; an existing OUT is replaced
@@ -50,6 +56,7 @@ only with --force, and nothing is written when the setup cannot be used.`,
 	cmd.Flags().StringVarP(&o.output, "output", "o", "", "the PDF to write (required)")
 	cmd.Flags().StringVar(&o.date, "date", "", "the document date, YYYY-MM-DD (default: SOURCE_DATE_EPOCH, else today)")
 	cmd.Flags().BoolVar(&o.force, "force", false, "replace an existing output file")
+	cmd.Flags().StringVar(&o.since, "since", "", "the setup file of the previous revision: the document opens with the changes since it (as diff shows them)")
 	o.tol.add(cmd)
 	return cmd
 }
@@ -103,7 +110,17 @@ func (e *env) runReport(o *reportOptions) error {
 	if err != nil {
 		return err
 	}
-	doc := report.Build(a, report.Meta{Date: date.Format("2006-01-02"), ToolVersion: version, SetupBytes: data})
+	meta := report.Meta{Date: date.Format("2006-01-02"), ToolVersion: version, SetupBytes: data}
+	if o.since != "" {
+		old, err := loadRevision(o.since)
+		if err != nil {
+			return fmt.Errorf("--since: %w", err)
+		}
+		if meta.Since, err = revision.Compare(old, revision.Revision{File: o.file, Data: data, Assessment: a}); err != nil {
+			return fmt.Errorf("--since: %w", err)
+		}
+	}
+	doc := report.Build(a, meta)
 	if err := writeAtomically(o.output, e.interrupts, func(f *os.File) error {
 		return pdf.Write(f, doc, pdf.Options{Date: date, Compress: true})
 	}); err != nil {

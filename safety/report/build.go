@@ -12,6 +12,7 @@ import (
 	"beamledger/budget/atoms"
 	"beamledger/limits"
 	"beamledger/safety"
+	"beamledger/safety/revision"
 	"beamledger/safety/view"
 )
 
@@ -20,6 +21,9 @@ type Meta struct {
 	Date        string // YYYY-MM-DD
 	ToolVersion string
 	SetupBytes  []byte // the setup file as read, for its hash
+	// Since, when set, is the comparison with the previous revision the
+	// document opens with (report --since).
+	Since *revision.Report
 }
 
 // SignOffRoles are the people who sign.
@@ -43,6 +47,9 @@ func Build(a *safety.Assessment, m Meta) *Document {
 			lists[m.List.Key] = m.List
 		}
 	}
+	if m.Since != nil {
+		d.Sections = append(d.Sections, since(m.Since))
+	}
 	d.Sections = append(d.Sections, sources(lists["lasers"]), paths(a, lists["paths"]))
 	if len(a.Atoms) > 0 {
 		d.Sections = append(d.Sections, atomsSection(a, lists["atoms"]))
@@ -52,6 +59,28 @@ func Build(a *safety.Assessment, m Meta) *Document {
 	}
 	d.Sections = append(d.Sections, hazards(lists), eyewear(lists["eyewear"]), provenance(lists["limits_used"]), assumptions(a), cautions(), signOff())
 	return d
+}
+
+// since is the section on the changes since the previous revision: which
+// revision, then the changes to the setup, the hazards and the drive, those
+// that affect safety marked.
+func since(r *revision.Report) Section {
+	sec := Section{Heading: "Changes since the previous revision", Blocks: []Block{
+		{Paragraph: "Previous revision: " + r.Old.Heading() + ". This revision: " + r.New.Heading() + ". " + r.Verdict()},
+	}}
+	for _, g := range r.Groups() {
+		sec.Blocks = append(sec.Blocks, Block{Subheading: g.Heading})
+		if len(g.Changes) == 0 {
+			sec.Blocks = append(sec.Blocks, Block{Paragraph: g.None})
+			continue
+		}
+		lines := make([]string, len(g.Changes))
+		for i, c := range g.Changes {
+			lines[i] = c.Marked()
+		}
+		sec.Blocks = append(sec.Blocks, Block{Bullets: lines})
+	}
+	return sec
 }
 
 // provenance lists where each limit the document used comes from: the

@@ -9,6 +9,7 @@ import (
 
 	"beamledger/budget"
 	"beamledger/safety"
+	"beamledger/safety/revision"
 	"beamledger/safety/safetytest"
 )
 
@@ -65,4 +66,29 @@ func nil2(t *testing.T) *safety.Assessment {
 		t.Fatal(err)
 	}
 	return a
+}
+
+// report --since: the document opens with the changes since the previous
+// revision, naming its title, revision and SHA-256 (model golden).
+func TestModelSince(t *testing.T) {
+	old, oldData := safetytest.EvaluateFile(t, "../../testdata/examples/table-c.toml")
+	a, data := safetytest.EvaluateFile(t, "../../testdata/examples/table-c-rev4.toml")
+	r, err := revision.Compare(revision.Revision{File: "table-c.toml", Data: oldData, Assessment: old}, revision.Revision{File: "table-c-rev4.toml", Data: data, Assessment: a})
+	if err != nil {
+		t.Fatal(err)
+	}
+	doc := Build(a, Meta{Date: "2026-01-02", ToolVersion: "test", SetupBytes: data, Since: r})
+	if doc.Sections[0].Heading != "Changes since the previous revision" {
+		t.Fatalf("first section %q", doc.Sections[0].Heading)
+	}
+	var b bytes.Buffer
+	if err := doc.WriteText(&b); err != nil {
+		t.Fatal(err)
+	}
+	for _, want := range []string{"Elongated cloud, table C, revision draft 3 (table-c.toml, SHA-256 e960c5f41f6f3479a6bc5c32144a05b85e2d2f31915b503752501b54f67fb4c2)", "[safety] changed laser \"probe-amp\": power: \"1.5 W\" → \"2 W\""} {
+		if !strings.Contains(b.String(), want) {
+			t.Errorf("the section lacks %q", want)
+		}
+	}
+	safetytest.Golden(t, filepath.Join("testdata", "golden", "table-c-rev4-since.txt"), b.String(), *update)
 }
