@@ -20,6 +20,14 @@ const (
 	LossScattered    = "scattered by the atoms" // absorbed by a cloud and scattered in all directions
 )
 
+// EscapingLoss reports whether a loss of this kind is a beam that leaves
+// the path as a beam (mirror leakage, an AOM's other orders, a combiner's
+// rejected light), which the hazards judge and the drawing shows, rather
+// than power absorbed or scattered where it is lost.
+func EscapingLoss(kind string) bool {
+	return kind == LossMirror || kind == LossDiffraction || kind == LossCombiner
+}
+
 // Loss is power leaving the path at an element, as a fraction of the source's
 // power.
 type Loss struct {

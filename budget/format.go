@@ -2,6 +2,7 @@ package budget
 
 import (
 	"bytes"
+	"fmt"
 	"math"
 	"strconv"
 )
@@ -86,3 +87,7 @@ func FormatFrequency(hz float64) string { return FormatSI(hz, "Hz") }
 
 // Decibels of a power ratio out/in (negative for a loss).
 func Decibels(ratio float64) float64 { return 10 * math.Log10(ratio) }
+
+// FormatWavelength writes a wavelength, m, in nm to 0.01 nm ("780.24 nm"),
+// as the path headings print it.
+func FormatWavelength(λ float64) string { return fmt.Sprintf("%.2f nm", λ*1e9) }

@@ -181,3 +181,20 @@ func productionReferences(t *testing.T, root string) map[string]int {
 	}
 	return refs
 }
+
+// The losses that leave a path as a beam: mirror leakage, an AOM's other
+// orders and a combiner's rejected light (common practice: each leaves as a
+// collimated beam that can reach an eye); absorbed, coupled, dumped and
+// scattered power does not.
+func TestEscapingLoss(t *testing.T) {
+	for _, k := range []string{LossMirror, LossDiffraction, LossCombiner} {
+		if !EscapingLoss(k) {
+			t.Errorf("%s does not leave the path", k)
+		}
+	}
+	for _, k := range []string{LossClipping, LossAbsorption, LossFilter, LossSplitterPort, LossCoupling, LossDump, LossScattered} {
+		if EscapingLoss(k) {
+			t.Errorf("%s leaves the path as a beam", k)
+		}
+	}
+}

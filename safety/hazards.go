@@ -514,17 +514,11 @@ func (res *pathHazardResult) stray(pb *budget.PathBudget, ll *LaserLimits, r *bu
 func (res *pathHazardResult) escaping(pb *budget.PathBudget, ll *LaserLimits, r *budget.Row) {
 	el := r.Element
 	for _, l := range r.Losses {
-		var what string
-		switch l.Kind {
-		case budget.LossMirror:
-			what = "leaks through the mirror"
-		case budget.LossDiffraction:
-			what = "leaves in the undiffracted (and other) orders"
-		case budget.LossCombiner:
-			what = "leaves the combiner's other port"
-		default:
+		if !budget.EscapingLoss(l.Kind) {
 			continue
 		}
+		what := map[string]string{budget.LossMirror: "leaks through the mirror", budget.LossDiffraction: "leaves in the undiffracted (and other) orders",
+			budget.LossCombiner: "leaves the combiner's other port"}[l.Kind]
 		pl := l.Fraction * pb.Laser.Power
 		irr := apertureIrradiance(r.BeamIn, pl, ll.EyeAperture)
 		ref := &Reflection{Path: pb, Element: el, Kind: ReflectionEscaping, Reflectance: l.Fraction / r.FractionIn, Surfaces: 1,

@@ -3,7 +3,9 @@ package main
 import (
 	"bytes"
 	"encoding/json"
+	"encoding/xml"
 	"errors"
+	"io"
 	"math"
 	"os"
 	"path/filepath"
@@ -350,5 +352,47 @@ func TestDiffExitStatus(t *testing.T) {
 	}
 	if out, errOut, code := runCLI(t, "diff", c, bad); code != exitBadInput || out != "" || !strings.Contains(errOut, "bad.toml") {
 		t.Errorf("a setup that does not load: exit %d, stdout %q, stderr %q", code, out, errOut)
+	}
+}
+
+// report --diagram writes the drawing as SVG beside the PDF; a name shared
+// with the PDF, or a setup that does not load, writes neither.
+func TestReportDiagram(t *testing.T) {
+	dir := t.TempDir()
+	doc, svg := filepath.Join(dir, "c.pdf"), filepath.Join(dir, "c.svg")
+	if _, errOut, code := runCLI(t, "report", "../../testdata/examples/table-c.toml", "-o", doc, "--diagram", svg, "--date", "2026-01-02"); code == exitBadInput {
+		t.Fatalf("report --diagram: %s", errOut)
+	}
+	data, err := os.ReadFile(svg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	dec := xml.NewDecoder(bytes.NewReader(data))
+	for {
+		if _, err := dec.Token(); err != nil {
+			if !errors.Is(err, io.EOF) {
+				t.Fatalf("the SVG does not parse: %v", err)
+			}
+			break
+		}
+	}
+	if !bytes.Contains(data, []byte("1 aom")) {
+		t.Error("the SVG lacks the demo's first element")
+	}
+	other := filepath.Join(dir, "d.pdf")
+	if _, errOut, code := runCLI(t, "report", "../../testdata/examples/table-c.toml", "-o", other, "--diagram", other); code != exitBadInput || !strings.Contains(errOut, "name of its own") {
+		t.Errorf("--diagram as the PDF's name: exit %d, %s", code, errOut)
+	}
+	bad := filepath.Join(dir, "bad.toml")
+	if err := os.WriteFile(bad, []byte("[[laser]]\nname = 1\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if _, _, code := runCLI(t, "report", bad, "-o", other, "--diagram", filepath.Join(dir, "e.svg")); code != exitBadInput {
+		t.Errorf("bad setup: exit %d", code)
+	}
+	for _, f := range []string{other, filepath.Join(dir, "e.svg")} {
+		if _, err := os.Stat(f); err == nil {
+			t.Errorf("%s was written", f)
+		}
 	}
 }

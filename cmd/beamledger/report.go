@@ -1,6 +1,7 @@
 package main
 
 import (
+	"bytes"
 	"errors"
 	"fmt"
 	"io/fs"
@@ -20,7 +21,7 @@ import (
 
 type reportOptions struct {
 	file, output, date string
-	since              string
+	since, diagram     string
 	force              bool
 	tol                toleranceFlags
 }
@@ -36,6 +37,9 @@ beam path with plots of its beam radius and power, the drive at the atoms, the
 hazards against IEC 60825-1:2014, the eyewear needed, the assumptions, the
 cautions and a sign-off block for the preparer, the laser safety officer and
 the responsible person.
+
+With --diagram FILE.svg the drawing of the beam paths (the document's
+second section) is also written as SVG, for wikis and lab notebooks.
 
 With --since OLD.toml the document opens with the changes since that
 revision: its title, revision and SHA-256, then what changed in the setup,
@@ -56,6 +60,7 @@ only with --force, and nothing is written when the setup cannot be used.`,
 	cmd.Flags().StringVarP(&o.output, "output", "o", "", "the PDF to write (required)")
 	cmd.Flags().StringVar(&o.date, "date", "", "the document date, YYYY-MM-DD (default: SOURCE_DATE_EPOCH, else today)")
 	cmd.Flags().BoolVar(&o.force, "force", false, "replace an existing output file")
+	cmd.Flags().StringVar(&o.diagram, "diagram", "", "also write the drawing of the beam paths as SVG to this file")
 	cmd.Flags().StringVar(&o.since, "since", "", "the setup file of the previous revision: the document opens with the changes since it (as diff shows them)")
 	o.tol.add(cmd)
 	return cmd
@@ -94,6 +99,14 @@ func (e *env) runReport(o *reportOptions) error {
 	if err := checkOutput(o.file, o.output, o.force); err != nil {
 		return err
 	}
+	if o.diagram != "" {
+		if err := checkOutput(o.file, o.diagram, o.force); err != nil {
+			return fmt.Errorf("--diagram: %w", err)
+		}
+		if filepath.Clean(o.diagram) == filepath.Clean(o.output) {
+			return fmt.Errorf("--diagram %s is the PDF's own name; give the SVG a name of its own", o.diagram)
+		}
+	}
 	data, err := budget.ReadSetupFile(o.file)
 	if err != nil {
 		return err
@@ -121,6 +134,14 @@ func (e *env) runReport(o *reportOptions) error {
 		}
 	}
 	doc := report.Build(a, meta)
+	// The SVG is drawn before anything is written, so that a failure
+	// leaves no file behind.
+	var svg bytes.Buffer
+	if o.diagram != "" {
+		if err := report.WriteSVG(&svg, doc.Drawings()); err != nil {
+			return err
+		}
+	}
 	if err := writeAtomically(o.output, e.interrupts, func(f *os.File) error {
 		return pdf.Write(f, doc, pdf.Options{Date: date, Compress: true})
 	}); err != nil {
@@ -128,6 +149,18 @@ func (e *env) runReport(o *reportOptions) error {
 	}
 	if _, err := fmt.Fprintf(e.stdout, "wrote %s (%s, setup SHA-256 %s)\n", o.output, doc.Date, doc.SetupSHA256); err != nil {
 		return err
+	}
+	if o.diagram != "" {
+		if err := writeAtomically(o.diagram, e.interrupts, func(f *os.File) error {
+			_, err := f.Write(svg.Bytes())
+			return err
+		}); err != nil {
+			os.Remove(o.output)
+			return fmt.Errorf("--diagram: %w (the PDF was removed too)", err)
+		}
+		if _, err := fmt.Fprintf(e.stdout, "wrote %s (the drawing of the beam paths)\n", o.diagram); err != nil {
+			return err
+		}
 	}
 	if a.NeedsAction() {
 		return errFindings

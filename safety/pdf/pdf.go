@@ -188,6 +188,8 @@ func (w *writer) section(n int, s report.Section) {
 			w.table(b.Table)
 		case b.Plot != nil:
 			w.plot(b.Plot)
+		case b.Drawing != nil:
+			w.drawing(b.Drawing)
 		case b.SignOff != nil:
 			w.signOff(b.SignOff)
 		}

@@ -50,7 +50,7 @@ func Build(a *safety.Assessment, m Meta) *Document {
 	if m.Since != nil {
 		d.Sections = append(d.Sections, since(m.Since))
 	}
-	d.Sections = append(d.Sections, sources(lists["lasers"]), paths(a, lists["paths"]))
+	d.Sections = append(d.Sections, sources(lists["lasers"]), drawings(a), paths(a, lists["paths"]))
 	if len(a.Atoms) > 0 {
 		d.Sections = append(d.Sections, atomsSection(a, lists["atoms"]))
 	}
@@ -59,6 +59,19 @@ func Build(a *safety.Assessment, m Meta) *Document {
 	}
 	d.Sections = append(d.Sections, hazards(lists), eyewear(lists["eyewear"]), provenance(lists["limits_used"]), assumptions(a), cautions(), signOff())
 	return d
+}
+
+// drawings is the section of schematics: a key, then one drawing per
+// laser.
+func drawings(a *safety.Assessment) Section {
+	sec := Section{Heading: "Drawing of the beam paths", Blocks: []Block{
+		{Paragraph: "Not to scale: one schematic per laser, drawn from the setup's paths, elements numbered as in the tables. Segments are drawn as the hazards were evaluated, each laser at its maximum power; a segment's weight is the band of its eye-exposure ratio. A drawing shows what the setup file describes, not what stands on the table."},
+		{Drawing: Legend()},
+	}}
+	for _, d := range Diagrams(a) {
+		sec.Blocks = append(sec.Blocks, Block{Drawing: d})
+	}
+	return sec
 }
 
 // since is the section on the changes since the previous revision: which

@@ -36,6 +36,7 @@ type Block struct {
 	Bullets    []string
 	Table      *Table
 	Plot       *Plot
+	Drawing    *Drawing
 	SignOff    []string // roles, each with name, signature and date lines
 }
 

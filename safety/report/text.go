@@ -32,6 +32,8 @@ func (d *Document) WriteText(w io.Writer) error {
 				}
 			case bl.Plot != nil:
 				writePlotText(&b, bl.Plot)
+			case bl.Drawing != nil:
+				writeDrawingText(&b, bl.Drawing)
 			case bl.SignOff != nil:
 				for _, role := range bl.SignOff {
 					fmt.Fprintf(&b, "  %s: name ______ signature ______ date ______\n", role)
@@ -68,5 +70,31 @@ func writePlotText(b *strings.Builder, p *Plot) {
 	}
 	for _, h := range p.HLines {
 		fmt.Fprintf(b, "    line %q at y = %.4g\n", h.Label, h.Y)
+	}
+}
+
+// writeDrawingText lists a drawing's shapes, one per line, coordinates to
+// 0.1 mm: the drawing commands the PDF and the SVG carry out.
+func writeDrawingText(b *strings.Builder, d *Drawing) {
+	fmt.Fprintf(b, "  [drawing] %s (%.1f × %.1f mm, %d shapes)\n", d.Title, d.Width, d.Height, len(d.Shapes))
+	for _, s := range d.Shapes {
+		b.WriteString("    ")
+		b.WriteString(string(s.Kind))
+		for i := 0; i+1 < len(s.P); i += 2 {
+			fmt.Fprintf(b, " %.1f,%.1f", s.P[i], s.P[i+1])
+		}
+		if s.Stroke > 0 {
+			fmt.Fprintf(b, " stroke %.2f", s.Stroke)
+		}
+		if s.Dash != Solid {
+			fmt.Fprintf(b, " %s", s.Dash)
+		}
+		if s.Fill >= 0 && s.Kind != ShapeText && s.Kind != ShapeLine {
+			fmt.Fprintf(b, " fill %.2f", s.Fill)
+		}
+		if s.Kind == ShapeText {
+			fmt.Fprintf(b, " %.1fpt %s %q", s.Size, s.Anchor, s.Text)
+		}
+		b.WriteString("\n")
 	}
 }

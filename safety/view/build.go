@@ -131,7 +131,7 @@ func (b *builder) pathRecord(pb *budget.PathBudget) Record {
 	sx, sy := pb.Start.Radii()
 	startP := pb.StartFraction * op
 	r.F(Str(dName2, p.Name)).F(Str(dFrom, p.From)).F(Str(dLaser, las.Name)).
-		F(Num(dWavelengthM4, las.Wavelength, fmt.Sprintf("%.2f nm", las.Wavelength*1e9))).
+		F(Num(dWavelengthM4, las.Wavelength, budget.FormatWavelength(las.Wavelength))).
 		F(Pow(dOperatingPowerW, op)).
 		F(Pow(dMaxPowerW, las.Power)).
 		F(Pow(dStartPowerW, startP)).
@@ -155,7 +155,7 @@ func (b *builder) pathRecord(pb *budget.PathBudget) Record {
 			how = "at combiner " + strconv.Quote(jb.Combiner.Label())
 		}
 		jr.F(Str(dLaser3, jb.Laser.Name)).
-			F(Num(dWavelengthM5, jb.Laser.Wavelength, fmt.Sprintf("%.2f nm", jb.Laser.Wavelength*1e9))).
+			F(Num(dWavelengthM5, jb.Laser.Wavelength, budget.FormatWavelength(jb.Laser.Wavelength))).
 			F(Len(dJoinedAtM, jb.JoinedAt)).
 			F(Pow(dOperatingPowerW2, jop)).
 			F(Field{d: dJoinedHow, Kind: String, Text: how, People: true})
