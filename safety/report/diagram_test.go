@@ -6,11 +6,14 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"os"
+	"path/filepath"
 	"strings"
 	"testing"
 	"unicode/utf8"
 
 	"beamledger/budget"
+	"beamledger/safety"
 	"beamledger/safety/safetytest"
 )
 
@@ -250,4 +253,53 @@ func TestEveryKindHasAGlyph(t *testing.T) {
 			}
 		}
 	}
+}
+
+// Any setup that loads draws: every shape has finite coordinates, the
+// layout never panics, and the SVG parses.
+func FuzzDiagram(f *testing.F) {
+	for _, name := range []string{"table-c", "table-d", "splitter-tree"} {
+		if data, err := os.ReadFile("../../testdata/examples/" + name + ".toml"); err == nil {
+			f.Add(data)
+		}
+	}
+	hostile, _ := filepath.Glob("../../testdata/hostile/*.toml")
+	for _, h := range hostile {
+		if data, err := os.ReadFile(h); err == nil {
+			f.Add(data)
+		}
+	}
+	f.Fuzz(func(t *testing.T, data []byte) {
+		s, err := budget.Parse("fuzz.toml", data)
+		if err != nil {
+			return
+		}
+		a, err := safety.Evaluate(s)
+		if err != nil {
+			return
+		}
+		ds := Diagrams(a)
+		for _, d := range ds {
+			for _, sh := range d.Shapes {
+				for _, v := range sh.P {
+					if math.IsNaN(v) || math.IsInf(v, 0) {
+						t.Fatalf("%s: %s with coordinate %g", d.Title, sh.Kind, v)
+					}
+				}
+			}
+		}
+		var buf bytes.Buffer
+		if err := WriteSVG(&buf, ds); err != nil {
+			t.Fatal(err)
+		}
+		dec := xml.NewDecoder(&buf)
+		for {
+			if _, err := dec.Token(); err != nil {
+				if err != io.EOF {
+					t.Fatalf("the SVG does not parse: %v", err)
+				}
+				return
+			}
+		}
+	})
 }
