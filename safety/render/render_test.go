@@ -18,17 +18,7 @@ import (
 // Any setup that loads renders as text and as valid JSON: no NaN or Inf
 // reaches the encoder.
 func FuzzRender(f *testing.F) {
-	for _, name := range []string{"table-c", "splitter-tree", "weak-probe"} {
-		if data, err := os.ReadFile("../../testdata/examples/" + name + ".toml"); err == nil {
-			f.Add(data)
-		}
-	}
-	hostile, _ := filepath.Glob("../../testdata/hostile/*.toml")
-	for _, h := range hostile {
-		if data, err := os.ReadFile(h); err == nil {
-			f.Add(data)
-		}
-	}
+	safetytest.AddSeeds(f, "../..", "table-c", "splitter-tree", "weak-probe")
 	f.Fuzz(func(t *testing.T, data []byte) {
 		s, err := budget.Parse("fuzz.toml", data)
 		if err != nil {

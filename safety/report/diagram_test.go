@@ -6,8 +6,6 @@ import (
 	"fmt"
 	"io"
 	"math"
-	"os"
-	"path/filepath"
 	"strings"
 	"testing"
 	"unicode/utf8"
@@ -258,17 +256,7 @@ func TestEveryKindHasAGlyph(t *testing.T) {
 // Any setup that loads draws: every shape has finite coordinates, the
 // layout never panics, and the SVG parses.
 func FuzzDiagram(f *testing.F) {
-	for _, name := range []string{"table-c", "table-d", "splitter-tree"} {
-		if data, err := os.ReadFile("../../testdata/examples/" + name + ".toml"); err == nil {
-			f.Add(data)
-		}
-	}
-	hostile, _ := filepath.Glob("../../testdata/hostile/*.toml")
-	for _, h := range hostile {
-		if data, err := os.ReadFile(h); err == nil {
-			f.Add(data)
-		}
-	}
+	safetytest.AddSeeds(f, "../..", "table-c", "table-d", "splitter-tree")
 	f.Fuzz(func(t *testing.T, data []byte) {
 		s, err := budget.Parse("fuzz.toml", data)
 		if err != nil {

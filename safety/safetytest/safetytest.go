@@ -104,3 +104,21 @@ func ForEachExample(t *testing.T, root string, f func(t *testing.T, name, path s
 		t.Run(name, func(t *testing.T) { f(t, name, p) })
 	}
 }
+
+// AddSeeds adds to a fuzz target's corpus the named shipped examples and
+// every accepted hostile setup, read from root's testdata.
+func AddSeeds(f *testing.F, root string, examples ...string) {
+	f.Helper()
+	var files []string
+	for _, name := range examples {
+		files = append(files, filepath.Join(root, "testdata", "examples", name+".toml"))
+	}
+	hostile, _ := filepath.Glob(filepath.Join(root, "testdata", "hostile", "*.toml"))
+	for _, p := range append(files, hostile...) {
+		data, err := os.ReadFile(p)
+		if err != nil {
+			f.Fatal(err)
+		}
+		f.Add(data)
+	}
+}
