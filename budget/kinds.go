@@ -1,6 +1,9 @@
 package budget
 
-import "math"
+import (
+	"math"
+	"slices"
+)
 
 // ElementType names an element kind in a setup file ("lens", "mirror", …).
 type ElementType string
@@ -31,8 +34,10 @@ type ElementKind struct {
 	Type ElementType
 	// Does says in words what the element does to the beam and its power.
 	Does string
-	// Keys are the keys it takes besides commonElementKeys.
-	Keys []string
+	// Keys are the keys it takes besides the common element keys (the
+	// key table's "element" table); Needs its rules of required keys.
+	Keys  []KeySpec
+	Needs []Requirement
 	// Surfaces is the number of transmissive surfaces that reflect part of
 	// the beam (the stray-reflection check); 0 for none.
 	Surfaces int
@@ -44,19 +49,44 @@ type ElementKind struct {
 
 // Kinds lists the element kinds in a fixed order.
 var Kinds = []*ElementKind{
-	{Type: TypeLens, Does: "a thin lens: the ABCD matrix (1, 0; −1/f, 1) in both planes; loss: its stated transmission", Keys: []string{"focal_length"}, Surfaces: 2, read: readLens, apply: applyLens},
-	{Type: TypeMirror, Does: "a mirror, flat or curved (a lens of focal length R/2); loss: 1 − reflectivity, which leaks through it", Keys: []string{"reflectivity", "radius_of_curvature"}, Surfaces: 0, read: readMirror, apply: applyMirror},
-	{Type: TypeWindow, Does: "a window or plate; a thick one shifts the focus by t(1 − 1/n); loss: its stated transmission", Keys: []string{"thickness", "index"}, Surfaces: 2, read: readWindow, apply: applyWindow},
-	{Type: TypeAOM, Does: "an acousto-optic modulator: efficiency^passes goes on in the order used, the rest leaves in the other orders; its order × frequency × passes shifts the light", Keys: []string{"efficiency", "frequency", "order", "passes"}, Surfaces: 2, read: readAOM, apply: applyAOM},
-	{Type: TypeFilter, Does: "a filter: 10^−OD and its stated transmission", Keys: []string{"optical_density"}, Surfaces: 2, read: readFilter, apply: applyFilter},
-	{Type: TypeAperture, Does: "an iris: clips the beam at its diameter", Keys: []string{"diameter"}, Surfaces: 0, read: readAperture, apply: applyAperture},
-	{Type: TypeSplitter, Does: "a splitter: transmission goes on along this path, the rest feeds the path whose from names it (or is lost)", Keys: []string{}, Surfaces: 2, read: readSplitter, apply: applySplitter},
-	{Type: TypeFiber, Does: "a single-mode fibre: couples the beam's mode overlap × alignment (or the stated coupling) and launches a new Gaussian beam", Keys: []string{"mode_field_diameter", "alignment", "coupling", "output_waist", "output_focal_length"}, Surfaces: 1, read: readFiber, apply: applyFiber},
-	{Type: TypeAtoms, Does: "an atom cloud: the drive is evaluated here; the beam passes unchanged", Keys: []string{"cloud", "goal", "goal_value", "goal_factor", "goal_at", "goal_fraction", "detuning", "axis", "direction", "interference"}, Surfaces: 0, read: readAtoms, apply: applyAtoms},
-	{Type: TypeDump, Does: "a beam dump: absorbs everything and ends the path", Keys: []string{"rating", "diffuse_reflectance"}, Surfaces: 0, read: readDump, apply: applyDump},
-	{Type: TypeCombiner, Does: "a combiner (polarizing cube, dichroic): the path whose into names it joins here; transmission of this path's own beams and join_transmission of the joining ones go on, the rest leaves the path at its other port", Keys: []string{"join_transmission"}, Surfaces: 2, read: readCombiner, apply: applyCombiner},
-	{Type: TypeCylLens, Does: "a thin cylindrical lens: the ABCD matrix (1, 0; −1/f, 1) in its plane (x or y) only; loss: its stated transmission", Keys: []string{"focal_length", "plane"}, Surfaces: 2, read: readCylLens, apply: applyCylLens},
+	{Type: TypeLens, Does: "a thin lens: the ABCD matrix (1, 0; −1/f, 1) in both planes; loss: its stated transmission", Keys: []KeySpec{quantity("focal_length", Length, true, "the focal length (negative: diverging)", `"250 mm"`)}, Surfaces: 2, read: readLens, apply: applyLens},
+	{Type: TypeMirror, Does: "a mirror, flat or curved (a lens of focal length R/2); loss: 1 − reflectivity, which leaks through it", Keys: []KeySpec{fractionKey("reflectivity", "the fraction reflected on along the path; the rest leaks through", "0.995"), quantity("radius_of_curvature", Length, false, "a curved mirror's radius (positive: concave, focusing; default flat)", `"500 mm"`)}, Surfaces: 0, read: readMirror, apply: applyMirror},
+	{Type: TypeWindow, Does: "a window or plate; a thick one shifts the focus by t(1 − 1/n); loss: its stated transmission", Keys: []KeySpec{with(quantity("thickness", Length, false, "a thick plate's thickness, with index: the focus shifts by t(1 − 1/n)", `"6.35 mm"`), "index"), with(number("index", 1, 5, false, "the plate's refractive index, with thickness", "1.45"), "thickness")}, Surfaces: 2, read: readWindow, apply: applyWindow},
+	{Type: TypeAOM, Does: "an acousto-optic modulator: efficiency^passes goes on in the order used, the rest leaves in the other orders; its order × frequency × passes shifts the light", Keys: []KeySpec{fractionKey("efficiency", "the diffraction efficiency into the order used, per pass", "0.8"), quantity("frequency", Frequency, false, "the drive frequency: order × frequency × passes shifts the light", `"80 MHz"`), {Key: "order", Kind: ValInteger, Min: -10, Max: 10, Doc: "the diffraction order used (default 1; not 0)", Example: "-1"}, {Key: "passes", Kind: ValInteger, Min: 1, Max: 4, Doc: "passes through the modulator (default 1)", Example: "2"}}, Surfaces: 2, read: readAOM, apply: applyAOM},
+	{Type: TypeFilter, Does: "a filter: 10^−OD and its stated transmission", Keys: []KeySpec{number("optical_density", 0, 20, false, "the optical density: 10^−OD passes", "2.0")}, Needs: []Requirement{{AnyOf: []string{"optical_density", "transmission"}, Why: "a filter needs optical_density or transmission"}}, Surfaces: 2, read: readFilter, apply: applyFilter},
+	{Type: TypeAperture, Does: "an iris: clips the beam at its diameter", Keys: []KeySpec{quantity("diameter", Length, true, "the iris diameter", `"2 mm"`)}, Surfaces: 0, read: readAperture, apply: applyAperture},
+	{Type: TypeSplitter, Does: "a splitter: transmission goes on along this path, the rest feeds the path whose from names it (or is lost)", Needs: []Requirement{{AnyOf: []string{"transmission"}, Why: "a splitter needs the fraction sent on along this path"}}, Surfaces: 2, read: readSplitter, apply: applySplitter},
+	{Type: TypeFiber, Does: "a single-mode fibre: couples the beam's mode overlap × alignment (or the stated coupling) and launches a new Gaussian beam", Keys: []KeySpec{quantity("mode_field_diameter", Length, false, "the fibre's mode-field diameter (the coupling is its overlap with the beam)", `"5.3 um"`), fractionKey("alignment", "a practical factor on the computed overlap", "0.85"), fractionKey("coupling", "the coupled fraction, when measured (instead of the overlap and alignment)", "0.6"), quantity("output_waist", Length, false, "the collimated output's 1/e² radius", `"1.0 mm"`), with(quantity("output_focal_length", Length, false, "the output collimator's focal length (the output is sized from the mode field)", `"11 mm"`), "mode_field_diameter")}, Needs: []Requirement{{AnyOf: []string{"mode_field_diameter", "coupling"}, Why: "a fiber needs mode_field_diameter or coupling"}, {AnyOf: []string{"output_waist", "output_focal_length"}, Why: "a fiber needs output_waist or output_focal_length"}}, Surfaces: 1, read: readFiber, apply: applyFiber},
+	{Type: TypeAtoms, Does: "an atom cloud: the drive is evaluated here; the beam passes unchanged", Keys: atomsKeys, Surfaces: 0, read: readAtoms, apply: applyAtoms},
+	{Type: TypeDump, Does: "a beam dump: absorbs everything and ends the path", Keys: []KeySpec{quantity("rating", Power, false, "the power the dump is rated for", `"2 W"`), fractionKey("diffuse_reflectance", "the dump's diffuse reflectance (default 1, conservative)", "0.05")}, Surfaces: 0, read: readDump, apply: applyDump},
+	{Type: TypeCombiner, Does: "a combiner (polarizing cube, dichroic): the path whose into names it joins here; transmission of this path's own beams and join_transmission of the joining ones go on, the rest leaves the path at its other port", Keys: []KeySpec{fractionKey("join_transmission", "the fraction of the joining beam passed on (transmission: of this path's own)", "0.95")}, Surfaces: 2, read: readCombiner, apply: applyCombiner},
+	{Type: TypeCylLens, Does: "a thin cylindrical lens: the ABCD matrix (1, 0; −1/f, 1) in its plane (x or y) only; loss: its stated transmission", Keys: []KeySpec{quantity("focal_length", Length, true, "the focal length in its plane (negative: diverging)", `"100 mm"`), choice("plane", PlaneValues, true, "the plane it focuses in", `"x"`)}, Surfaces: 2, read: readCylLens, apply: applyCylLens},
 }
+
+// atomsKeys are an atoms element's own keys.
+var atomsKeys = append([]KeySpec{
+	{Key: "cloud", Kind: ValName, Required: true, Doc: "the cloud the beam drives here", Example: `"pencil"`},
+}, append(slices.Clone(goalKeys),
+	with(choice("goal_at", GoalAtValues, false, "where the goal must hold: the cloud's centre (default), its exit, or all (a fraction of the atoms)", `"exit"`), "goal"),
+	with(fractionKey("goal_fraction", "with goal_at = \"all\": the fraction of the atoms that must reach the goal (default 0.9)", "0.9"), "goal", "goal_at=all"),
+	quantity("detuning", Frequency, false, "the detuning here, overriding the laser's plus the modulators' shifts", `"-12 MHz"`),
+	choice("axis", AxisValues, false, "the cloud axis the beam runs along (default z)", `"y"`),
+	KeySpec{Key: "direction", Kind: ValVector, Doc: "the beam's direction in the cloud's frame, instead of axis", Example: `[0, -1, 0]`},
+	choice("interference", InterferenceValues, false, "standing_wave: this return pass interferes with the forward one", `"standing_wave"`),
+)...)
+
+// Has reports whether the kind takes key as its own.
+func (k *ElementKind) Has(key string) bool {
+	for _, s := range k.Keys {
+		if s.Key == key {
+			return true
+		}
+	}
+	return false
+}
+
+// KeyNames lists the kind's own keys.
+func (k *ElementKind) KeyNames() []string { return keyNames(k.Keys) }
 
 // KindOf returns the description of an element type.
 func KindOf(t ElementType) (*ElementKind, bool) {
@@ -166,7 +196,7 @@ func readSplitter(t *table, e *Element, m map[string]any) {
 
 func readFiber(t *table, e *Element, m map[string]any) {
 	e.Coupling = t.fraction("coupling", 0, 1)
-	e.ModeFieldDiameter = t.positive("mode_field_diameter", Length, e.Coupling == nil && !t.has("coupling"))
+	e.ModeFieldDiameter = t.positive("mode_field_diameter", Length, e.Coupling == nil && !t.has("coupling") && e.PerLaser["coupling"] == nil)
 	e.Alignment = t.fraction("alignment", 0, 1)
 	if e.Coupling != nil && e.Alignment != nil {
 		t.fail("alignment", "coupling is given, which already includes alignment")
@@ -186,12 +216,12 @@ func readFiber(t *table, e *Element, m map[string]any) {
 func readAtoms(t *table, e *Element, m map[string]any) {
 	e.Cloud = t.str("cloud", true)
 	e.Direction = t.direction()
-	e.Interference = t.enum("interference", "", "none", "standing_wave")
+	e.Interference = t.enum("interference", "", InterferenceValues...)
 	if e.Interference == "none" {
 		e.Interference = ""
 	}
 	readGoal(t, &e.Goal, &e.GoalValue, &e.GoalFactor, m)
-	e.GoalAt = t.enum("goal_at", GoalAtCentre, GoalAtCentre, GoalAtExit, GoalAtAll)
+	e.GoalAt = t.enum("goal_at", GoalAtCentre, GoalAtValues...)
 	e.GoalFraction = 0.9
 	if f := t.fraction("goal_fraction", 0, 1); f != nil {
 		if e.GoalAt != GoalAtAll {
@@ -213,7 +243,7 @@ func readAtoms(t *table, e *Element, m map[string]any) {
 // readGoal reads goal, goal_value and goal_factor (of an atoms element or a
 // cloud).
 func readGoal(t *table, goal *string, value **float64, factor *float64, m map[string]any) {
-	*goal = t.enum("goal", "", GoalCollective, GoalSaturation, GoalRabi, GoalTrapDepth)
+	*goal = t.enum("goal", "", GoalKinds...)
 	*factor = 1
 	switch *goal {
 	case GoalSaturation:
@@ -253,7 +283,7 @@ func readCombiner(t *table, e *Element, m map[string]any) {
 
 func readCylLens(t *table, e *Element, m map[string]any) {
 	readLens(t, e, m)
-	e.Plane = t.enum("plane", "", "x", "y")
+	e.Plane = t.enum("plane", "", PlaneValues...)
 	if e.Plane == "" && !t.has("plane") {
 		t.fail("plane", "missing (want \"x\" or \"y\", the plane the lens focuses in)")
 	}

@@ -32,7 +32,7 @@ func TestElementKindsComplete(t *testing.T) {
 			if !strings.Contains(string(readme), "`"+string(k.Type)+"`") {
 				t.Errorf("README does not list the element type %s", k.Type)
 			}
-			for _, key := range k.Keys {
+			for _, key := range k.KeyNames() {
 				if !strings.Contains(string(readme), "`"+key+"`") {
 					t.Errorf("README does not name the key %s of a %s", key, k.Type)
 				}

@@ -139,6 +139,16 @@ type table struct {
 	keyAs     string
 	pairIndex int
 	hint      func() string // added to "unknown key" messages, built only when needed
+	// spec is the table's entry in the key table (nil: a table whose keys
+	// are names, such as a per-laser table); the loader reads no key the
+	// spec does not list.
+	spec *TableSpec
+}
+
+// of sets the table's spec.
+func (t *table) of(spec *TableSpec) *table {
+	t.spec = spec
+	return t
 }
 
 func (l *loader) table(context, loc string, m map[string]any) *table {
@@ -164,6 +174,9 @@ func (t *table) fail(key, format string, args ...any) {
 }
 
 func (t *table) get(key string) (any, bool) {
+	if t.spec != nil && t.spec.Key(key) == nil {
+		panic(fmt.Sprintf("budget: the loader reads key %q of %s, which the key table (keys.go) does not list for %s", key, t.loc, t.spec.Name))
+	}
 	v, ok := t.m[key]
 	if ok && !slices.Contains(t.used, key) {
 		t.used = append(t.used, key)
@@ -419,7 +432,7 @@ func (t *table) direction() [3]float64 {
 		}
 		return [3]float64{d[0] / n, d[1] / n, d[2] / n}
 	}
-	return axes[t.enum("axis", "z", "x", "y", "z")]
+	return axes[t.enum("axis", "z", AxisValues...)]
 }
 
 func (t *table) fraction(key string, lo, hi float64) *float64 {

@@ -33,9 +33,9 @@ const (
 
 func (l *loader) setup(raw map[string]any) *Setup {
 	s := &Setup{File: l.file}
-	top := l.table("", "", raw)
+	top := l.table("", "", raw).of(&TableSpec{Name: "the top level", Keys: TopKeys})
 	if m := top.subtable("setup"); m != nil {
-		t := l.table("[setup]", "setup", m)
+		t := l.table("[setup]", "setup", m).of(TableNamed("setup"))
 		s.Meta.Title = t.str("title", false)
 		s.Meta.Site = t.str("site", false)
 		s.Meta.PreparedBy = t.str("prepared_by", false)
@@ -127,7 +127,7 @@ func (l *loader) setup(raw map[string]any) *Setup {
 // reads the entry's name and names the entry by it in messages.
 func (l *loader) named(kind string, i int, m map[string]any) (t *table, loc, name string) {
 	loc = fmt.Sprintf("%s[%d]", kind, i)
-	t = l.table(fmt.Sprintf("%s %d", kind, i+1), loc, m)
+	t = l.table(fmt.Sprintf("%s %d", kind, i+1), loc, m).of(TableNamed(kind))
 	if name = t.name(true); name != "" {
 		t.context = fmt.Sprintf("%s %q", kind, name)
 	}
@@ -164,7 +164,7 @@ func (l *loader) laser(i int, m map[string]any) *Laser {
 		}
 	}
 	las.WaistAt, _ = t.pair("waist_at", Length, false, math.Inf(-1))
-	las.Emission = t.enum("emission", EmissionCW, EmissionCW, EmissionPulsed)
+	las.Emission = t.enum("emission", EmissionCW, EmissionValues...)
 	if las.Emission == EmissionPulsed {
 		las.PulseDuration = t.positive("pulse_duration", Time, true)
 		if d := las.PulseDuration; d > 0 && (d < limits.MinDuration || d > limits.MaxDuration) {
@@ -214,10 +214,10 @@ func (l *loader) cloud(i int, m map[string]any) *Cloud {
 	} else {
 		t.fail("rms_size", "missing (want [x, y, along the beam], three lengths)")
 	}
-	c.Saturation = t.enum("saturation", SaturationCycling, SaturationCycling, SaturationIsotropic)
+	c.Saturation = t.enum("saturation", SaturationCycling, SaturationValues...)
 	c.CollectiveRate = t.positive("collective_rate", Frequency, false)
 	downs := map[string][3]float64{"+x": {1, 0, 0}, "-x": {-1, 0, 0}, "+y": {0, 1, 0}, "-y": {0, -1, 0}, "+z": {0, 0, 1}, "-z": {0, 0, -1}, "none": {}}
-	c.Down = downs[t.enum("down", "-y", "+x", "-x", "+y", "-y", "+z", "-z", "none")]
+	c.Down = downs[t.enum("down", "-y", DownValues...)]
 	if v, ok := t.get("excited_polarizability"); ok {
 		by, isMap := v.(map[string]any)
 		if !isMap {
@@ -297,7 +297,7 @@ func (l *loader) eyewear(i int, m map[string]any) *Eyewear {
 		t.fail("bands", "missing (want [{ from = \"740 nm\", to = \"1100 nm\", od = 7 }, …])")
 	}
 	for k, b := range bands {
-		bt := l.table(fmt.Sprintf("%s, band %d", t.where(), k+1), loc+".bands", b)
+		bt := l.table(fmt.Sprintf("%s, band %d", t.where(), k+1), loc+".bands", b).of(TableNamed("band"))
 		var band EyewearBand
 		band.From = bt.positive("from", Length, true)
 		band.To = bt.positive("to", Length, true)
@@ -320,7 +320,7 @@ func (l *loader) path(i int, m map[string]any) *Path {
 	t, loc, name := l.named("path", i, m)
 	p := &Path{Line: l.lines[loc], Name: name}
 	p.From = t.str("from", true)
-	p.Access = Access(t.enum("access", string(AccessOpen), string(AccessOpen), string(AccessEnclosed), string(AccessVacuum)))
+	p.Access = Access(t.enum("access", string(AccessOpen), AccessValues...))
 	p.Into = t.str("into", false)
 	if p.Into != "" {
 		var ok bool
@@ -382,8 +382,17 @@ func (l *loader) perLaser(t *table, e *Element, m map[string]any) {
 	}
 }
 
-// commonElementKeys are taken by every element type.
-var commonElementKeys = []string{"type", "name", "at", "aperture", "transmission", "access", "surface_reflectance", "damage_threshold", "damage_pulse_duration"}
+// commonElementKeys are taken by every element type: the key table's
+// "element" table.
+var commonElementKeys = keyNames(TableNamed("element").Keys)
+
+func keyNames(keys []KeySpec) []string {
+	out := make([]string, len(keys))
+	for i, k := range keys {
+		out[i] = k.Key
+	}
+	return out
+}
 
 // typeNames lists the element types for messages.
 func typeNames() string {
@@ -409,6 +418,7 @@ func (l *loader) element(p *Path, pathContext, loc string, k int, m map[string]a
 		}
 		return e
 	}
+	t.spec = elementReadSpecs[e.Type]
 	t.describe = func() string {
 		if e.Name != "" {
 			return fmt.Sprintf("%s, element %d (%s %q)", pathContext, k+1, e.Type, e.Name)
@@ -418,8 +428,8 @@ func (l *loader) element(p *Path, pathContext, loc string, k int, m map[string]a
 	e.Name = t.name(e.Type == TypeSplitter || e.Type == TypeCombiner)
 	l.perLaser(t, e, m)
 	for _, key := range slices.Sorted(maps.Keys(e.PerLaser)) {
-		if (!slices.Contains(kind.Keys, key) && !slices.Contains(commonElementKeys, key)) || (e.Type == TypeMirror && key == "transmission") {
-			t.fail(key, "not a key of a %s (it takes %s)", e.Type, strings.Join(append(append([]string{}, kind.Keys...), commonElementKeys...), ", "))
+		if (!kind.Has(key) && !slices.Contains(commonElementKeys, key)) || (e.Type == TypeMirror && key == "transmission") {
+			t.fail(key, "not a key of a %s (it takes %s)", e.Type, strings.Join(append(kind.KeyNames(), commonElementKeys...), ", "))
 		}
 	}
 	e.At, _ = t.quantity("at", Length, true)
@@ -436,7 +446,7 @@ func (l *loader) element(p *Path, pathContext, loc string, k int, m map[string]a
 		e.Transmission = t.fraction("transmission", 0, 1)
 	}
 	if t.has("access") {
-		e.Access = Access(t.enum("access", "", string(AccessOpen), string(AccessEnclosed), string(AccessVacuum)))
+		e.Access = Access(t.enum("access", "", AccessValues...))
 	}
 	e.SurfaceReflectance = t.fraction("surface_reflectance", 0, 1)
 	if v, ok := t.get("damage_threshold"); ok {
@@ -463,7 +473,7 @@ func (l *loader) element(p *Path, pathContext, loc string, k int, m map[string]a
 		t.fail("diffuse_reflectance", "only for a dump")
 	}
 	t.hint = func() string {
-		keys := append(append([]string{}, kind.Keys...), commonElementKeys...)
+		keys := append(kind.KeyNames(), commonElementKeys...)
 		return fmt.Sprintf(" for a %s (it takes %s)", e.Type, strings.Join(keys, ", "))
 	}
 	t.done()

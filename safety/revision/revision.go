@@ -199,7 +199,7 @@ func metaAffects(key string) bool { return key == "exposure" || key == "exposure
 func elementAffects(typ string) func(string) bool {
 	k, ok := budget.KindOf(budget.ElementType(typ))
 	return func(key string) bool {
-		return !(ok && k.Type == budget.TypeAtoms && slices.Contains(k.Keys, key))
+		return !(ok && k.Type == budget.TypeAtoms && k.Has(key))
 	}
 }
 
