@@ -85,8 +85,8 @@ type TableSpec struct {
 	// Name is the table's name in messages and in the schema; Path how it
 	// is written in a setup file ("[[path.element]]").
 	Name, Path, Doc string
-	Keys        []KeySpec
-	Needs       []Requirement
+	Keys            []KeySpec
+	Needs           []Requirement
 }
 
 // Key returns the spec of key (nil: the table has no such key).
