@@ -134,9 +134,16 @@ var nameKey = KeySpec{Key: "name", Kind: ValName, Required: true, Doc: "the name
 
 // goalKeys are the keys of a drive goal, on an atoms element or a cloud.
 var goalKeys = []KeySpec{
-	choice("goal", GoalKinds, false, "the drive goal: the collective-emission threshold, a saturation parameter, a Rabi frequency or a trap depth", `"collective"`),
-	{Key: "goal_value", Kind: ValQuantity, Dims: []Dimension{Dimensionless, Frequency, Temperature}, With: []string{"goal=" + GoalTrapDepth}, Doc: "the goal's value: s for saturation, Ω/2π for rabi, U/k_B for trap_depth (none for collective)", Example: `"0.5 mK"`},
+	choice("goal", GoalKinds, false, "the drive goal: the collective-emission threshold, a saturation parameter, a Rabi frequency or a trap depth", `"trap_depth"`),
+	{Key: "goal_value", Kind: ValQuantity, Dims: []Dimension{Dimensionless, Frequency, Temperature}, With: []string{"goal"}, Doc: "the goal's value: s for saturation, Ω/2π for rabi, U/k_B for trap_depth (none for collective)", Example: `"0.5 mK"`},
 	with(number("goal_factor", 0, 0, false, "collective: the multiple of the threshold drive to reach", "1.5"), "goal="+GoalCollective),
+}
+
+// goalNeeds: every goal but the collective one needs its value.
+var goalNeeds = []Requirement{
+	{If: "goal", Is: GoalSaturation, AnyOf: []string{"goal_value"}, Why: "a saturation goal needs its saturation parameter"},
+	{If: "goal", Is: GoalRabi, AnyOf: []string{"goal_value"}, Why: "a Rabi-frequency goal needs its Ω/2π"},
+	{If: "goal", Is: GoalTrapDepth, AnyOf: []string{"goal_value"}, Why: "a trap-depth goal needs its depth"},
 }
 
 // SetupTables lists the tables of the format; the element table holds the
@@ -202,10 +209,10 @@ var SetupTables = []*TableSpec{
 		with(quantity("linewidth", Frequency, false, "custom transition: its linewidth Γ/2π", `"5.87 MHz"`), "transition=custom", "wavelength"),
 		with(quantity("saturation_intensity", Irradiance, false, "custom transition: its saturation intensity (default: the two-level value)", `"2.54 mW/cm2"`), "transition=custom", "wavelength", "linewidth"),
 		with(quantity("mass", Mass, false, "custom transition: the atom's mass", `"6.015 u"`), "transition=custom", "wavelength", "linewidth"),
-	)...), Needs: []Requirement{
+	)...), Needs: append([]Requirement{
 		{If: "transition", Is: "custom", AnyOf: []string{"wavelength"}, Why: "a custom transition needs its wavelength"},
 		{If: "transition", Is: "custom", AnyOf: []string{"linewidth"}, Why: "a custom transition needs its linewidth"},
-	}},
+	}, goalNeeds...)},
 	{Name: "eyewear", Path: "[[eyewear]]", Doc: "eyewear the group holds, with the optical density of each band", Keys: []KeySpec{
 		nameKey,
 		{Key: "bands", Kind: ValTables, Table: "band", Required: true, Doc: "the bands of the eyewear", Example: `[{ from = "740 nm", to = "1100 nm", od = 7 }]`},

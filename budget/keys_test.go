@@ -180,6 +180,50 @@ func specsUnderTest() []struct {
 	return out
 }
 
+// keyCase is one setup the key table says loads, or fails with want in a
+// problem ("" for any problem).
+type keyCase struct {
+	what, src, want string
+	loads           bool
+}
+
+// keyCases are the cases of one table: the minimal table; each key, with
+// the keys it needs (and per laser where it may be); each key without one
+// it needs; each required key left out; each rule's keys all left out; an
+// unknown key.
+func keyCases(spec *TableSpec, kind ElementType) []keyCase {
+	setup := func(keys map[string]string) string { return keysSetup(spec, kind, keys) }
+	out := []keyCase{{what: "the minimal table", src: setup(minimalKeys(spec, "", "")), loads: true}}
+	for _, k := range spec.Keys {
+		out = append(out, keyCase{what: "key " + k.Key + " = " + k.Example, src: setup(minimalKeys(spec, k.Key, "")), loads: true})
+		if k.ByLaser() {
+			keys := minimalKeys(spec, k.Key, "")
+			keys[k.Key] = "{ probe-amp = " + k.Example + " }"
+			out = append(out, keyCase{what: "key " + k.Key + " per laser", src: setup(keys), loads: true})
+		}
+		for _, w := range k.With {
+			need, _, _ := strings.Cut(w, "=")
+			out = append(out, keyCase{what: "key " + k.Key + " without " + need, src: setup(minimalKeys(spec, k.Key, need))})
+		}
+		if k.Required && !(kind != "" && k.Key == "type") {
+			out = append(out, keyCase{what: "required key " + k.Key + " left out", src: setup(minimalKeys(spec, "", k.Key)), want: k.Key + ": missing"})
+		}
+	}
+	for _, n := range spec.Needs {
+		keys := minimalKeys(spec, n.If, "")
+		if n.Is != "" {
+			keys[n.If] = fmt.Sprintf("%q", n.Is)
+		}
+		for _, k := range n.AnyOf {
+			delete(keys, k)
+		}
+		out = append(out, keyCase{what: strings.Join(n.AnyOf, " and ") + " left out (" + n.Why + ")", src: setup(keys), want: n.AnyOf[0] + ": missing"})
+	}
+	keys := minimalKeys(spec, "", "")
+	keys["no_such_key"] = "1"
+	return append(out, keyCase{what: "an unknown key", src: setup(keys), want: "no_such_key: unknown key"})
+}
+
 // The loader accepts exactly the keys of the key table, table by table and
 // element type by element type: each key, with the keys it needs, loads
 // without a problem; a key the table does not list is an unknown key; a
@@ -188,55 +232,16 @@ func specsUnderTest() []struct {
 func TestKeyTableMatchesLoader(t *testing.T) {
 	for _, c := range specsUnderTest() {
 		t.Run(c.spec.Name, func(t *testing.T) {
-			if ps := loadProblems(keysSetup(c.spec, c.kind, minimalKeys(c.spec, "", ""))); len(ps) > 0 {
-				t.Fatalf("the minimal table does not load: %q", ps)
-			}
-			for _, k := range c.spec.Keys {
-				src := keysSetup(c.spec, c.kind, minimalKeys(c.spec, k.Key, ""))
-				if ps := loadProblems(src); len(ps) > 0 {
-					t.Errorf("key %s (example %s) is not accepted: %q", k.Key, k.Example, ps)
+			for _, k := range keyCases(c.spec, c.kind) {
+				ps := loadProblems(k.src)
+				switch {
+				case k.loads && len(ps) > 0:
+					t.Errorf("%s: not accepted: %q", k.what, ps)
+				case !k.loads && len(ps) == 0:
+					t.Errorf("%s: accepted", k.what)
+				case k.want != "" && !slices.ContainsFunc(ps, func(p string) bool { return strings.Contains(p, k.want) }):
+					t.Errorf("%s: problems %q, want %q", k.what, ps, k.want)
 				}
-				if k.ByLaser() {
-					keys := minimalKeys(c.spec, k.Key, "")
-					keys[k.Key] = "{ probe-amp = " + k.Example + " }"
-					if c.kind == "" {
-						t.Errorf("%s: a per-laser key outside an element", k.Key)
-					} else if ps := loadProblems(keysSetup(c.spec, c.kind, keys)); len(ps) > 0 {
-						t.Errorf("key %s per laser is not accepted: %q", k.Key, ps)
-					}
-				}
-				for _, w := range k.With {
-					need, _, _ := strings.Cut(w, "=")
-					keys := minimalKeys(c.spec, k.Key, need)
-					if ps := loadProblems(keysSetup(c.spec, c.kind, keys)); len(ps) == 0 {
-						t.Errorf("key %s without %s is accepted", k.Key, need)
-					}
-				}
-				if k.Required {
-					ps := loadProblems(keysSetup(c.spec, c.kind, minimalKeys(c.spec, "", k.Key)))
-					if !slices.ContainsFunc(ps, func(p string) bool { return strings.Contains(p, k.Key+": missing") }) {
-						t.Errorf("required key %s left out: %q", k.Key, ps)
-					}
-				}
-			}
-			for _, n := range c.spec.Needs {
-				keys := minimalKeys(c.spec, n.If, "")
-				if n.Is != "" {
-					keys[n.If] = fmt.Sprintf("%q", n.Is)
-				}
-				for _, k := range n.AnyOf {
-					delete(keys, k)
-				}
-				ps := loadProblems(keysSetup(c.spec, c.kind, keys))
-				if !slices.ContainsFunc(ps, func(p string) bool { return strings.Contains(p, n.AnyOf[0]+": missing") }) {
-					t.Errorf("%s left out (%s): %q", strings.Join(n.AnyOf, " and "), n.Why, ps)
-				}
-			}
-			keys := minimalKeys(c.spec, "", "")
-			keys["no_such_key"] = "1"
-			ps := loadProblems(keysSetup(c.spec, c.kind, keys))
-			if !slices.ContainsFunc(ps, func(p string) bool { return strings.Contains(p, "no_such_key: unknown key") }) {
-				t.Errorf("a key outside the table: %q", ps)
 			}
 		})
 	}

@@ -396,3 +396,30 @@ func TestReportDiagram(t *testing.T) {
 		}
 	}
 }
+
+// schema prints a JSON document that names the draft; init --schema writes
+// the line editors read first, and the file still loads.
+func TestSchemaAndInitSchemaLine(t *testing.T) {
+	out, errOut, code := runCLI(t, "schema")
+	var doc map[string]any
+	if code != exitOK || json.Unmarshal([]byte(out), &doc) != nil || doc["$schema"] != budget.SchemaDraft {
+		t.Fatalf("schema: exit %d, stderr %q, $schema %v", code, errOut, doc["$schema"])
+	}
+	name := filepath.Join(t.TempDir(), "lab.toml")
+	if _, errOut, code := runCLI(t, "init", "--schema", "beamledger.schema.json", name); code != exitOK {
+		t.Fatalf("init --schema: exit %d, %s", code, errOut)
+	}
+	data, err := os.ReadFile(name)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.HasPrefix(string(data), "#:schema beamledger.schema.json\n#") {
+		t.Errorf("first lines %q", strings.SplitN(string(data), "\n", 3)[:2])
+	}
+	if _, err := budget.Load(name); err != nil {
+		t.Errorf("the starter with its schema line does not load: %v", err)
+	}
+	if _, _, code := runCLI(t, "init", "--schema", "a\nb", filepath.Join(t.TempDir(), "x.toml")); code != exitBadInput {
+		t.Errorf("a schema path with a line break: exit %d", code)
+	}
+}

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"io/fs"
 	"os"
+	"strings"
 
 	"github.com/spf13/cobra"
 
@@ -12,23 +13,37 @@ import (
 )
 
 func (e *env) newInit() *cobra.Command {
-	return &cobra.Command{
-		Use:     "init [FILE]",
-		Short:   "Write a commented starter setup file",
-		Long:    "init writes a commented starter setup (an invented imaging beam) to FILE, default beamledger.toml. It never overwrites a file.",
-		Example: "  beamledger init mylab.toml",
+	var schema string
+	cmd := &cobra.Command{
+		Use:   "init [FILE]",
+		Short: "Write a commented starter setup file",
+		Long: `init writes a commented starter setup (an invented imaging beam) to FILE,
+default beamledger.toml. It never overwrites a file. With --schema PATH the
+file's first line is a "#:schema PATH" comment, which editors' TOML support
+reads to validate and complete the file against the schema that
+"beamledger schema" prints.`,
+		Example: "  beamledger init mylab.toml\n  beamledger schema > beamledger.schema.json && beamledger init --schema beamledger.schema.json mylab.toml",
 		Args:    cobra.MaximumNArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			name := "beamledger.toml"
 			if len(args) == 1 {
 				name = args[0]
 			}
-			return e.runInit(name)
+			return e.runInit(name, schema)
 		},
 	}
+	cmd.Flags().StringVar(&schema, "schema", "", "write a first line pointing editors at this JSON Schema file")
+	return cmd
 }
 
-func (e *env) runInit(name string) error {
+// schemaLine is the first line that points an editor's TOML support at a
+// schema file.
+func schemaLine(path string) string { return "#:schema " + path + "\n" }
+
+func (e *env) runInit(name, schema string) error {
+	if strings.ContainsAny(schema, "\r\n") {
+		return fmt.Errorf("--schema: %q holds a line break", schema)
+	}
 	f, err := os.OpenFile(name, os.O_WRONLY|os.O_CREATE|os.O_EXCL, 0o644)
 	if errors.Is(err, fs.ErrExist) {
 		return fmt.Errorf("%s already exists; init never overwrites a file", name)
@@ -36,7 +51,11 @@ func (e *env) runInit(name string) error {
 	if err != nil {
 		return err
 	}
-	if _, err := f.Write(starter.Setup); err != nil {
+	data := starter.Setup
+	if schema != "" {
+		data = append([]byte(schemaLine(schema)), data...)
+	}
+	if _, err := f.Write(data); err != nil {
 		f.Close()
 		os.Remove(name)
 		return err

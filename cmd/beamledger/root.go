@@ -79,6 +79,6 @@ officer under local regulations.`,
 	}
 	root.SetOut(e.stdout)
 	root.SetErr(e.stderr)
-	root.AddCommand(e.newCheck(), e.newReport(), e.newLimits(), e.newInit(), e.newTransitions(), e.newVerify(), e.newDiff(), e.newVersion())
+	root.AddCommand(e.newCheck(), e.newReport(), e.newLimits(), e.newInit(), e.newTransitions(), e.newVerify(), e.newDiff(), e.newSchema(), e.newVersion())
 	return root
 }
