@@ -160,7 +160,7 @@ func (b *schemaBuilder) keySchema(k *KeySpec) map[string]any {
 	if k.Kind == ValQuantity || k.Kind == ValPair || k.Kind == ValTriple {
 		var dims []string
 		for _, d := range k.Dims {
-			dims = append(dims, d.String())
+			dims = append(dims, describe(d))
 		}
 		desc += "; " + strings.Join(dims, " or ")
 		if k.Percent() {
