@@ -244,7 +244,7 @@ type elementPair struct {
 
 // pairElements matches the elements of one path: by name where both
 // revisions have it, else the k-th unmatched element of a type with the
-// k-th of that type.
+// k-th of that type (a renamed element is then a change of its name).
 func pairElements(old, new []map[string]any) []elementPair {
 	name := func(m map[string]any) string { s, _ := m["name"].(string); return s }
 	typ := func(m map[string]any) string { return fmt.Sprint(m["type"]) }
@@ -268,7 +268,7 @@ func pairElements(old, new []map[string]any) []elementPair {
 			continue
 		}
 		for oi, o := range old {
-			if !used[oi] && typ(o) == typ(m) && (name(o) == "" || name(m) == "" || name(o) == name(m)) {
+			if !used[oi] && typ(o) == typ(m) {
 				oldOf[ni], used[oi] = oi, true
 				break
 			}
@@ -476,7 +476,7 @@ func hazardEntries(a *safety.Assessment, ids *idMap, old bool) map[string]entry 
 		out[kind+"|"+what] = entry{kind, what, text, figs}
 	}
 	for _, n := range h.Eyewear {
-		what := fmt.Sprintf("%s, %s", budget.FormatLength(n.Wavelength), n.Mode)
+		what := fmt.Sprintf("%s, %s", budget.FormatWavelength(n.Wavelength), n.Mode)
 		cover := "not covered by declared eyewear"
 		if len(n.CoveredBy) > 0 {
 			cover = "covered by " + strings.Join(n.CoveredBy, ", ")

@@ -118,8 +118,8 @@ func TestMoved(t *testing.T) {
 }
 
 // Elements match by name, else by type and order: a lens put in front of
-// a path takes the first lens's place, and a named mirror is found
-// wherever it moved.
+// a path takes the first lens's place, a named mirror is found wherever it
+// moved, and a renamed window is the same window.
 func TestElementMatching(t *testing.T) {
 	el := func(typ, name string) map[string]any {
 		m := map[string]any{"type": typ}
@@ -128,10 +128,10 @@ func TestElementMatching(t *testing.T) {
 		}
 		return m
 	}
-	old := []map[string]any{el("lens", ""), el("mirror", "M1"), el("lens", ""), el("dump", "")}
-	new := []map[string]any{el("mirror", "M1"), el("lens", ""), el("lens", ""), el("lens", "")}
+	old := []map[string]any{el("lens", ""), el("mirror", "M1"), el("lens", ""), el("dump", ""), el("window", "W1")}
+	new := []map[string]any{el("mirror", "M1"), el("lens", ""), el("lens", ""), el("lens", ""), el("window", "W2")}
 	got := pairElements(old, new)
-	want := []elementPair{{1, 0, `"M1"`}, {0, 1, "2 (lens)"}, {2, 2, "3 (lens)"}, {-1, 3, "4 (lens)"}, {3, -1, "4 (dump) of the old revision"}}
+	want := []elementPair{{1, 0, `"M1"`}, {0, 1, "2 (lens)"}, {2, 2, "3 (lens)"}, {-1, 3, "4 (lens)"}, {4, 4, `"W2"`}, {3, -1, "4 (dump) of the old revision"}}
 	if len(got) != len(want) {
 		t.Fatalf("pairs %v, want %v", got, want)
 	}
