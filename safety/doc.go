@@ -19,4 +19,5 @@
 //	| worst point of a segment | maximum between the x and y waists | golden-section search | maxAlong | TestMaxAlongFindsFocus |
 //	| hazard distance | propagated until below the MPE | IEC closed form for a diverging beam | hazardDistance | TestHazardDistanceMatchesClosedForm |
 //	| diffuse hazard zone | r = √(ρP cos θ/(π MPE)) | Lambertian reflector, by hand | DiffuseHazardRadius | ExampleDiffuseHazardRadius |
+//	| linear power density on an optic | P/(2 min(Wx, Wy)), summed over the beams meeting there | common practice for cw damage ratings; by hand | LinearPowerDensity | TestDamageAddsOverSharedBeams |
 package safety

@@ -344,6 +344,7 @@ func pathHazards(own *budget.PathBudget, byLaser map[*budget.Laser]*LaserLimits)
 			res.reflections = append(res.reflections, diffuse(pb, last, ll, pb.EndFraction*pb.Laser.Power, DefaultDiffuseReflectance, true))
 		}
 	}
+	res.findings = append(res.findings, damage(own)...)
 	// The segments' findings come first, as they always have.
 	elementFindings := res.findings
 	res.findings = nil
@@ -482,7 +483,6 @@ func (res *pathHazardResult) element(pb *budget.PathBudget, ll *LaserLimits, i i
 		}
 		res.reflections = append(res.reflections, diffuse(pb, el, ll, p, ρ, assumed))
 	}
-	res.findings = append(res.findings, damage(pb, r, p)...)
 }
 
 // stray evaluates the reflection of each of an element's surfaces, at the
@@ -578,46 +578,120 @@ func precedingAccess(pb *budget.PathBudget, i int) budget.Access {
 	return budget.AccessOpen
 }
 
-func damage(pb *budget.PathBudget, r *budget.Row, p float64) []budget.Finding {
-	el := r.Element
-	las := pb.Laser
+// beamAt is one beam arriving at an element, at its laser's maximum power
+// p, W.
+type beamAt struct {
+	pb *budget.PathBudget
+	r  *budget.Row
+	p  float64
+}
+
+// damage checks the optics of a path against their ratings and a fibre's
+// input face against the limit of a clean silica face, at the lasers'
+// maximum powers. Where several beams meet an element, their continuous
+// linear power densities add, each at its own size, and so do their peak
+// irradiances on a fibre face (the peaks taken as falling together:
+// conservative); pulsed beams are judged one by one against a fluence
+// rating.
+func damage(own *budget.PathBudget) []budget.Finding {
 	var out []budget.Finding
-	wx, wy := r.BeamIn.Radii()
-	add := func(sev budget.Severity, kind budget.FindingKind, msg string, value, limit float64, unit string) {
-		out = append(out, budget.Finding{Severity: sev, Kind: kind, Path: pb.Path.Name, Element: el.Index, At: el.At,
-			Message: fmt.Sprintf("element %d (%s%s): %s", el.Index, el.Label(), beamNote(pb), msg)}.Figure(value, limit, unit))
-	}
-	if el.DamageThreshold > 0 && p > 0 {
-		switch {
-		case !el.DamageIsFluence && las.Emission == budget.EmissionCW:
-			// Linear power density: power over the 1/e² diameter, the smaller
-			// axis (the larger density; common practice for CW ratings).
-			lpd := p / (2 * math.Min(wx, wy))
-			if lpd > el.DamageThreshold {
-				add(budget.SeverityAction, FindingDamage, fmt.Sprintf("linear power density %s/cm exceeds its damage threshold %s/cm at the laser's maximum power",
-					budget.FormatPower(lpd/100), budget.FormatPower(el.DamageThreshold/100)), lpd, el.DamageThreshold, "W/m")
+	byElement := map[*budget.Element][]beamAt{}
+	for _, pb := range own.Beams() {
+		for i := range pb.Rows {
+			r := &pb.Rows[i]
+			if p := r.FractionIn * pb.Laser.Power; p > 0 {
+				byElement[r.Element] = append(byElement[r.Element], beamAt{pb, r, p})
 			}
-		case el.DamageIsFluence && las.Emission == budget.EmissionPulsed:
-			ep := p / las.RepetitionRate
-			f := r.BeamIn.PeakIrradiance(ep) // peak fluence 2E/(πWxWy), same form as the irradiance
-			// Scale the rated fluence by √(τ/τ_rated) (common practice).
-			thr := el.DamageThreshold * math.Sqrt(las.PulseDuration/el.DamagePulseDuration)
-			if f > thr {
-				add(budget.SeverityAction, FindingDamage, fmt.Sprintf("peak fluence %s exceeds its damage threshold scaled to the pulse length, %s",
-					budget.FormatSI(f*1e-4, "J/cm²"), budget.FormatSI(thr*1e-4, "J/cm²")), f, thr, "J/m2")
-			}
-		default:
-			add(budget.SeverityAdvice, FindingDamageUnchecked, "its damage threshold is for the other kind of emission (a linear power density for cw, a fluence for pulses); not checked", 0, 0, "")
 		}
 	}
-	if el.Type == budget.TypeFiber && p > 0 {
-		peak := r.BeamIn.PeakIrradiance(p)
-		if peak > FiberFaceLimit {
-			add(budget.SeverityAction, FindingFibreFace, fmt.Sprintf("the focused beam on the input face reaches %s at the laser's maximum power, above the %s that common practice allows a clean silica face",
-				budget.FormatIrradiance(peak), budget.FormatIrradiance(FiberFaceLimit)), peak, FiberFaceLimit, "W/m2")
+	for _, el := range own.Path.Elements {
+		beams := byElement[el]
+		if len(beams) == 0 {
+			continue
+		}
+		add := func(sev budget.Severity, kind budget.FindingKind, note, msg string, value, limit float64, unit string) {
+			out = append(out, budget.Finding{Severity: sev, Kind: kind, Path: own.Path.Name, Element: el.Index, At: el.At,
+				Message: fmt.Sprintf("element %d (%s%s): %s", el.Index, el.Label(), note, msg)}.Figure(value, limit, unit))
+		}
+		if el.DamageThreshold > 0 {
+			var cw []beamAt
+			var lpd float64
+			for _, b := range beams {
+				las := b.pb.Laser
+				switch {
+				case !el.DamageIsFluence && las.Emission == budget.EmissionCW:
+					cw = append(cw, b)
+					lpd += LinearPowerDensity(b.r.BeamIn, b.p)
+				case el.DamageIsFluence && las.Emission == budget.EmissionPulsed:
+					ep := b.p / las.RepetitionRate
+					f := b.r.BeamIn.PeakIrradiance(ep) // peak fluence 2E/(πWxWy), same form as the irradiance
+					// Scale the rated fluence by √(τ/τ_rated) (common practice).
+					thr := el.DamageThreshold * math.Sqrt(las.PulseDuration/el.DamagePulseDuration)
+					if f > thr {
+						add(budget.SeverityAction, FindingDamage, beamNote(b.pb), fmt.Sprintf("peak fluence %s exceeds its damage threshold scaled to the pulse length, %s",
+							budget.FormatSI(f*1e-4, "J/cm²"), budget.FormatSI(thr*1e-4, "J/cm²")), f, thr, "J/m2")
+					}
+				default:
+					add(budget.SeverityAdvice, FindingDamageUnchecked, beamNote(b.pb), "its damage threshold is for the other kind of emission (a linear power density for cw, a fluence for pulses); not checked", 0, 0, "")
+				}
+			}
+			if lpd > el.DamageThreshold {
+				add(budget.SeverityAction, FindingDamage, beamsNote(cw), fmt.Sprintf("linear power density %s/cm%s exceeds its damage threshold %s/cm at %s",
+					budget.FormatPower(lpd/100), sumNote(cw), budget.FormatPower(el.DamageThreshold/100), atMaxPower(cw)), lpd, el.DamageThreshold, "W/m")
+			}
+		}
+		if el.Type == budget.TypeFiber {
+			var peak float64
+			for _, b := range beams {
+				peak += b.r.BeamIn.PeakIrradiance(b.p)
+			}
+			if peak > FiberFaceLimit {
+				add(budget.SeverityAction, FindingFibreFace, beamsNote(beams), fmt.Sprintf("the focused beam%s on the input face reach%s %s%s at %s, above the %s that common practice allows a clean silica face",
+					plural(beams, "", "s"), plural(beams, "es", ""), budget.FormatIrradiance(peak), sumNote(beams), atMaxPower(beams), budget.FormatIrradiance(FiberFaceLimit)), peak, FiberFaceLimit, "W/m2")
+			}
 		}
 	}
 	return out
+}
+
+// LinearPowerDensity is the power of a beam over its 1/e² diameter in the
+// smaller axis (the larger density), W/m: the quantity continuous-wave
+// damage ratings of optics are stated in (common practice).
+func LinearPowerDensity(b budget.Beam, p float64) float64 {
+	wx, wy := b.Radii()
+	return p / (2 * math.Min(wx, wy))
+}
+
+// beamsNote names the beam of a joined laser when one beam is meant.
+func beamsNote(bs []beamAt) string {
+	if len(bs) == 1 {
+		return beamNote(bs[0].pb)
+	}
+	return ""
+}
+
+// sumNote says which beams a sum is over, when there are several.
+func sumNote(bs []beamAt) string {
+	if len(bs) < 2 {
+		return ""
+	}
+	var names []string
+	for _, b := range bs {
+		names = append(names, fmt.Sprintf("%q", b.pb.Laser.Name))
+	}
+	return fmt.Sprintf(" (the %d beams of lasers %s together, each at its own size)", len(bs), strings.Join(names, ", "))
+}
+
+// atMaxPower says at whose maximum power a figure is.
+func atMaxPower(bs []beamAt) string {
+	return plural(bs, "the laser's maximum power", "the lasers' maximum powers")
+}
+
+func plural(bs []beamAt, one, many string) string {
+	if len(bs) == 1 {
+		return one
+	}
+	return many
 }
 
 func eyewearNeeds(h *Hazards) []*EyewearNeed {
