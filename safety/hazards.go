@@ -173,6 +173,8 @@ type Exposure struct {
 	// included; Additive counts the beams in the eye sum. OD is then the
 	// shared OD of limits.SharedOD.
 	Wavelengths                         []float64
+	// Lasers are the lasers of the beams on the segment, one per beam.
+	Lasers []*budget.Laser
 	CombinedEyeRatio, CombinedSkinRatio float64
 	Additive                            int
 	NOHD                                float64 // for an open end: distance beyond the last element, m
@@ -368,6 +370,7 @@ func (res *pathHazardResult) segment(pb *budget.PathBudget, ll *LaserLimits, seg
 		PeakIrr: seg.Beam.Propagate(at).PeakIrradiance(p), OpenEnd: math.IsInf(seg.To, 1)}
 	e.OD = limits.OpticalDensity(e.Ratio)
 	e.Wavelengths = []float64{pb.Laser.Wavelength}
+	e.Lasers = []*budget.Laser{pb.Laser}
 	e.CombinedEyeRatio, e.CombinedSkinRatio, e.Additive = e.Ratio, e.SkinRatio, 1
 	if las := pb.Laser; las.Emission == budget.EmissionPulsed {
 		e.PulseRadiantExposure = budget.PulseEnergy(irr, las.RepetitionRate)
@@ -398,13 +401,15 @@ func (res *pathHazardResult) combine() {
 		g := groups[k]
 		if len(g) > 1 {
 			var λs []float64
+			var names []*budget.Laser
 			for _, f := range g {
 				if !slices.Contains(λs, f.Laser.Laser.Wavelength) {
 					λs = append(λs, f.Laser.Laser.Wavelength)
 				}
+				names = append(names, f.Laser.Laser)
 			}
 			for _, e := range g {
-				e.Wavelengths = λs
+				e.Wavelengths, e.Lasers = λs, names
 				e.CombinedEyeRatio, e.CombinedSkinRatio, e.Additive = 0, 0, 0
 				for _, f := range g {
 					eye, skin := limits.EffectsAdd(e.Laser.Laser.Wavelength, f.Laser.Laser.Wavelength)

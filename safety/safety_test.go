@@ -561,8 +561,8 @@ func TestSharedSegmentAddsByHand(t *testing.T) {
 		if math.Abs(e.CombinedEyeRatio-eye) > 1e-12*eye || math.Abs(e.CombinedSkinRatio-skin) > 1e-12*skin {
 			t.Errorf("%s: combined %g (eye), %g (skin); by hand %g, %g", e.Laser.Laser.Name, e.CombinedEyeRatio, e.CombinedSkinRatio, eye, skin)
 		}
-		if len(e.Wavelengths) != 2 || e.Additive != 2 {
-			t.Errorf("%s: wavelengths %v, %d additive", e.Laser.Laser.Name, e.Wavelengths, e.Additive)
+		if len(e.Wavelengths) != 2 || e.Additive != 2 || len(e.Lasers) != 2 || e.Lasers[0].Name != "probe" || e.Lasers[1].Name != "trap" {
+			t.Errorf("%s: wavelengths %v, lasers %d, %d additive", e.Laser.Laser.Name, e.Wavelengths, len(e.Lasers), e.Additive)
 		}
 	}
 	// 8.44 × + 4216 × = 4224 × the eye MPE, as the golden text prints.

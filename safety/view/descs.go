@@ -72,6 +72,7 @@ var (
 	dCombinedEyeRatio            = &Desc{"combined_eye_ratio", "Σ eye ratio", "Exposure.CombinedEyeRatio"}
 	dCombinedSkinRatio           = &Desc{"combined_skin_ratio", "Σ skin ratio", "Exposure.CombinedSkinRatio"}
 	dWavelengthsM                = &Desc{"wavelengths_m", "wavelengths", "Exposure.Wavelengths"}
+	dSharedLasers                = &Desc{"lasers", "lasers", "Exposure.Lasers"}
 	dAdditive                    = &Desc{"additive_beams", "additive beams", "Exposure.Additive"}
 	dPulsePeakFactor             = &Desc{"pulse_peak_factor", "pulse peak ÷ average", ""}
 	dFactorsFrom                 = &Desc{"factors_provenance", "factors from", "Limit.Factors"}

@@ -274,12 +274,20 @@ func (b *builder) exposureRecord(e *safety.Exposure) Record {
 	for _, λ := range e.Wavelengths {
 		nms = append(nms, budget.FormatNumber(λ*1e9)+" nm")
 	}
-	r.F(NumList(dWavelengthsM, e.Wavelengths, strings.Join(nms, " + "))).
+	names := make([]string, len(e.Lasers))
+	beams := make([]string, len(e.Lasers))
+	for i, las := range e.Lasers {
+		names[i] = las.Name
+		beams[i] = strconv.Quote(las.Name) + " (" + budget.FormatWavelength(las.Wavelength) + ")"
+	}
+	shared := StrList(dSharedLasers, names)
+	shared.Text = strings.Join(beams, " + ")
+	r.F(NumList(dWavelengthsM, e.Wavelengths, strings.Join(nms, " + "))).F(shared).
 		F(Ratio(dCombinedEyeRatio, e.CombinedEyeRatio)).
 		F(Ratio(dCombinedSkinRatio, e.CombinedSkinRatio)).
 		F(Whole(dAdditive, e.Additive))
 	if len(e.Wavelengths) > 1 {
-		r.Line("      {segment}: {wavelengths_m} share this segment; with the beams whose effects add ({additive_beams} on the eye) the ratios sum to {combined_eye_ratio} (eye) and {combined_skin_ratio} (skin); OD {od_required} holds this wavelength to an equal share")
+		r.Line("      {segment}: lasers {lasers} share this segment; with the beams whose effects add ({additive_beams} on the eye) the ratios sum to {combined_eye_ratio} (eye) and {combined_skin_ratio} (skin); OD {od_required} holds this wavelength to an equal share")
 	}
 	if e.Laser.Pulsed != nil {
 		r.F(Num(dPulseRadiantExposureJM2, e.PulseRadiantExposure, withUnit(e.PulseRadiantExposure, "J/m²"))).
