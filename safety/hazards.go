@@ -172,9 +172,9 @@ type Exposure struct {
 	// segment whose effects add to this one's (limits.EffectsAdd), itself
 	// included; Additive counts the beams in the eye sum. OD is then the
 	// shared OD of limits.SharedOD.
-	Wavelengths                         []float64
+	Wavelengths []float64
 	// Lasers are the lasers of the beams on the segment, one per beam.
-	Lasers []*budget.Laser
+	Lasers                              []*budget.Laser
 	CombinedEyeRatio, CombinedSkinRatio float64
 	Additive                            int
 	NOHD                                float64 // for an open end: distance beyond the last element, m
