@@ -3,7 +3,9 @@ package main
 import (
 	"fmt"
 	"os"
+	"os/exec"
 	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 	"time"
@@ -118,5 +120,25 @@ func TestUnreadableSources(t *testing.T) {
 				t.Errorf("%s: exit %d, %q", tc.file, code, errOut)
 			}
 		})
+	}
+}
+
+// The command starts in a few milliseconds: it links no package whose
+// initialisation is slow. pdfcpu's api package brings in a text-width
+// table built at start-up (30 ms, measured with GODEBUG=inittrace=1); the
+// tests may use it, the command may not.
+func TestNoSlowStartPackages(t *testing.T) {
+	goTool, err := exec.LookPath("go")
+	if err != nil {
+		t.Skip("no go command to list the dependencies")
+	}
+	out, err := exec.Command(goTool, "list", "-deps", "beamledger/cmd/beamledger").Output()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, slow := range []string{"github.com/mattn/go-runewidth", "github.com/pdfcpu/pdfcpu/pkg/api"} {
+		if slices.Contains(strings.Fields(string(out)), slow) {
+			t.Errorf("the command links %s", slow)
+		}
 	}
 }

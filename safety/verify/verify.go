@@ -14,8 +14,9 @@ import (
 	"slices"
 	"strings"
 
-	"github.com/pdfcpu/pdfcpu/pkg/api"
+	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu"
 	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu/model"
+	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu/validate"
 
 	"beamledger/budget"
 	"beamledger/safety"
@@ -44,10 +45,36 @@ func (r *Result) Match() bool {
 // attached setup).
 var ErrUnusable = errors.New("cannot be verified")
 
+func init() {
+	// pdfcpu would otherwise write its configuration into the user's
+	// configuration directory on first use; verify only reads a document.
+	model.ConfigPath = "disable"
+}
+
+// attachments reads and validates a PDF and returns its attached files. It
+// uses pdfcpu's reader and validator directly (its api package brings in a
+// text-width table whose start-up costs every command 30 ms); a panic in
+// the reader on a malformed file is an unreadable file.
+func attachments(pdf []byte) (atts []model.Attachment, err error) {
+	defer func() {
+		if r := recover(); r != nil {
+			err = fmt.Errorf("the PDF reader failed: %v", r)
+		}
+	}()
+	ctx, err := pdfcpu.Read(bytes.NewReader(pdf), model.NewDefaultConfiguration())
+	if err != nil {
+		return nil, err
+	}
+	if err := validate.XRefTable(ctx); err != nil {
+		return nil, err
+	}
+	return ctx.ExtractAttachments(nil)
+}
+
 // Check verifies the document pdf; given is the setup file to compare with
 // (nil: none).
 func Check(pdf []byte, given []byte) (*Result, error) {
-	atts, err := api.ExtractAttachmentsRaw(bytes.NewReader(pdf), "", nil, model.NewDefaultConfiguration())
+	atts, err := attachments(pdf)
 	if err != nil {
 		return nil, fmt.Errorf("%w: not a readable PDF: %v", ErrUnusable, err)
 	}
