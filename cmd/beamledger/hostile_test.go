@@ -29,6 +29,13 @@ import (
 //	text S / no-text S   the text output holds (or lacks) S
 //	json S               the JSON output holds S
 //	report ok            report writes a PDF that pdfcpu validates (exit 0 or 1)
+
+func init() {
+	// Validate documents without pdfcpu writing its configuration into
+	// the user's directory.
+	api.DisableConfigDir()
+}
+
 func TestHostileCorpus(t *testing.T) {
 	t.Chdir("../..")
 	files, _ := filepath.Glob("testdata/hostile/*.toml")

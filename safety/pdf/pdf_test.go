@@ -20,6 +20,12 @@ import (
 	"beamledger/safety/safetytest"
 )
 
+func init() {
+	// Read documents without pdfcpu writing its configuration into the
+	// user's directory.
+	api.DisableConfigDir()
+}
+
 func demoPDF(t testing.TB, compress bool) ([]byte, *report.Document) {
 	t.Helper()
 	a, data := safetytest.EvaluateFile(t, "../../testdata/examples/table-c.toml")
