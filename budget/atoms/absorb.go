@@ -27,35 +27,15 @@ func OutgoingIntensity(iIn, b, a float64) float64 {
 		return iIn
 	}
 	lnIn := math.Log(iIn)
-	hi := lnIn
-	lo := hi - (b+iIn)/a
+	lo := lnIn - (b+iIn)/a
 	// Start from the weak-drive (Beer–Lambert) answer, clamped to the bracket.
-	x := math.Max(lo, math.Min(hi, hi-b/a))
-	for range 100 {
-		ex := math.Exp(x)
-		v := a*(lnIn-x) + iIn - ex - b
-		if v > 0 {
-			lo = x
-		} else {
-			hi = x
-		}
-		nx := x + v/(a+ex) // Newton: g' = −a − e^x
-		if !(nx > lo && nx < hi) {
-			nx = (lo + hi) / 2
-		}
-		if math.Abs(nx-x) < 1e-14*math.Max(1, math.Abs(x)) {
-			x = nx
-			break
-		}
-		x = nx
-	}
-	return math.Exp(x)
+	x0 := math.Max(lo, math.Min(lnIn, lnIn-b/a))
+	return math.Exp(solveLinExp(a, a*lnIn+(iIn-b), lo, lnIn, x0))
 }
 
 // IncomingIntensity solves the relation for i_in given the intensity i_out
 // > 0 that must remain after an optical depth b ≥ 0 (units of I_sat):
-// a ln i_in + i_in = b + a ln i_out + i_out, increasing in i_in; Newton on
-// ln i_in with a bisection safeguard.
+// a ln i_in + i_in = b + a ln i_out + i_out, increasing in ln i_in.
 func IncomingIntensity(iOut, b, a float64) float64 {
 	if !(iOut > 0) || !(b > 0) {
 		return iOut
@@ -66,26 +46,34 @@ func IncomingIntensity(iOut, b, a float64) float64 {
 	for a*hi+math.Exp(hi) < rhs {
 		hi += 1 + b/a
 	}
-	g := func(x float64) float64 { return a*x + math.Exp(x) - rhs }
-	x := hi
+	return math.Exp(solveLinExp(a, rhs, lo, hi, hi))
+}
+
+// solveLinExp solves a·x + eˣ = c for x in the bracket [lo, hi] that holds
+// the root (the left side increases with x): Newton's method from x0,
+// safeguarded by bisection, so that it cannot fail for finite input. Both
+// directions of the saturable-absorber relation reduce to it with x the
+// logarithm of the unknown intensity.
+func solveLinExp(a, c, lo, hi, x0 float64) float64 {
+	x := x0
 	for range 100 {
-		v := g(x)
+		ex := math.Exp(x)
+		v := a*x + ex - c
 		if v > 0 {
 			hi = x
 		} else {
 			lo = x
 		}
-		nx := x - v/(a+math.Exp(x))
+		nx := x - v/(a+ex)
 		if !(nx > lo && nx < hi) {
 			nx = (lo + hi) / 2
 		}
 		if math.Abs(nx-x) < 1e-14*math.Max(1, math.Abs(x)) {
-			x = nx
-			break
+			return nx
 		}
 		x = nx
 	}
-	return math.Exp(x)
+	return x
 }
 
 // ColumnFraction is the share of a Gaussian cloud's column in front of the
