@@ -160,62 +160,38 @@ func (w *jsonWriter) value(f *Field, depth int) error {
 	case Bool:
 		w.b = strconv.AppendBool(w.b, f.Bool)
 	case Matrix:
-		w.b = append(w.b, '[')
-		for i, row := range f.extra.rows {
-			if i > 0 {
-				w.b = append(w.b, ',')
-			}
-			w.newline(depth + 1)
-			w.b = append(w.b, '[')
-			for k, v := range row {
-				if k > 0 {
-					w.b = append(w.b, ',')
-				}
-				w.newline(depth + 2)
-				if err := w.number(v); err != nil {
-					return err
-				}
-			}
-			w.newline(depth + 1)
-			w.b = append(w.b, ']')
-		}
-		w.newline(depth)
-		w.b = append(w.b, ']')
+		rows := f.extra.rows
+		return w.array(depth, len(rows), func(i int) error {
+			return w.array(depth+1, len(rows[i]), func(k int) error { return w.number(rows[i][k]) })
+		})
 	case Numbers:
 		vals := f.extra.rows[0]
-		if len(vals) == 0 {
-			w.b = append(w.b, '[', ']')
-			return nil
-		}
-		w.b = append(w.b, '[')
-		for i, v := range vals {
-			if i > 0 {
-				w.b = append(w.b, ',')
-			}
-			w.newline(depth + 1)
-			if err := w.number(v); err != nil {
-				return err
-			}
-		}
-		w.newline(depth)
-		w.b = append(w.b, ']')
+		return w.array(depth, len(vals), func(i int) error { return w.number(vals[i]) })
 	case Strings:
 		list := f.List()
-		if len(list) == 0 {
-			w.b = append(w.b, '[', ']')
-			return nil
-		}
-		w.b = append(w.b, '[')
-		for i, s := range list {
-			if i > 0 {
-				w.b = append(w.b, ',')
-			}
-			w.newline(depth + 1)
-			w.str(s)
-		}
-		w.newline(depth)
-		w.b = append(w.b, ']')
+		return w.array(depth, len(list), func(i int) error { w.str(list[i]); return nil })
 	}
+	return nil
+}
+
+// array writes n items, one per line at depth+1 ("[]" when empty).
+func (w *jsonWriter) array(depth, n int, item func(i int) error) error {
+	if n == 0 {
+		w.b = append(w.b, '[', ']')
+		return nil
+	}
+	w.b = append(w.b, '[')
+	for i := range n {
+		if i > 0 {
+			w.b = append(w.b, ',')
+		}
+		w.newline(depth + 1)
+		if err := item(i); err != nil {
+			return err
+		}
+	}
+	w.newline(depth)
+	w.b = append(w.b, ']')
 	return nil
 }
 
