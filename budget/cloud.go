@@ -401,22 +401,8 @@ func (f *field) barrier(r [3]float64, vmin float64, d [3]float64, t0, tmax float
 		t *= q
 	}
 	if best > 0 && best < n {
-		a, b := t0*math.Pow(q, float64(best-1)), t0*math.Pow(q, float64(best+1))
-		const φ = 0.6180339887498949
-		c, e := b-φ*(b-a), a+φ*(b-a)
-		vc, ve := at(c), at(e)
-		for range 30 {
-			if vc > ve {
-				b, e, ve = e, c, vc
-				c = b - φ*(b-a)
-				vc = at(c)
-			} else {
-				a, c, vc = c, e, ve
-				e = a + φ*(b-a)
-				ve = at(e)
-			}
-		}
-		top = math.Max(top, math.Max(vc, ve))
+		_, v := GoldenMax(at, t0*math.Pow(q, float64(best-1)), t0*math.Pow(q, float64(best+1)), 30, 0)
+		top = math.Max(top, v)
 	}
 	return top - vmin
 }

@@ -55,26 +55,8 @@ func maxAlong(b budget.Beam, p, d, length float64) (irr, at float64) {
 	// Golden-section search around the best sample, one new evaluation per
 	// step, to a relative width of 1e-5 of the stretch (the value near a
 	// maximum changes with the square of the step).
-	a, c := math.Max(lo, bestZ-step), math.Min(hi, bestZ+step)
-	const g = 0.6180339887498949
-	m1, m2 := c-g*(c-a), a+g*(c-a)
-	f1, f2 := f(m1), f(m2)
-	for i := 0; i < 80 && c-a > 1e-5*(1+hi); i++ {
-		if f1 > f2 {
-			c, m2, f2 = m2, m1, f1
-			m1 = c - g*(c-a)
-			f1 = f(m1)
-		} else {
-			a, m1, f1 = m1, m2, f2
-			m2 = a + g*(c-a)
-			f2 = f(m2)
-		}
-	}
-	if f1 > best {
-		best, bestZ = f1, m1
-	}
-	if f2 > best {
-		best, bestZ = f2, m2
+	if z, v := budget.GoldenMax(f, math.Max(lo, bestZ-step), math.Min(hi, bestZ+step), 80, 1e-5*(1+hi)); v > best {
+		best, bestZ = v, z
 	}
 	return best, bestZ
 }
