@@ -6,7 +6,6 @@ import (
 	"slices"
 
 	"gonum.org/v1/gonum/mat"
-	"gonum.org/v1/gonum/optimize"
 	"gonum.org/v1/gonum/unit/constant"
 
 	"beamledger/budget/atoms"
@@ -118,6 +117,9 @@ type field struct {
 	// hint, when set, is where a search of a nearby field (the same beams at
 	// other powers) found its minimum: the search starts there alone.
 	hint *[3]float64
+	// trial marks a goal's trial search: only the depth is wanted, not the
+	// profile for the plot.
+	trial bool
 }
 
 type fieldBeam struct {
@@ -206,7 +208,10 @@ func (f *field) findTrap() Trap {
 	deep := f.deepest(maxStarts)
 	starts := [][3]float64{{}}
 	for _, b := range deep {
-		starts = append(starts, b.focusPoint())
+		// A focus at a point already tried (at the cloud, say) is one start.
+		if p := b.focusPoint(); !slices.Contains(starts, p) {
+			starts = append(starts, p)
+		}
 	}
 	if f.hint != nil {
 		starts = [][3]float64{*f.hint}
@@ -242,7 +247,7 @@ func (f *field) findTrap() Trap {
 	t.Found, t.Minimum = true, best
 	for i := range 3 {
 		t.Frequencies[i] = math.Sqrt(vals[i]/f.mass) / (2 * math.Pi)
-		t.Axes[i] = [3]float64{vecs.At(0, i), vecs.At(1, i), vecs.At(2, i)}
+		t.Axes[i] = signed([3]float64{vecs.At(0, i), vecs.At(1, i), vecs.At(2, i)})
 	}
 	if dot(f.down, f.down) > 0 {
 		hd := 0.0
@@ -286,6 +291,16 @@ func (f *field) findTrap() Trap {
 	}
 	t.Depth = math.Inf(1)
 	vmin := f.V(best)
+	// A ray along (or against) another's direction is measured once, out to
+	// the nearer end: the lower of two barriers on one line.
+	for i := 0; i < len(rays); i++ {
+		for j := len(rays) - 1; j > i; j-- {
+			if math.Abs(dot(rays[i].d, rays[j].d)) > 1-1e-12 {
+				rays[i].tmax = math.Min(rays[i].tmax, rays[j].tmax)
+				rays = slices.Delete(rays, j, j+1)
+			}
+		}
+	}
 	for _, r := range rays {
 		for _, sgn := range []float64{1, -1} {
 			dd := [3]float64{sgn * r.d[0], sgn * r.d[1], sgn * r.d[2]}
@@ -296,6 +311,9 @@ func (f *field) findTrap() Trap {
 	}
 	t.Holds = t.Depth > 0
 	t.Depth = math.Max(t.Depth, 0)
+	if f.trial {
+		return t
+	}
 	// The potential along the escape direction, for the plot.
 	for k := -60; k <= 60; k++ {
 		s := float64(k) / 60 * math.Min(reach, 20*L)
@@ -303,6 +321,22 @@ func (f *field) findTrap() Trap {
 		t.Profile = append(t.Profile, [2]float64{s, f.V(r) / atoms.KB})
 	}
 	return t
+}
+
+// signed is the axis a or −a, whichever has its largest component
+// positive: an eigenvector's sign is arbitrary, and the output should not
+// depend on it.
+func signed(a [3]float64) [3]float64 {
+	k := 0
+	for i := range a {
+		if math.Abs(a[i]) > math.Abs(a[k]) {
+			k = i
+		}
+	}
+	if a[k] < 0 {
+		return [3]float64{-a[0], -a[1], -a[2]}
+	}
+	return a
 }
 
 // maxStarts is how many of the deepest beams the trap search starts from
@@ -339,18 +373,13 @@ func (b *fieldBeam) focusPoint() [3]float64 {
 }
 
 // minimize finds a local minimum from start, in units of the length L and
-// the potential scale v0 (Nelder–Mead, gonum/optimize).
+// the potential scale v0 (SimplexMin).
 func (f *field) minimize(start [3]float64, L, v0 float64) ([3]float64, bool) {
-	p := optimize.Problem{Func: func(x []float64) float64 {
+	x0 := [3]float64{start[0] / L, start[1] / L, start[2] / L}
+	x, fx := SimplexMin(func(x [3]float64) float64 {
 		return f.V([3]float64{x[0] * L, x[1] * L, x[2] * L}) / v0
-	}}
-	x0 := []float64{start[0] / L, start[1] / L, start[2] / L}
-	res, err := optimize.Minimize(p, x0, &optimize.Settings{FuncEvaluations: 600, Converger: &optimize.FunctionConverge{Absolute: 1e-10, Iterations: 40}}, &optimize.NelderMead{})
-	if err != nil && res == nil {
-		return [3]float64{}, false
-	}
-	x := res.X
-	return [3]float64{x[0] * L, x[1] * L, x[2] * L}, !math.IsNaN(res.F)
+	}, x0, 0.05, 1e-10, 40, 600)
+	return [3]float64{x[0] * L, x[1] * L, x[2] * L}, !math.IsNaN(fx)
 }
 
 // hessian of V at r by central differences of step h, J/m².
@@ -500,7 +529,7 @@ func (cr *CloudResult) evaluate(scaled []*Laser, k float64, full bool) {
 	tr := c.Data
 	f := cr.fieldOf(scaled, k, true)
 	if !full {
-		f.hint = cr.hint
+		f.hint, f.trial = cr.hint, true
 	}
 	cr.PotentialAtCloud = f.V([3]float64{})
 	var at [3]float64
@@ -772,7 +801,7 @@ func trapDepthScale(a *AtomsResult, depth float64) (k float64, why string) {
 	beam := a.Row.BeamIn
 	var hint *[3]float64
 	at := func(k float64) float64 {
-		f := &field{mass: c.Data.Mass, down: c.Down, hint: hint, beams: []fieldBeam{{x: beam.X, y: beam.Y, λ: beam.Wavelength, power: k * a.Power,
+		f := &field{mass: c.Data.Mass, down: c.Down, hint: hint, trial: true, beams: []fieldBeam{{x: beam.X, y: beam.Y, λ: beam.Wavelength, power: k * a.Power,
 			perI: a.Dipole.PerIntensity, n: n, u: u, v: v, laser: a.Path.Laser}}}
 		t := f.findTrap()
 		if hint == nil && t.Found {

@@ -209,6 +209,17 @@ func BenchmarkDrive(b *testing.B) {
 	}
 }
 
+// The clouds of the demo: its combined trap, searched for and measured.
+func BenchmarkCloudsDemo(b *testing.B) {
+	s, _ := Load("../testdata/examples/table-c.toml")
+	bud, _ := Compute(s)
+	d := bud.Drive()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		bud.Clouds(d)
+	}
+}
+
 // A laser that feeds no path is a beam nobody described: a finding that
 // needs action, never silence.
 func TestUnusedLaserNeedsAction(t *testing.T) {
