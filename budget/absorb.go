@@ -2,6 +2,7 @@ package budget
 
 import (
 	"math"
+	"sync"
 
 	"gonum.org/v1/gonum/integrate/quad"
 
@@ -48,16 +49,18 @@ const uniformRatio = 50
 // direction.
 const quadNodes = 32
 
-// nodes holds the Gauss–Legendre nodes and weights on [−1, 1].
-var nodes = func() (n struct{ x, w []float64 }) {
+// legendre holds the Gauss–Legendre nodes and weights on [−1, 1], computed
+// when a cloud is first integrated.
+var legendre = sync.OnceValue(func() (n struct{ x, w []float64 }) {
 	n.x, n.w = make([]float64, quadNodes), make([]float64, quadNodes)
 	quad.Legendre{}.FixedLocations(n.x, n.w, -1, 1)
 	return n
-}()
+})
 
 // absorb is the absorption of a beam of power p (W) and 1/e² radii wx, wy
 // at the cloud.
 func (col cloudColumn) absorb(p, wx, wy float64) Absorption {
+	nodes := legendre()
 	i0 := 2 * p / (math.Pi * wx * wy) / col.isat
 	ab := Absorption{Transmission: 1}
 	for k, z := range []float64{-2, 0, 2} {
@@ -144,6 +147,7 @@ func (col cloudColumn) absorb(p, wx, wy float64) Absorption {
 // sGoal, b* = a ln(i_in/s_goal) + i_in − s_goal, are above it, so the ray
 // contributes min(b, b*) of its column b.
 func (col cloudColumn) fractionAbove(i0, wx, wy, sGoal float64) float64 {
+	nodes := legendre()
 	if !(col.b0 > 0) {
 		if i0 >= sGoal {
 			return 1

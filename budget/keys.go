@@ -2,6 +2,7 @@ package budget
 
 import (
 	"slices"
+	"sync"
 
 	"beamledger/budget/atoms"
 )
@@ -251,7 +252,14 @@ func init() {
 		el.Key("type").Enum = append(el.Key("type").Enum, string(k.Type))
 	}
 	TableNamed("cloud").Key("transition").Enum = append(atoms.Names(), "custom")
-	elementReadSpecs = map[ElementType]*TableSpec{}
+}
+
+// elementReadSpecs are the keys the loader reads of each element type,
+// built when a setup is first read (not at start-up: every command would
+// pay for them).
+var elementReadSpecs = sync.OnceValue(func() map[ElementType]*TableSpec {
+	el := TableNamed("element")
+	specs := map[ElementType]*TableSpec{}
 	for _, k := range Kinds {
 		spec := ElementTable(k)
 		if k.Type == TypeMirror {
@@ -259,12 +267,10 @@ func init() {
 			// with its reason (the throughput is the reflectivity).
 			spec.Keys = append(spec.Keys, *el.Key("transmission"))
 		}
-		elementReadSpecs[k.Type] = spec
+		specs[k.Type] = spec
 	}
-}
-
-// elementReadSpecs are the keys the loader reads of each element type.
-var elementReadSpecs map[ElementType]*TableSpec
+	return specs
+})
 
 // ElementTable is the spec of one element type: the common element keys
 // and the type's own, with the type's requirements.

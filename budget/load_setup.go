@@ -418,7 +418,7 @@ func (l *loader) element(p *Path, pathContext, loc string, k int, m map[string]a
 		}
 		return e
 	}
-	t.spec = elementReadSpecs[e.Type]
+	t.spec = elementReadSpecs()[e.Type]
 	t.describe = func() string {
 		if e.Name != "" {
 			return fmt.Sprintf("%s, element %d (%s %q)", pathContext, k+1, e.Type, e.Name)
