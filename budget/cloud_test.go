@@ -348,3 +348,18 @@ func TestSolveScale(t *testing.T) {
 		t.Error("an unreachable target was reached")
 	}
 }
+
+// An eigenvector's sign is arbitrary; the output's is fixed: the largest
+// component positive (common practice for reporting principal axes).
+func TestSignedAxis(t *testing.T) {
+	for _, c := range []struct{ in, want [3]float64 }{
+		{[3]float64{-1, -6e-6, 0.004667}, [3]float64{1, 6e-6, -0.004667}},
+		{[3]float64{0.004667, 1e-5, 1}, [3]float64{0.004667, 1e-5, 1}},
+		{[3]float64{0, -1, 0}, [3]float64{0, 1, 0}},
+		{[3]float64{-0.6, 0.8, 0}, [3]float64{-0.6, 0.8, 0}},
+	} {
+		if got := signed(c.in); got != c.want {
+			t.Errorf("signed(%v) = %v, want %v", c.in, got, c.want)
+		}
+	}
+}
