@@ -18,7 +18,7 @@ func TestCircleFractionRound(t *testing.T) {
 		{1.5, 0.9888910034},         // a = 1.5 w: 1 − e^(−4.5)
 	} {
 		t.Run(fmt.Sprint(c), func(t *testing.T) {
-			if got := CircleFraction(1, 1, c.a); !near(got, c.want, 1e-9) {
+			if got := CircleFraction(1, 1, c.a); !within(got, c.want, 1e-9) {
 				t.Errorf("T(a=%g w) = %.10f, want %.10f", c.a, got, c.want)
 			}
 		})

@@ -320,35 +320,6 @@ func TestCloudSaturationGoal(t *testing.T) {
 	}
 }
 
-// solveScale finds the least factor that reaches the target, within 0.1 %
-// and never below it: a power law (secant steps), a figure that is zero
-// until a threshold (the bisection fallback), and one out of reach.
-func TestSolveScale(t *testing.T) {
-	for _, c := range []struct {
-		name   string
-		metric func(float64) float64
-		target float64
-		want   float64
-	}{
-		{"k²", func(k float64) float64 { return k * k }, 9, 3},
-		{"√k", func(k float64) float64 { return math.Sqrt(k) }, 0.5, 0.25},
-		{"threshold", func(k float64) float64 {
-			if k < 2 {
-				return 0
-			}
-			return k - 2
-		}, 5, 7},
-	} {
-		k, ok := solveScale(c.metric, c.target, 1)
-		if !ok || c.metric(k) < c.target || k > c.want*(1+1e-3) {
-			t.Errorf("%s: k = %g (ok %v), want %g", c.name, k, ok, c.want)
-		}
-	}
-	if _, ok := solveScale(func(k float64) float64 { return 0 }, 1, 1); ok {
-		t.Error("an unreachable target was reached")
-	}
-}
-
 // An eigenvector's sign is arbitrary; the output's is fixed: the largest
 // component positive (common practice for reporting principal axes).
 func TestSignedAxis(t *testing.T) {

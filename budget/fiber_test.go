@@ -22,7 +22,7 @@ func TestFiberOverlapRoundMarcuse(t *testing.T) {
 	} {
 		t.Run(fmt.Sprint(c), func(t *testing.T) {
 			b := Beam{Wavelength: λ, X: NewPlane(c.w, 0, 1, λ), Y: NewPlane(c.w, 0, 1, λ)}
-			if got := FiberOverlap(b, 2*c.wf); !near(got, c.want, 1e-9) {
+			if got := FiberOverlap(b, 2*c.wf); !within(got, c.want, 1e-9) {
 				t.Errorf("η(w=%g, wf=%g) = %.10f, want %.10f", c.w, c.wf, got, c.want)
 			}
 		})
@@ -48,7 +48,7 @@ func TestModeOverlapCurvedQuadrature(t *testing.T) {
 			n1 := math.Sqrt(math.Pi/2) * c.w
 			n2 := math.Sqrt(math.Pi/2) * c.wf
 			ref := (re*re + im*im) / (n1 * n2)
-			if got := ModeOverlap1D(c.w, c.invR, 1, c.wf, λ); !near(got, ref, 1e-9) {
+			if got := ModeOverlap1D(c.w, c.invR, 1, c.wf, λ); !within(got, ref, 1e-9) {
 				t.Errorf("η₁(w=%g, 1/R=%g) = %.12f, quadrature %.12f", c.w, c.invR, got, ref)
 			}
 		})
@@ -64,7 +64,7 @@ func TestModeOverlapGSMLowestMode(t *testing.T) {
 	for _, m2 := range []float64{1, 1.1, 1.3, 1.6, 2, 4} {
 		w := 100e-6
 		got := ModeOverlap1D(w, 0, m2, w/math.Sqrt(m2), λ)
-		if want := 2 / (m2 + 1); !near(got, want, 1e-12) {
+		if want := 2 / (m2 + 1); !within(got, want, 1e-12) {
 			t.Errorf("M² = %g: η₁ = %.12f, want 2/(M²+1) = %.12f", m2, got, want)
 		}
 		// And no other fibre mode size does better.
@@ -96,7 +96,7 @@ func TestModeOverlapGSMQuadrature(t *testing.T) {
 			}
 			num := quad.Fixed(inner, -L, L, 200, quad.Legendre{}, 0)
 			ref := num / (math.Sqrt(math.Pi/2) * c.w * math.Sqrt(math.Pi/2) * c.wf)
-			if got := ModeOverlap1D(c.w, c.invR, c.m2, c.wf, λ); !near(got, ref, 1e-8) {
+			if got := ModeOverlap1D(c.w, c.invR, c.m2, c.wf, λ); !within(got, ref, 1e-8) {
 				t.Errorf("η₁(W=%g, 1/R=%g, M²=%g) = %.10f, quadrature %.10f", c.w, c.invR, c.m2, got, ref)
 			}
 		})
@@ -112,16 +112,16 @@ func TestIdealCouplingFocalLength(t *testing.T) {
 		f := IdealCouplingFocalLength(p, λ, wf)
 		q := p.Lens(f)
 		q = q.Propagate(q.WaistDistance())
-		if got := q.WaistRadius(λ) / math.Sqrt(m2); !near(got, wf, 1e-9) {
+		if got := q.WaistRadius(λ) / math.Sqrt(m2); !within(got, wf, 1e-9) {
 			t.Errorf("M² = %g: embedded waist %g, want %g", m2, got, wf)
 		}
-		if got, want := ModeOverlap1D(q.Radius(λ), q.Curvature(), m2, wf, λ), 2/(m2+1); !near(got, want, 1e-9) {
+		if got, want := ModeOverlap1D(q.Radius(λ), q.Curvature(), m2, wf, λ), 2/(m2+1); !within(got, want, 1e-9) {
 			t.Errorf("M² = %g: coupling at the ideal focus %g, want %g", m2, got, want)
 		}
 	}
 	// Collimated beam, W ≫ wf: f ≈ π W wf / (M λ) (common practice).
 	p := NewPlane(1e-3, 0, 1, λ)
-	if got, want := IdealCouplingFocalLength(p, λ, wf), math.Pi*1e-3*wf/λ; !near(got, want, 1e-5) {
+	if got, want := IdealCouplingFocalLength(p, λ, wf), math.Pi*1e-3*wf/λ; !within(got, want, 1e-5) {
 		t.Errorf("collimated: f = %g, want ≈ %g", got, want)
 	}
 	if got := IdealCouplingFocalLength(NewPlane(2e-6, 0, 1, λ), λ, wf); !math.IsNaN(got) {
@@ -133,7 +133,7 @@ func TestIdealCouplingFocalLength(t *testing.T) {
 // Photonics (2007), eq. (3.2-9) focusing a Gaussian by a lens, run backwards).
 func TestFiberOutputWaist(t *testing.T) {
 	// 852 nm, f = 30 mm, MFD 5.0 µm: W = 852e-9·0.03/(π·2.5e-6) = 3.25440 mm (by hand)
-	if got := FiberOutputWaist(852e-9, 0.03, 5e-6); !near(got, 3.254400e-3, 1e-6) {
+	if got := FiberOutputWaist(852e-9, 0.03, 5e-6); !within(got, 3.254400e-3, 1e-6) {
 		t.Errorf("W = %g, want 3.254400e-3", got)
 	}
 }

@@ -4,7 +4,6 @@ import (
 	"go/ast"
 	"go/parser"
 	"go/token"
-	"math"
 	"os"
 	"path/filepath"
 	"strings"
@@ -197,19 +196,5 @@ func TestEscapingLoss(t *testing.T) {
 		if EscapingLoss(k) {
 			t.Errorf("%s leaves the path as a beam", k)
 		}
-	}
-}
-
-// GoldenMax finds the maximum of x·e^(−x) at x = 1, value 1/e (by hand: the
-// derivative (1 − x)e^(−x) vanishes there), from a bracket that does not
-// centre it, to the width the steps allow.
-func TestGoldenMax(t *testing.T) {
-	x, v := GoldenMax(func(x float64) float64 { return x * math.Exp(-x) }, 0.2, 4, 60, 1e-9)
-	if math.Abs(x-1) > 1e-4 || math.Abs(v-1/math.E) > 1e-9 {
-		t.Errorf("maximum at %g, %g; want 1, 1/e", x, v)
-	}
-	// A step limit stops it early, the bracket still around the maximum.
-	if x, _ := GoldenMax(func(x float64) float64 { return -(x - 3) * (x - 3) }, 0, 10, 5, 0); math.Abs(x-3) > 10*math.Pow(0.618034, 5) {
-		t.Errorf("after 5 steps at %g, not within the bracket's width of 3", x)
 	}
 }

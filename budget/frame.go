@@ -32,12 +32,3 @@ func (c *Cloud) RMSAlong(d [3]float64) float64 {
 	}
 	return math.Sqrt(s)
 }
-
-func cross(a, b [3]float64) [3]float64 {
-	return [3]float64{a[1]*b[2] - a[2]*b[1], a[2]*b[0] - a[0]*b[2], a[0]*b[1] - a[1]*b[0]}
-}
-
-func normalize(a [3]float64) [3]float64 {
-	n := math.Sqrt(dot(a, a))
-	return [3]float64{a[0] / n, a[1] / n, a[2] / n}
-}

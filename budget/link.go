@@ -469,5 +469,3 @@ func (l *loader) checkClouds(s *Setup, lasers map[string]*Laser, locs map[*Path]
 		}
 	}
 }
-
-func dot(a, b [3]float64) float64 { return a[0]*b[0] + a[1]*b[1] + a[2]*b[2] }

@@ -189,25 +189,6 @@ func Tolerances(s *Setup, drive []*AtomsResult, samples int, seed uint64, worker
 	return out
 }
 
-// Percentile is the p-quantile of sorted values, interpolated linearly
-// between the nearest ranks ((n−1)p, the usual definition of spreadsheet
-// and numerical packages' default).
-func Percentile(sorted []float64, p float64) float64 {
-	if len(sorted) == 0 {
-		return math.NaN()
-	}
-	h := p * float64(len(sorted)-1)
-	i := int(math.Floor(h))
-	if i+1 >= len(sorted) {
-		return sorted[len(sorted)-1]
-	}
-	a, b := sorted[i], sorted[i+1]
-	if math.IsInf(a, -1) || math.IsInf(b, -1) {
-		return a
-	}
-	return a + (h-float64(i))*(b-a)
-}
-
 // contributors ranks the inputs by their standardized regression
 // coefficients on the margin (samples with a finite margin only):
 // share = SRC²/ΣSRC².

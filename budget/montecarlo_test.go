@@ -146,14 +146,6 @@ func TestToleranceDeterminism(t *testing.T) {
 	}
 }
 
-// Percentiles interpolate between the nearest ranks.
-func TestPercentile(t *testing.T) {
-	v := []float64{1, 2, 3, 4, 5}
-	if Percentile(v, 0.5) != 3 || Percentile(v, 0.25) != 2 || Percentile(v, 0.1) != 1.4 {
-		t.Errorf("percentiles %g %g %g", Percentile(v, 0.5), Percentile(v, 0.25), Percentile(v, 0.1))
-	}
-}
-
 // A whole-cloud goal is sampled too: a single trap beam without gravity,
 // its operating power uniform on [4 W, 6 W]; the depth is linear in the
 // power, so the goal is met for P ≥ P* = 5 W · 10^(−M0/10), with

@@ -225,14 +225,14 @@ func TestQuantityPatternMatchesParser(t *testing.T) {
 		}
 	}
 	slices.Sort(terms)
-	var units []string
-	units = append(units, terms...)
+	var texts []string
+	texts = append(texts, terms...)
 	r := rand.New(rand.NewPCG(1, 2))
 	for i := 0; i < 4000; i++ {
 		a, b := terms[r.IntN(len(terms))], terms[r.IntN(len(terms))]
-		units = append(units, a+"/"+b, a+" / "+b)
+		texts = append(texts, a+"/"+b, a+" / "+b)
 	}
-	units = append(units, "%", "m/%", "W/%", "xyz", "mm/m/s")
+	texts = append(texts, "%", "m/%", "W/%", "xyz", "mm/m/s")
 	numbers := []string{"5", "-2.5e-3", ".5", "5.", "+3E2", "7e"}
 	dims := []Dimension{Length, Time, Frequency, Power, Irradiance, RadiantExposure, LinearPowerDensity, Temperature, Mass}
 	pats := map[Dimension]*regexp.Regexp{}
@@ -241,7 +241,7 @@ func TestQuantityPatternMatchesParser(t *testing.T) {
 	}
 	percent := regexp.MustCompile(`^\s*(?:` + QuantityPattern(Dimensionless, true) + `)\s*$`)
 	mismatches := 0
-	for i, u := range units {
+	for i, u := range texts {
 		num := numbers[i%len(numbers)]
 		for _, s := range []string{num + " " + u, num + u} {
 			for _, d := range append(dims, Dimensionless) {

@@ -2,6 +2,125 @@ package budget
 
 import "math"
 
+func cmpFloat(a, b float64) int {
+	switch {
+	case a < b:
+		return -1
+	case a > b:
+		return 1
+	}
+	return 0
+}
+
+// solveScale finds the least factor k on the powers at which metric(k)
+// (growing with k, about as k^γ) reaches target: first by secant steps on
+// log k – log metric, which take a few evaluations when the figure is close
+// to a power law; if they do not settle within 1e-4, by bracketing and
+// bisection. The answer is where metric(k) ≥ target, within 0.1 %.
+func solveScale(metric func(float64) float64, target, γ float64) (float64, bool) {
+	k, m := 1.0, metric(1)
+	if m > 0 {
+		lk, lm := math.Log(k), math.Log(m)
+		for range 8 {
+			nk := math.Exp(lk + (math.Log(target)-lm)/γ)
+			if !(nk > 1e-6 && nk < 1e6) {
+				break
+			}
+			nm := metric(nk)
+			if !(nm > 0) {
+				break
+			}
+			if math.Abs(nm/target-1) < 1e-4 {
+				if nm >= target {
+					return nk, true
+				}
+				// just short: step up to the safe side of the 0.1 % tolerance
+				if up := nk * (1 + 1e-3); metric(up) >= target {
+					return up, true
+				}
+				break
+			}
+			if d := math.Log(nk) - lk; math.Abs(d) > 1e-12 {
+				if g := (math.Log(nm) - lm) / d; g > 0.05 && g < 20 {
+					γ = g
+				}
+			}
+			lk, lm = math.Log(nk), math.Log(nm)
+		}
+	}
+	enough := func(k float64) bool { return metric(k) >= target }
+	lo, hi, ok := bracket(enough)
+	if !ok {
+		return 0, false
+	}
+	return bisect(lo, hi, enough), true
+}
+
+// bracket finds factors lo < hi around the least k in [1e-6, 1e6] for which
+// enough(k) holds (enough grows with k), starting from 1 and stepping by
+// tens; ok is false when even 1e6 is not enough.
+func bracket(enough func(float64) bool) (lo, hi float64, ok bool) {
+	if enough(1) {
+		hi = 1
+		for hi > 1e-6 && enough(hi/10) {
+			hi /= 10
+		}
+		return hi / 10, hi, true
+	}
+	lo = 1
+	for lo < 1e6 {
+		if enough(lo * 10) {
+			return lo, lo * 10, true
+		}
+		lo *= 10
+	}
+	return 0, 0, false
+}
+
+// bisect narrows [lo, hi] on log k to 1e-3 relative and returns the upper
+// end, where enough holds.
+func bisect(lo, hi float64, enough func(float64) bool) float64 {
+	for hi/lo > 1+1e-3 {
+		mid := math.Sqrt(lo * hi)
+		if enough(mid) {
+			hi = mid
+		} else {
+			lo = mid
+		}
+	}
+	return hi
+}
+
+func cross(a, b [3]float64) [3]float64 {
+	return [3]float64{a[1]*b[2] - a[2]*b[1], a[2]*b[0] - a[0]*b[2], a[0]*b[1] - a[1]*b[0]}
+}
+
+func normalize(a [3]float64) [3]float64 {
+	n := math.Sqrt(dot(a, a))
+	return [3]float64{a[0] / n, a[1] / n, a[2] / n}
+}
+
+func dot(a, b [3]float64) float64 { return a[0]*b[0] + a[1]*b[1] + a[2]*b[2] }
+
+// Percentile is the p-quantile of sorted values, interpolated linearly
+// between the nearest ranks ((n−1)p, the usual definition of spreadsheet
+// and numerical packages' default).
+func Percentile(sorted []float64, p float64) float64 {
+	if len(sorted) == 0 {
+		return math.NaN()
+	}
+	h := p * float64(len(sorted)-1)
+	i := int(math.Floor(h))
+	if i+1 >= len(sorted) {
+		return sorted[len(sorted)-1]
+	}
+	a, b := sorted[i], sorted[i+1]
+	if math.IsInf(a, -1) || math.IsInf(b, -1) {
+		return a
+	}
+	return a + (h-float64(i))*(b-a)
+}
+
 // GoldenMax narrows the bracket [a, b] around a maximum of f by golden-
 // section search, one new evaluation per step, for at most steps steps or
 // until the bracket is no wider than tol; it returns the better of the two

@@ -7,6 +7,57 @@ import (
 	"gonum.org/v1/gonum/optimize"
 )
 
+// solveScale finds the least factor that reaches the target, within 0.1 %
+// and never below it: a power law (secant steps), a figure that is zero
+// until a threshold (the bisection fallback), and one out of reach.
+func TestSolveScale(t *testing.T) {
+	for _, c := range []struct {
+		name   string
+		metric func(float64) float64
+		target float64
+		want   float64
+	}{
+		{"k²", func(k float64) float64 { return k * k }, 9, 3},
+		{"√k", func(k float64) float64 { return math.Sqrt(k) }, 0.5, 0.25},
+		{"threshold", func(k float64) float64 {
+			if k < 2 {
+				return 0
+			}
+			return k - 2
+		}, 5, 7},
+	} {
+		k, ok := solveScale(c.metric, c.target, 1)
+		if !ok || c.metric(k) < c.target || k > c.want*(1+1e-3) {
+			t.Errorf("%s: k = %g (ok %v), want %g", c.name, k, ok, c.want)
+		}
+	}
+	if _, ok := solveScale(func(k float64) float64 { return 0 }, 1, 1); ok {
+		t.Error("an unreachable target was reached")
+	}
+}
+
+// Percentiles interpolate between the nearest ranks.
+func TestPercentile(t *testing.T) {
+	v := []float64{1, 2, 3, 4, 5}
+	if Percentile(v, 0.5) != 3 || Percentile(v, 0.25) != 2 || Percentile(v, 0.1) != 1.4 {
+		t.Errorf("percentiles %g %g %g", Percentile(v, 0.5), Percentile(v, 0.25), Percentile(v, 0.1))
+	}
+}
+
+// GoldenMax finds the maximum of x·e^(−x) at x = 1, value 1/e (by hand: the
+// derivative (1 − x)e^(−x) vanishes there), from a bracket that does not
+// centre it, to the width the steps allow.
+func TestGoldenMax(t *testing.T) {
+	x, v := GoldenMax(func(x float64) float64 { return x * math.Exp(-x) }, 0.2, 4, 60, 1e-9)
+	if math.Abs(x-1) > 1e-4 || math.Abs(v-1/math.E) > 1e-9 {
+		t.Errorf("maximum at %g, %g; want 1, 1/e", x, v)
+	}
+	// A step limit stops it early, the bracket still around the maximum.
+	if x, _ := GoldenMax(func(x float64) float64 { return -(x - 3) * (x - 3) }, 0, 10, 5, 0); math.Abs(x-3) > 10*math.Pow(0.618034, 5) {
+		t.Errorf("after 5 steps at %g, not within the bracket's width of 3", x)
+	}
+}
+
 // SimplexMin against a reference library: gonum's Nelder–Mead
 // (gonum.org/v1/gonum/optimize) and the minima known by hand, on a curved
 // valley, a Gaussian well tilted by a uniform force (the shape of a dipole
