@@ -1,6 +1,7 @@
 package budget
 
 import (
+	"beamledger/budget/optics"
 	"fmt"
 	"math"
 	"sort"
@@ -39,7 +40,7 @@ type Loss struct {
 type Row struct {
 	Element *Element
 	// BeamIn is the beam arriving at the element; BeamOut the beam leaving it.
-	BeamIn, BeamOut Beam
+	BeamIn, BeamOut optics.Beam
 	// FractionIn and FractionOut are the power arriving and leaving as
 	// fractions of the source's power.
 	FractionIn, FractionOut float64
@@ -69,10 +70,10 @@ type FiberCoupling struct {
 
 // Segment is free space between two points of a path.
 type Segment struct {
-	From, To float64 // positions along the path, m; To is +Inf past an open end
-	After    int     // index of the element it follows (0: the path start)
-	Beam     Beam    // at From
-	Fraction float64 // power in the segment, fraction of the source
+	From, To float64     // positions along the path, m; To is +Inf past an open end
+	After    int         // index of the element it follows (0: the path start)
+	Beam     optics.Beam // at From
+	Fraction float64     // power in the segment, fraction of the source
 	Access   Access
 	// Arrival marks the zero-length arrival of a joined beam at its
 	// combiner: its free space belongs to the path it came along.
@@ -102,7 +103,7 @@ type PathBudget struct {
 	// join (set on the path's own budget only).
 	Joined        []*PathBudget
 	StartFraction float64
-	Start         Beam
+	Start         optics.Beam
 	Rows          []Row
 	Segments      []Segment
 	// EndFraction is the power leaving the last element (for a path that
@@ -111,7 +112,7 @@ type PathBudget struct {
 	// OpenEnd is set when the path neither ends in a dump nor goes into a
 	// combiner.
 	OpenEnd bool
-	End     Beam // at the path's end (at the combiner for a path that goes into one)
+	End     optics.Beam // at the path's end (at the combiner for a path that goes into one)
 	// UnfollowedPorts lists splitters whose other port no path follows.
 	UnfollowedPorts []*Element
 
@@ -213,10 +214,10 @@ func Compute(s *Setup) (*Budget, error) {
 		var beams []*PathBudget
 		if p.Parent == nil {
 			las := p.Laser
-			beams = append(beams, &PathBudget{Path: p, Laser: las, StartFraction: 1, Start: Beam{
+			beams = append(beams, &PathBudget{Path: p, Laser: las, StartFraction: 1, Start: optics.Beam{
 				Wavelength: las.Wavelength,
-				X:          NewPlane(las.Waist[0], las.WaistAt[0], las.M2[0], las.Wavelength),
-				Y:          NewPlane(las.Waist[1], las.WaistAt[1], las.M2[1], las.Wavelength),
+				X:          optics.NewPlane(las.Waist[0], las.WaistAt[0], las.M2[0], las.Wavelength),
+				Y:          optics.NewPlane(las.Waist[1], las.WaistAt[1], las.M2[1], las.Wavelength),
 			}})
 		} else {
 			k := elementIndex(p.Parent, p.ParentPort)
@@ -366,7 +367,7 @@ func (pb *PathBudget) propagate(file string, followed map[*Element]*Path, clouds
 		// Clipping at the clear aperture (or the iris of an aperture element).
 		if clear := el.ClearAperture(); clear > 0 {
 			wx, wy := beam.Radii()
-			row.ClipFraction = CircleFraction(wx, wy, clear/2)
+			row.ClipFraction = optics.CircleFraction(wx, wy, clear/2)
 			if f := frac * (1 - row.ClipFraction); f > 0 {
 				row.Losses = append(row.Losses, Loss{LossClipping, f})
 			}
@@ -432,12 +433,12 @@ func (pb *PathBudget) checkJoinedDetuning(s *Setup) error {
 }
 
 // couple finds the fibre coupling at element e for the arriving beam.
-func (pb *PathBudget) couple(e *Element, beam Beam, lastLens int) *FiberCoupling {
+func (pb *PathBudget) couple(e *Element, beam optics.Beam, lastLens int) *FiberCoupling {
 	fc := &FiberCoupling{Overlap: math.NaN(), Alignment: 1}
 	if e.Coupling != nil {
 		fc.Coupling, fc.Given = *e.Coupling, true
 	} else {
-		fc.Overlap = FiberOverlap(beam, e.ModeFieldDiameter)
+		fc.Overlap = optics.FiberOverlap(beam, e.ModeFieldDiameter)
 		if e.Alignment != nil {
 			fc.Alignment = *e.Alignment
 		} else {
@@ -453,8 +454,8 @@ func (pb *PathBudget) couple(e *Element, beam Beam, lastLens int) *FiberCoupling
 			at = pb.Rows[lastLens].BeamIn
 			fc.LensAt = pb.Rows[lastLens].Element.At
 		}
-		fc.IdealFocalLength[0] = IdealCouplingFocalLength(at.X, at.Wavelength, e.ModeFieldDiameter/2)
-		fc.IdealFocalLength[1] = IdealCouplingFocalLength(at.Y, at.Wavelength, e.ModeFieldDiameter/2)
+		fc.IdealFocalLength[0] = optics.IdealCouplingFocalLength(at.X, at.Wavelength, e.ModeFieldDiameter/2)
+		fc.IdealFocalLength[1] = optics.IdealCouplingFocalLength(at.Y, at.Wavelength, e.ModeFieldDiameter/2)
 	}
 	return fc
 }

@@ -9,6 +9,9 @@ import (
 	"gonum.org/v1/gonum/unit/constant"
 
 	"beamledger/budget/atoms"
+	"beamledger/budget/numeric"
+	"beamledger/budget/optics"
+	"beamledger/budget/units"
 )
 
 // G is the gravitational acceleration used for the clouds, m/s² (the
@@ -123,7 +126,7 @@ type field struct {
 }
 
 type fieldBeam struct {
-	x, y     Plane // at the cloud
+	x, y     optics.Plane // at the cloud
 	λ, power float64
 	perI     float64 // U/I, J per W/m²
 	n, u, v  [3]float64
@@ -134,7 +137,7 @@ type fieldBeam struct {
 
 // intensity of a beam at r (cloud frame, m from the cloud), W/m².
 func (b *fieldBeam) intensity(r [3]float64) float64 {
-	s, a, c := dot(r, b.n), dot(r, b.u), dot(r, b.v)
+	s, a, c := numeric.Dot(r, b.n), numeric.Dot(r, b.u), numeric.Dot(r, b.v)
 	wx, wy := b.x.Propagate(s).Radius(b.λ), b.y.Propagate(s).Radius(b.λ)
 	return 2 * b.power / (math.Pi * wx * wy) * math.Exp(-2*a*a/(wx*wx)-2*c*c/(wy*wy))
 }
@@ -166,20 +169,20 @@ func LatticeFrequency(u0, λ, m float64) float64 { return 2 * math.Pi / λ * mat
 
 // V is the total potential at r, J: the beams' sum and gravity's −m g (r·down).
 func (f *field) V(r [3]float64) float64 {
-	u := -f.mass * G * dot(r, f.down)
+	u := -f.mass * G * numeric.Dot(r, f.down)
 	for i := range f.beams {
 		u += f.beams[i].potential(r)
 	}
 	return u
 }
 
-// scale is the field's natural length: its smallest beam radius at the
+// Scale is the field's natural length: its smallest beam radius at the
 // cloud, m; reach is how far the beams' influence goes: a few of their
 // longest Rayleigh ranges and radii, m.
 func (f *field) scale() (scale, reach float64) {
 	scale, reach = math.Inf(1), 0.0
 	for _, b := range f.beams {
-		for _, p := range []Plane{b.x, b.y} {
+		for _, p := range []optics.Plane{b.x, b.y} {
 			w := p.Radius(b.λ)
 			scale = math.Min(scale, w)
 			reach = math.Max(reach, 100*math.Max(w, math.Abs(p.RayleighRange())+math.Abs(p.WaistDistance())))
@@ -219,7 +222,7 @@ func (f *field) findTrap() Trap {
 	best, bestV := [3]float64{}, math.Inf(1)
 	for _, st := range starts {
 		r, ok := f.minimize(st, L, v0)
-		if !ok || math.Sqrt(dot(r, r)) > reach {
+		if !ok || math.Sqrt(numeric.Dot(r, r)) > reach {
 			continue
 		}
 		if v := f.V(r); v < bestV {
@@ -249,7 +252,7 @@ func (f *field) findTrap() Trap {
 		t.Frequencies[i] = math.Sqrt(vals[i]/f.mass) / (2 * math.Pi)
 		t.Axes[i] = signed([3]float64{vecs.At(0, i), vecs.At(1, i), vecs.At(2, i)})
 	}
-	if dot(f.down, f.down) > 0 {
+	if numeric.Dot(f.down, f.down) > 0 {
 		hd := 0.0
 		for i := range 3 {
 			for j := range 3 {
@@ -259,7 +262,7 @@ func (f *field) findTrap() Trap {
 		t.Sag = G * f.mass / hd
 	}
 	g := f.gradient([3]float64{}, L/100)
-	t.ForceAtCloud = math.Sqrt(dot(g, g)) / (f.mass * G)
+	t.ForceAtCloud = math.Sqrt(numeric.Dot(g, g)) / (f.mass * G)
 	// The lowest barrier along straight lines from the minimum: along and
 	// across every beam, along gravity and along the principal axes.
 	// Along a beam's own axis the atoms have escaped once they are beyond
@@ -283,7 +286,7 @@ func (f *field) findTrap() Trap {
 		}
 		rays = append(rays, ray{b.n, beyond}, ray{b.u, reach}, ray{b.v, reach})
 	}
-	if dot(f.down, f.down) > 0 {
+	if numeric.Dot(f.down, f.down) > 0 {
 		rays = append(rays, ray{f.down, reach})
 	}
 	for _, ax := range t.Axes {
@@ -295,7 +298,7 @@ func (f *field) findTrap() Trap {
 	// the nearer end: the lower of two barriers on one line.
 	for i := 0; i < len(rays); i++ {
 		for j := len(rays) - 1; j > i; j-- {
-			if math.Abs(dot(rays[i].d, rays[j].d)) > 1-1e-12 {
+			if math.Abs(numeric.Dot(rays[i].d, rays[j].d)) > 1-1e-12 {
 				rays[i].tmax = math.Min(rays[i].tmax, rays[j].tmax)
 				rays = slices.Delete(rays, j, j+1)
 			}
@@ -350,7 +353,7 @@ func (f *field) deepest(n int) []*fieldBeam {
 		out = append(out, &f.beams[i])
 	}
 	slices.SortStableFunc(out, func(a, b *fieldBeam) int {
-		return cmpFloat(a.potential(a.focusPoint()), b.potential(b.focusPoint()))
+		return numeric.CmpFloat(a.potential(a.focusPoint()), b.potential(b.focusPoint()))
 	})
 	return out[:min(n, len(out))]
 }
@@ -366,7 +369,7 @@ func (b *fieldBeam) focusPoint() [3]float64 {
 // the potential scale v0 (SimplexMin).
 func (f *field) minimize(start [3]float64, L, v0 float64) ([3]float64, bool) {
 	x0 := [3]float64{start[0] / L, start[1] / L, start[2] / L}
-	x, fx := SimplexMin(func(x [3]float64) float64 {
+	x, fx := numeric.SimplexMin(func(x [3]float64) float64 {
 		return f.V([3]float64{x[0] * L, x[1] * L, x[2] * L}) / v0
 	}, x0, 0.05, 1e-10, 40, 600)
 	return [3]float64{x[0] * L, x[1] * L, x[2] * L}, !math.IsNaN(fx)
@@ -420,7 +423,7 @@ func (f *field) barrier(r [3]float64, vmin float64, d [3]float64, t0, tmax float
 		t *= q
 	}
 	if best > 0 && best < n {
-		_, v := GoldenMax(at, t0*math.Pow(q, float64(best-1)), t0*math.Pow(q, float64(best+1)), 30, 0)
+		_, v := numeric.GoldenMax(at, t0*math.Pow(q, float64(best-1)), t0*math.Pow(q, float64(best+1)), 30, 0)
 		top = math.Max(top, v)
 	}
 	return top - vmin
@@ -460,7 +463,7 @@ func cloudResult(c *Cloud, drive []*AtomsResult, full bool) *CloudResult {
 		if a.Row.Element.Interference == "standing_wave" {
 			for k := len(prev) - 1; k >= 0; k-- {
 				f := prev[k]
-				if f.Atoms.Path == a.Path && dot(f.Direction, n) < -0.999 && f.Forward == nil {
+				if f.Atoms.Path == a.Path && numeric.Dot(f.Direction, n) < -0.999 && f.Forward == nil {
 					cb.Forward = f
 					break
 				}
@@ -537,7 +540,7 @@ func (cr *CloudResult) evaluate(scaled []*Laser, k float64, full bool) {
 				cr.hint = &m
 			}
 		}
-		if full && !t.Holds && dot(c.Down, c.Down) > 0 {
+		if full && !t.Holds && numeric.Dot(c.Down, c.Down) > 0 {
 			t.HoldsWithoutGravity = cr.fieldOf(scaled, k, false).findTrap().Holds
 		} else {
 			t.HoldsWithoutGravity = t.Holds
@@ -704,7 +707,7 @@ func (cr *CloudResult) goal() *CloudGoal {
 	if c.Goal == GoalRabi || c.Goal == GoalCollective {
 		γ = 0.5
 	}
-	hi, ok := solveScale(func(k float64) float64 { return cr.metric(g.Lasers, k) }, g.Target, γ)
+	hi, ok := numeric.SolveScale(func(k float64) float64 { return cr.metric(g.Lasers, k) }, g.Target, γ)
 	if !ok {
 		g.Impossible = fmt.Sprintf("even a million times the operating powers of %s does not reach it", laserNames(g.Lasers))
 		return g
@@ -713,7 +716,7 @@ func (cr *CloudResult) goal() *CloudGoal {
 	for _, las := range g.Lasers {
 		g.Needed = append(g.Needed, hi*las.OperatingPower)
 	}
-	g.MarginDB = -Decibels(hi)
+	g.MarginDB = -units.Decibels(hi)
 	g.Met = hi <= 1
 	return g
 }
@@ -751,10 +754,10 @@ func CloudFindings(clouds []*CloudResult) []Finding {
 			case !t.Holds && t.HoldsWithoutGravity:
 				out = append(out, Finding{Severity: SeverityAction, Kind: FindingNoHold, Message: fmt.Sprintf("%s: the far-detuned beams make a trap that does not hold against gravity (it would without it); raise their power or add confinement along gravity", where)})
 			case t.Holds:
-				off := math.Sqrt(dot(t.Minimum, t.Minimum))
+				off := math.Sqrt(numeric.Dot(t.Minimum, t.Minimum))
 				if rms := c.RMSAlong(normalizeOr(t.Minimum)); off > rms {
 					out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingTrapOffset, Message: fmt.Sprintf("%s: the trap minimum lies %s from the cloud's position (more than its rms size there, %s); the force at the cloud is %.3g g",
-						where, FormatLength(off), FormatLength(rms), t.ForceAtCloud)}.Figure(off, rms, "m"))
+						where, units.FormatLength(off), units.FormatLength(rms), t.ForceAtCloud)}.Figure(off, rms, "m"))
 				}
 			}
 		}
@@ -772,10 +775,10 @@ func CloudFindings(clouds []*CloudResult) []Finding {
 
 // normalizeOr is the unit vector along a, or z for the zero vector.
 func normalizeOr(a [3]float64) [3]float64 {
-	if dot(a, a) == 0 {
+	if numeric.Dot(a, a) == 0 {
 		return [3]float64{0, 0, 1}
 	}
-	return normalize(a)
+	return numeric.Normalize(a)
 }
 
 // trapDepthScale is the factor k on a single far-detuned beam's power at
@@ -803,7 +806,7 @@ func trapDepthScale(a *AtomsResult, depth float64) (k float64, why string) {
 		}
 		return t.Depth
 	}
-	k, ok := solveScale(at, depth, 1)
+	k, ok := numeric.SolveScale(at, depth, 1)
 	if !ok {
 		return 0, "even a million times the power makes no trap that deep against gravity"
 	}

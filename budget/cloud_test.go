@@ -7,6 +7,7 @@ import (
 	"testing"
 
 	"beamledger/budget/atoms"
+	"beamledger/budget/numeric"
 )
 
 // beamOn is a laser and a path putting its beam on cloud "c" along axis at
@@ -93,7 +94,7 @@ func TestCloudSingleBeamAgainstGrimm(t *testing.T) {
 			t.Errorf("frequency %d: %g Hz, want %g Hz", i, tr.Frequencies[i], want)
 		}
 	}
-	if off := math.Sqrt(dot(tr.Minimum, tr.Minimum)); off > 1e-7 {
+	if off := math.Sqrt(numeric.Dot(tr.Minimum, tr.Minimum)); off > 1e-7 {
 		t.Errorf("minimum %g m from the focus", off)
 	}
 }
@@ -255,7 +256,7 @@ func TestCloudNearResonantTotals(t *testing.T) {
 }
 
 // The excited state's shift per intensity for a polarizability in atomic
-// units: U/I = −α/(2 ε0 c) (Grimm et al. (2000), eq. (2)); for the ground
+// Units: U/I = −α/(2 ε0 c) (Grimm et al. (2000), eq. (2)); for the ground
 // state of Rb at 1064 nm, α ≈ 687 a.u. (Safronova, Arora and Clark, PRA 73,
 // 022505 (2006), from memory), the same expression must give the dipole
 // potential per intensity within 3 % (the core is not modelled there).

@@ -31,31 +31,14 @@
 //
 //	| quantity | expression | source | function | test |
 //	| --- | --- | --- | --- | --- |
-//	| beam radius W(z) | 1/q = 1/R − i M²λ/(πW²) | Saleh & Teich (2007) eqs. (3.1-8)–(3.1-19); Siegman (1986) §17.4 | Plane.Radius | TestPlaneTextbookHeNe |
-//	| Rayleigh range | z_R = πW0²/(M²λ) | Saleh & Teich (2007) eq. (3.1-11) | Plane.RayleighRange | ExampleNewPlane |
-//	| far-field half-angle | θ = M²λ/(πW0) | Saleh & Teich (2007) eq. (3.1-19) | Plane.Divergence | TestPlaneTextbookHeNe |
-//	| thin lens | ABCD (1, 0; −1/f, 1) | Self, Appl. Opt. 22, 658 (1983) | Plane.Lens | TestLensSelf1983 |
-//	| plate focus shift | t(1 − 1/n) | Siegman (1986) §15.1 | Beam.Slab | TestSlabFocusShift |
-//	| peak irradiance | I₀ = 2P/(π Wx Wy) | Siegman (1986) §17.1 | Beam.PeakIrradiance | ExampleBeam_PeakIrradiance |
-//	| power for a peak irradiance | P = I₀ π Wx Wy / 2 | Siegman (1986) §17.1 | Beam.PowerForPeakIrradiance | TestPeakIrradiance |
-//	| paraxial bound | θ ≤ 0.5 rad | Siegman (1986) §16.1 (common practice) | Beam.HalfAngle | TestBeamValidity |
-//	| clipped fraction | ∬ over a centred circle of an elliptical Gaussian | 1 − exp(−2a²/W²); gonum quadrature | CircleFraction | TestCircleFractionEllipticalQuadrature |
-//	| fibre mode overlap | Marcuse overlap per plane, GSM lowest mode 2/(M²+1) | Marcuse (1977); Starikov & Wolf (1982) | ModeOverlap1D | TestModeOverlapGSMLowestMode |
-//	| fibre coupling of a beam | product of the x and y overlaps | Marcuse (1977) | FiberOverlap | TestFiberOverlapRoundMarcuse |
-//	| ideal coupling lens | f matching the mode to the beam | Marcuse (1977), thin lens | IdealCouplingFocalLength | TestIdealCouplingFocalLength |
-//	| fibre output waist | W = λf/(π MFD/2) | Gaussian far field, common practice | FiberOutputWaist | TestFiberOutputWaist |
 //	| axial curvature of I | κ = g''/g, g = 1/(Wx Wy) | Siegman (1986) §17.1 (κ = −2/z_R² at a focus) | axialCurvature | TestAxialTrapFrequencyAtAndOffFocus |
 //	| light frequency | ν = c/λ + AOM shifts | CODATA c; Steck Rb-87 table 3 | LightFrequency | TestLightFrequency |
 //	| default viewing duration | 0.25 s in 400–700 nm, else 10 s | IEC 60825-1:2014 (from memory) | DefaultViewingDuration | TestDefaultViewingDuration |
-//	| loss in dB | 10 log10(ratio) | common practice | Decibels | TestDecibels |
 //	| standing-wave depth | sign · (√U₁ + √U₂)², magnitudes | Grimm et al. (2000) §4.1 | StandingWavePotential | TestCloudStandingWave |
 //	| lattice frequency | ω = (2π/λ) √(2U/m) | Grimm et al. (2000) eq. (40) | LatticeFrequency | TestCloudStandingWave |
 //	| excited-state light shift | U/I = −α/(2 ε0 c), α in a.u. × 4π ε0 a0³ | Grimm et al. (2000) eq. (2) | ExcitedShiftPerIntensity | TestExcitedShiftPerIntensity |
 //	| multi-beam scattering | (Γ/2) s_i/(1 + s_total + 4Δ²/Γ²) | rate equations, common practice | MultiBeamScattering | TestCloudNearResonantTotals |
 //	| beam axes in the cloud frame | x plane ∋ first cloud axis not along the beam | our convention | BeamAxes | TestBeamAxes |
 //	| cloud rms along a direction | √Σ dᵢ² σᵢ² | Gaussian cloud | Cloud.RMSAlong | TestBeamAxes |
-//	| percentile of samples | linear between ranks at (n−1)p | common practice (numerical packages' default) | Percentile | TestPercentile |
 //	| goal probability | share of Monte Carlo samples with margin ≥ 0 | uniform: (b − η*)/(b − a); normal: Φ((μ − η*)/σ), gonum distuv | Tolerances | TestToleranceUniformProbability |
-//	| pulse energy | Q = P/f | definition of the average power, common practice | PulseEnergy | ExamplePulseEnergy |
-//	| pulse peak power | P_peak = Q/τ (rectangular pulse) | common practice | PulsePeakPower | ExamplePulseEnergy |
 package budget

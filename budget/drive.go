@@ -5,6 +5,8 @@ import (
 	"math"
 
 	"beamledger/budget/atoms"
+	"beamledger/budget/optics"
+	"beamledger/budget/units"
 )
 
 // FarDetuningFactor: a beam counts as far detuned when its detuning from
@@ -226,7 +228,7 @@ func (b *Budget) atomsAt(pb *PathBudget, r *Row, c *Cloud, full bool) *AtomsResu
 // difference on the scale of the shorter Rayleigh range. At the focus of a
 // round beam, W² = W0²(1 + z²/z_R²) (Siegman, Lasers (1986), §17.1) gives
 // κ = −2/z_R²; off it, (6u² − 2)/((1 + u²)² z_R²) with u = z/z_R.
-func axialCurvature(beam Beam) float64 {
+func axialCurvature(beam optics.Beam) float64 {
 	h := 1e-3 * math.Min(beam.X.RayleighRange(), beam.Y.RayleighRange())
 	g := func(z float64) float64 {
 		x, y := beam.RadiiAt(z)
@@ -303,7 +305,7 @@ func detuningProblem(las *Laser, e *Element, shift float64, tr *atoms.Transition
 	ν := LightFrequency(las, shift)
 	if !(ν > 0) {
 		return fmt.Sprintf("the AOM shifts (%s in all) take laser %q at %s to a frequency of %s, which is not positive",
-			FormatFrequency(shift), las.Name, FormatLength(las.Wavelength), FormatFrequency(ν))
+			units.FormatFrequency(shift), las.Name, units.FormatLength(las.Wavelength), units.FormatFrequency(ν))
 	}
 	Δ, source := detuningAt(las, e, shift, tr)
 	if source == DetuningFromWavelengths {
@@ -313,7 +315,7 @@ func detuningProblem(las *Laser, e *Element, shift float64, tr *atoms.Transition
 	stated := ν0 + Δ/(2*math.Pi)
 	if diff := math.Abs(stated - ν); diff > DetuningTolerance*ν0 {
 		return fmt.Sprintf("the stated detuning (%s) puts the light at %s, %s from %s, but laser %q at %s (with %s of AOM shifts) is at %s; they differ by %s, more than the %.1f %% of the transition frequency allowed; correct the wavelength or the detuning",
-			source, FormatFrequency(stated), FormatFrequency(Δ/(2*math.Pi)), tr.Name, las.Name, FormatLength(las.Wavelength), FormatFrequency(shift), FormatFrequency(ν), FormatFrequency(diff), 100*DetuningTolerance)
+			source, units.FormatFrequency(stated), units.FormatFrequency(Δ/(2*math.Pi)), tr.Name, las.Name, units.FormatLength(las.Wavelength), units.FormatFrequency(shift), units.FormatFrequency(ν), units.FormatFrequency(diff), 100*DetuningTolerance)
 	}
 	return ""
 }
@@ -324,7 +326,7 @@ func (b *Budget) goal(a *AtomsResult, e *Element, full bool) *GoalResult {
 	g := &GoalResult{Kind: e.Goal, Available: a.Path.Laser.OperatingPower, Factor: 1}
 	if a.NearLine != "" {
 		g.Impossible = fmt.Sprintf("the light is %s from the line %s, within %d of its linewidths; neither the far-detuned dipole formula nor the two-level figures of %s apply there",
-			FormatFrequency(a.NearLineDetuning/(2*math.Pi)), a.NearLine, FarDetuningFactor, tr.Name)
+			units.FormatFrequency(a.NearLineDetuning/(2*math.Pi)), a.NearLine, FarDetuningFactor, tr.Name)
 	}
 	switch e.Goal {
 	case GoalSaturation:
@@ -338,7 +340,7 @@ func (b *Budget) goal(a *AtomsResult, e *Element, full bool) *GoalResult {
 		switch {
 		case g.Impossible != "":
 		case !a.FarDetuned:
-			g.Impossible = fmt.Sprintf("the beam is %s from the transition, not far detuned (more than %d Γ); the trap-depth formula does not apply", FormatFrequency(a.Detuning/(2*math.Pi)), FarDetuningFactor)
+			g.Impossible = fmt.Sprintf("the beam is %s from the transition, not far detuned (more than %d Γ); the trap-depth formula does not apply", units.FormatFrequency(a.Detuning/(2*math.Pi)), FarDetuningFactor)
 		case a.Dipole.PerIntensity >= 0:
 			g.Impossible = "the beam is blue detuned: a single beam repels the atoms and makes no trap"
 		case !(a.Row.FractionIn > 0):
@@ -394,7 +396,7 @@ func (b *Budget) goal(a *AtomsResult, e *Element, full bool) *GoalResult {
 	}
 	g.PowerAtAtoms = a.Row.BeamIn.PowerForPeakIrradiance(g.Intensity)
 	g.SourcePower = g.PowerAtAtoms / a.Row.FractionIn
-	g.MarginDB = Decibels(g.Available / g.SourcePower)
+	g.MarginDB = units.Decibels(g.Available / g.SourcePower)
 	g.Met = g.Available >= g.SourcePower
 	return g
 }
@@ -422,23 +424,23 @@ func DriveFindings(results []*AtomsResult) []Finding {
 				out = append(out, Finding{Severity: SeverityAction, Kind: FindingGoalImpossible, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: goal %s cannot be met: %s", where, g.Kind, g.Impossible)})
 			case !g.Met:
 				out = append(out, Finding{Severity: SeverityAction, Kind: FindingGoalShort, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: goal %s is short by %.1f dB at the laser: it needs %s from laser %q, whose operating power is %s",
-					where, g.Kind, -g.MarginDB, FormatPower(g.SourcePower), a.Path.Laser.Name, FormatPower(g.Available))}.Figure(g.Available, g.SourcePower, "W"))
+					where, g.Kind, -g.MarginDB, units.FormatPower(g.SourcePower), a.Path.Laser.Name, units.FormatPower(g.Available))}.Figure(g.Available, g.SourcePower, "W"))
 			}
 			if g.Kind == GoalCollective && math.Abs(a.Detuning) > a.Transition.Gamma/2 {
 				out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingCollectiveDetune, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the drive is %s from resonance (more than Γ/2); the collective threshold model assumes a resonant drive",
-					where, FormatFrequency(a.Detuning/(2*math.Pi)))})
+					where, units.FormatFrequency(a.Detuning/(2*math.Pi)))})
 			}
 		}
 		switch {
 		case a.NearLine != "" && a.Goal == nil:
 			out = append(out, Finding{Severity: SeverityAction, Kind: FindingNearOtherLine, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the light is %s from the line %s, within %d of its linewidths; the drive there is not evaluated (neither the far-detuned dipole formula nor the two-level figures of %s apply)",
-				where, FormatFrequency(a.NearLineDetuning/(2*math.Pi)), a.NearLine, FarDetuningFactor, a.Transition.Name)})
+				where, units.FormatFrequency(a.NearLineDetuning/(2*math.Pi)), a.NearLine, FarDetuningFactor, a.Transition.Name)})
 		case !(a.Power > 0) && a.Goal == nil:
 			out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingNoLight, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: %s", where, NoLightAtAtoms)})
 		}
 		if a.DetuningSource == DetuningFromWavelengths && !a.FarDetuned && a.NearLine == "" {
 			out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingDetuningGuess, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the detuning %s comes from the wavelengths, which are not precise enough near resonance; state detuning on laser %q",
-				where, FormatFrequency(a.Detuning/(2*math.Pi)), a.Path.Laser.Name)})
+				where, units.FormatFrequency(a.Detuning/(2*math.Pi)), a.Path.Laser.Name)})
 		}
 	}
 	return out

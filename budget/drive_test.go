@@ -7,6 +7,7 @@ import (
 	"testing"
 
 	"beamledger/budget/atoms"
+	"beamledger/budget/optics"
 )
 
 func demoDrive(t *testing.T) []*AtomsResult {
@@ -335,7 +336,7 @@ func TestStatedDetuningAgainstWavelengths(t *testing.T) {
 func TestAxialTrapFrequencyAtAndOffFocus(t *testing.T) {
 	const w0, λ, u0, m = 25e-6, 1064e-9, 1e-27, 1.443160648e-25
 	zR := math.Pi * w0 * w0 / λ
-	focus := Beam{Wavelength: λ, X: NewPlane(w0, 0, 1, λ), Y: NewPlane(w0, 0, 1, λ)}
+	focus := optics.Beam{Wavelength: λ, X: optics.NewPlane(w0, 0, 1, λ), Y: optics.NewPlane(w0, 0, 1, λ)}
 	for _, tc := range []struct {
 		name string
 		z    float64 // distance of the atoms past the focus, m

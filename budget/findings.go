@@ -1,6 +1,8 @@
 package budget
 
 import (
+	"beamledger/budget/optics"
+	"beamledger/budget/units"
 	"fmt"
 	"math"
 )
@@ -102,15 +104,15 @@ func (b *Budget) Findings() []Finding {
 					w := math.Max(wx, wy)
 					if clipped := r.FractionIn * (1 - r.ClipFraction) * max; clipped >= ClippedPowerAction {
 						out = append(out, Finding{Severity: SeverityAction, Kind: FindingClippedPower, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: up to %s (%.1f %% of the arriving beam, at the laser's maximum power) falls outside its %s clear aperture onto the mount or iris; that much absorbed power can burn, melt or start a fire: enlarge the aperture, or make the part a rated dump",
-							where, FormatPower(clipped), 100*(1-r.ClipFraction), FormatLength(clear))}.Figure(clipped, ClippedPowerAction, "W"))
+							where, units.FormatPower(clipped), 100*(1-r.ClipFraction), units.FormatLength(clear))}.Figure(clipped, ClippedPowerAction, "W"))
 					} else if clear < ClearApertureFactor*w {
 						out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingClipping, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: clear aperture %s is under π·W = %s for the beam there; %.2f %% of the power is clipped (included in the budget; diffraction from the edge is not modelled)",
-							where, FormatLength(clear), FormatLength(ClearApertureFactor*w), 100*(1-r.ClipFraction))}.Figure(clear, ClearApertureFactor*w, "m"))
+							where, units.FormatLength(clear), units.FormatLength(ClearApertureFactor*w), 100*(1-r.ClipFraction))}.Figure(clear, ClearApertureFactor*w, "m"))
 					}
 				}
 				if !r.BeamOut.Paraxial() {
 					out = append(out, Finding{Severity: SeverityAction, Kind: FindingNotParaxial, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the beam leaving it diverges at a half-angle of %.3g rad, past the %g rad the Gaussian beam model holds to; the figures after it are not reliable (check the focal lengths and distances, or the optic's real aperture)",
-						where, r.BeamOut.HalfAngle(), MaxParaxialAngle)}.Figure(r.BeamOut.HalfAngle(), MaxParaxialAngle, "rad"))
+						where, r.BeamOut.HalfAngle(), optics.MaxParaxialAngle)}.Figure(r.BeamOut.HalfAngle(), optics.MaxParaxialAngle, "rad"))
 				}
 				if r.Fiber != nil && !r.Fiber.Given && r.Fiber.Overlap < PoorModeOverlap {
 					out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingModeMatch, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: mode overlap with the fibre is only %.1f %%; the coupling optics do not match the beam to the mode (ideal coupling-lens focal length %s)",
@@ -121,7 +123,7 @@ func (b *Budget) Findings() []Finding {
 				r := pb.row(e)
 				pw := r.FractionIn * r.ClipFraction * (1 - *e.For(pb.Laser).Transmission) * max
 				out = append(out, Finding{Severity: SeverityAction, Kind: FindingUnfollowed, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("element %d (%s%s): up to %s leaves the other port and no path follows it; describe where it goes (a path from %q) or block it",
-					e.Index, e.Label(), beamNote, FormatPower(pw), p.Name+":"+e.Name)})
+					e.Index, e.Label(), beamNote, units.FormatPower(pw), p.Name+":"+e.Name)})
 			}
 		}
 		// A dump and an open end receive every beam on the path.
@@ -141,9 +143,9 @@ func (b *Budget) Findings() []Finding {
 			}
 			where := fmt.Sprintf("element %d (%s)", e.Index, e.Label())
 			if e.Rating == 0 {
-				out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingDumpUnrated, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: no rating stated; it receives up to %s at %s maximum power", where, FormatPower(pw), maxWord)})
+				out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingDumpUnrated, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: no rating stated; it receives up to %s at %s maximum power", where, units.FormatPower(pw), maxWord)})
 			} else if pw > e.Rating {
-				out = append(out, Finding{Severity: SeverityAction, Kind: FindingDumpRating, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: receives up to %s at %s maximum power, above its rating of %s", where, FormatPower(pw), maxWord, FormatPower(e.Rating))}.Figure(pw, e.Rating, "W"))
+				out = append(out, Finding{Severity: SeverityAction, Kind: FindingDumpRating, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: receives up to %s at %s maximum power, above its rating of %s", where, units.FormatPower(pw), maxWord, units.FormatPower(e.Rating))}.Figure(pw, e.Rating, "W"))
 			}
 		}
 		if own.OpenEnd {
@@ -155,7 +157,7 @@ func (b *Budget) Findings() []Finding {
 			for _, pb := range own.Beams() {
 				pw += pb.EndFraction * pb.Laser.Power
 			}
-			out = append(out, Finding{Severity: SeverityAction, Kind: FindingOpenEnd, Path: p.Name, Element: 0, At: at, Message: fmt.Sprintf("the path ends without a dump: up to %s leaves it at %s; end it in a rated dump", FormatPower(pw), FormatLength(at))})
+			out = append(out, Finding{Severity: SeverityAction, Kind: FindingOpenEnd, Path: p.Name, Element: 0, At: at, Message: fmt.Sprintf("the path ends without a dump: up to %s leaves it at %s; end it in a rated dump", units.FormatPower(pw), units.FormatLength(at))})
 		}
 	}
 	for _, las := range b.Setup.Lasers {
@@ -174,7 +176,7 @@ func formatFocalPair(f [2]float64) string {
 		if math.IsNaN(v) {
 			return "none (expand the beam first)"
 		}
-		return FormatLength(v)
+		return units.FormatLength(v)
 	}
 	if f[0] == f[1] || (math.IsNaN(f[0]) && math.IsNaN(f[1])) || math.Abs(f[0]-f[1]) < 1e-3*math.Abs(f[0]) {
 		return show(f[0])

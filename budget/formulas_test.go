@@ -18,6 +18,9 @@ import (
 func TestFormulaIndex(t *testing.T) {
 	docs := map[string]string{ // package directory → file holding its doc
 		".":         "doc.go",
+		"units":     "doc.go",
+		"numeric":   "doc.go",
+		"optics":    "doc.go",
 		"atoms":     "transitions.go",
 		"../limits": "doc.go",
 		"../safety": "doc.go",

@@ -1,6 +1,9 @@
 package budget
 
-import "math"
+import (
+	"beamledger/budget/numeric"
+	"math"
+)
 
 // The cloud frame. A cloud's rms_size = [x, y, z] are its axes; an atoms
 // element's beam runs along Direction in that frame. The beam's own x plane
@@ -14,13 +17,13 @@ import "math"
 // frame for a beam running along the unit vector n.
 func BeamAxes(n [3]float64) (u, v [3]float64) {
 	for _, e := range [][3]float64{{1, 0, 0}, {0, 1, 0}, {0, 0, 1}} {
-		if math.Abs(dot(e, n)) < 0.9 {
-			d := dot(e, n)
-			u = normalize([3]float64{e[0] - d*n[0], e[1] - d*n[1], e[2] - d*n[2]})
+		if math.Abs(numeric.Dot(e, n)) < 0.9 {
+			d := numeric.Dot(e, n)
+			u = numeric.Normalize([3]float64{e[0] - d*n[0], e[1] - d*n[1], e[2] - d*n[2]})
 			break
 		}
 	}
-	return u, cross(n, u)
+	return u, numeric.Cross(n, u)
 }
 
 // RMSAlong is the cloud's rms size along the unit vector d, m: √Σ dᵢ² σᵢ²

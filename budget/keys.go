@@ -5,6 +5,7 @@ import (
 	"sync"
 
 	"beamledger/budget/atoms"
+	"beamledger/budget/units"
 )
 
 // The setup format's key table: every table of a setup file, every key it
@@ -38,7 +39,7 @@ type KeySpec struct {
 	Kind ValueKind
 	// Dims are the dimensions a quantity may have (most have one;
 	// damage_threshold two, goal_value one per goal).
-	Dims []Dimension
+	Dims []units.Dimension
 	// Enum lists a choice's values.
 	Enum []string
 	// Min and Max bound a bare number (both zero: unbounded).
@@ -113,12 +114,12 @@ var (
 	SaturationValues   = []string{SaturationCycling, SaturationIsotropic}
 )
 
-func quantity(key string, dim Dimension, required bool, doc, example string) KeySpec {
-	return KeySpec{Key: key, Kind: ValQuantity, Dims: []Dimension{dim}, Required: required, Doc: doc, Example: example}
+func quantity(key string, dim units.Dimension, required bool, doc, example string) KeySpec {
+	return KeySpec{Key: key, Kind: ValQuantity, Dims: []units.Dimension{dim}, Required: required, Doc: doc, Example: example}
 }
 
 func number(key string, min, max float64, required bool, doc, example string) KeySpec {
-	return KeySpec{Key: key, Kind: ValQuantity, Dims: []Dimension{Dimensionless}, Min: min, Max: max, Required: required, Doc: doc, Example: example}
+	return KeySpec{Key: key, Kind: ValQuantity, Dims: []units.Dimension{units.Dimensionless}, Min: min, Max: max, Required: required, Doc: doc, Example: example}
 }
 
 func choice(key string, values []string, required bool, doc, example string) KeySpec {
@@ -136,7 +137,7 @@ var nameKey = KeySpec{Key: "name", Kind: ValName, Required: true, Doc: "the name
 // goalKeys are the keys of a drive goal, on an atoms element or a cloud.
 var goalKeys = []KeySpec{
 	choice("goal", GoalKinds, false, "the drive goal: the collective-emission threshold, a saturation parameter, a Rabi frequency or a trap depth", `"trap_depth"`),
-	{Key: "goal_value", Kind: ValQuantity, Dims: []Dimension{Dimensionless, Frequency, Temperature}, With: []string{"goal"}, Doc: "the goal's value: s for saturation, Ω/2π for rabi, U/k_B for trap_depth (none for collective)", Example: `"0.5 mK"`},
+	{Key: "goal_value", Kind: ValQuantity, Dims: []units.Dimension{units.Dimensionless, units.Frequency, units.Temperature}, With: []string{"goal"}, Doc: "the goal's value: s for saturation, Ω/2π for rabi, U/k_B for trap_depth (none for collective)", Example: `"0.5 mK"`},
 	with(number("goal_factor", 0, 0, false, "collective: the multiple of the threshold drive to reach", "1.5"), "goal="+GoalCollective),
 }
 
@@ -155,21 +156,21 @@ var SetupTables = []*TableSpec{
 		text("site", false, "where the table stands", `"Example Institute, room 2.14"`),
 		text("prepared_by", false, "who prepared the setup", `"R. Example"`),
 		text("revision", false, "the setup's revision", `"draft 3"`),
-		quantity("exposure", Time, false, "the viewing duration for every wavelength (default: 0.25 s in 400–700 nm, 10 s elsewhere)", `"10 s"`),
+		quantity("exposure", units.Time, false, "the viewing duration for every wavelength (default: 0.25 s in 400–700 nm, 10 s elsewhere)", `"10 s"`),
 		with(text("exposure_reason", false, "why a viewing duration shorter than the default is accepted (required for one)", `"shutter interlock closes within 0.1 s"`), "exposure"),
 	}},
 	{Name: "laser", Path: "[[laser]]", Doc: "a source", Keys: []KeySpec{
 		nameKey,
-		quantity("wavelength", Length, true, "the vacuum wavelength", `"780.24 nm"`),
-		quantity("power", Power, true, "the most the source can emit: the hazards use it", `"1.5 W"`),
-		quantity("operating_power", Power, false, "the power the drive budget assumes (default: power)", `"1.1 W"`),
-		{Key: "waist", Kind: ValPair, Dims: []Dimension{Length}, Required: true, Doc: "1/e² intensity radius at the waist, one value or [x, y]", Example: `["1.1 mm", "0.6 mm"]`},
-		{Key: "m2", Kind: ValPair, Dims: []Dimension{Dimensionless}, Min: 1, Doc: "beam quality M², one value or [x, y] (default 1)", Example: `[1.6, 1.3]`},
-		{Key: "waist_at", Kind: ValPair, Dims: []Dimension{Length}, Doc: "where the waist lies from the output, one value or [x, y] (default 0)", Example: `["0 mm", "60 mm"]`},
+		quantity("wavelength", units.Length, true, "the vacuum wavelength", `"780.24 nm"`),
+		quantity("power", units.Power, true, "the most the source can emit: the hazards use it", `"1.5 W"`),
+		quantity("operating_power", units.Power, false, "the power the drive budget assumes (default: power)", `"1.1 W"`),
+		{Key: "waist", Kind: ValPair, Dims: []units.Dimension{units.Length}, Required: true, Doc: "1/e² intensity radius at the waist, one value or [x, y]", Example: `["1.1 mm", "0.6 mm"]`},
+		{Key: "m2", Kind: ValPair, Dims: []units.Dimension{units.Dimensionless}, Min: 1, Doc: "beam quality M², one value or [x, y] (default 1)", Example: `[1.6, 1.3]`},
+		{Key: "waist_at", Kind: ValPair, Dims: []units.Dimension{units.Length}, Doc: "where the waist lies from the output, one value or [x, y] (default 0)", Example: `["0 mm", "60 mm"]`},
 		choice("emission", EmissionValues, false, "continuous or pulsed (default cw)", `"cw"`),
-		with(quantity("pulse_duration", Time, false, "pulsed: the pulse duration", `"7 ns"`), "emission="+EmissionPulsed, "repetition_rate"),
-		with(quantity("repetition_rate", Frequency, false, "pulsed: the repetition rate", `"10 Hz"`), "emission="+EmissionPulsed, "pulse_duration"),
-		quantity("detuning", Frequency, false, "the laser frequency minus the driven transition's", `"80 MHz"`),
+		with(quantity("pulse_duration", units.Time, false, "pulsed: the pulse duration", `"7 ns"`), "emission="+EmissionPulsed, "repetition_rate"),
+		with(quantity("repetition_rate", units.Frequency, false, "pulsed: the repetition rate", `"10 Hz"`), "emission="+EmissionPulsed, "pulse_duration"),
+		quantity("detuning", units.Frequency, false, "the laser frequency minus the driven transition's", `"80 MHz"`),
 	}, Needs: []Requirement{
 		{If: "emission", Is: EmissionPulsed, AnyOf: []string{"pulse_duration"}, Why: "a pulsed source needs its pulse duration"},
 		{If: "emission", Is: EmissionPulsed, AnyOf: []string{"repetition_rate"}, Why: "a pulsed source needs its repetition rate"},
@@ -179,7 +180,7 @@ var SetupTables = []*TableSpec{
 		text("from", true, `a laser, or "<path>:<splitter name>" for a splitter's other port`, `"repump"`),
 		choice("access", AccessValues, false, "the first segment: open (default), enclosed or in vacuum", `"enclosed"`),
 		with(text("into", false, `"<path>:<combiner name>": the path ends at that combiner`, `"cool:pbs"`), "into_at"),
-		with(quantity("into_at", Length, false, "with into: the free-space distance from the path's start to the combiner", `"350 mm"`), "into"),
+		with(quantity("into_at", units.Length, false, "with into: the free-space distance from the path's start to the combiner", `"350 mm"`), "into"),
 		{Key: "element", Kind: ValTables, Table: "element", Doc: "the path's elements, in order", Example: `[{ type = "lens", at = "100 mm", focal_length = "50 mm" }]`},
 	}, Needs: []Requirement{
 		{If: "into", AnyOf: []string{"into_at"}, Why: "a path into a combiner needs its distance to it"},
@@ -187,29 +188,29 @@ var SetupTables = []*TableSpec{
 	{Name: "element", Path: "[[path.element]]", Doc: "an optic, cloud or dump along a path; its type decides which other keys it takes", Keys: []KeySpec{
 		{Key: "type", Kind: ValChoice, Required: true, Doc: "the element type", Example: `"lens"`},
 		{Key: "name", Kind: ValName, Doc: "a name (required for splitters and combiners, which other paths refer to)", Example: `"pick"`},
-		quantity("at", Length, true, "free-space distance from the start of the path", `"300 mm"`),
-		quantity("aperture", Length, false, "clear aperture diameter", `"25 mm"`),
+		quantity("at", units.Length, true, "free-space distance from the start of the path", `"300 mm"`),
+		quantity("aperture", units.Length, false, "clear aperture diameter", `"25 mm"`),
 		fractionKey("transmission", "the fraction passed on (a splitter: sent on along this path)", "0.99"),
 		choice("access", AccessValues, false, "the segment after this element: open, enclosed or in vacuum", `"vacuum"`),
 		fractionKey("surface_reflectance", "the reflectance of each surface, for stray reflections (default 0.04, uncoated)", "0.005"),
-		{Key: "damage_threshold", Kind: ValQuantity, Dims: []Dimension{LinearPowerDensity, RadiantExposure}, Doc: "the optic's damage threshold: a linear power density (cw) or a radiant exposure (pulsed)", Example: `"5 kW/cm"`},
-		quantity("damage_pulse_duration", Time, false, "with a radiant-exposure damage threshold: the pulse duration it was measured at", `"10 ns"`),
+		{Key: "damage_threshold", Kind: ValQuantity, Dims: []units.Dimension{units.LinearPowerDensity, units.RadiantExposure}, Doc: "the optic's damage threshold: a linear power density (cw) or a radiant exposure (pulsed)", Example: `"5 kW/cm"`},
+		quantity("damage_pulse_duration", units.Time, false, "with a radiant-exposure damage threshold: the pulse duration it was measured at", `"10 ns"`),
 	}},
 	{Name: "cloud", Path: "[[cloud]]", Doc: "an atom cloud, driven by the atoms elements that name it", Keys: append([]KeySpec{
 		nameKey,
 		{Key: "transition", Kind: ValChoice, Required: true, Doc: `the driven transition: built in, or "custom" with wavelength and linewidth`, Example: `"Rb87 D2"`},
 		number("atoms", 0, 0, true, "the number of atoms", "2.0e4"),
-		{Key: "rms_size", Kind: ValTriple, Dims: []Dimension{Length}, Required: true, Doc: "rms sizes along the cloud's x, y and z axes", Example: `["6 um", "6 um", "150 um"]`},
+		{Key: "rms_size", Kind: ValTriple, Dims: []units.Dimension{units.Length}, Required: true, Doc: "rms sizes along the cloud's x, y and z axes", Example: `["6 um", "6 um", "150 um"]`},
 		choice("saturation", SaturationValues, false, "which saturation intensity: the cycling transition's (default) or the isotropic one", `"cycling"`),
-		quantity("collective_rate", Frequency, false, "the collective decay rate, when known (default: estimated from the optical depth)", `"2 MHz"`),
+		quantity("collective_rate", units.Frequency, false, "the collective decay rate, when known (default: estimated from the optical depth)", `"2 MHz"`),
 		choice("down", DownValues, false, `gravity's direction in the cloud's frame (default "-y")`, `"-y"`),
 		{Key: "excited_polarizability", Kind: ValByLaser, Doc: "the excited state's polarizability at each trap laser's wavelength, atomic units", Example: `{ trap = -1200 }`},
 	}, append(slices.Clone(goalKeys),
 		KeySpec{Key: "goal_lasers", Kind: ValNames, With: []string{"goal"}, Doc: "the lasers whose power the cloud's goal scales", Example: `["trap"]`},
-		with(quantity("wavelength", Length, false, "custom transition: its wavelength", `"671 nm"`), "transition=custom", "linewidth"),
-		with(quantity("linewidth", Frequency, false, "custom transition: its linewidth Γ/2π", `"5.87 MHz"`), "transition=custom", "wavelength"),
-		with(quantity("saturation_intensity", Irradiance, false, "custom transition: its saturation intensity (default: the two-level value)", `"2.54 mW/cm2"`), "transition=custom", "wavelength", "linewidth"),
-		with(quantity("mass", Mass, false, "custom transition: the atom's mass", `"6.015 u"`), "transition=custom", "wavelength", "linewidth"),
+		with(quantity("wavelength", units.Length, false, "custom transition: its wavelength", `"671 nm"`), "transition=custom", "linewidth"),
+		with(quantity("linewidth", units.Frequency, false, "custom transition: its linewidth Γ/2π", `"5.87 MHz"`), "transition=custom", "wavelength"),
+		with(quantity("saturation_intensity", units.Irradiance, false, "custom transition: its saturation intensity (default: the two-level value)", `"2.54 mW/cm2"`), "transition=custom", "wavelength", "linewidth"),
+		with(quantity("mass", units.Mass, false, "custom transition: the atom's mass", `"6.015 u"`), "transition=custom", "wavelength", "linewidth"),
 	)...), Needs: append([]Requirement{
 		{If: "transition", Is: "custom", AnyOf: []string{"wavelength"}, Why: "a custom transition needs its wavelength"},
 		{If: "transition", Is: "custom", AnyOf: []string{"linewidth"}, Why: "a custom transition needs its linewidth"},
@@ -219,8 +220,8 @@ var SetupTables = []*TableSpec{
 		{Key: "bands", Kind: ValTables, Table: "band", Required: true, Doc: "the bands of the eyewear", Example: `[{ from = "740 nm", to = "1100 nm", od = 7 }]`},
 	}},
 	{Name: "band", Path: "bands = [{ … }]", Doc: "one band of a pair of eyewear", Keys: []KeySpec{
-		quantity("from", Length, true, "the band's shortest wavelength", `"740 nm"`),
-		quantity("to", Length, true, "the band's longest wavelength", `"1100 nm"`),
+		quantity("from", units.Length, true, "the band's shortest wavelength", `"740 nm"`),
+		quantity("to", units.Length, true, "the band's longest wavelength", `"1100 nm"`),
 		number("od", 0, 0, true, "the optical density over the band", "7"),
 	}},
 }

@@ -1,6 +1,8 @@
 package budget
 
 import (
+	"beamledger/budget/optics"
+	"beamledger/budget/units"
 	"math"
 	"slices"
 )
@@ -49,18 +51,18 @@ type ElementKind struct {
 
 // Kinds lists the element kinds in a fixed order.
 var Kinds = []*ElementKind{
-	{Type: TypeLens, Does: "a thin lens: the ABCD matrix (1, 0; −1/f, 1) in both planes; loss: its stated transmission", Keys: []KeySpec{quantity("focal_length", Length, true, "the focal length (negative: diverging)", `"250 mm"`)}, Surfaces: 2, read: readLens, apply: applyLens},
-	{Type: TypeMirror, Does: "a mirror, flat or curved (a lens of focal length R/2); loss: 1 − reflectivity, which leaks through it", Keys: []KeySpec{fractionKey("reflectivity", "the fraction reflected on along the path; the rest leaks through", "0.995"), quantity("radius_of_curvature", Length, false, "a curved mirror's radius (positive: concave, focusing; default flat)", `"500 mm"`)}, Surfaces: 0, read: readMirror, apply: applyMirror},
-	{Type: TypeWindow, Does: "a window or plate; a thick one shifts the focus by t(1 − 1/n); loss: its stated transmission", Keys: []KeySpec{with(quantity("thickness", Length, false, "a thick plate's thickness, with index: the focus shifts by t(1 − 1/n)", `"6.35 mm"`), "index"), with(number("index", 1, 5, false, "the plate's refractive index, with thickness", "1.45"), "thickness")}, Surfaces: 2, read: readWindow, apply: applyWindow},
-	{Type: TypeAOM, Does: "an acousto-optic modulator: efficiency^passes goes on in the order used, the rest leaves in the other orders; its order × frequency × passes shifts the light", Keys: []KeySpec{fractionKey("efficiency", "the diffraction efficiency into the order used, per pass", "0.8"), quantity("frequency", Frequency, false, "the drive frequency: order × frequency × passes shifts the light", `"80 MHz"`), {Key: "order", Kind: ValInteger, Min: -10, Max: 10, Doc: "the diffraction order used (default 1; not 0)", Example: "-1"}, {Key: "passes", Kind: ValInteger, Min: 1, Max: 4, Doc: "passes through the modulator (default 1)", Example: "2"}}, Surfaces: 2, read: readAOM, apply: applyAOM},
+	{Type: TypeLens, Does: "a thin lens: the ABCD matrix (1, 0; −1/f, 1) in both planes; loss: its stated transmission", Keys: []KeySpec{quantity("focal_length", units.Length, true, "the focal length (negative: diverging)", `"250 mm"`)}, Surfaces: 2, read: readLens, apply: applyLens},
+	{Type: TypeMirror, Does: "a mirror, flat or curved (a lens of focal length R/2); loss: 1 − reflectivity, which leaks through it", Keys: []KeySpec{fractionKey("reflectivity", "the fraction reflected on along the path; the rest leaks through", "0.995"), quantity("radius_of_curvature", units.Length, false, "a curved mirror's radius (positive: concave, focusing; default flat)", `"500 mm"`)}, Surfaces: 0, read: readMirror, apply: applyMirror},
+	{Type: TypeWindow, Does: "a window or plate; a thick one shifts the focus by t(1 − 1/n); loss: its stated transmission", Keys: []KeySpec{with(quantity("thickness", units.Length, false, "a thick plate's thickness, with index: the focus shifts by t(1 − 1/n)", `"6.35 mm"`), "index"), with(number("index", 1, 5, false, "the plate's refractive index, with thickness", "1.45"), "thickness")}, Surfaces: 2, read: readWindow, apply: applyWindow},
+	{Type: TypeAOM, Does: "an acousto-optic modulator: efficiency^passes goes on in the order used, the rest leaves in the other orders; its order × frequency × passes shifts the light", Keys: []KeySpec{fractionKey("efficiency", "the diffraction efficiency into the order used, per pass", "0.8"), quantity("frequency", units.Frequency, false, "the drive frequency: order × frequency × passes shifts the light", `"80 MHz"`), {Key: "order", Kind: ValInteger, Min: -10, Max: 10, Doc: "the diffraction order used (default 1; not 0)", Example: "-1"}, {Key: "passes", Kind: ValInteger, Min: 1, Max: 4, Doc: "passes through the modulator (default 1)", Example: "2"}}, Surfaces: 2, read: readAOM, apply: applyAOM},
 	{Type: TypeFilter, Does: "a filter: 10^−OD and its stated transmission", Keys: []KeySpec{number("optical_density", 0, 20, false, "the optical density: 10^−OD passes", "2.0")}, Needs: []Requirement{{AnyOf: []string{"optical_density", "transmission"}, Why: "a filter needs optical_density or transmission"}}, Surfaces: 2, read: readFilter, apply: applyFilter},
-	{Type: TypeAperture, Does: "an iris: clips the beam at its diameter", Keys: []KeySpec{quantity("diameter", Length, true, "the iris diameter", `"2 mm"`)}, Surfaces: 0, read: readAperture, apply: applyAperture},
+	{Type: TypeAperture, Does: "an iris: clips the beam at its diameter", Keys: []KeySpec{quantity("diameter", units.Length, true, "the iris diameter", `"2 mm"`)}, Surfaces: 0, read: readAperture, apply: applyAperture},
 	{Type: TypeSplitter, Does: "a splitter: transmission goes on along this path, the rest feeds the path whose from names it (or is lost)", Needs: []Requirement{{AnyOf: []string{"transmission"}, Why: "a splitter needs the fraction sent on along this path"}}, Surfaces: 2, read: readSplitter, apply: applySplitter},
-	{Type: TypeFiber, Does: "a single-mode fibre: couples the beam's mode overlap × alignment (or the stated coupling) and launches a new Gaussian beam", Keys: []KeySpec{quantity("mode_field_diameter", Length, false, "the fibre's mode-field diameter (the coupling is its overlap with the beam)", `"5.3 um"`), fractionKey("alignment", "a practical factor on the computed overlap", "0.85"), fractionKey("coupling", "the coupled fraction, when measured (instead of the overlap and alignment)", "0.6"), quantity("output_waist", Length, false, "the collimated output's 1/e² radius", `"1.0 mm"`), with(quantity("output_focal_length", Length, false, "the output collimator's focal length (the output is sized from the mode field)", `"11 mm"`), "mode_field_diameter")}, Needs: []Requirement{{AnyOf: []string{"mode_field_diameter", "coupling"}, Why: "a fiber needs mode_field_diameter or coupling"}, {AnyOf: []string{"output_waist", "output_focal_length"}, Why: "a fiber needs output_waist or output_focal_length"}}, Surfaces: 1, read: readFiber, apply: applyFiber},
+	{Type: TypeFiber, Does: "a single-mode fibre: couples the beam's mode overlap × alignment (or the stated coupling) and launches a new Gaussian beam", Keys: []KeySpec{quantity("mode_field_diameter", units.Length, false, "the fibre's mode-field diameter (the coupling is its overlap with the beam)", `"5.3 um"`), fractionKey("alignment", "a practical factor on the computed overlap", "0.85"), fractionKey("coupling", "the coupled fraction, when measured (instead of the overlap and alignment)", "0.6"), quantity("output_waist", units.Length, false, "the collimated output's 1/e² radius", `"1.0 mm"`), with(quantity("output_focal_length", units.Length, false, "the output collimator's focal length (the output is sized from the mode field)", `"11 mm"`), "mode_field_diameter")}, Needs: []Requirement{{AnyOf: []string{"mode_field_diameter", "coupling"}, Why: "a fiber needs mode_field_diameter or coupling"}, {AnyOf: []string{"output_waist", "output_focal_length"}, Why: "a fiber needs output_waist or output_focal_length"}}, Surfaces: 1, read: readFiber, apply: applyFiber},
 	{Type: TypeAtoms, Does: "an atom cloud: the drive is evaluated here; the beam passes unchanged", Keys: atomsKeys, Needs: goalNeeds, Surfaces: 0, read: readAtoms, apply: applyAtoms},
-	{Type: TypeDump, Does: "a beam dump: absorbs everything and ends the path", Keys: []KeySpec{quantity("rating", Power, false, "the power the dump is rated for", `"2 W"`), fractionKey("diffuse_reflectance", "the dump's diffuse reflectance (default 1, conservative)", "0.05")}, Surfaces: 0, read: readDump, apply: applyDump},
+	{Type: TypeDump, Does: "a beam dump: absorbs everything and ends the path", Keys: []KeySpec{quantity("rating", units.Power, false, "the power the dump is rated for", `"2 W"`), fractionKey("diffuse_reflectance", "the dump's diffuse reflectance (default 1, conservative)", "0.05")}, Surfaces: 0, read: readDump, apply: applyDump},
 	{Type: TypeCombiner, Does: "a combiner (polarizing cube, dichroic): the path whose into names it joins here; transmission of this path's own beams and join_transmission of the joining ones go on, the rest leaves the path at its other port", Keys: []KeySpec{fractionKey("join_transmission", "the fraction of the joining beam passed on (transmission: of this path's own)", "0.95")}, Surfaces: 2, read: readCombiner, apply: applyCombiner},
-	{Type: TypeCylLens, Does: "a thin cylindrical lens: the ABCD matrix (1, 0; −1/f, 1) in its plane (x or y) only; loss: its stated transmission", Keys: []KeySpec{quantity("focal_length", Length, true, "the focal length in its plane (negative: diverging)", `"100 mm"`), choice("plane", PlaneValues, true, "the plane it focuses in", `"x"`)}, Surfaces: 2, read: readCylLens, apply: applyCylLens},
+	{Type: TypeCylLens, Does: "a thin cylindrical lens: the ABCD matrix (1, 0; −1/f, 1) in its plane (x or y) only; loss: its stated transmission", Keys: []KeySpec{quantity("focal_length", units.Length, true, "the focal length in its plane (negative: diverging)", `"100 mm"`), choice("plane", PlaneValues, true, "the plane it focuses in", `"x"`)}, Surfaces: 2, read: readCylLens, apply: applyCylLens},
 }
 
 // atomsKeys are an atoms element's own keys.
@@ -69,7 +71,7 @@ var atomsKeys = append([]KeySpec{
 }, append(slices.Clone(goalKeys),
 	with(choice("goal_at", GoalAtValues, false, "where the goal must hold: the cloud's centre (default), its exit, or all (a fraction of the atoms)", `"exit"`), "goal"),
 	with(fractionKey("goal_fraction", "with goal_at = \"all\": the fraction of the atoms that must reach the goal (default 0.9)", "0.9"), "goal", "goal_at=all"),
-	quantity("detuning", Frequency, false, "the detuning here, overriding the laser's plus the modulators' shifts", `"-12 MHz"`),
+	quantity("detuning", units.Frequency, false, "the detuning here, overriding the laser's plus the modulators' shifts", `"-12 MHz"`),
 	choice("axis", AxisValues, false, "the cloud axis the beam runs along (default z)", `"y"`),
 	KeySpec{Key: "direction", Kind: ValVector, Doc: "the beam's direction in the cloud's frame, instead of axis", Example: `[0, -1, 0]`},
 	choice("interference", InterferenceValues, false, "standing_wave: this return pass interferes with the forward one", `"standing_wave"`),
@@ -106,7 +108,7 @@ type stage struct {
 	clouds   map[string]*Cloud  // by name
 	index    int                // the element's index in the path, 0-based
 	lastLens int                // index of the last lens since the start or the last fibre, -1 if none
-	beam     Beam
+	beam     optics.Beam
 	frac     float64 // power fraction of the source
 	row      *Row
 	// joining is set at the combiner where the beam joins the path.
@@ -129,7 +131,7 @@ func (s *stage) stated(kind string, t *float64) {
 }
 
 func readLens(t *table, e *Element, m map[string]any) {
-	f, ok := t.quantity("focal_length", Length, true)
+	f, ok := t.quantity("focal_length", units.Length, true)
 	if ok && f == 0 {
 		t.fail("focal_length", "must not be zero")
 	}
@@ -139,16 +141,16 @@ func readLens(t *table, e *Element, m map[string]any) {
 func readMirror(t *table, e *Element, m map[string]any) {
 	e.Reflectivity = t.fraction("reflectivity", 0, 1)
 	var ok bool
-	e.RadiusOfCurvature, ok = t.quantity("radius_of_curvature", Length, false)
+	e.RadiusOfCurvature, ok = t.quantity("radius_of_curvature", units.Length, false)
 	if ok && e.RadiusOfCurvature == 0 {
 		t.fail("radius_of_curvature", "must not be zero (leave it out for a flat mirror)")
 	}
 }
 
 func readWindow(t *table, e *Element, m map[string]any) {
-	e.Thickness = t.positive("thickness", Length, false)
+	e.Thickness = t.positive("thickness", units.Length, false)
 	if t.has("index") {
-		n, ok := t.quantity("index", Dimensionless, true)
+		n, ok := t.quantity("index", units.Dimensionless, true)
 		if ok && (n < 1 || n > 5) {
 			t.fail("index", "%s is outside [1, 5]", show(m["index"]))
 		}
@@ -163,7 +165,7 @@ func readWindow(t *table, e *Element, m map[string]any) {
 
 func readAOM(t *table, e *Element, m map[string]any) {
 	e.Efficiency = t.fraction("efficiency", 0, 1)
-	e.Frequency = t.positive("frequency", Frequency, false)
+	e.Frequency = t.positive("frequency", units.Frequency, false)
 	e.Order = t.integer("order", 1, -10, 10)
 	e.Passes = t.integer("passes", 1, 1, 4)
 	if e.Order == 0 && t.has("order") {
@@ -175,7 +177,7 @@ func readFilter(t *table, e *Element, m map[string]any) {
 	if !t.has("optical_density") && !t.has("transmission") && e.PerLaser["optical_density"] == nil && e.PerLaser["transmission"] == nil {
 		t.fail("optical_density", "missing (a filter needs optical_density or transmission)")
 	}
-	if od, ok := t.quantity("optical_density", Dimensionless, false); ok {
+	if od, ok := t.quantity("optical_density", units.Dimensionless, false); ok {
 		if od < 0 || od > 20 {
 			t.fail("optical_density", "%s is outside [0, 20]", show(m["optical_density"]))
 		} else {
@@ -185,7 +187,7 @@ func readFilter(t *table, e *Element, m map[string]any) {
 }
 
 func readAperture(t *table, e *Element, m map[string]any) {
-	e.Diameter = t.positive("diameter", Length, true)
+	e.Diameter = t.positive("diameter", units.Length, true)
 }
 
 func readSplitter(t *table, e *Element, m map[string]any) {
@@ -196,13 +198,13 @@ func readSplitter(t *table, e *Element, m map[string]any) {
 
 func readFiber(t *table, e *Element, m map[string]any) {
 	e.Coupling = t.fraction("coupling", 0, 1)
-	e.ModeFieldDiameter = t.positive("mode_field_diameter", Length, e.Coupling == nil && !t.has("coupling") && e.PerLaser["coupling"] == nil)
+	e.ModeFieldDiameter = t.positive("mode_field_diameter", units.Length, e.Coupling == nil && !t.has("coupling") && e.PerLaser["coupling"] == nil)
 	e.Alignment = t.fraction("alignment", 0, 1)
 	if e.Coupling != nil && e.Alignment != nil {
 		t.fail("alignment", "coupling is given, which already includes alignment")
 	}
-	e.OutputWaist = t.positive("output_waist", Length, false)
-	e.OutputFocalLength = t.positive("output_focal_length", Length, false)
+	e.OutputWaist = t.positive("output_waist", units.Length, false)
+	e.OutputFocalLength = t.positive("output_focal_length", units.Length, false)
 	switch {
 	case t.has("output_waist") && t.has("output_focal_length"):
 		t.fail("output_focal_length", "give output_waist or output_focal_length, not both")
@@ -235,7 +237,7 @@ func readAtoms(t *table, e *Element, m map[string]any) {
 	if (t.has("goal_at") || t.has("goal_fraction")) && e.Goal == "" {
 		t.fail("goal_at", "given without goal")
 	}
-	if d, ok := t.quantity("detuning", Frequency, false); ok {
+	if d, ok := t.quantity("detuning", units.Frequency, false); ok {
 		e.Detuning = &d
 	}
 }
@@ -247,11 +249,11 @@ func readGoal(t *table, goal *string, value **float64, factor *float64, m map[st
 	*factor = 1
 	switch *goal {
 	case GoalSaturation:
-		*value = t.positivePtr("goal_value", Dimensionless, "a saturation parameter s")
+		*value = t.positivePtr("goal_value", units.Dimensionless, "a saturation parameter s")
 	case GoalRabi:
-		*value = t.positivePtr("goal_value", Frequency, "a Rabi frequency Ω/2π")
+		*value = t.positivePtr("goal_value", units.Frequency, "a Rabi frequency Ω/2π")
 	case GoalTrapDepth:
-		*value = t.positivePtr("goal_value", Temperature, "a trap depth U/k_B")
+		*value = t.positivePtr("goal_value", units.Temperature, "a trap depth U/k_B")
 	case GoalCollective:
 		if t.has("goal_value") {
 			t.get("goal_value")
@@ -267,7 +269,7 @@ func readGoal(t *table, goal *string, value **float64, factor *float64, m map[st
 		if *goal != GoalCollective {
 			t.get("goal_factor")
 			t.fail("goal_factor", "only for goal = \"collective\"")
-		} else if f, ok := t.quantity("goal_factor", Dimensionless, true); ok {
+		} else if f, ok := t.quantity("goal_factor", units.Dimensionless, true); ok {
 			if f <= 0 {
 				t.fail("goal_factor", "must be positive, got %s", show(m["goal_factor"]))
 			} else {
@@ -290,7 +292,7 @@ func readCylLens(t *table, e *Element, m map[string]any) {
 }
 
 func readDump(t *table, e *Element, m map[string]any) {
-	e.Rating = t.positive("rating", Power, false)
+	e.Rating = t.positive("rating", units.Power, false)
 	e.DiffuseReflectance = t.fraction("diffuse_reflectance", 0, 1)
 }
 
@@ -367,9 +369,9 @@ func applyFiber(s *stage, e *Element) {
 	s.stated(LossAbsorption, e.Transmission)
 	w := e.OutputWaist
 	if w == 0 {
-		w = FiberOutputWaist(s.beam.Wavelength, e.OutputFocalLength, e.ModeFieldDiameter)
+		w = optics.FiberOutputWaist(s.beam.Wavelength, e.OutputFocalLength, e.ModeFieldDiameter)
 	}
-	s.beam = Beam{Wavelength: s.beam.Wavelength, X: NewPlane(w, 0, 1, s.beam.Wavelength), Y: NewPlane(w, 0, 1, s.beam.Wavelength)}
+	s.beam = optics.Beam{Wavelength: s.beam.Wavelength, X: optics.NewPlane(w, 0, 1, s.beam.Wavelength), Y: optics.NewPlane(w, 0, 1, s.beam.Wavelength)}
 	s.lastLens = -1
 }
 

@@ -1,6 +1,8 @@
 package budget
 
 import (
+	"beamledger/budget/numeric"
+	"beamledger/budget/units"
 	"fmt"
 	"maps"
 	"slices"
@@ -34,12 +36,12 @@ func (l *loader) link(s *Setup) {
 			if e.At < prevAt {
 				l.addf(l.lines.line(fmt.Sprintf("%s.element[%d]", pathLoc(locs, p), e.Index-1), "at"), ectx,
 					"at: %s comes before the previous element (%s); elements must be listed in order along the path",
-					FormatLength(e.At), FormatLength(prevAt))
+					units.FormatLength(e.At), units.FormatLength(prevAt))
 			}
 			if k := e.Index - 2; k >= 0 {
 				if w := p.Elements[k]; w.Type == TypeWindow && w.Thickness > e.At-w.At {
 					l.addf(w.Line, fmt.Sprintf("%s, element %d (window)", ctx, w.Index),
-						"thickness: %s is more than the %s to the next element; the window would hold it", FormatLength(w.Thickness), FormatLength(e.At-w.At))
+						"thickness: %s is more than the %s to the next element; the window would hold it", units.FormatLength(w.Thickness), units.FormatLength(e.At-w.At))
 				}
 			}
 			prevAt = e.At
@@ -281,7 +283,7 @@ func (l *loader) linkInto(s *Setup, paths map[string]*Path, locs map[*Path]int) 
 				l.addf(line, ctx, "into: the path ends in a dump (element %d), so no light goes on into %q", last.Index, p.Into)
 			}
 			if last.At > p.IntoAt {
-				l.addf(l.lines.line(pathLoc(locs, p), "into_at"), ctx, "into_at: %s comes before element %d (at %s); the combiner ends the path", FormatLength(p.IntoAt), last.Index, FormatLength(last.At))
+				l.addf(l.lines.line(pathLoc(locs, p), "into_at"), ctx, "into_at: %s comes before element %d (at %s); the combiner ends the path", units.FormatLength(p.IntoAt), last.Index, units.FormatLength(last.At))
 			}
 		}
 	}
@@ -458,7 +460,7 @@ func (l *loader) checkClouds(s *Setup, lasers map[string]*Laser, locs map[*Path]
 			}
 			found := false
 			for _, f := range p.Elements[:k] {
-				if f.Type == TypeAtoms && f.Cloud == e.Cloud && dot(f.Direction, e.Direction) < -0.999 {
+				if f.Type == TypeAtoms && f.Cloud == e.Cloud && numeric.Dot(f.Direction, e.Direction) < -0.999 {
 					found = true
 				}
 			}

@@ -15,6 +15,7 @@ import (
 
 	"github.com/BurntSushi/toml"
 
+	"beamledger/budget/units"
 	"beamledger/limits"
 )
 
@@ -126,7 +127,7 @@ func (l *loader) addf(line int, context, format string, args ...any) {
 type table struct {
 	l       *loader
 	context string // e.g. `path "drive", element 3 (lens)`
-	// describe, when set, names the table in messages instead of context;
+	// Describe, when set, names the table in messages instead of context;
 	// it is called only when there is something to report.
 	describe func() string
 	loc      string // line-index key, e.g. "path[0].element[2]"
@@ -294,7 +295,7 @@ func (t *table) enum(key, def string, allowed ...string) string {
 }
 
 // quantity reads a "number unit" string of the wanted dimension.
-func (t *table) quantity(key string, dim Dimension, required bool) (float64, bool) {
+func (t *table) quantity(key string, dim units.Dimension, required bool) (float64, bool) {
 	v, ok := t.get(key)
 	if !ok {
 		if required {
@@ -336,7 +337,7 @@ var percentKeys = map[string]bool{
 	"coupling": true, "surface_reflectance": true, "diffuse_reflectance": true,
 }
 
-func (t *table) quantityValue(key string, v any, dim Dimension) (float64, bool) {
+func (t *table) quantityValue(key string, v any, dim units.Dimension) (float64, bool) {
 	q, ok := t.rawQuantity(key, v, dim)
 	if !ok {
 		return 0, false
@@ -354,7 +355,7 @@ func (t *table) quantityValue(key string, v any, dim Dimension) (float64, bool) 
 	return q, true
 }
 
-func (t *table) rawQuantity(key string, v any, dim Dimension) (float64, bool) {
+func (t *table) rawQuantity(key string, v any, dim units.Dimension) (float64, bool) {
 	switch x := v.(type) {
 	case string:
 		if a, b, normal, ok := splitTolerance(x); ok {
@@ -364,18 +365,18 @@ func (t *table) rawQuantity(key string, v any, dim Dimension) (float64, bool) {
 		if t.keyAs != "" {
 			pk = t.keyAs
 		}
-		if dim == Dimensionless && !percentKeys[pk] && strings.Contains(x, "%") {
+		if dim == units.Dimensionless && !percentKeys[pk] && strings.Contains(x, "%") {
 			t.fail(key, "%q: a bare number is wanted here; only fractions (transmission, efficiency, …) may be written as a percentage", x)
 			return 0, false
 		}
-		q, err := ParseAs(x, dim)
+		q, err := units.ParseAs(x, dim)
 		if err != nil {
 			t.fail(key, "%v", err)
 			return 0, false
 		}
 		return q, true
 	case int64, float64:
-		if dim == Dimensionless {
+		if dim == units.Dimensionless {
 			f := toFloat(x)
 			if math.IsNaN(f) || math.IsInf(f, 0) {
 				t.fail(key, "%v is not a finite number", f)
@@ -392,7 +393,7 @@ func (t *table) rawQuantity(key string, v any, dim Dimension) (float64, bool) {
 }
 
 // positive reads a quantity that must be > 0.
-func (t *table) positive(key string, dim Dimension, required bool) float64 {
+func (t *table) positive(key string, dim units.Dimension, required bool) float64 {
 	q, ok := t.quantity(key, dim, required)
 	if ok && q <= 0 {
 		t.fail(key, "must be positive, got %s", show(t.m[key]))
@@ -419,7 +420,7 @@ func (t *table) direction() [3]float64 {
 		}
 		var d [3]float64
 		for k, e := range arr {
-			q, ok := t.quantityValue("direction", e, Dimensionless)
+			q, ok := t.quantityValue("direction", e, units.Dimensionless)
 			if !ok {
 				return axes["z"]
 			}
@@ -436,7 +437,7 @@ func (t *table) direction() [3]float64 {
 }
 
 func (t *table) fraction(key string, lo, hi float64) *float64 {
-	q, ok := t.quantity(key, Dimensionless, false)
+	q, ok := t.quantity(key, units.Dimensionless, false)
 	if !ok {
 		return nil
 	}
@@ -452,7 +453,7 @@ func (t *table) fraction(key string, lo, hi float64) *float64 {
 }
 
 // pair reads one quantity (both planes) or an array of two (x, y).
-func (t *table) pair(key string, dim Dimension, required bool, min float64) ([2]float64, bool) {
+func (t *table) pair(key string, dim units.Dimension, required bool, min float64) ([2]float64, bool) {
 	v, ok := t.get(key)
 	if !ok {
 		if required {

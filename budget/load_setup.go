@@ -9,6 +9,8 @@ import (
 	"strings"
 
 	"beamledger/budget/atoms"
+	"beamledger/budget/optics"
+	"beamledger/budget/units"
 	"beamledger/limits"
 )
 
@@ -40,7 +42,7 @@ func (l *loader) setup(raw map[string]any) *Setup {
 		s.Meta.Site = t.str("site", false)
 		s.Meta.PreparedBy = t.str("prepared_by", false)
 		s.Meta.Revision = t.str("revision", false)
-		s.Meta.Exposure = t.positive("exposure", Time, false)
+		s.Meta.Exposure = t.positive("exposure", units.Time, false)
 		s.Meta.ExposureReason = t.str("exposure_reason", false)
 		switch e := s.Meta.Exposure; {
 		case e > 0 && (e < MinExposure || e > limits.MaxDuration):
@@ -99,7 +101,7 @@ func (l *loader) setup(raw map[string]any) *Setup {
 		for _, las := range s.Lasers {
 			if d := DefaultViewingDuration(las.Wavelength); las.Wavelength > 0 && e < d {
 				l.addf(l.lines.line("setup", "exposure"), "[setup]", "exposure: %s is shorter than the %g s assumed for unintended viewing of laser %q at %s (outside 400–700 nm no aversion response ends an exposure); a shorter viewing duration needs exposure_reason",
-					FormatSI(e, "s"), d, las.Name, FormatLength(las.Wavelength))
+					units.FormatSI(e, "s"), d, las.Name, units.FormatLength(las.Wavelength))
 				break
 			}
 		}
@@ -137,40 +139,40 @@ func (l *loader) named(kind string, i int, m map[string]any) (t *table, loc, nam
 func (l *loader) laser(i int, m map[string]any) *Laser {
 	t, loc, name := l.named("laser", i, m)
 	las := &Laser{Line: l.lines[loc], Name: name}
-	las.Wavelength = t.positive("wavelength", Length, true)
+	las.Wavelength = t.positive("wavelength", units.Length, true)
 	if w := las.Wavelength; w > 0 && (w < MinWavelength || w > MaxWavelength) {
 		t.fail("wavelength", "%s is outside 180 nm to 1 mm, the span of the exposure limits", show(m["wavelength"]))
 	}
-	las.Power = t.positive("power", Power, true)
+	las.Power = t.positive("power", units.Power, true)
 	las.OperatingPower = las.Power
 	if t.has("operating_power") {
-		las.OperatingPower = t.positive("operating_power", Power, true)
+		las.OperatingPower = t.positive("operating_power", units.Power, true)
 		if las.Power > 0 && las.OperatingPower > las.Power {
 			t.fail("operating_power", "%s is more than power %s", show(m["operating_power"]), show(m["power"]))
 		}
 	}
-	las.Waist, _ = t.pair("waist", Length, true, 0)
+	las.Waist, _ = t.pair("waist", units.Length, true, 0)
 	las.M2 = [2]float64{1, 1}
 	if t.has("m2") {
-		las.M2, _ = t.pair("m2", Dimensionless, true, 1)
+		las.M2, _ = t.pair("m2", units.Dimensionless, true, 1)
 	}
 	for k, w := range las.Waist {
 		if w > 0 && las.Wavelength > 0 {
-			if θ := NewPlane(w, 0, las.M2[k], las.Wavelength).Divergence(las.Wavelength); θ > MaxParaxialAngle {
+			if θ := optics.NewPlane(w, 0, las.M2[k], las.Wavelength).Divergence(las.Wavelength); θ > optics.MaxParaxialAngle {
 				t.fail("waist", "%s at %s with M² %g diverges at a half-angle of %.3g rad; the Gaussian beam model needs at most %g rad (a waist of at least %s)",
-					FormatLength(w), FormatLength(las.Wavelength), las.M2[k], θ, MaxParaxialAngle, FormatLength(las.M2[k]*las.Wavelength/(math.Pi*MaxParaxialAngle)))
+					units.FormatLength(w), units.FormatLength(las.Wavelength), las.M2[k], θ, optics.MaxParaxialAngle, units.FormatLength(las.M2[k]*las.Wavelength/(math.Pi*optics.MaxParaxialAngle)))
 				break
 			}
 		}
 	}
-	las.WaistAt, _ = t.pair("waist_at", Length, false, math.Inf(-1))
+	las.WaistAt, _ = t.pair("waist_at", units.Length, false, math.Inf(-1))
 	las.Emission = t.enum("emission", EmissionCW, EmissionValues...)
 	if las.Emission == EmissionPulsed {
-		las.PulseDuration = t.positive("pulse_duration", Time, true)
+		las.PulseDuration = t.positive("pulse_duration", units.Time, true)
 		if d := las.PulseDuration; d > 0 && (d < limits.MinDuration || d > limits.MaxDuration) {
 			t.fail("pulse_duration", "%s is outside 1e-13 s to 3e4 s, the span of the exposure limits", show(m["pulse_duration"]))
 		}
-		las.RepetitionRate = t.positive("repetition_rate", Frequency, true)
+		las.RepetitionRate = t.positive("repetition_rate", units.Frequency, true)
 		if las.PulseDuration > 0 && las.RepetitionRate*las.PulseDuration > 1 {
 			t.fail("repetition_rate", "%s with %s pulses is a duty cycle above 1", show(m["repetition_rate"]), show(m["pulse_duration"]))
 		}
@@ -182,7 +184,7 @@ func (l *loader) laser(i int, m map[string]any) *Laser {
 			}
 		}
 	}
-	las.Detuning, las.DetuningSet = t.quantity("detuning", Frequency, false)
+	las.Detuning, las.DetuningSet = t.quantity("detuning", units.Frequency, false)
 	t.done()
 	return las
 }
@@ -191,7 +193,7 @@ func (l *loader) cloud(i int, m map[string]any) *Cloud {
 	t, loc, name := l.named("cloud", i, m)
 	c := &Cloud{Line: l.lines[loc], Name: name}
 	c.Transition = t.str("transition", true)
-	c.Atoms, _ = t.quantity("atoms", Dimensionless, true)
+	c.Atoms, _ = t.quantity("atoms", units.Dimensionless, true)
 	switch {
 	case t.has("atoms") && c.Atoms <= 0:
 		t.fail("atoms", "must be positive, got %s", show(m["atoms"]))
@@ -204,7 +206,7 @@ func (l *loader) cloud(i int, m map[string]any) *Cloud {
 			t.fail("rms_size", "want [x, y, along the beam], three lengths")
 		} else {
 			for k, e := range arr {
-				q, ok := t.quantityValue("rms_size", e, Length)
+				q, ok := t.quantityValue("rms_size", e, units.Length)
 				if ok && q <= 0 {
 					t.fail("rms_size", "must be positive, got %s", show(e))
 				}
@@ -215,7 +217,7 @@ func (l *loader) cloud(i int, m map[string]any) *Cloud {
 		t.fail("rms_size", "missing (want [x, y, along the beam], three lengths)")
 	}
 	c.Saturation = t.enum("saturation", SaturationCycling, SaturationValues...)
-	c.CollectiveRate = t.positive("collective_rate", Frequency, false)
+	c.CollectiveRate = t.positive("collective_rate", units.Frequency, false)
 	downs := map[string][3]float64{"+x": {1, 0, 0}, "-x": {-1, 0, 0}, "+y": {0, 1, 0}, "-y": {0, -1, 0}, "+z": {0, 0, 1}, "-z": {0, 0, -1}, "none": {}}
 	c.Down = downs[t.enum("down", "-y", DownValues...)]
 	if v, ok := t.get("excited_polarizability"); ok {
@@ -227,7 +229,7 @@ func (l *loader) cloud(i int, m map[string]any) *Cloud {
 			for _, name := range slices.Sorted(maps.Keys(by)) {
 				sub := l.table("", loc+".excited_polarizability", map[string]any{name: by[name]})
 				sub.describe = func() string { return t.where() + ", excited_polarizability" }
-				if q, ok := sub.quantity(name, Dimensionless, true); ok {
+				if q, ok := sub.quantity(name, units.Dimensionless, true); ok {
 					if math.Abs(q) > 1e7 {
 						sub.fail(name, "%s atomic units is beyond any atom's polarizability", show(by[name]))
 					}
@@ -262,13 +264,13 @@ func (l *loader) cloud(i int, m map[string]any) *Cloud {
 		}
 	}
 	if custom {
-		c.Wavelength = t.positive("wavelength", Length, true)
+		c.Wavelength = t.positive("wavelength", units.Length, true)
 		if w := c.Wavelength; w > 0 && (w < MinWavelength || w > MaxWavelength) {
 			t.fail("wavelength", "%s is outside 180 nm to 1 mm", show(m["wavelength"]))
 		}
-		c.Linewidth = t.positive("linewidth", Frequency, true)
-		c.SaturationIntensity = t.positive("saturation_intensity", Irradiance, false)
-		c.Mass = t.positive("mass", Mass, false)
+		c.Linewidth = t.positive("linewidth", units.Frequency, true)
+		c.SaturationIntensity = t.positive("saturation_intensity", units.Irradiance, false)
+		c.Mass = t.positive("mass", units.Mass, false)
 		if t.has("saturation") && c.Saturation == SaturationIsotropic {
 			t.fail("saturation", "a custom transition has one saturation intensity; leave saturation out")
 		}
@@ -299,12 +301,12 @@ func (l *loader) eyewear(i int, m map[string]any) *Eyewear {
 	for k, b := range bands {
 		bt := l.table(fmt.Sprintf("%s, band %d", t.where(), k+1), loc+".bands", b).of(TableNamed("band"))
 		var band EyewearBand
-		band.From = bt.positive("from", Length, true)
-		band.To = bt.positive("to", Length, true)
+		band.From = bt.positive("from", units.Length, true)
+		band.To = bt.positive("to", units.Length, true)
 		if band.From > 0 && band.To > 0 && band.To <= band.From {
 			bt.fail("to", "%s is not above from %s", show(b["to"]), show(b["from"]))
 		}
-		od, ok := bt.quantity("od", Dimensionless, true)
+		od, ok := bt.quantity("od", units.Dimensionless, true)
 		if ok && od < 0 {
 			bt.fail("od", "must not be negative, got %s", show(b["od"]))
 		}
@@ -324,7 +326,7 @@ func (l *loader) path(i int, m map[string]any) *Path {
 	p.Into = t.str("into", false)
 	if p.Into != "" {
 		var ok bool
-		if p.IntoAt, ok = t.quantity("into_at", Length, true); ok && p.IntoAt < 0 {
+		if p.IntoAt, ok = t.quantity("into_at", units.Length, true); ok && p.IntoAt < 0 {
 			t.fail("into_at", "must not be negative, got %s", show(m["into_at"]))
 		}
 	} else if t.has("into_at") {
@@ -361,7 +363,7 @@ func (l *loader) perLaser(t *table, e *Element, m map[string]any) {
 			sub.keyAs = key
 			var q *float64
 			if key == "optical_density" {
-				if v, ok := sub.quantity(name, Dimensionless, true); ok {
+				if v, ok := sub.quantity(name, units.Dimensionless, true); ok {
 					if v < lo || v > hi {
 						sub.fail(name, "%s is outside [%g, %g]", show(by[name]), lo, hi)
 					} else {
@@ -432,11 +434,11 @@ func (l *loader) element(p *Path, pathContext, loc string, k int, m map[string]a
 			t.fail(key, "not a key of a %s (it takes %s)", e.Type, strings.Join(append(kind.KeyNames(), commonElementKeys...), ", "))
 		}
 	}
-	e.At, _ = t.quantity("at", Length, true)
+	e.At, _ = t.quantity("at", units.Length, true)
 	if e.At < 0 {
 		t.fail("at", "must not be negative, got %s", show(m["at"]))
 	}
-	e.Aperture = t.positive("aperture", Length, false)
+	e.Aperture = t.positive("aperture", units.Length, false)
 	if e.Type == TypeMirror {
 		if t.has("transmission") {
 			t.get("transmission")
@@ -451,21 +453,21 @@ func (l *loader) element(p *Path, pathContext, loc string, k int, m map[string]a
 	e.SurfaceReflectance = t.fraction("surface_reflectance", 0, 1)
 	if v, ok := t.get("damage_threshold"); ok {
 		s, _ := v.(string)
-		q, d, err := ParseQuantity(s)
+		q, d, err := units.ParseQuantity(s)
 		switch {
 		case err != nil || s == "":
 			t.fail("damage_threshold", "want a linear power density (cw, e.g. \"5 kW/cm\") or a radiant exposure (pulsed, e.g. \"2 J/cm2\")")
 		case q <= 0:
 			t.fail("damage_threshold", "must be positive, got %q", s)
-		case d == LinearPowerDensity:
+		case d == units.LinearPowerDensity:
 			e.DamageThreshold = q
-		case d == RadiantExposure:
+		case d == units.RadiantExposure:
 			e.DamageThreshold, e.DamageIsFluence = q, true
 		default:
-			t.fail("damage_threshold", "%q is %s; want a linear power density (cw, e.g. \"5 kW/cm\") or a radiant exposure (pulsed, e.g. \"2 J/cm2\")", s, describe(d))
+			t.fail("damage_threshold", "%q is %s; want a linear power density (cw, e.g. \"5 kW/cm\") or a radiant exposure (pulsed, e.g. \"2 J/cm2\")", s, units.Describe(d))
 		}
 	}
-	e.DamagePulseDuration = t.positive("damage_pulse_duration", Time, e.DamageIsFluence)
+	e.DamagePulseDuration = t.positive("damage_pulse_duration", units.Time, e.DamageIsFluence)
 
 	kind.read(t, e, m)
 	if e.Type != TypeDump && t.has("diffuse_reflectance") {
@@ -480,7 +482,7 @@ func (l *loader) element(p *Path, pathContext, loc string, k int, m map[string]a
 	return e
 }
 
-func (t *table) positivePtr(key string, dim Dimension, what string) *float64 {
+func (t *table) positivePtr(key string, dim units.Dimension, what string) *float64 {
 	if !t.has(key) {
 		t.get(key)
 		t.fail(key, "missing (the goal needs %s, %s)", what, dim)

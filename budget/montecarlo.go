@@ -1,6 +1,7 @@
 package budget
 
 import (
+	"beamledger/budget/numeric"
 	"math"
 	"math/rand/v2"
 	"runtime"
@@ -182,7 +183,7 @@ func Tolerances(s *Setup, drive []*AtomsResult, samples int, seed uint64, worker
 		gt.ProbabilityMet = float64(met) / float64(samples)
 		sorted := slices.Clone(gt.Margins)
 		slices.Sort(sorted)
-		gt.P05, gt.P50, gt.P95 = Percentile(sorted, 0.05), Percentile(sorted, 0.5), Percentile(sorted, 0.95)
+		gt.P05, gt.P50, gt.P95 = numeric.Percentile(sorted, 0.05), numeric.Percentile(sorted, 0.5), numeric.Percentile(sorted, 0.95)
 		gt.Contributors = contributors(s.Tolerances, inputs, gt.Margins)
 		out[a] = gt
 	}
@@ -245,6 +246,6 @@ func contributors(ts []*Toleranced, inputs, y []float64) []Contributor {
 	for j := range nt {
 		out[j] = Contributor{Input: ts[j], Share: β.At(j, 0) * β.At(j, 0) / total}
 	}
-	slices.SortStableFunc(out, func(a, b Contributor) int { return cmpFloat(b.Share, a.Share) })
+	slices.SortStableFunc(out, func(a, b Contributor) int { return numeric.CmpFloat(b.Share, a.Share) })
 	return out
 }

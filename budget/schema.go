@@ -1,6 +1,7 @@
 package budget
 
 import (
+	"beamledger/budget/units"
 	"encoding/json"
 	"fmt"
 	"regexp"
@@ -148,7 +149,7 @@ func (b *schemaBuilder) keySchema(k *KeySpec) map[string]any {
 	case ValNames:
 		s = map[string]any{"type": "array", "items": map[string]any{"type": "string"}, "minItems": 1}
 	case ValByLaser:
-		s = map[string]any{"type": "object", "minProperties": 1, "additionalProperties": b.quantitySchema(&KeySpec{Dims: []Dimension{Dimensionless}})}
+		s = map[string]any{"type": "object", "minProperties": 1, "additionalProperties": b.quantitySchema(&KeySpec{Dims: []units.Dimension{units.Dimensionless}})}
 	case ValTables:
 		s = map[string]any{"type": "array", "items": map[string]any{"$ref": "#/$defs/" + k.Table}}
 	default:
@@ -160,7 +161,7 @@ func (b *schemaBuilder) keySchema(k *KeySpec) map[string]any {
 	if k.Kind == ValQuantity || k.Kind == ValPair || k.Kind == ValTriple {
 		var dims []string
 		for _, d := range k.Dims {
-			dims = append(dims, describe(d))
+			dims = append(dims, units.Describe(d))
 		}
 		desc += "; " + strings.Join(dims, " or ")
 		if k.Percent() {
@@ -187,7 +188,7 @@ func (b *schemaBuilder) quantitySchema(k *KeySpec) map[string]any {
 	var pats []string
 	var number map[string]any
 	for _, d := range k.Dims {
-		if d == Dimensionless {
+		if d == units.Dimensionless {
 			number = map[string]any{"type": "number"}
 			if k.Min != 0 || k.Max != 0 {
 				number["minimum"] = k.Min
@@ -229,27 +230,27 @@ const numberPattern = `[+-]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)(?:[eE][+-]?[0-9]+)?
 // and a unit of dimension d, as ParseQuantity reads them: one unit symbol
 // with its SI prefix and power, or one quotient of two such; a bare number
 // for a dimensionless value ("%" only where percent allows it).
-func QuantityPattern(d Dimension, percent bool) string {
+func QuantityPattern(d units.Dimension, percent bool) string {
 	// "%" is refused only in a dimensionless value that is not a
 	// fraction; in a quotient of another dimension the parser reads it.
-	terms := unitTerms(percent || d != Dimensionless)
+	terms := unitTerms(percent || d != units.Dimensionless)
 	group := func(ts []string) string { return "(?:" + strings.Join(ts, "|") + ")" }
 	var alts []string
 	if t := terms[d]; len(t) > 0 {
 		alts = append(alts, group(t))
 	}
-	dims := make([]Dimension, 0, len(terms))
+	dims := make([]units.Dimension, 0, len(terms))
 	for a := range terms {
 		dims = append(dims, a)
 	}
-	slices.SortFunc(dims, func(a, b Dimension) int { return strings.Compare(fmt.Sprint(a), fmt.Sprint(b)) })
+	slices.SortFunc(dims, func(a, b units.Dimension) int { return strings.Compare(fmt.Sprint(a), fmt.Sprint(b)) })
 	for _, a := range dims {
-		if tb := terms[a.add(d, -1)]; len(tb) > 0 {
+		if tb := terms[a.Add(d, -1)]; len(tb) > 0 {
 			alts = append(alts, group(terms[a])+`\s*/\s*`+group(tb))
 		}
 	}
 	unit := group(alts)
-	if d == Dimensionless {
+	if d == units.Dimensionless {
 		if len(alts) == 0 {
 			return numberPattern
 		}
@@ -261,28 +262,28 @@ func QuantityPattern(d Dimension, percent bool) string {
 // unitTerms lists, for every dimension a single unit term can have, the
 // regular expressions of the terms: a symbol, its SI prefix where it takes
 // one, and its power in the spellings parseUnitTerm reads.
-func unitTerms(percent bool) map[Dimension][]string {
-	out := map[Dimension][]string{}
-	syms := make([]string, 0, len(units))
-	for s := range units {
+func unitTerms(percent bool) map[units.Dimension][]string {
+	out := map[units.Dimension][]string{}
+	syms := make([]string, 0, len(units.Units))
+	for s := range units.Units {
 		syms = append(syms, s)
 	}
 	slices.Sort(syms)
-	prefixSet := make([]string, 0, len(prefixes))
-	for p := range prefixes {
+	prefixSet := make([]string, 0, len(units.Prefixes))
+	for p := range units.Prefixes {
 		prefixSet = append(prefixSet, regexp.QuoteMeta(p))
 	}
 	slices.Sort(prefixSet)
 	prefix := "(?:" + strings.Join(prefixSet, "|") + ")?"
 	for _, sym := range syms {
-		u := units[sym]
+		u := units.Units[sym]
 		body := regexp.QuoteMeta(sym)
-		if u.prefixed {
+		if u.Prefixed {
 			body = prefix + body
 		}
-		if u.dim == Dimensionless {
+		if u.Dim == units.Dimensionless {
 			if percent {
-				out[Dimensionless] = append(out[Dimensionless], body)
+				out[units.Dimensionless] = append(out[units.Dimensionless], body)
 			}
 			continue
 		}
@@ -290,7 +291,7 @@ func unitTerms(percent bool) map[Dimension][]string {
 			if p == 0 {
 				continue
 			}
-			d := u.dim.scale(p)
+			d := u.Dim.Scale(p)
 			out[d] = append(out[d], body+powerPattern(p))
 		}
 	}
@@ -323,8 +324,8 @@ func powerPattern(p int8) string {
 
 // dimensionKey names a dimension in a definition's name: its base units'
 // powers ("m2_kg1_s-3").
-func dimensionKey(d Dimension) string {
-	if d == Dimensionless {
+func dimensionKey(d units.Dimension) string {
+	if d == units.Dimensionless {
 		return "number"
 	}
 	var parts []string

@@ -16,6 +16,7 @@ import (
 	"github.com/santhosh-tekuri/jsonschema/v6"
 
 	"beamledger/budget/starter"
+	"beamledger/budget/units"
 )
 
 // compileSchema compiles a schema document; the compiler validates it
@@ -208,13 +209,13 @@ func TestBadInputsFailValidation(t *testing.T) {
 // when the parser reads a value of its dimension.
 func TestQuantityPatternMatchesParser(t *testing.T) {
 	var terms []string
-	for sym, u := range units {
+	for sym, u := range units.Units {
 		if sym == "%" {
 			continue
 		}
 		pre := []string{""}
-		if u.prefixed {
-			for p := range prefixes {
+		if u.Prefixed {
+			for p := range units.Prefixes {
 				pre = append(pre, p)
 			}
 		}
@@ -234,25 +235,25 @@ func TestQuantityPatternMatchesParser(t *testing.T) {
 	}
 	texts = append(texts, "%", "m/%", "W/%", "xyz", "mm/m/s")
 	numbers := []string{"5", "-2.5e-3", ".5", "5.", "+3E2", "7e"}
-	dims := []Dimension{Length, Time, Frequency, Power, Irradiance, RadiantExposure, LinearPowerDensity, Temperature, Mass}
-	pats := map[Dimension]*regexp.Regexp{}
-	for _, d := range append(dims, Dimensionless) {
+	dims := []units.Dimension{units.Length, units.Time, units.Frequency, units.Power, units.Irradiance, units.RadiantExposure, units.LinearPowerDensity, units.Temperature, units.Mass}
+	pats := map[units.Dimension]*regexp.Regexp{}
+	for _, d := range append(dims, units.Dimensionless) {
 		pats[d] = regexp.MustCompile(`^\s*(?:` + QuantityPattern(d, false) + `)\s*$`)
 	}
-	percent := regexp.MustCompile(`^\s*(?:` + QuantityPattern(Dimensionless, true) + `)\s*$`)
+	percent := regexp.MustCompile(`^\s*(?:` + QuantityPattern(units.Dimensionless, true) + `)\s*$`)
 	mismatches := 0
 	for i, u := range texts {
 		num := numbers[i%len(numbers)]
 		for _, s := range []string{num + " " + u, num + u} {
-			for _, d := range append(dims, Dimensionless) {
-				_, err := ParseAs(s, d)
-				parsed := err == nil && !(d == Dimensionless && strings.Contains(s, "%"))
+			for _, d := range append(dims, units.Dimensionless) {
+				_, err := units.ParseAs(s, d)
+				parsed := err == nil && !(d == units.Dimensionless && strings.Contains(s, "%"))
 				if got := pats[d].MatchString(s); got != parsed && mismatches < 20 {
 					mismatches++
 					t.Errorf("%q as %s: pattern %v, parser %v (%v)", s, d, got, parsed, err)
 				}
 			}
-			_, err := ParseAs(s, Dimensionless)
+			_, err := units.ParseAs(s, units.Dimensionless)
 			if got := percent.MatchString(s); got != (err == nil) && mismatches < 20 {
 				mismatches++
 				t.Errorf("%q as a fraction: pattern %v, parser %v (%v)", s, got, err == nil, err)

@@ -1,6 +1,7 @@
 package budget
 
 import (
+	"beamledger/budget/units"
 	"fmt"
 	"math"
 	"math/rand/v2"
@@ -178,7 +179,7 @@ type pendingTol struct {
 
 // tolerance reads a toleranced quantity, "a .. b" or "x ± s", records it
 // and returns its nominal value.
-func (t *table) tolerance(key, x, a, b string, normal bool, dim Dimension) (float64, bool) {
+func (t *table) tolerance(key, x, a, b string, normal bool, dim units.Dimension) (float64, bool) {
 	k, per := key, ""
 	if t.keyAs != "" {
 		k, per = t.keyAs, key

@@ -3,16 +3,17 @@ package safety
 import (
 	"math"
 
-	"beamledger/budget"
+	"beamledger/budget/numeric"
+	"beamledger/budget/optics"
 	"beamledger/limits"
 )
 
 // apertureIrradiance is the irradiance of beam b carrying power p (W)
 // averaged over a centred circular aperture of diameter d (m), W/m², with the
 // exact elliptical fraction.
-func apertureIrradiance(b budget.Beam, p, d float64) float64 {
+func apertureIrradiance(b optics.Beam, p, d float64) float64 {
 	wx, wy := b.Radii()
-	return p * budget.CircleFractionTol(wx, wy, d/2, hazardTolerance) / (math.Pi * d * d / 4)
+	return p * optics.CircleFractionTol(wx, wy, d/2, hazardTolerance) / (math.Pi * d * d / 4)
 }
 
 // hazardTolerance is the relative accuracy of the clipped fractions behind
@@ -26,7 +27,7 @@ const hazardTolerance = 1e-9
 // to the stretch. For a round beam that is one point; otherwise the stretch
 // between the waists is sampled and the best sample refined by golden-section
 // search.
-func maxAlong(b budget.Beam, p, d, length float64) (irr, at float64) {
+func maxAlong(b optics.Beam, p, d, length float64) (irr, at float64) {
 	clamp := func(z float64) float64 { return math.Max(0, math.Min(z, length)) }
 	zx, zy := b.X.WaistDistance(), b.Y.WaistDistance()
 	lo, hi := clamp(math.Min(zx, zy)), clamp(math.Max(zx, zy))
@@ -55,7 +56,7 @@ func maxAlong(b budget.Beam, p, d, length float64) (irr, at float64) {
 	// Golden-section search around the best sample, one new evaluation per
 	// step, to a relative width of 1e-5 of the stretch (the value near a
 	// maximum changes with the square of the step).
-	if z, v := budget.GoldenMax(f, math.Max(lo, bestZ-step), math.Min(hi, bestZ+step), 80, 1e-5*(1+hi)); v > best {
+	if z, v := numeric.GoldenMax(f, math.Max(lo, bestZ-step), math.Min(hi, bestZ+step), 80, 1e-5*(1+hi)); v > best {
 		best, bestZ = v, z
 	}
 	return best, bestZ
@@ -65,7 +66,7 @@ func maxAlong(b budget.Beam, p, d, length float64) (irr, at float64) {
 // irradiance of b with power p stays above mpe, m: the distance along the beam
 // from its start to where it falls below the limit for good, rounded up. It
 // is +Inf beyond MaxHazardDistance.
-func hazardDistance(b budget.Beam, p, d, mpe float64) float64 {
+func hazardDistance(b optics.Beam, p, d, mpe float64) float64 {
 	peak, zPeak := maxAlong(b, p, d, math.Inf(1))
 	if peak <= mpe {
 		return 0

@@ -12,6 +12,8 @@ import (
 	"sync/atomic"
 
 	"beamledger/budget"
+	"beamledger/budget/optics"
+	"beamledger/budget/units"
 	"beamledger/limits"
 )
 
@@ -94,7 +96,7 @@ func DurationAssumption(s *budget.Setup) string {
 	if s.Meta.Exposure == 0 {
 		return "0.25 s in 400–700 nm (aversion response) and 10 s elsewhere, for unintended viewing"
 	}
-	d := budget.FormatSI(s.Meta.Exposure, "s") + " at every wavelength, as the setup states"
+	d := units.FormatSI(s.Meta.Exposure, "s") + " at every wavelength, as the setup states"
 	if s.Meta.ExposureReason != "" {
 		d += " (reason given: " + s.Meta.ExposureReason + ")"
 	}
@@ -119,7 +121,7 @@ func laserLimits(s *budget.Setup, las *budget.Laser) (*LaserLimits, error) {
 		}
 		ll.Pulsed = &p
 		ll.EyeIrradiance = p.Irradiance
-		ll.EyeRule = fmt.Sprintf("repetitive pulses, the %s rule governs: %s J/m² per pulse × %s", p.Rule, budget.FormatNumber(p.PerPulse), budget.FormatFrequency(las.RepetitionRate))
+		ll.EyeRule = fmt.Sprintf("repetitive pulses, the %s rule governs: %s J/m² per pulse × %s", p.Rule, units.FormatNumber(p.PerPulse), units.FormatFrequency(las.RepetitionRate))
 		sp, err := limits.SkinMPE(las.Wavelength, las.PulseDuration)
 		if err == nil {
 			ll.SkinIrradiance = math.Min(ll.SkinIrradiance, math.Min(sp.RadiantExposure, ll.Skin.RadiantExposure/math.Max(1, las.RepetitionRate*t))*las.RepetitionRate)
@@ -133,8 +135,8 @@ func laserLimits(s *budget.Setup, las *budget.Laser) (*LaserLimits, error) {
 	}
 	ll.EN207Mode = limits.EN207Mode(las.Emission == budget.EmissionPulsed, las.PulseDuration)
 	if las.Emission == budget.EmissionPulsed {
-		ll.PulseEnergy = budget.PulseEnergy(las.Power, las.RepetitionRate)
-		ll.PeakPower = budget.PulsePeakPower(ll.PulseEnergy, las.PulseDuration)
+		ll.PulseEnergy = optics.PulseEnergy(las.Power, las.RepetitionRate)
+		ll.PeakPower = optics.PulsePeakPower(ll.PulseEnergy, las.PulseDuration)
 	}
 	if ll.AEL, err = limits.ContinuousAEL(las.Wavelength, 0); err != nil {
 		return nil, err
@@ -373,8 +375,8 @@ func (res *pathHazardResult) segment(pb *budget.PathBudget, ll *LaserLimits, seg
 	e.Lasers = []*budget.Laser{pb.Laser}
 	e.CombinedEyeRatio, e.CombinedSkinRatio, e.Additive = e.Ratio, e.SkinRatio, 1
 	if las := pb.Laser; las.Emission == budget.EmissionPulsed {
-		e.PulseRadiantExposure = budget.PulseEnergy(irr, las.RepetitionRate)
-		e.PulsePeakIrr = budget.PulsePeakPower(budget.PulseEnergy(e.PeakIrr, las.RepetitionRate), las.PulseDuration)
+		e.PulseRadiantExposure = optics.PulseEnergy(irr, las.RepetitionRate)
+		e.PulsePeakIrr = optics.PulsePeakPower(optics.PulseEnergy(e.PeakIrr, las.RepetitionRate), las.PulseDuration)
 	}
 	if e.OpenEnd {
 		e.NOHD = hazardDistance(seg.Beam, p, ll.EyeAperture, ll.EyeIrradiance)
@@ -444,8 +446,8 @@ func (res *pathHazardResult) segmentFinding(g []*Exposure) {
 	var msg string
 	if len(g) == 1 {
 		msg = fmt.Sprintf("%s: up to %s reaches %s × the eye MPE (%s averaged over %s, %s exposure) and %s × the skin MPE; eyewear needs OD %g at %s",
-			segmentName(pb.Path, seg), budget.FormatPower(worst.Power), FormatRatio(worst.Ratio), budget.FormatIrradiance(worst.Irradiance), budget.FormatLength(ll.EyeAperture),
-			budget.FormatSI(ll.Duration, "s"), FormatRatio(worst.SkinRatio), worst.OD, fmtNM(pb.Laser.Wavelength))
+			segmentName(pb.Path, seg), units.FormatPower(worst.Power), FormatRatio(worst.Ratio), units.FormatIrradiance(worst.Irradiance), units.FormatLength(ll.EyeAperture),
+			units.FormatSI(ll.Duration, "s"), FormatRatio(worst.SkinRatio), worst.OD, fmtNM(pb.Laser.Wavelength))
 	} else {
 		var parts, ods []string
 		for _, e := range g {
@@ -510,7 +512,7 @@ func (res *pathHazardResult) stray(pb *budget.PathBudget, ll *LaserLimits, r *bu
 		res.reflections = append(res.reflections, ref)
 		res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingStray, Path: pb.Path.Name,
 			Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s%s): each of its %d surface(s) reflects %s (R = %g%s), %.3g × the eye MPE at the surface; block or enclose the back-reflection",
-				el.Index, el.Label(), beamNote(pb), surfaces, budget.FormatPower(pr), R, assumedNote(assumed), ref.Ratio)}.Figure(irr, ll.EyeIrradiance, "W/m2"))
+				el.Index, el.Label(), beamNote(pb), surfaces, units.FormatPower(pr), R, assumedNote(assumed), ref.Ratio)}.Figure(irr, ll.EyeIrradiance, "W/m2"))
 	}
 }
 
@@ -533,7 +535,7 @@ func (res *pathHazardResult) escaping(pb *budget.PathBudget, ll *LaserLimits, r 
 			res.reflections = append(res.reflections, ref)
 			res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingEscaping, Path: pb.Path.Name,
 				Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s%s): %s %s, %s × the eye MPE; describe where it goes or end it in a rated dump",
-					el.Index, el.Label(), beamNote(pb), budget.FormatPower(pl), what, FormatRatio(ref.Ratio))}.Figure(irr, ll.EyeIrradiance, "W/m2"))
+					el.Index, el.Label(), beamNote(pb), units.FormatPower(pl), what, FormatRatio(ref.Ratio))}.Figure(irr, ll.EyeIrradiance, "W/m2"))
 		}
 	}
 }
@@ -634,7 +636,7 @@ func damage(own *budget.PathBudget) []budget.Finding {
 					thr := el.DamageThreshold * math.Sqrt(las.PulseDuration/el.DamagePulseDuration)
 					if f > thr {
 						add(budget.SeverityAction, FindingDamage, beamNote(b.pb), fmt.Sprintf("peak fluence %s exceeds its damage threshold scaled to the pulse length, %s",
-							budget.FormatSI(f*1e-4, "J/cm²"), budget.FormatSI(thr*1e-4, "J/cm²")), f, thr, "J/m2")
+							units.FormatSI(f*1e-4, "J/cm²"), units.FormatSI(thr*1e-4, "J/cm²")), f, thr, "J/m2")
 					}
 				default:
 					add(budget.SeverityAdvice, FindingDamageUnchecked, beamNote(b.pb), "its damage threshold is for the other kind of emission (a linear power density for cw, a fluence for pulses); not checked", 0, 0, "")
@@ -642,7 +644,7 @@ func damage(own *budget.PathBudget) []budget.Finding {
 			}
 			if lpd > el.DamageThreshold {
 				add(budget.SeverityAction, FindingDamage, beamsNote(cw), fmt.Sprintf("linear power density %s/cm%s exceeds its damage threshold %s/cm at %s",
-					budget.FormatPower(lpd/100), sumNote(cw), budget.FormatPower(el.DamageThreshold/100), atMaxPower(cw)), lpd, el.DamageThreshold, "W/m")
+					units.FormatPower(lpd/100), sumNote(cw), units.FormatPower(el.DamageThreshold/100), atMaxPower(cw)), lpd, el.DamageThreshold, "W/m")
 			}
 		}
 		if el.Type == budget.TypeFiber {
@@ -652,7 +654,7 @@ func damage(own *budget.PathBudget) []budget.Finding {
 			}
 			if peak > FiberFaceLimit {
 				add(budget.SeverityAction, FindingFibreFace, beamsNote(beams), fmt.Sprintf("the focused beam%s on the input face reach%s %s%s at %s, above the %s that common practice allows a clean silica face",
-					plural(beams, "", "s"), plural(beams, "es", ""), budget.FormatIrradiance(peak), sumNote(beams), atMaxPower(beams), budget.FormatIrradiance(FiberFaceLimit)), peak, FiberFaceLimit, "W/m2")
+					plural(beams, "", "s"), plural(beams, "es", ""), units.FormatIrradiance(peak), sumNote(beams), atMaxPower(beams), units.FormatIrradiance(FiberFaceLimit)), peak, FiberFaceLimit, "W/m2")
 			}
 		}
 	}
@@ -662,7 +664,7 @@ func damage(own *budget.PathBudget) []budget.Finding {
 // LinearPowerDensity is the power of a beam over its 1/e² diameter in the
 // smaller axis (the larger density), W/m: the quantity continuous-wave
 // damage ratings of optics are stated in (common practice).
-func LinearPowerDensity(b budget.Beam, p float64) float64 {
+func LinearPowerDensity(b optics.Beam, p float64) float64 {
 	wx, wy := b.Radii()
 	return p / (2 * math.Min(wx, wy))
 }
@@ -801,32 +803,32 @@ func beamNote(pb *budget.PathBudget) string {
 func segmentName(p *budget.Path, seg budget.Segment) string {
 	if p.IntoPath != nil && seg.To == p.IntoAt && (len(p.Elements) == 0 || seg.After == p.Elements[len(p.Elements)-1].Index) {
 		if seg.After == 0 {
-			return fmt.Sprintf("from the start to the combiner it goes into, %s (%s)", p.Into, budget.FormatLength(seg.To))
+			return fmt.Sprintf("from the start to the combiner it goes into, %s (%s)", p.Into, units.FormatLength(seg.To))
 		}
-		return fmt.Sprintf("from element %d to the combiner it goes into, %s (%s to %s)", seg.After, p.Into, budget.FormatLength(seg.From), budget.FormatLength(seg.To))
+		return fmt.Sprintf("from element %d to the combiner it goes into, %s (%s to %s)", seg.After, p.Into, units.FormatLength(seg.From), units.FormatLength(seg.To))
 	}
 	if math.IsInf(seg.To, 1) {
-		return fmt.Sprintf("after element %d (open end, from %s)", seg.After, budget.FormatLength(seg.From))
+		return fmt.Sprintf("after element %d (open end, from %s)", seg.After, units.FormatLength(seg.From))
 	}
 	if seg.After == 0 {
-		return fmt.Sprintf("from the start to element 1 (%s)", budget.FormatLength(seg.To))
+		return fmt.Sprintf("from the start to element 1 (%s)", units.FormatLength(seg.To))
 	}
-	return fmt.Sprintf("between elements %d and %d (%s to %s)", seg.After, seg.After+1, budget.FormatLength(seg.From), budget.FormatLength(seg.To))
+	return fmt.Sprintf("between elements %d and %d (%s to %s)", seg.After, seg.After+1, units.FormatLength(seg.From), units.FormatLength(seg.To))
 }
 
 // FormatRatio writes a ratio to its limit to three figures, rounded up.
-func FormatRatio(r float64) string { return budget.FormatNumber(limits.RoundUp(r, 3)) }
+func FormatRatio(r float64) string { return units.FormatNumber(limits.RoundUp(r, 3)) }
 
-func fmtNM(λ float64) string { return fmt.Sprintf("%s nm", budget.FormatNumber(λ*1e9)) }
+func fmtNM(λ float64) string { return fmt.Sprintf("%s nm", units.FormatNumber(λ*1e9)) }
 
 // FormatDistance writes a hazard distance, m; one past MaxHazardDistance
 // (+Inf) is "beyond 100 km": too far to matter on any site.
 func FormatDistance(d float64) string {
 	if math.IsInf(d, 1) || d > MaxHazardDistance {
-		return fmt.Sprintf("beyond %s", budget.FormatLength(MaxHazardDistance))
+		return fmt.Sprintf("beyond %s", units.FormatLength(MaxHazardDistance))
 	}
 	if d == 0 {
 		return "0 m"
 	}
-	return budget.FormatLength(d)
+	return units.FormatLength(d)
 }

@@ -4,6 +4,7 @@ import (
 	"fmt"
 
 	"beamledger/budget"
+	"beamledger/budget/units"
 	"beamledger/limits"
 )
 
@@ -59,10 +60,10 @@ func LookUpLimits(q LimitsQuery) (*LimitsLookup, error) {
 		return nil, fmt.Errorf("a pulse train needs both its pulse duration and its repetition rate")
 	}
 	if pulsed && q.PulseDuration*q.RepetitionRate > 1 {
-		return nil, fmt.Errorf("a repetition rate of %s with %s pulses is a duty cycle above 1", budget.FormatFrequency(q.RepetitionRate), budget.FormatSI(q.PulseDuration, "s"))
+		return nil, fmt.Errorf("a repetition rate of %s with %s pulses is a duty cycle above 1", units.FormatFrequency(q.RepetitionRate), units.FormatSI(q.PulseDuration, "s"))
 	}
 	if pulsed && q.PulseDuration > t {
-		return nil, fmt.Errorf("the pulse duration %s is longer than the exposure %s", budget.FormatSI(q.PulseDuration, "s"), budget.FormatSI(t, "s"))
+		return nil, fmt.Errorf("the pulse duration %s is longer than the exposure %s", units.FormatSI(q.PulseDuration, "s"), units.FormatSI(t, "s"))
 	}
 	beam := q.Power > 0 || q.BeamDiameter > 0 || q.Divergence > 0
 	if beam && !(q.Power > 0 && q.BeamDiameter > 0 && q.Divergence > 0) {

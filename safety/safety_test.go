@@ -10,6 +10,7 @@ import (
 	"time"
 
 	"beamledger/budget"
+	"beamledger/budget/optics"
 	"beamledger/budget/synth"
 	"beamledger/limits"
 )
@@ -62,7 +63,7 @@ func TestDemoFirstSegmentByHand(t *testing.T) {
 func TestApertureIrradianceRound(t *testing.T) {
 	const λ = 633e-9
 	for _, w := range []float64{0.5e-3, 3.5e-3, 10e-3} {
-		b := budget.Beam{Wavelength: λ, X: budget.NewPlane(w, 0, 1, λ), Y: budget.NewPlane(w, 0, 1, λ)}
+		b := optics.Beam{Wavelength: λ, X: optics.NewPlane(w, 0, 1, λ), Y: optics.NewPlane(w, 0, 1, λ)}
 		got := apertureIrradiance(b, 1, 7e-3)
 		want := limits.ApertureAverage(1, w, 7e-3)
 		if math.Abs(got-want) > 1e-9*want {
@@ -74,7 +75,7 @@ func TestApertureIrradianceRound(t *testing.T) {
 // The worst point of a focusing segment is at the focus.
 func TestMaxAlongFindsFocus(t *testing.T) {
 	const λ = 1064e-9
-	b := budget.Beam{Wavelength: λ, X: budget.NewPlane(5e-3, 0, 1, λ), Y: budget.NewPlane(5e-3, 0, 1, λ)}.Lens(0.5)
+	b := optics.Beam{Wavelength: λ, X: optics.NewPlane(5e-3, 0, 1, λ), Y: optics.NewPlane(5e-3, 0, 1, λ)}.Lens(0.5)
 	irr, at := maxAlong(b, 1, 1e-3, 2)
 	focus := b.X.WaistDistance()
 	if math.Abs(at-focus) > 1e-3 {
@@ -91,7 +92,7 @@ func TestMaxAlongFindsFocus(t *testing.T) {
 // NOHD = (√(4P/(π MPE)) − a)/φ in 1/e quantities.
 func TestHazardDistanceMatchesClosedForm(t *testing.T) {
 	const λ, w0, p, mpe = 1064e-9, 0.2e-3, 1.0, 50.61
-	b := budget.Beam{Wavelength: λ, X: budget.NewPlane(w0, 0, 1, λ), Y: budget.NewPlane(w0, 0, 1, λ)}
+	b := optics.Beam{Wavelength: λ, X: optics.NewPlane(w0, 0, 1, λ), Y: optics.NewPlane(w0, 0, 1, λ)}
 	θ := b.X.Divergence(λ)
 	got := hazardDistance(b, p, 7e-3, mpe)
 	want := limits.NOHD(p, 2*w0, 2*θ, mpe)
@@ -236,7 +237,7 @@ func TestMaxAlongAstigmatic(t *testing.T) {
 		{1e-3, 6e-3, -0.2, 0.5, 1, 3.5e-3, 0.3},
 	} {
 		t.Run(fmt.Sprint(c), func(t *testing.T) {
-			b := budget.Beam{Wavelength: λ, X: budget.NewPlane(c.wx, c.zx, 1.3, λ), Y: budget.NewPlane(c.wy, c.zy, 1.1, λ)}.Lens(0.3)
+			b := optics.Beam{Wavelength: λ, X: optics.NewPlane(c.wx, c.zx, 1.3, λ), Y: optics.NewPlane(c.wy, c.zy, 1.1, λ)}.Lens(0.3)
 			got, _ := maxAlong(b, c.p, c.d, c.L)
 			dense := 0.0
 			for i := 0; i <= 20000; i++ {
@@ -499,7 +500,7 @@ access = "enclosed"
 // is rated for condition R of EN 207, its scale number set by the radiant
 // exposure of one pulse over the 7 mm aperture: nearly all of 5 mJ in
 // π(3.5 mm)², 129.9 J/m², needs LB5 (0.05·10^(n−1) J/m² ≥ 129.9; EN 207
-// scale table, from memory); the pulse energy is 50 mW / 10 Hz = 5 mJ and
+// Scale table, from memory); the pulse energy is 50 mW / 10 Hz = 5 mJ and
 // the peak power 5 mJ / 7 ns = 714 kW (common practice).
 func TestPulsedSourceFigures(t *testing.T) {
 	s, err := budget.Load("../testdata/examples/ablation-pulse.toml")

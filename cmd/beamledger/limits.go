@@ -6,6 +6,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"beamledger/budget"
+	"beamledger/budget/units"
 	"beamledger/limits"
 	"beamledger/safety"
 	"beamledger/safety/view"
@@ -69,11 +70,11 @@ var flagRange = map[string][2]float64{
 }
 
 // flagQuantity reads a flag's quantity; an empty flag gives ok = false.
-func flagQuantity(name, v string, dim budget.Dimension) (float64, bool, error) {
+func flagQuantity(name, v string, dim units.Dimension) (float64, bool, error) {
 	if v == "" {
 		return 0, false, nil
 	}
-	q, err := budget.ParseAs(v, dim)
+	q, err := units.ParseAs(v, dim)
 	if err != nil {
 		return 0, false, fmt.Errorf("--%s: %w", name, err)
 	}
@@ -105,7 +106,7 @@ func (e *env) runLimits(o *limitsOptions) error {
 // limitsQuery reads the flags into a query.
 func limitsQuery(o *limitsOptions) (safety.LimitsQuery, error) {
 	var q safety.LimitsQuery
-	λ, ok, err := flagQuantity("wavelength", o.wavelength, budget.Length)
+	λ, ok, err := flagQuantity("wavelength", o.wavelength, units.Length)
 	if err != nil {
 		return q, err
 	}
@@ -115,16 +116,16 @@ func limitsQuery(o *limitsOptions) (safety.LimitsQuery, error) {
 	q.Wavelength = λ
 	for _, f := range []struct {
 		name, value string
-		dim         budget.Dimension
+		dim         units.Dimension
 		to          *float64
 	}{
-		{"duration", o.duration, budget.Time, &q.Duration},
-		{"angular-subtense", o.angularSubtense, budget.Angle, &q.AngularSubtense},
-		{"pulse-duration", o.pulseDuration, budget.Time, &q.PulseDuration},
-		{"repetition-rate", o.repetitionRate, budget.Frequency, &q.RepetitionRate},
-		{"power", o.power, budget.Power, &q.Power},
-		{"beam-diameter", o.beamDiameter, budget.Length, &q.BeamDiameter},
-		{"divergence", o.divergence, budget.Angle, &q.Divergence},
+		{"duration", o.duration, units.Time, &q.Duration},
+		{"angular-subtense", o.angularSubtense, units.Angle, &q.AngularSubtense},
+		{"pulse-duration", o.pulseDuration, units.Time, &q.PulseDuration},
+		{"repetition-rate", o.repetitionRate, units.Frequency, &q.RepetitionRate},
+		{"power", o.power, units.Power, &q.Power},
+		{"beam-diameter", o.beamDiameter, units.Length, &q.BeamDiameter},
+		{"divergence", o.divergence, units.Angle, &q.Divergence},
 	} {
 		if *f.to, _, err = flagQuantity(f.name, f.value, f.dim); err != nil {
 			return q, err

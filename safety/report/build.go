@@ -10,6 +10,8 @@ import (
 
 	"beamledger/budget"
 	"beamledger/budget/atoms"
+	"beamledger/budget/optics"
+	"beamledger/budget/units"
 	"beamledger/limits"
 	"beamledger/safety"
 	"beamledger/safety/revision"
@@ -349,7 +351,7 @@ func beamPlot(pb *budget.PathBudget) *Plot {
 }
 
 // beamAt is the beam at position z along the path (after any element at z).
-func beamAt(pb *budget.PathBudget, z float64) budget.Beam {
+func beamAt(pb *budget.PathBudget, z float64) optics.Beam {
 	for _, s := range pb.Segments {
 		if z >= s.From && z <= s.To {
 			return s.Beam.Propagate(z - s.From)
@@ -373,7 +375,7 @@ func atomsSection(a *safety.Assessment, l *view.List) Section {
 	sec := Section{Heading: "At the atoms"}
 	for i, at := range a.Atoms {
 		e := at.Row.Element
-		sec.Blocks = append(sec.Blocks, Block{Subheading: fmt.Sprintf("Path %q, element %d at %s", at.Path.Path.Name, e.Index, budget.FormatLength(e.At))},
+		sec.Blocks = append(sec.Blocks, Block{Subheading: fmt.Sprintf("Path %q, element %d at %s", at.Path.Path.Name, e.Index, units.FormatLength(e.At))},
 			Block{Bullets: lines(&l.Records[i])})
 		if g := at.Goal; g != nil && g.Collective != nil && g.Impossible == "" {
 			sec.Blocks = append(sec.Blocks, Block{Plot: collectivePlot(at, g)})
@@ -510,7 +512,7 @@ func collectivePlot(at *budget.AtomsResult, g *budget.GoalResult) *Plot {
 	}
 	pl.Series = []Series{{Name: "D = b0 (upper)", X: xs, Y: up}, {Name: "D = b0/2 (lower)", X: xs, Y: lo, Dashed: true}}
 	pl.HLines = []HLine{{Y: g.Available, Label: fmt.Sprintf("operating power of %q", at.Path.Laser.Name)}}
-	pl.Markers = []Marker{{X: g.Factor, Label: fmt.Sprintf("goal ×%s", budget.FormatNumber(g.Factor))}}
+	pl.Markers = []Marker{{X: g.Factor, Label: fmt.Sprintf("goal ×%s", units.FormatNumber(g.Factor))}}
 	return pl
 }
 

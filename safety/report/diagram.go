@@ -7,6 +7,7 @@ import (
 	"unicode/utf8"
 
 	"beamledger/budget"
+	"beamledger/budget/units"
 	"beamledger/safety"
 )
 
@@ -137,7 +138,7 @@ func Diagrams(a *safety.Assessment) []*Drawing {
 	}
 	var out []*Drawing
 	for _, las := range a.Setup.Lasers {
-		title := fmt.Sprintf("Laser %q, %s", las.Name, budget.FormatWavelength(las.Wavelength))
+		title := fmt.Sprintf("Laser %q, %s", las.Name, units.FormatWavelength(las.Wavelength))
 		for _, ll := range a.Hazards.Lasers {
 			if ll.Laser == las && ll.Class != "" {
 				title += ", Class " + ll.Class
@@ -189,10 +190,10 @@ func stack(title string, bands []band) []*Drawing {
 func pathBands(pb, own *budget.PathBudget, ratio map[int]float64, escaping map[*budget.Element]float64, hb *budget.Budget) []band {
 	p := pb.Path
 	stops := pathStops(pb, hb)
-	head := fmt.Sprintf("path %q: %s, %s", p.Name, budget.FormatWavelength(pb.Laser.Wavelength), stops[0].label)
+	head := fmt.Sprintf("path %q: %s, %s", p.Name, units.FormatWavelength(pb.Laser.Wavelength), stops[0].label)
 	if pb == own {
 		for _, q := range own.Joined {
-			head += fmt.Sprintf("; laser %q (%s) joins", q.Laser.Name, budget.FormatWavelength(q.Laser.Wavelength))
+			head += fmt.Sprintf("; laser %q (%s) joins", q.Laser.Name, units.FormatWavelength(q.Laser.Wavelength))
 			if q.Combiner != nil {
 				head += fmt.Sprintf(" at %q", q.Combiner.Label())
 			}

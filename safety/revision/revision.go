@@ -20,6 +20,7 @@ import (
 	"github.com/BurntSushi/toml"
 
 	"beamledger/budget"
+	"beamledger/budget/units"
 	"beamledger/safety"
 )
 
@@ -343,8 +344,8 @@ func sameValue(a, b any) bool {
 	if !ok1 || !ok2 {
 		return false
 	}
-	va, da, e1 := budget.ParseQuantity(sa)
-	vb, db, e2 := budget.ParseQuantity(sb)
+	va, da, e1 := units.ParseQuantity(sa)
+	vb, db, e2 := units.ParseQuantity(sb)
 	return e1 == nil && e2 == nil && da == db && va == vb
 }
 
@@ -476,7 +477,7 @@ func hazardEntries(a *safety.Assessment, ids *idMap, old bool) map[string]entry 
 		out[kind+"|"+what] = entry{kind, what, text, figs}
 	}
 	for _, n := range h.Eyewear {
-		what := fmt.Sprintf("%s, %s", budget.FormatWavelength(n.Wavelength), n.Mode)
+		what := fmt.Sprintf("%s, %s", units.FormatWavelength(n.Wavelength), n.Mode)
 		cover := "not covered by declared eyewear"
 		if len(n.CoveredBy) > 0 {
 			cover = "covered by " + strings.Join(n.CoveredBy, ", ")
@@ -622,7 +623,7 @@ func driveEntries(a *safety.Assessment, ids *idMap, old bool) map[string]entry {
 	for _, at := range a.Atoms {
 		path := at.Path.Path.Name
 		what := fmt.Sprintf("path %q, element %s, laser %q", path, ids.id(old, path, at.Row.Element.Index), at.Path.Laser.Name)
-		out["power|"+what] = entry{"power_at_cloud", what, budget.FormatPower(at.Power), map[string]float64{"power_w": at.Power}}
+		out["power|"+what] = entry{"power_at_cloud", what, units.FormatPower(at.Power), map[string]float64{"power_w": at.Power}}
 		if g := at.Goal; g != nil {
 			out["goal|"+what] = entry{"goal", what + ", goal " + g.Kind, goalText(g.MarginDB, g.Met, g.Impossible), map[string]float64{"margin_db": g.MarginDB}}
 		}

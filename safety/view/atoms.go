@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"beamledger/budget"
+	"beamledger/budget/units"
 	"beamledger/safety"
 )
 
@@ -37,9 +38,9 @@ func (b *builder) atomsRecord(a *budget.AtomsResult) Record {
 		F(Irr(dPeakIrradianceWM2, a.PeakIrradiance)).
 		F(Num(dIrradianceAtRmsXRelative, a.EdgeRelative[0], fixed(100*a.EdgeRelative[0], 1, " %"))).
 		F(Num(dIrradianceAtRmsYRelative, a.EdgeRelative[1], fixed(100*a.EdgeRelative[1], 1, " %")))
-	r.F(NumRows(dRadiusAtCloudEndsM, [][]float64{a.EndRadii[0][:], a.EndRadii[1][:]}, fmt.Sprintf("%s × %s and %s × %s", budget.FormatLength(a.EndRadii[0][0]), budget.FormatLength(a.EndRadii[0][1]), budget.FormatLength(a.EndRadii[1][0]), budget.FormatLength(a.EndRadii[1][1]))))
-	r.F(Field{d: dFocusX, Kind: Number, SI: a.FocusOffset[0], Text: budget.FormatLength(a.FocusOffset[0]), People: true}).
-		F(Field{d: dFocusY, Kind: Number, SI: a.FocusOffset[1], Text: budget.FormatLength(a.FocusOffset[1]), People: true})
+	r.F(NumRows(dRadiusAtCloudEndsM, [][]float64{a.EndRadii[0][:], a.EndRadii[1][:]}, fmt.Sprintf("%s × %s and %s × %s", units.FormatLength(a.EndRadii[0][0]), units.FormatLength(a.EndRadii[0][1]), units.FormatLength(a.EndRadii[1][0]), units.FormatLength(a.EndRadii[1][1]))))
+	r.F(Field{d: dFocusX, Kind: Number, SI: a.FocusOffset[0], Text: units.FormatLength(a.FocusOffset[0]), People: true}).
+		F(Field{d: dFocusY, Kind: Number, SI: a.FocusOffset[1], Text: units.FormatLength(a.FocusOffset[1]), People: true})
 	r.F(hzField(dDetuningHz, a.Detuning)).
 		F(Str(dDetuningSource, a.DetuningSource)).
 		F(Irr(dSaturationIntensityWM2, a.Isat)).
@@ -57,9 +58,9 @@ func (b *builder) atomsRecord(a *budget.AtomsResult) Record {
 	d := a.Dipole
 	if d != nil {
 		depth := math.Max(0, -d.Depth/kB) // a repulsive beam makes no trap
-		r.F(Num(dDipolePotentialK, d.Depth/kB, budget.FormatSI(d.Depth/kB, "K"))).
-			F(Num(dDipolePotentialHz, d.Depth/hPlanck, budget.FormatFrequency(d.Depth/hPlanck))).
-			F(Num(dTrapDepthK, depth, budget.FormatSI(depth, "K"))).
+		r.F(Num(dDipolePotentialK, d.Depth/kB, units.FormatSI(d.Depth/kB, "K"))).
+			F(Num(dDipolePotentialHz, d.Depth/hPlanck, units.FormatFrequency(d.Depth/hPlanck))).
+			F(Num(dTrapDepthK, depth, units.FormatSI(depth, "K"))).
 			F(hzField(dTrapFrequencyRadialHz, math.Sqrt(d.TrapX*d.TrapY))).
 			F(hzField(dTrapFrequencyXHz, d.TrapX)).
 			F(hzField(dTrapFrequencyYHz, d.TrapY)).
@@ -85,10 +86,10 @@ func (b *builder) atomsRecord(a *budget.AtomsResult) Record {
 	r.O("goal", goal, false)
 
 	r.Line(fmt.Sprintf("path %q, element %d: cloud %q (%s, %s atoms), at {at_m}; laser %q at its operating power %s",
-		a.Path.Path.Name, e.Index, a.Cloud.Name, tr.Name, fmtG(a.Cloud.Atoms), las.Name, budget.FormatPower(las.OperatingPower)))
+		a.Path.Path.Name, e.Index, a.Cloud.Name, tr.Name, fmtG(a.Cloud.Atoms), las.Name, units.FormatPower(las.OperatingPower)))
 	r.Line("  beam: Wx {radius_x_m}, Wy {radius_y_m}; waist {focus_x} (x), {focus_y} (y) from the cloud (+ downstream)")
 	r.Line("  power {power_w}, peak irradiance {peak_irradiance_w_m2}")
-	r.Line(fmt.Sprintf("  across the cloud: I at ±1 rms is {irradiance_at_rms_x_relative} (x), {irradiance_at_rms_y_relative} (y) of the centre; W at ±1 rms along the beam (%s): {radius_at_cloud_ends_m}", budget.FormatLength(a.Cloud.RMSAlong(a.Row.Element.Direction))))
+	r.Line(fmt.Sprintf("  across the cloud: I at ±1 rms is {irradiance_at_rms_x_relative} (x), {irradiance_at_rms_y_relative} (y) of the centre; W at ±1 rms along the beam (%s): {radius_at_cloud_ends_m}", units.FormatLength(a.Cloud.RMSAlong(a.Row.Element.Direction))))
 	r.Line("  detuning Δ/2π = {detuning_hz} ({detuning_source})")
 	r.Line("  I_sat = {saturation_intensity_w_m2} ({saturation_intensity_kind})")
 	switch {
@@ -146,7 +147,7 @@ func (b *builder) goalRecord(a *budget.AtomsResult, g *budget.GoalResult) *Recor
 	case budget.GoalRabi, budget.GoalCollective:
 		r.F(Num(dTargetSi, g.Target, hz(g.Target))) // Ω in rad/s
 	case budget.GoalTrapDepth:
-		r.F(Num(dTargetSi, g.Target, budget.FormatSI(g.Target, "K")))
+		r.F(Num(dTargetSi, g.Target, units.FormatSI(g.Target, "K")))
 	default:
 		r.F(num(dTargetSi, g.Target))
 	}
@@ -201,7 +202,7 @@ func (b *builder) goalRecord(a *budget.AtomsResult, g *budget.GoalResult) *Recor
 			F(Field{d: dD, Kind: Number, SI: c.D, Text: fmtG(c.D), People: true})
 		r.Line("  goal: collective drive at {goal_factor} × the threshold of cooperative resonance fluorescence")
 		if c.FromRate {
-			r.Line(fmt.Sprintf("    threshold Ω_c/2π = {threshold_rabi_frequency_hz} from the stated collective rate N Γ_c/2π = %s (Ω_c = N Γ_c / 2)", budget.FormatFrequency(a.Cloud.CollectiveRate)))
+			r.Line(fmt.Sprintf("    threshold Ω_c/2π = {threshold_rabi_frequency_hz} from the stated collective rate N Γ_c/2π = %s (Ω_c = N Γ_c / 2)", units.FormatFrequency(a.Cloud.CollectiveRate)))
 		} else {
 			r.Line("    threshold Ω_c/2π = {threshold_rabi_frequency_hz} (D = b0 = {d}, used for the margin) to {threshold_rabi_frequency_low_hz} (D = b0/2); s_c = D²/32 = {threshold_saturation}")
 		}

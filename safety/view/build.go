@@ -9,6 +9,7 @@ import (
 
 	"beamledger/budget"
 	"beamledger/budget/atoms"
+	"beamledger/budget/units"
 	"beamledger/safety"
 )
 
@@ -131,7 +132,7 @@ func (b *builder) pathRecord(pb *budget.PathBudget) Record {
 	sx, sy := pb.Start.Radii()
 	startP := pb.StartFraction * op
 	r.F(Str(dName2, p.Name)).F(Str(dFrom, p.From)).F(Str(dLaser, las.Name)).
-		F(Num(dWavelengthM4, las.Wavelength, budget.FormatWavelength(las.Wavelength))).
+		F(Num(dWavelengthM4, las.Wavelength, units.FormatWavelength(las.Wavelength))).
 		F(Pow(dOperatingPowerW, op)).
 		F(Pow(dMaxPowerW, las.Power)).
 		F(Pow(dStartPowerW, startP)).
@@ -155,7 +156,7 @@ func (b *builder) pathRecord(pb *budget.PathBudget) Record {
 			how = "at combiner " + strconv.Quote(jb.Combiner.Label())
 		}
 		jr.F(Str(dLaser3, jb.Laser.Name)).
-			F(Num(dWavelengthM5, jb.Laser.Wavelength, budget.FormatWavelength(jb.Laser.Wavelength))).
+			F(Num(dWavelengthM5, jb.Laser.Wavelength, units.FormatWavelength(jb.Laser.Wavelength))).
 			F(Len(dJoinedAtM, jb.JoinedAt)).
 			F(Pow(dOperatingPowerW2, jop)).
 			F(Field{d: dJoinedHow, Kind: String, Text: how, People: true})
@@ -175,8 +176,8 @@ func (b *builder) pathRecord(pb *budget.PathBudget) Record {
 	r.F(Pow(dEndPowerW, endP))
 	if pb.OpenEnd {
 		ex, ey := pb.End.Radii()
-		r.F(Field{d: dEndRadiusXM, Kind: Number, SI: ex, Text: budget.FormatLength(ex), People: true})
-		r.F(Field{d: dEndRadiusYM, Kind: Number, SI: ey, Text: budget.FormatLength(ey), People: true})
+		r.F(Field{d: dEndRadiusXM, Kind: Number, SI: ex, Text: units.FormatLength(ex), People: true})
+		r.F(Field{d: dEndRadiusYM, Kind: Number, SI: ey, Text: units.FormatLength(ey), People: true})
 		r.After = append(r.After, "  open end: {end_power_w} leaves the path (Wx {end_radius_x_m}, Wy {end_radius_y_m} after the last element)")
 	}
 	return r
@@ -191,7 +192,7 @@ func startAt(at float64) string {
 	if at == 0 {
 		return "0 mm"
 	}
-	return budget.FormatLength(at)
+	return units.FormatLength(at)
 }
 
 // elementsList is the table of one beam's elements, after a lead row at the
@@ -204,11 +205,11 @@ func (b *builder) elementsList(pb *budget.PathBudget, op float64, lead string) *
 	lr := &Record{Members: b.members(10)}
 	lr.F(Whole(dIndex, 0)).F(Field{d: dElement4, Kind: String, Text: lead, People: true}).
 		F(Field{d: dAtM3, Kind: Number, SI: pb.JoinedAt, Text: startAt(pb.JoinedAt)}).
-		F(Field{d: dRadiusXM2, Kind: Number, SI: sx, Text: budget.FormatLength(sx)}).
-		F(Field{d: dRadiusYM2, Kind: Number, SI: sy, Text: budget.FormatLength(sy)}).
+		F(Field{d: dRadiusXM2, Kind: Number, SI: sx, Text: units.FormatLength(sx)}).
+		F(Field{d: dRadiusYM2, Kind: Number, SI: sy, Text: units.FormatLength(sy)}).
 		F(Field{d: dPowerInW2, Kind: Number, SI: math.NaN(), Text: ""}).
-		F(Field{d: dPowerOutW2, Kind: Number, SI: startP, Text: budget.FormatPower(startP)}).
-		F(Field{d: dPeakIrradianceWM23, Kind: Number, SI: pb.Start.PeakIrradiance(startP), Text: budget.FormatIrradiance(pb.Start.PeakIrradiance(startP))}).
+		F(Field{d: dPowerOutW2, Kind: Number, SI: startP, Text: units.FormatPower(startP)}).
+		F(Field{d: dPeakIrradianceWM23, Kind: Number, SI: pb.Start.PeakIrradiance(startP), Text: units.FormatIrradiance(pb.Start.PeakIrradiance(startP))}).
 		F(Field{d: dCumulativeLossDb2, Kind: Number, Text: fmtDB(pb.StartFraction)}).
 		F(Field{d: dLossesHere, Kind: String, Text: ""})
 	els.Lead = lr
@@ -238,7 +239,7 @@ func (b *builder) elementRecord(row *budget.Row, op float64) Record {
 		F(Pow(dPowerOutW, pout)).
 		F(Irr(dPeakIrradianceWM22, peak))
 	if row.FractionOut > 0 {
-		r.F(Num(dCumulativeLossDb, -budget.Decibels(row.FractionOut), fmtDB(row.FractionOut)))
+		r.F(Num(dCumulativeLossDb, -units.Decibels(row.FractionOut), fmtDB(row.FractionOut)))
 	} else {
 		r.F(Field{d: dCumulativeLossDb, Kind: Number, SI: math.NaN(), Text: "—"})
 	}
@@ -252,7 +253,7 @@ func (b *builder) elementRecord(row *budget.Row, op float64) Record {
 		losses.Records = append(losses.Records, lr)
 		if l.Fraction >= negligibleLoss {
 			here = appendItem(here, l.Kind)
-			here = budget.AppendPower(append(here, ' '), l.Fraction*op)
+			here = units.AppendPower(append(here, ' '), l.Fraction*op)
 		}
 	}
 	if row.AssumedLossless {
@@ -297,8 +298,8 @@ func (b *builder) fiberRecord(row *budget.Row, fc *budget.FiberCoupling) *Record
 		F(Len(dIdealFocalLengthYM, fc.IdealFocalLength[1])).
 		F(Len(dIdealFocalLengthForBeamAtM, fc.LensAt))
 	f.F(Field{d: dIdealFocalLengths, Kind: String, Text: budget.FormatFocalPair(fc.IdealFocalLength), People: true})
-	f.F(Field{d: dModeFieldDiameter, Kind: Number, SI: e.ModeFieldDiameter, Text: budget.FormatLength(e.ModeFieldDiameter), People: true})
-	head := fmt.Sprintf("fibre %d at %s: ", e.Index, budget.FormatLength(e.At))
+	f.F(Field{d: dModeFieldDiameter, Kind: Number, SI: e.ModeFieldDiameter, Text: units.FormatLength(e.ModeFieldDiameter), People: true})
+	head := fmt.Sprintf("fibre %d at %s: ", e.Index, units.FormatLength(e.At))
 	switch {
 	case fc.Given:
 		f.Line(head + "coupling {coupling} as stated")
@@ -421,7 +422,7 @@ func appendItem(list []byte, item string) []byte {
 
 // withUnit writes a number and its unit: "3.2 W/m²".
 func withUnit(v float64, unit string) string {
-	b := budget.AppendNumber(make([]byte, 0, 16+len(unit)), v)
+	b := units.AppendNumber(make([]byte, 0, 16+len(unit)), v)
 	return string(append(append(b, ' '), unit...))
 }
 
@@ -437,16 +438,16 @@ func fmtDB(f float64) string {
 	if f <= 0 {
 		return "—"
 	}
-	db := -budget.Decibels(f)
+	db := -units.Decibels(f)
 	if math.Abs(db) < 0.005 {
 		db = 0
 	}
 	return fixed(db, 2, "")
 }
 
-func hz(ω float64) string { return budget.FormatFrequency(ω / (2 * math.Pi)) }
+func hz(ω float64) string { return units.FormatFrequency(ω / (2 * math.Pi)) }
 
-func fmtG(v float64) string { return budget.FormatNumber(v) }
+func fmtG(v float64) string { return units.FormatNumber(v) }
 
 // Constants for display conversions (CODATA, via package atoms).
 var (

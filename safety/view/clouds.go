@@ -8,6 +8,7 @@ import (
 
 	"beamledger/budget"
 	"beamledger/budget/atoms"
+	"beamledger/budget/units"
 	"beamledger/safety"
 )
 
@@ -30,7 +31,7 @@ func vec(v [3]float64) string {
 func round6(x float64) float64 { return math.Round(x*1e6) / 1e6 }
 
 func lengths(v [3]float64) string {
-	return fmt.Sprintf("[%s, %s, %s]", budget.FormatLength(v[0]), budget.FormatLength(v[1]), budget.FormatLength(v[2]))
+	return fmt.Sprintf("[%s, %s, %s]", units.FormatLength(v[0]), units.FormatLength(v[1]), units.FormatLength(v[2]))
 }
 
 func (b *builder) cloudRecord(cr *budget.CloudResult) Record {
@@ -62,13 +63,13 @@ func (b *builder) cloudRecord(cr *budget.CloudResult) Record {
 		br.F(Str(dPath4, at.Path.Path.Name)).F(Whole(dElementIndex, at.Row.Element.Index)).F(Str(dLaser4, at.Path.Laser.Name)).
 			F(Pow(dPowerW6, at.Power)).
 			F(NumList(dDirection, cb.Direction[:], vec(cb.Direction))).
-			F(Num(dDetuningHz2, at.Detuning/(2*math.Pi), budget.FormatFrequency(at.Detuning/(2*math.Pi)))).
+			F(Num(dDetuningHz2, at.Detuning/(2*math.Pi), units.FormatFrequency(at.Detuning/(2*math.Pi)))).
 			F(Field{d: dRole, Kind: String, Text: role, People: true})
 		beams.Records = append(beams.Records, br)
 	}
 	r.L(beams)
 	r.Line(fmt.Sprintf("cloud %q ({transition}), gravity along {down}: %d beam(s)", c.Name, len(cr.Beams)))
-	r.F(Num(dDipoleAtCloudK, cr.PotentialAtCloud/atoms.KB, budget.FormatSI(cr.PotentialAtCloud/atoms.KB, "K")))
+	r.F(Num(dDipoleAtCloudK, cr.PotentialAtCloud/atoms.KB, units.FormatSI(cr.PotentialAtCloud/atoms.KB, "K")))
 	if cr.Trap != nil {
 		r.After = append(r.After, "  dipole potential of the far-detuned beams at the cloud U/k_B = {dipole_potential_at_cloud_k}")
 	}
@@ -89,11 +90,11 @@ func (b *builder) cloudRecord(cr *budget.CloudResult) Record {
 	default:
 		var freqs []string
 		for _, f := range t.Frequencies {
-			freqs = append(freqs, budget.FormatFrequency(f))
+			freqs = append(freqs, units.FormatFrequency(f))
 		}
 		axes := [][]float64{t.Axes[0][:], t.Axes[1][:], t.Axes[2][:]}
 		r.F(NumList(dTrapMinimumOffsetM, t.Minimum[:], lengths(t.Minimum))).
-			F(Num(dTrapDepthK2, t.Depth/atoms.KB, budget.FormatSI(t.Depth/atoms.KB, "K"))).
+			F(Num(dTrapDepthK2, t.Depth/atoms.KB, units.FormatSI(t.Depth/atoms.KB, "K"))).
 			F(NumList(dTrapFrequenciesHz, t.Frequencies[:], strings.Join(freqs, ", "))).
 			F(NumRows(dTrapAxes, axes, vec(t.Axes[0])+", "+vec(t.Axes[1])+", "+vec(t.Axes[2]))).
 			F(Len(dGravitySagM, t.Sag)).
@@ -104,7 +105,7 @@ func (b *builder) cloudRecord(cr *budget.CloudResult) Record {
 		if math.IsNaN(t.Lattice) {
 			r.F(Absent(dLatticeFrequencyHz, false))
 		} else {
-			r.F(Num(dLatticeFrequencyHz, t.Lattice, budget.FormatFrequency(t.Lattice)))
+			r.F(Num(dLatticeFrequencyHz, t.Lattice, units.FormatFrequency(t.Lattice)))
 		}
 		r.After = append(r.After,
 			"  trap minimum {trap_minimum_offset_m} from the cloud (x, y, z); force at the cloud {force_at_cloud_g} g",
@@ -114,7 +115,7 @@ func (b *builder) cloudRecord(cr *budget.CloudResult) Record {
 			r.After = append(r.After, "  standing wave: lattice spacing λ/2, axial lattice frequency {lattice_frequency_hz} (Grimm et al. 2000)")
 		}
 	}
-	r.F(Num(dGroundLightShiftHz, cr.GroundShift, budget.FormatFrequency(cr.GroundShift)))
+	r.F(Num(dGroundLightShiftHz, cr.GroundShift, units.FormatFrequency(cr.GroundShift)))
 	switch {
 	case cr.Trap == nil:
 		r.F(Absent(dDifferentialLightShiftHz, false))
@@ -122,7 +123,7 @@ func (b *builder) cloudRecord(cr *budget.CloudResult) Record {
 		r.F(Absent(dDifferentialLightShiftHz, false))
 		r.After = append(r.After, "  light shift of the ground state {ground_light_shift_hz} at the trap minimum (at the cloud when there is none); the excited state's shift is not included (give excited_polarizability for every trap laser)")
 	default:
-		r.F(Num(dDifferentialLightShiftHz, cr.DifferentialShift, budget.FormatFrequency(cr.DifferentialShift)))
+		r.F(Num(dDifferentialLightShiftHz, cr.DifferentialShift, units.FormatFrequency(cr.DifferentialShift)))
 		r.After = append(r.After, "  light shift of the ground state {ground_light_shift_hz}, of the transition (excited − ground) {differential_light_shift_hz} at the trap minimum, added to the near-resonant beams' detuning")
 	}
 	r.F(Plain(dSaturationTotal, cr.SaturationTotal)).F(Num(dScatteringRatePerS2, cr.ScatteringRate, fmtG(cr.ScatteringRate)+" photons/s"))
@@ -145,9 +146,9 @@ func (b *builder) cloudRecord(cr *budget.CloudResult) Record {
 		target := fmtG(g.Target)
 		switch g.Kind {
 		case budget.GoalTrapDepth:
-			target = budget.FormatSI(g.Target, "K")
+			target = units.FormatSI(g.Target, "K")
 		case budget.GoalRabi, budget.GoalCollective:
-			target = "Ω/2π = " + budget.FormatFrequency(g.Target/(2*math.Pi))
+			target = "Ω/2π = " + units.FormatFrequency(g.Target/(2*math.Pi))
 		case budget.GoalSaturation:
 			target = "s = " + fmtG(g.Target)
 		}
@@ -158,7 +159,7 @@ func (b *builder) cloudRecord(cr *budget.CloudResult) Record {
 		} else {
 			var needed []string
 			for i, las := range g.Lasers {
-				needed = append(needed, fmt.Sprintf("%s %s", las.Name, budget.FormatPower(g.Needed[i])))
+				needed = append(needed, fmt.Sprintf("%s %s", las.Name, units.FormatPower(g.Needed[i])))
 			}
 			goal.F(Num(dScaleFactor, g.Scale, fmtG(g.Scale))).
 				F(Num(dMarginDb2, g.MarginDB, fmt.Sprintf("%+.1f dB", g.MarginDB))).

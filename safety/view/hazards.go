@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"beamledger/budget"
+	"beamledger/budget/units"
 	"beamledger/limits"
 	"beamledger/safety"
 )
@@ -193,7 +194,7 @@ func (b *builder) laserRecord(ll *safety.LaserLimits) Record {
 	r.O("skin_mpe_provenance", &skinProv, false)
 	r.Line(las.Name + ": eye limit {eye_mpe_rule} ({eye_mpe_effect}; {eye_mpe_provenance.status}); class {class_note}")
 	if p := ll.Pulsed; p != nil {
-		r.F(Num(dPulseEnergyJ, ll.PulseEnergy, budget.FormatSI(ll.PulseEnergy, "J"))).
+		r.F(Num(dPulseEnergyJ, ll.PulseEnergy, units.FormatSI(ll.PulseEnergy, "J"))).
 			F(Pow(dPeakPowerW, ll.PeakPower)).
 			F(Str(dEn207Mode, ll.EN207Mode))
 		pr := b.pulsedRecord(p, las.PulseDuration, las.RepetitionRate, ll.Duration)
@@ -272,13 +273,13 @@ func (b *builder) exposureRecord(e *safety.Exposure) Record {
 		F(Field{d: dNohd, Kind: String, Text: nohd, People: true})
 	var nms []string
 	for _, λ := range e.Wavelengths {
-		nms = append(nms, budget.FormatNumber(λ*1e9)+" nm")
+		nms = append(nms, units.FormatNumber(λ*1e9)+" nm")
 	}
 	names := make([]string, len(e.Lasers))
 	beams := make([]string, len(e.Lasers))
 	for i, las := range e.Lasers {
 		names[i] = las.Name
-		beams[i] = strconv.Quote(las.Name) + " (" + budget.FormatWavelength(las.Wavelength) + ")"
+		beams[i] = strconv.Quote(las.Name) + " (" + units.FormatWavelength(las.Wavelength) + ")"
 	}
 	shared := StrList(dSharedLasers, names)
 	shared.Text = strings.Join(beams, " + ")
@@ -409,7 +410,7 @@ func assumed(a bool) string {
 func (b *builder) pulsedRecord(p *limits.PulsedLimit, τ, f, T float64) *Record {
 	r := &Record{Members: b.members(16)}
 	r.F(Sec(dPulseDurationS, τ)).
-		F(Num(dRepetitionRateHz, f, budget.FormatFrequency(f))).
+		F(Num(dRepetitionRateHz, f, units.FormatFrequency(f))).
 		F(Num(dSinglePulseJM2, p.SinglePulse, withUnit(p.SinglePulse, "J/m²"))).
 		F(Num(dAverageJM2, p.Average, withUnit(p.Average, "J/m²")))
 	if p.TrainApplies {

@@ -5,7 +5,7 @@ import (
 	"sort"
 	"strings"
 
-	"beamledger/budget"
+	"beamledger/budget/units"
 	"beamledger/limits"
 	"beamledger/safety"
 )
@@ -20,18 +20,18 @@ func Limits(l *safety.LimitsLookup) *Doc {
 	r := &Record{}
 	src := "a small source (α ≤ 1.5 mrad)"
 	if q.AngularSubtense > limits.AlphaMin {
-		src = fmt.Sprintf("a source of angular subtense %s", budget.FormatSI(q.AngularSubtense, "rad"))
+		src = fmt.Sprintf("a source of angular subtense %s", units.FormatSI(q.AngularSubtense, "rad"))
 	}
-	r.F(Num(dWavelengthM3, q.Wavelength, budget.FormatNumber(q.Wavelength*1e9)+" nm")).
+	r.F(Num(dWavelengthM3, q.Wavelength, units.FormatNumber(q.Wavelength*1e9)+" nm")).
 		F(Sec(dDurationS2, l.Duration)).
-		F(Num(dAngularSubtenseRad, q.AngularSubtense, budget.FormatSI(q.AngularSubtense, "rad"))).
+		F(Num(dAngularSubtenseRad, q.AngularSubtense, units.FormatSI(q.AngularSubtense, "rad"))).
 		F(Str(dStandard, safety.Standard))
 	r.Line("{standard} limits at {wavelength_m}, exposure {duration_s}, " + src)
 	var b builder
 	side := func(key, name string, m limits.Limit, ap float64, apRow limits.Provenance) {
 		s := &Record{}
-		s.F(Num(dMpeIrradianceWM22, m.Irradiance, budget.FormatSI(m.Irradiance, "W/m²")+" = "+budget.FormatIrradiance(m.Irradiance))).
-			F(Num(dMpeRadiantExposureJM2, m.RadiantExposure, budget.FormatSI(m.RadiantExposure, "J/m²"))).
+		s.F(Num(dMpeIrradianceWM22, m.Irradiance, units.FormatSI(m.Irradiance, "W/m²")+" = "+units.FormatIrradiance(m.Irradiance))).
+			F(Num(dMpeRadiantExposureJM2, m.RadiantExposure, units.FormatSI(m.RadiantExposure, "J/m²"))).
 			F(Len(dApertureDiameterM, ap)).
 			F(Str(dRule, m.Rule)).F(Str(dEffect, m.Effect))
 		prov, apProv := provenanceRecord(m.Provenance), provenanceRecord(apRow)
@@ -71,7 +71,7 @@ func Limits(l *safety.LimitsLookup) *Doc {
 	}
 	sort.Strings(keys) // as JSON objects list their keys
 	for _, k := range keys {
-		factors.F(Num(&Desc{k, k, "Limit.Factors"}, l.Eye.Factors[k], budget.FormatNumber(l.Eye.Factors[k])))
+		factors.F(Num(&Desc{k, k, "Limit.Factors"}, l.Eye.Factors[k], units.FormatNumber(l.Eye.Factors[k])))
 	}
 	r.O("factors", factors, false)
 	if len(keys) > 0 {

@@ -15,7 +15,7 @@ import (
 	"strconv"
 	"strings"
 
-	"beamledger/budget"
+	"beamledger/budget/units"
 )
 
 // Kind says what a field holds.
@@ -108,24 +108,24 @@ func (f *Field) appendDisplay(dst []byte) []byte {
 	}
 	switch f.style {
 	case stylePower:
-		return budget.AppendPower(dst, f.SI)
+		return units.AppendPower(dst, f.SI)
 	case styleLength:
-		return budget.AppendLength(dst, f.SI)
+		return units.AppendLength(dst, f.SI)
 	case styleIrradiance:
-		return budget.AppendIrradiance(dst, f.SI)
+		return units.AppendIrradiance(dst, f.SI)
 	case styleInt:
 		return strconv.AppendInt(dst, int64(f.SI), 10)
 	case styleSeconds:
-		return budget.AppendSI(dst, f.SI, "s")
+		return units.AppendSI(dst, f.SI, "s")
 	case styleNanometres:
-		return append(budget.AppendNumber(dst, f.SI*1e9), " nm"...)
+		return append(units.AppendNumber(dst, f.SI*1e9), " nm"...)
 	case styleRatio:
 		if f.SI < 1e-3 {
 			return append(dst, "<0.001"...)
 		}
-		return budget.AppendNumber(dst, f.SI)
+		return units.AppendNumber(dst, f.SI)
 	default:
-		return budget.AppendNumber(dst, f.SI)
+		return units.AppendNumber(dst, f.SI)
 	}
 }
 

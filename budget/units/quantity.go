@@ -1,4 +1,4 @@
-package budget
+package units
 
 import (
 	"fmt"
@@ -66,7 +66,9 @@ func (d Dimension) String() string {
 	return "a quantity in " + strings.Join(parts, "·")
 }
 
-func (d Dimension) add(o Dimension, sign int8) Dimension {
+// Add is the dimension of a product (sign +1) or quotient (sign −1) of
+// quantities of dimensions d and o.
+func (d Dimension) Add(o Dimension, sign int8) Dimension {
 	return Dimension{
 		d.Length + sign*o.Length, d.Mass + sign*o.Mass, d.Time + sign*o.Time,
 		d.Temperature + sign*o.Temperature, d.Angle + sign*o.Angle,
@@ -86,18 +88,20 @@ func (d Dimension) outOfRange() bool {
 	return false
 }
 
-func (d Dimension) scale(n int8) Dimension {
+// Scale is the dimension of a quantity of dimension d raised to the power n.
+func (d Dimension) Scale(n int8) Dimension {
 	return Dimension{d.Length * n, d.Mass * n, d.Time * n, d.Temperature * n, d.Angle * n}
 }
 
-type unitDef struct {
+// UnitDef is a unit symbol the parser knows.
+type UnitDef struct {
 	factor   float64 // value of one unit in SI
-	dim      Dimension
-	prefixed bool // whether SI prefixes may stand before the symbol
+	Dim      Dimension
+	Prefixed bool // whether SI prefixes may stand before the symbol
 }
 
 // Unit symbols the parser knows, with their value in SI base units.
-var units = map[string]unitDef{
+var Units = map[string]UnitDef{
 	"m":   {1, Length, true},
 	"g":   {1e-3, Mass, true},
 	"u":   {1.66053906660e-27, Mass, false}, // unified atomic mass unit, CODATA 2018
@@ -116,7 +120,8 @@ var units = map[string]unitDef{
 	"%":   {0.01, Dimensionless, false},
 }
 
-var prefixes = map[string]float64{
+// Prefixes are the SI prefixes from f to G with their factors.
+var Prefixes = map[string]float64{
 	"f": 1e-15, "p": 1e-12, "n": 1e-9, "u": 1e-6, "µ": 1e-6, "μ": 1e-6,
 	"m": 1e-3, "c": 1e-2, "k": 1e3, "M": 1e6, "G": 1e9,
 }
@@ -221,7 +226,7 @@ func parseUnit(u string) (float64, Dimension, error) {
 		} else {
 			factor /= f
 		}
-		dim = dim.add(d, sign)
+		dim = dim.Add(d, sign)
 		if dim.outOfRange() {
 			return 0, Dimension{}, fmt.Errorf("unknown unit %q: its powers of the base units pass ±%d", u, maxExponent)
 		}
@@ -280,22 +285,22 @@ func parseUnitTerm(term string) (float64, Dimension, error) {
 			return 0, Dimension{}, fmt.Errorf("power of %q", term)
 		}
 		f = math.Pow(f, float64(power))
-		d = d.scale(power)
+		d = d.Scale(power)
 	}
 	return f, d, nil
 }
 
 func lookupSymbol(sym string) (float64, Dimension, bool) {
-	if u, ok := units[sym]; ok {
-		return u.factor, u.dim, true
+	if u, ok := Units[sym]; ok {
+		return u.factor, u.Dim, true
 	}
-	for p, pf := range prefixes {
+	for p, pf := range Prefixes {
 		rest, found := strings.CutPrefix(sym, p)
 		if !found || rest == "" {
 			continue
 		}
-		if u, ok := units[rest]; ok && u.prefixed {
-			return pf * u.factor, u.dim, true
+		if u, ok := Units[rest]; ok && u.Prefixed {
+			return pf * u.factor, u.Dim, true
 		}
 	}
 	return 0, Dimension{}, false
@@ -308,12 +313,13 @@ func ParseAs(s string, want Dimension) (float64, error) {
 		return 0, err
 	}
 	if d != want {
-		return 0, fmt.Errorf("%q is %s, want %s", s, describe(d), want)
+		return 0, fmt.Errorf("%q is %s, want %s", s, Describe(d), want)
 	}
 	return v, nil
 }
 
-func describe(d Dimension) string {
+// Describe names a dimension for people, without its example unit.
+func Describe(d Dimension) string {
 	s := d.String()
 	if i := strings.Index(s, " (e.g."); i > 0 {
 		return s[:i]

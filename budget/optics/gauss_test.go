@@ -1,6 +1,7 @@
-package budget
+package optics
 
 import (
+	"beamledger/budget/units"
 	"fmt"
 	"math"
 	"testing"
@@ -167,7 +168,7 @@ func ExampleNewPlane() {
 func ExampleBeam_PeakIrradiance() {
 	λ := 780e-9
 	b := Beam{Wavelength: λ, X: NewPlane(1e-3, 0, 1, λ), Y: NewPlane(1e-3, 0, 1, λ)}
-	fmt.Printf("%.1f W/m² = %s\n", b.PeakIrradiance(1e-3), FormatIrradiance(b.PeakIrradiance(1e-3)))
+	fmt.Printf("%.1f W/m² = %s\n", b.PeakIrradiance(1e-3), units.FormatIrradiance(b.PeakIrradiance(1e-3)))
 	// Output: 636.6 W/m² = 63.66 mW/cm²
 }
 
@@ -176,7 +177,7 @@ func ExampleBeam_PeakIrradiance() {
 // P_peak = Q/τ for a rectangular pulse).
 func ExamplePulseEnergy() {
 	q := PulseEnergy(1, 1e3)
-	fmt.Printf("%s per pulse, %s peak\n", FormatSI(q, "J"), FormatPower(PulsePeakPower(q, 10e-9)))
+	fmt.Printf("%s per pulse, %s peak\n", units.FormatSI(q, "J"), units.FormatPower(PulsePeakPower(q, 10e-9)))
 	// Output: 1 mJ per pulse, 100 kW peak
 }
 

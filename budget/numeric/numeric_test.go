@@ -1,4 +1,4 @@
-package budget
+package numeric
 
 import (
 	"math"
@@ -7,7 +7,7 @@ import (
 	"gonum.org/v1/gonum/optimize"
 )
 
-// solveScale finds the least factor that reaches the target, within 0.1 %
+// SolveScale finds the least factor that reaches the target, within 0.1 %
 // and never below it: a power law (secant steps), a figure that is zero
 // until a threshold (the bisection fallback), and one out of reach.
 func TestSolveScale(t *testing.T) {
@@ -26,12 +26,12 @@ func TestSolveScale(t *testing.T) {
 			return k - 2
 		}, 5, 7},
 	} {
-		k, ok := solveScale(c.metric, c.target, 1)
+		k, ok := SolveScale(c.metric, c.target, 1)
 		if !ok || c.metric(k) < c.target || k > c.want*(1+1e-3) {
 			t.Errorf("%s: k = %g (ok %v), want %g", c.name, k, ok, c.want)
 		}
 	}
-	if _, ok := solveScale(func(k float64) float64 { return 0 }, 1, 1); ok {
+	if _, ok := SolveScale(func(k float64) float64 { return 0 }, 1, 1); ok {
 		t.Error("an unreachable target was reached")
 	}
 }

@@ -1,8 +1,9 @@
-package budget
+package numeric
 
 import "math"
 
-func cmpFloat(a, b float64) int {
+// CmpFloat orders two numbers for sorting: −1, 0 or +1.
+func CmpFloat(a, b float64) int {
 	switch {
 	case a < b:
 		return -1
@@ -12,12 +13,12 @@ func cmpFloat(a, b float64) int {
 	return 0
 }
 
-// solveScale finds the least factor k on the powers at which metric(k)
+// SolveScale finds the least factor k on the powers at which metric(k)
 // (growing with k, about as k^γ) reaches target: first by secant steps on
 // log k – log metric, which take a few evaluations when the figure is close
 // to a power law; if they do not settle within 1e-4, by bracketing and
 // bisection. The answer is where metric(k) ≥ target, within 0.1 %.
-func solveScale(metric func(float64) float64, target, γ float64) (float64, bool) {
+func SolveScale(metric func(float64) float64, target, γ float64) (float64, bool) {
 	k, m := 1.0, metric(1)
 	if m > 0 {
 		lk, lm := math.Log(k), math.Log(m)
@@ -91,16 +92,19 @@ func bisect(lo, hi float64, enough func(float64) bool) float64 {
 	return hi
 }
 
-func cross(a, b [3]float64) [3]float64 {
+// Cross is the vector product a × b.
+func Cross(a, b [3]float64) [3]float64 {
 	return [3]float64{a[1]*b[2] - a[2]*b[1], a[2]*b[0] - a[0]*b[2], a[0]*b[1] - a[1]*b[0]}
 }
 
-func normalize(a [3]float64) [3]float64 {
-	n := math.Sqrt(dot(a, a))
+// Normalize scales a to unit length; a must not be zero.
+func Normalize(a [3]float64) [3]float64 {
+	n := math.Sqrt(Dot(a, a))
 	return [3]float64{a[0] / n, a[1] / n, a[2] / n}
 }
 
-func dot(a, b [3]float64) float64 { return a[0]*b[0] + a[1]*b[1] + a[2]*b[2] }
+// Dot is the scalar product a · b.
+func Dot(a, b [3]float64) float64 { return a[0]*b[0] + a[1]*b[1] + a[2]*b[2] }
 
 // Percentile is the p-quantile of sorted values, interpolated linearly
 // between the nearest ranks ((n−1)p, the usual definition of spreadsheet
