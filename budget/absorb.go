@@ -22,11 +22,11 @@ type Absorption struct {
 	Entrance, Centre, Exit float64
 }
 
-// cloudColumn is a cloud as one beam sees it: its peak resonant optical
-// depth b0 along the beam, its rms sizes across the beam (in the beam's x
-// and y planes), the detuning factor a = 1 + 4Δ²/Γ² and I_sat (W/m²).
-type cloudColumn struct {
-	b0, σx, σy, a, isat float64
+// CloudColumn is a cloud as one beam sees it: its peak resonant optical
+// depth B0 along the beam, its rms sizes across the beam (in the beam's x
+// and y planes), the detuning factor A = 1 + 4Δ²/Γ² and I_sat (W/m²).
+type CloudColumn struct {
+	B0, σx, σy, A, isat float64
 }
 
 // weakLimit is the optical depth b0/a below which the cloud is treated as
@@ -57,14 +57,14 @@ var legendre = sync.OnceValue(func() (n struct{ x, w []float64 }) {
 	return n
 })
 
-// absorb is the absorption of a beam of power p (W) and 1/e² radii wx, wy
+// Absorb is the absorption of a beam of power p (W) and 1/e² radii wx, wy
 // at the cloud.
-func (col cloudColumn) absorb(p, wx, wy float64) Absorption {
+func (col CloudColumn) Absorb(p, wx, wy float64) Absorption {
 	nodes := legendre()
 	i0 := 2 * p / (math.Pi * wx * wy) / col.isat
 	ab := Absorption{Transmission: 1}
 	for k, z := range []float64{-2, 0, 2} {
-		s := atoms.OutgoingIntensity(i0, col.b0*atoms.ColumnFraction(z), col.a)
+		s := atoms.OutgoingIntensity(i0, col.B0*atoms.ColumnFraction(z), col.A)
 		switch k {
 		case 0:
 			ab.Entrance = s
@@ -74,14 +74,14 @@ func (col cloudColumn) absorb(p, wx, wy float64) Absorption {
 			ab.Exit = s
 		}
 	}
-	if !(p > 0) || !(col.b0 > 0) {
+	if !(p > 0) || !(col.B0 > 0) {
 		return ab
 	}
-	if col.b0/col.a < weakLimit {
+	if col.B0/col.A < weakLimit {
 		// ∬ I (b/a) dx dy for the two Gaussians in closed form.
 		kx := 2/(wx*wx) + 1/(2*col.σx*col.σx)
 		ky := 2/(wy*wy) + 1/(2*col.σy*col.σy)
-		absorbed := i0 * col.isat * col.b0 / col.a * math.Pi / math.Sqrt(kx*ky)
+		absorbed := i0 * col.isat * col.B0 / col.A * math.Pi / math.Sqrt(kx*ky)
 		ab.Transmission = 1 - absorbed/p
 		return ab
 	}
@@ -92,9 +92,9 @@ func (col cloudColumn) absorb(p, wx, wy float64) Absorption {
 		absorbed := 0.0
 		for k, u := range nodes.x {
 			u = (u + 1) / 2 // on (0, 1)
-			out := atoms.OutgoingIntensity(i0, col.b0*u, col.a)
-			if col.b0/col.a < thinLimit {
-				out = i0 - col.b0*u*i0/(col.a+i0)
+			out := atoms.OutgoingIntensity(i0, col.B0*u, col.A)
+			if col.B0/col.A < thinLimit {
+				out = i0 - col.B0*u*i0/(col.A+i0)
 			}
 			absorbed += nodes.w[k] / 2 * (i0 - out) / u
 		}
@@ -102,12 +102,12 @@ func (col cloudColumn) absorb(p, wx, wy float64) Absorption {
 		ab.Transmission = math.Max(0, 1-absorbed/p)
 		return ab
 	}
-	thin := col.b0/col.a < thinLimit
+	thin := col.B0/col.A < thinLimit
 	ray := func(in, b float64) float64 { // I_in − I_out of one ray, units of I_sat
 		if thin {
-			return b * in / (col.a + in)
+			return b * in / (col.A + in)
 		}
-		return in - atoms.OutgoingIntensity(in, b, col.a)
+		return in - atoms.OutgoingIntensity(in, b, col.A)
 	}
 	// A round beam on a round cloud: one radial integral, ∫ 2πρ ΔI dρ.
 	if math.Abs(wx-wy) <= 1e-9*wx && math.Abs(col.σx-col.σy) <= 1e-9*col.σx {
@@ -115,7 +115,7 @@ func (col cloudColumn) absorb(p, wx, wy float64) Absorption {
 		absorbed := 0.0
 		for k, u := range nodes.x {
 			ρ := (u + 1) / 2 * R
-			absorbed += nodes.w[k] * ρ * ray(i0*math.Exp(-2*ρ*ρ/(wx*wx)), col.b0*math.Exp(-ρ*ρ/(2*col.σx*col.σx)))
+			absorbed += nodes.w[k] * ρ * ray(i0*math.Exp(-2*ρ*ρ/(wx*wx)), col.B0*math.Exp(-ρ*ρ/(2*col.σx*col.σx)))
 		}
 		absorbed *= math.Pi * R * col.isat // the 2π of the ring times the R/2 of the nodes' scale
 		ab.Transmission = math.Max(0, 1-absorbed/p)
@@ -133,7 +133,7 @@ func (col cloudColumn) absorb(p, wx, wy float64) Absorption {
 	absorbed := 0.0
 	for i := range nodes.x {
 		for j := range nodes.x {
-			absorbed += nodes.w[i] * nodes.w[j] * ray(i0*ix[i]*iy[j], col.b0*bx[i]*by[j])
+			absorbed += nodes.w[i] * nodes.w[j] * ray(i0*ix[i]*iy[j], col.B0*bx[i]*by[j])
 		}
 	}
 	absorbed *= X * Y * col.isat
@@ -141,14 +141,14 @@ func (col cloudColumn) absorb(p, wx, wy float64) Absorption {
 	return ab
 }
 
-// fractionAbove is the share of the atoms (weighted by density) where s
+// FractionAbove is the share of the atoms (weighted by density) where s
 // reaches sGoal, for a beam of peak incident s i0 and 1/e² radii wx, wy:
 // along each ray the atoms in front of the depth b* where s falls to
 // sGoal, b* = a ln(i_in/s_goal) + i_in − s_goal, are above it, so the ray
 // contributes min(b, b*) of its column b.
-func (col cloudColumn) fractionAbove(i0, wx, wy, sGoal float64) float64 {
+func (col CloudColumn) FractionAbove(i0, wx, wy, sGoal float64) float64 {
 	nodes := legendre()
-	if !(col.b0 > 0) {
+	if !(col.B0 > 0) {
 		if i0 >= sGoal {
 			return 1
 		}
@@ -165,21 +165,21 @@ func (col cloudColumn) fractionAbove(i0, wx, wy, sGoal float64) float64 {
 	for i := range nodes.x {
 		for j := range nodes.x {
 			in := i0 * ix[i] * iy[j]
-			b := col.b0 * bx[i] * by[j]
+			b := col.B0 * bx[i] * by[j]
 			w := nodes.w[i] * nodes.w[j]
 			den += w * b
 			if in > sGoal {
-				num += w * math.Min(b, col.a*math.Log(in/sGoal)+in-sGoal)
+				num += w * math.Min(b, col.A*math.Log(in/sGoal)+in-sGoal)
 			}
 		}
 	}
 	return num / den
 }
 
-// columnFor is cloud c as the beam pb sees it at element k of its path
+// ColumnFor is cloud c as the beam pb sees it at element k of its path
 // (element e): the peak resonant optical depth across the beam's planes,
 // the detuning factor at the light's detuning there and the cloud's I_sat.
-func columnFor(pb *PathBudget, k int, e *Element, c *Cloud) cloudColumn {
+func ColumnFor(pb *PathBudget, k int, e *Element, c *Cloud) CloudColumn {
 	tr := c.Data
 	isat, _, _ := tr.Isat(c.Saturation)
 	u, v := BeamAxes(e.Direction)
@@ -189,21 +189,21 @@ func columnFor(pb *PathBudget, k int, e *Element, c *Cloud) cloudColumn {
 	if !pb.IsJoined() {
 		own = e
 	}
-	Δ, _ := detuningAt(pb.Laser, own, pb.ShiftBefore(k), tr)
-	return cloudColumn{b0: atoms.OpticalDepth(σ0, c.Atoms, σx, σy), σx: σx, σy: σy, a: atoms.DetuningFactor(Δ, tr.Gamma), isat: isat}
+	Δ, _ := DetuningAt(pb.Laser, own, pb.ShiftBefore(k), tr)
+	return CloudColumn{B0: atoms.OpticalDepth(σ0, c.Atoms, σx, σy), σx: σx, σy: σy, A: atoms.DetuningFactor(Δ, tr.Gamma), isat: isat}
 }
 
-// incidentForFraction is the peak incident s (units of I_sat) at which the
+// IncidentForFraction is the peak incident s (units of I_sat) at which the
 // share frac of the atoms reaches sGoal, by bisection on log s (the share
 // grows with the drive).
-func (col cloudColumn) incidentForFraction(sGoal, frac, wx, wy float64) float64 {
+func (col CloudColumn) IncidentForFraction(sGoal, frac, wx, wy float64) float64 {
 	lo, hi := sGoal, sGoal
-	for col.fractionAbove(hi, wx, wy, sGoal) < frac && hi < 1e12*sGoal {
+	for col.FractionAbove(hi, wx, wy, sGoal) < frac && hi < 1e12*sGoal {
 		lo, hi = hi, hi*4
 	}
 	for hi/lo > 1+1e-4 {
 		mid := math.Sqrt(lo * hi)
-		if col.fractionAbove(mid, wx, wy, sGoal) >= frac {
+		if col.FractionAbove(mid, wx, wy, sGoal) >= frac {
 			hi = mid
 		} else {
 			lo = mid

@@ -322,8 +322,8 @@ func elementIndex(p *Path, e *Element) int {
 	return -1
 }
 
-// rowIndex is the index of row r in pb.Rows.
-func (pb *PathBudget) rowIndex(r *Row) int {
+// RowIndex is the index of row r in pb.Rows.
+func (pb *PathBudget) RowIndex(r *Row) int {
 	for i := range pb.Rows {
 		if &pb.Rows[i] == r {
 			return i

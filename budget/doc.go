@@ -31,14 +31,8 @@
 //
 //	| quantity | expression | source | function | test |
 //	| --- | --- | --- | --- | --- |
-//	| axial curvature of I | κ = g''/g, g = 1/(Wx Wy) | Siegman (1986) §17.1 (κ = −2/z_R² at a focus) | axialCurvature | TestAxialTrapFrequencyAtAndOffFocus |
 //	| light frequency | ν = c/λ + AOM shifts | CODATA c; Steck Rb-87 table 3 | LightFrequency | TestLightFrequency |
 //	| default viewing duration | 0.25 s in 400–700 nm, else 10 s | IEC 60825-1:2014 (from memory) | DefaultViewingDuration | TestDefaultViewingDuration |
-//	| standing-wave depth | sign · (√U₁ + √U₂)², magnitudes | Grimm et al. (2000) §4.1 | StandingWavePotential | TestCloudStandingWave |
-//	| lattice frequency | ω = (2π/λ) √(2U/m) | Grimm et al. (2000) eq. (40) | LatticeFrequency | TestCloudStandingWave |
-//	| excited-state light shift | U/I = −α/(2 ε0 c), α in a.u. × 4π ε0 a0³ | Grimm et al. (2000) eq. (2) | ExcitedShiftPerIntensity | TestExcitedShiftPerIntensity |
-//	| multi-beam scattering | (Γ/2) s_i/(1 + s_total + 4Δ²/Γ²) | rate equations, common practice | MultiBeamScattering | TestCloudNearResonantTotals |
 //	| beam axes in the cloud frame | x plane ∋ first cloud axis not along the beam | our convention | BeamAxes | TestBeamAxes |
 //	| cloud rms along a direction | √Σ dᵢ² σᵢ² | Gaussian cloud | Cloud.RMSAlong | TestBeamAxes |
-//	| goal probability | share of Monte Carlo samples with margin ≥ 0 | uniform: (b − η*)/(b − a); normal: Φ((μ − η*)/σ), gonum distuv | Tolerances | TestToleranceUniformProbability |
 package budget

@@ -21,6 +21,7 @@ func TestFormulaIndex(t *testing.T) {
 		"units":     "doc.go",
 		"numeric":   "doc.go",
 		"optics":    "doc.go",
+		"drive":     "doc.go",
 		"atoms":     "transitions.go",
 		"../limits": "doc.go",
 		"../safety": "doc.go",

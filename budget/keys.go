@@ -52,7 +52,7 @@ type KeySpec struct {
 	// for a key that needs another at one value.
 	With []string
 	// Doc says in a line what the key is; Example is a value as written in
-	// a setup file (TOML).
+	// A setup file (TOML).
 	Doc, Example string
 }
 

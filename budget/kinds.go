@@ -345,9 +345,9 @@ func applyAtoms(s *stage, e *Element) {
 	// The cloud scatters what it absorbs, at the laser's maximum power
 	// (the most that saturation lets through: conservative downstream).
 	if c := s.clouds[e.Cloud]; c != nil && c.Data != nil && s.frac > 0 {
-		col := columnFor(s.pb, s.pb.First+s.index, s.row.Element, c)
+		col := ColumnFor(s.pb, s.pb.First+s.index, s.row.Element, c)
 		wx, wy := s.beam.Radii()
-		t := col.absorb(s.frac*s.pb.Laser.Power, wx, wy).Transmission
+		t := col.Absorb(s.frac*s.pb.Laser.Power, wx, wy).Transmission
 		s.lose(LossScattered, s.frac*(1-t))
 		s.frac *= t
 	}

@@ -175,7 +175,7 @@ func TestShippedSetupsValidate(t *testing.T) {
 }
 
 // Every bad input whose error is an unknown key, a wrong type or value, or
-// a missing required key fails validation.
+// A missing required key fails validation.
 func TestBadInputsFailValidation(t *testing.T) {
 	sch := schema(t)
 	errs, _ := filepath.Glob("../testdata/bad/*.err")

@@ -307,3 +307,10 @@ type Eyewear struct {
 type EyewearBand struct {
 	From, To, OD float64
 }
+
+// Where a goal must hold.
+const (
+	GoalAtCentre = "centre"
+	GoalAtExit   = "exit"
+	GoalAtAll    = "all"
+)

@@ -33,7 +33,7 @@ func fromE(e, t float64, rule, effect string, thermal bool, f map[string]float64
 // Band edges. The tables print each band with two figures and neighbouring
 // bands do not always meet (18 t^0.75 at 5 µs is 1.90e-3 J/m² against the
 // 2e-3 J/m² printed before it). This package prints what the tables print:
-// a duration on an edge belongs to the band that starts there, and nothing
+// A duration on an edge belongs to the band that starts there, and nothing
 // is blended for continuity.
 
 // uv is the eye and skin limit for 180–400 nm (the skin table has the same

@@ -4,20 +4,21 @@ import (
 	"fmt"
 
 	"beamledger/budget"
+	"beamledger/budget/drive"
 )
 
 // Assessment is the whole evaluation of one setup.
 type Assessment struct {
 	Setup  *budget.Setup
 	Budget *budget.Budget
-	Atoms  []*budget.AtomsResult
+	Atoms  []*drive.AtomsResult
 	// Clouds counts every beam at each cloud together.
-	Clouds   []*budget.CloudResult
+	Clouds   []*drive.CloudResult
 	Hazards  *Hazards
 	Findings []budget.Finding
 	// Tolerances is the tolerance analysis of each goal (nil when the
 	// setup has no tolerances).
-	Tolerances map[any]*budget.GoalTolerance
+	Tolerances map[any]*drive.GoalTolerance
 	// HazardBudget is the budget the hazards were evaluated on: the
 	// nominal one, or with tolerances every loss value at its highest
 	// transmission.
@@ -33,7 +34,7 @@ type Options struct {
 }
 
 // DefaultOptions are the analysis's defaults.
-var DefaultOptions = Options{Samples: budget.DefaultSamples, Seed: budget.DefaultSeed}
+var DefaultOptions = Options{Samples: drive.DefaultSamples, Seed: drive.DefaultSeed}
 
 // Evaluate computes everything `check` reports, with the default tolerance
 // analysis.
@@ -45,8 +46,8 @@ func EvaluateWith(s *budget.Setup, o Options) (*Assessment, error) {
 	if err != nil {
 		return nil, err
 	}
-	a := &Assessment{Setup: s, Budget: b, Atoms: b.Drive(), HazardBudget: b}
-	a.Clouds = b.Clouds(a.Atoms)
+	a := &Assessment{Setup: s, Budget: b, Atoms: drive.Evaluate(b), HazardBudget: b}
+	a.Clouds = drive.Clouds(b, a.Atoms)
 	// Hazards at the conservative end of every tolerance: the highest
 	// transmission of each toleranced loss value.
 	hs := s
@@ -55,11 +56,11 @@ func EvaluateWith(s *budget.Setup, o Options) (*Assessment, error) {
 		if a.HazardBudget, err = budget.Compute(hs); err != nil {
 			return nil, err
 		}
-		a.Tolerances = budget.Tolerances(s, a.Atoms, o.Samples, o.Seed, o.Workers)
+		a.Tolerances = drive.Tolerances(s, a.Atoms, o.Samples, o.Seed, o.Workers)
 	}
 	a.Findings = append(a.Findings, a.HazardBudget.Findings()...)
-	a.Findings = append(a.Findings, budget.DriveFindings(a.Atoms)...)
-	a.Findings = append(a.Findings, budget.CloudFindings(a.Clouds)...)
+	a.Findings = append(a.Findings, drive.DriveFindings(a.Atoms)...)
+	a.Findings = append(a.Findings, drive.CloudFindings(a.Clouds)...)
 	h, err := evaluateHazards(hs, a.HazardBudget)
 	if err != nil {
 		return nil, err

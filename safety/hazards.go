@@ -187,7 +187,7 @@ type ReflectionKind string
 
 // Reflection kinds: a surface's stray reflection, a beam escaping through a
 // mirror or in an AOM's unused orders, and the diffuse zone around a dump or
-// a path's end.
+// A path's end.
 const (
 	ReflectionStray    ReflectionKind = "stray"
 	ReflectionEscaping ReflectionKind = "escaping"

@@ -365,7 +365,7 @@ access = "enclosed"
 }
 
 // Damage: a cw rating as linear power density P/(2W) (common practice) and
-// a pulsed fluence 2E/(πW²) against a threshold scaled by √(τ/τ_rated)
+// A pulsed fluence 2E/(πW²) against a threshold scaled by √(τ/τ_rated)
 // (common practice); by hand: 10 W over the 2 mm diameter of a 1 mm radius
 // beam is 5 W/mm = 50 W/cm against a 40 W/cm rating; 1 mJ pulses of 10 ns in the same beam
 // are 2·1e-3/(π·1e-6) = 637 J/m² = 0.0637 J/cm² against 0.5 J/cm² at 10 ns

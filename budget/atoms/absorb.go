@@ -35,7 +35,7 @@ func OutgoingIntensity(iIn, b, a float64) float64 {
 
 // IncomingIntensity solves the relation for i_in given the intensity i_out
 // > 0 that must remain after an optical depth b ≥ 0 (units of I_sat):
-// a ln i_in + i_in = b + a ln i_out + i_out, increasing in ln i_in.
+// A ln i_in + i_in = b + a ln i_out + i_out, increasing in ln i_in.
 func IncomingIntensity(iOut, b, a float64) float64 {
 	if !(iOut > 0) || !(b > 0) {
 		return iOut

@@ -219,7 +219,7 @@ func TestTrapFrequencies(t *testing.T) {
 	}
 }
 
-// b0 of a Gaussian cloud against the column density through its centre
+// B0 of a Gaussian cloud against the column density through its centre
 // integrated numerically (gonum Gauss-Legendre): n(0,0,z) = N/((2π)^{3/2}
 // σx σy σz) exp(−z²/(2σz²)).
 func TestOpticalDepthColumn(t *testing.T) {

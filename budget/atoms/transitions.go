@@ -1,7 +1,7 @@
 // Package atoms holds the atomic data and the light-atom formulas beamledger
 // uses at an atom cloud: saturation, Rabi frequency and scattering near
 // resonance; the dipole potential far from it; the resonant optical depth of
-// a Gaussian cloud; and the threshold of cooperative resonance fluorescence.
+// A Gaussian cloud; and the threshold of cooperative resonance fluorescence.
 //
 // Units are SI: Γ and Ω in rad/s, intensities in W/m², masses in kg.
 // Constants come from gonum's CODATA values.

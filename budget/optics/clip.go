@@ -14,7 +14,7 @@ import (
 //
 //	T = (2/π) ∫₀^{π/2} [1 − exp(−2a² / (wx² cos²ψ + wy² sin²ψ))] dψ,
 //
-// a smooth periodic integrand, summed with the trapezoid rule (which
+// A smooth periodic integrand, summed with the trapezoid rule (which
 // converges geometrically for such integrands), doubling the points until
 // two successive estimates agree to 1e-12. For wx = wy it is
 // T = 1 − exp(−2a²/w²) (Siegman, Lasers (1986), §17.1).

@@ -6,6 +6,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"beamledger/budget"
+	"beamledger/budget/drive"
 	"beamledger/safety"
 	"beamledger/safety/render"
 )
@@ -24,8 +25,8 @@ type toleranceFlags struct {
 }
 
 func (t *toleranceFlags) add(cmd *cobra.Command) {
-	cmd.Flags().IntVar(&t.samples, "samples", budget.DefaultSamples, "Monte Carlo samples of the tolerance analysis (0 turns it off; at most 1000000)")
-	cmd.Flags().Uint64Var(&t.seed, "seed", budget.DefaultSeed, "seed of the tolerance analysis (the same seed gives the same figures on any machine)")
+	cmd.Flags().IntVar(&t.samples, "samples", drive.DefaultSamples, "Monte Carlo samples of the tolerance analysis (0 turns it off; at most 1000000)")
+	cmd.Flags().Uint64Var(&t.seed, "seed", drive.DefaultSeed, "seed of the tolerance analysis (the same seed gives the same figures on any machine)")
 }
 
 // options checks the flags and turns them into the evaluation's options.

@@ -304,7 +304,7 @@ func (w *writer) yAxisAndFrame(ay axis, ylabel string, x0, x1, y0, y1 float64) {
 
 // markerPitch is the width across the page that a marker label of the
 // given font size takes when it runs down the plot (its line height), with
-// a small gap: 1 pt is 0.3528 mm.
+// A small gap: 1 pt is 0.3528 mm.
 func markerPitch(size float64) float64 { return size * 0.3528 * 1.15 }
 
 // markerLabelSize picks the font size of n marker labels across a plot

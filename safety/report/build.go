@@ -10,6 +10,7 @@ import (
 
 	"beamledger/budget"
 	"beamledger/budget/atoms"
+	"beamledger/budget/drive"
 	"beamledger/budget/optics"
 	"beamledger/budget/units"
 	"beamledger/limits"
@@ -426,7 +427,7 @@ func cloudsSection(a *safety.Assessment, l *view.List) Section {
 
 // marginHistogram shows how a goal's margin spreads over the tolerance
 // samples, with the 0 dB line (the goal just met) marked.
-func marginHistogram(gt *budget.GoalTolerance) *Plot {
+func marginHistogram(gt *drive.GoalTolerance) *Plot {
 	lo, hi := math.Inf(1), math.Inf(-1)
 	impossible := 0
 	for _, m := range gt.Margins {
@@ -466,7 +467,7 @@ func marginHistogram(gt *budget.GoalTolerance) *Plot {
 }
 
 // contributorTable lists the inputs' shares of a goal's spread.
-func contributorTable(gt *budget.GoalTolerance) *Table {
+func contributorTable(gt *drive.GoalTolerance) *Table {
 	t := &Table{Header: []string{"toleranced input", "share of the spread (SRC²/ΣSRC²)"}, Right: []bool{false, true}}
 	for _, c := range gt.Contributors {
 		t.Rows = append(t.Rows, []string{c.Input.Label, fmt.Sprintf("%.0f %%", 100*c.Share)})
@@ -477,7 +478,7 @@ func contributorTable(gt *budget.GoalTolerance) *Table {
 // saturationPlot shows s on the beam axis through the cloud (positions in
 // rms sizes along the beam), at the operating power and, with a drive goal,
 // at the goal's power: the saturable absorber through the column in front.
-func saturationPlot(at *budget.AtomsResult) *Plot {
+func saturationPlot(at *drive.AtomsResult) *Plot {
 	tr := at.Transition
 	a := atoms.DetuningFactor(at.Detuning, tr.Gamma)
 	pl := &Plot{Title: "s = I/I_sat on the beam axis through the cloud", XLabel: "position along the beam (rms sizes from the centre)", YLabel: "s", LogY: true}
@@ -500,7 +501,7 @@ func saturationPlot(at *budget.AtomsResult) *Plot {
 // collectivePlot shows the source power needed against the multiple of the
 // threshold, for the upper and lower threshold estimates, with the laser's
 // operating power; power scales as the square of the Rabi frequency.
-func collectivePlot(at *budget.AtomsResult, g *budget.GoalResult) *Plot {
+func collectivePlot(at *drive.AtomsResult, g *drive.GoalResult) *Plot {
 	perFactor2 := g.SourcePower / (g.Factor * g.Factor) // source power at 1 × Ω_c (upper)
 	low := g.Collective.OmegaCLow / g.Collective.OmegaC
 	pl := &Plot{Title: "collective drive: source power against the threshold band", XLabel: "drive as a multiple of Ω_c (upper estimate)",

@@ -118,7 +118,7 @@ func TestMoved(t *testing.T) {
 }
 
 // Elements match by name, else by type and order: a lens put in front of
-// a path takes the first lens's place, a named mirror is found wherever it
+// A path takes the first lens's place, a named mirror is found wherever it
 // moved, and a renamed window is the same window.
 func TestElementMatching(t *testing.T) {
 	el := func(typ, name string) map[string]any {

@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"beamledger/budget"
+	"beamledger/budget/drive"
 	"beamledger/budget/units"
 	"beamledger/safety"
 )
@@ -24,7 +25,7 @@ func num(d *Desc, v float64) Field { return Plain(d, v) }
 // hzField is an angular frequency ω shown as ω/2π in Hz.
 func hzField(d *Desc, ω float64) Field { return Num(d, ω/(2*math.Pi), hz(ω)) }
 
-func (b *builder) atomsRecord(a *budget.AtomsResult) Record {
+func (b *builder) atomsRecord(a *drive.AtomsResult) Record {
 	e := a.Row.Element
 	tr := a.Transition
 	las := a.Path.Laser
@@ -140,7 +141,7 @@ func (b *builder) atomsRecord(a *budget.AtomsResult) Record {
 	return r
 }
 
-func (b *builder) goalRecord(a *budget.AtomsResult, g *budget.GoalResult) *Record {
+func (b *builder) goalRecord(a *drive.AtomsResult, g *drive.GoalResult) *Record {
 	r := &Record{Members: b.members(20)}
 	r.F(Str(dKind2, g.Kind))
 	switch g.Kind {
@@ -222,7 +223,7 @@ func (b *builder) goalRecord(a *budget.AtomsResult, g *budget.GoalResult) *Recor
 }
 
 // toleranceRecord shows a goal's tolerance analysis.
-func toleranceRecord(gt *budget.GoalTolerance) *Record {
+func toleranceRecord(gt *drive.GoalTolerance) *Record {
 	r := &Record{}
 	db := func(d *Desc, v float64) Field {
 		if math.IsInf(v, 0) || math.IsNaN(v) {

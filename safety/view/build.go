@@ -9,6 +9,7 @@ import (
 
 	"beamledger/budget"
 	"beamledger/budget/atoms"
+	"beamledger/budget/drive"
 	"beamledger/budget/units"
 	"beamledger/safety"
 )
@@ -18,7 +19,7 @@ import (
 // goroutine.
 type builder struct {
 	slab []Member
-	tol  map[any]*budget.GoalTolerance
+	tol  map[any]*drive.GoalTolerance
 }
 
 // slabSize is the number of members allocated at once.

@@ -8,6 +8,7 @@ import (
 
 	"beamledger/budget"
 	"beamledger/budget/atoms"
+	"beamledger/budget/drive"
 	"beamledger/budget/units"
 	"beamledger/safety"
 )
@@ -34,7 +35,7 @@ func lengths(v [3]float64) string {
 	return fmt.Sprintf("[%s, %s, %s]", units.FormatLength(v[0]), units.FormatLength(v[1]), units.FormatLength(v[2]))
 }
 
-func (b *builder) cloudRecord(cr *budget.CloudResult) Record {
+func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 	c := cr.Cloud
 	r := Record{Members: b.members(24)}
 	r.F(Str(dName5, c.Name)).F(Str(dTransition2, c.Transition))
@@ -127,7 +128,7 @@ func (b *builder) cloudRecord(cr *budget.CloudResult) Record {
 		r.After = append(r.After, "  light shift of the ground state {ground_light_shift_hz}, of the transition (excited − ground) {differential_light_shift_hz} at the trap minimum, added to the near-resonant beams' detuning")
 	}
 	r.F(Plain(dSaturationTotal, cr.SaturationTotal)).F(Num(dScatteringRatePerS2, cr.ScatteringRate, fmtG(cr.ScatteringRate)+" photons/s"))
-	if slices.ContainsFunc(cr.Beams, func(cb *budget.CloudBeam) bool { return cb.Near }) {
+	if slices.ContainsFunc(cr.Beams, func(cb *drive.CloudBeam) bool { return cb.Near }) {
 		r.After = append(r.After, "  near-resonant beams at the cloud centre: s = {saturation_total} in all, scattering rate {scattering_rate_per_s} ((Γ/2) s_i/(1 + s_total + 4Δ_i²/Γ²) summed)")
 	}
 	var goal *Record

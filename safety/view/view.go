@@ -42,7 +42,7 @@ type Desc struct {
 }
 
 // Field is one figure or word, as every output shows it. It is kept small:
-// a record holds many.
+// A record holds many.
 type Field struct {
 	d *Desc
 	// Text is the value written for people, with its unit; for a String it

@@ -10,6 +10,7 @@ import (
 
 	"beamledger/budget"
 	"beamledger/budget/atoms"
+	"beamledger/budget/drive"
 	"beamledger/limits"
 	"beamledger/safety"
 	"beamledger/safety/safetytest"
@@ -72,8 +73,8 @@ func TestFieldCoverage(t *testing.T) {
 		Build(a).JSON.Walk(func(f *Field) { shown[f.Source()] = true })
 	}
 	types := []any{budget.Row{}, budget.FiberCoupling{}, budget.PathBudget{}, budget.LaserBalance{}, budget.Segment{},
-		budget.AtomsResult{}, budget.DipoleResult{}, budget.GoalResult{}, atoms.Collective{},
-		safety.LaserLimits{}, safety.Exposure{}, safety.Reflection{}, safety.EyewearNeed{}, budget.Finding{}, limits.PulsedLimit{}, budget.CloudResult{}, budget.Trap{}, budget.CloudGoal{}, budget.CloudBeam{}, budget.GoalTolerance{}, budget.Contributor{}, budget.Toleranced{}}
+		drive.AtomsResult{}, drive.DipoleResult{}, drive.GoalResult{}, atoms.Collective{},
+		safety.LaserLimits{}, safety.Exposure{}, safety.Reflection{}, safety.EyewearNeed{}, budget.Finding{}, limits.PulsedLimit{}, drive.CloudResult{}, drive.Trap{}, drive.CloudGoal{}, drive.CloudBeam{}, drive.GoalTolerance{}, drive.Contributor{}, budget.Toleranced{}}
 	for _, v := range types {
 		typ := reflect.TypeOf(v)
 		for i := 0; i < typ.NumField(); i++ {

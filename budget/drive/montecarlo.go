@@ -1,6 +1,7 @@
-package budget
+package drive
 
 import (
+	"beamledger/budget"
 	"beamledger/budget/numeric"
 	"math"
 	"math/rand/v2"
@@ -43,7 +44,7 @@ type GoalTolerance struct {
 
 // Contributor is one input's share of a goal's spread.
 type Contributor struct {
-	Input *Toleranced
+	Input *budget.Toleranced
 	Share float64
 }
 
@@ -55,16 +56,16 @@ type goalRef struct {
 }
 
 // margins computes every referenced goal's margin for setup s.
-func margins(s *Setup, refs []goalRef) []float64 {
+func margins(s *budget.Setup, refs []goalRef) []float64 {
 	out := make([]float64, len(refs))
-	b, err := Compute(s)
+	b, err := budget.Compute(s)
 	if err != nil {
 		for i := range out {
 			out[i] = math.Inf(-1)
 		}
 		return out
 	}
-	clouds := map[string]*Cloud{}
+	clouds := map[string]*budget.Cloud{}
 	for _, c := range s.Clouds {
 		clouds[c.Name] = c
 	}
@@ -72,7 +73,7 @@ func margins(s *Setup, refs []goalRef) []float64 {
 	for i, ref := range refs {
 		if ref.cloud >= 0 {
 			if drive == nil {
-				drive = b.driveAll(false)
+				drive = driveAll(b, false)
 			}
 			cr := cloudResult(s.Clouds[ref.cloud], drive, false)
 			if cr != nil && cr.Goal != nil && cr.Goal.Impossible == "" {
@@ -84,7 +85,7 @@ func margins(s *Setup, refs []goalRef) []float64 {
 		}
 		pb := b.Paths[ref.path]
 		r := &pb.Rows[ref.element]
-		a := b.atomsAt(pb, r, clouds[r.Element.Cloud], false)
+		a := atomsAt(b, pb, r, clouds[r.Element.Cloud], false)
 		if g := a.Goal; g != nil && g.Impossible == "" {
 			out[i] = g.MarginDB
 		} else {
@@ -98,7 +99,7 @@ func margins(s *Setup, refs []goalRef) []float64 {
 // elements and of whole clouds, in samples Monte Carlo samples from seed,
 // on up to workers goroutines (0: all cores). It returns one analysis per
 // goal, keyed by the *AtomsResult or the *Cloud it belongs to.
-func Tolerances(s *Setup, drive []*AtomsResult, samples int, seed uint64, workers int) map[any]*GoalTolerance {
+func Tolerances(s *budget.Setup, drive []*AtomsResult, samples int, seed uint64, workers int) map[any]*GoalTolerance {
 	if len(s.Tolerances) == 0 || samples <= 0 {
 		return nil
 	}
@@ -108,7 +109,7 @@ func Tolerances(s *Setup, drive []*AtomsResult, samples int, seed uint64, worker
 		if a.Goal == nil || a.Path.IsJoined() {
 			continue
 		}
-		refs = append(refs, goalRef{slices.Index(s.Paths, a.Path.Path), a.Path.rowIndex(a.Row), -1})
+		refs = append(refs, goalRef{slices.Index(s.Paths, a.Path.Path), a.Path.RowIndex(a.Row), -1})
 		owners = append(owners, a)
 	}
 	for i, c := range s.Clouds {
@@ -193,7 +194,7 @@ func Tolerances(s *Setup, drive []*AtomsResult, samples int, seed uint64, worker
 // contributors ranks the inputs by their standardized regression
 // coefficients on the margin (samples with a finite margin only):
 // share = SRC²/ΣSRC².
-func contributors(ts []*Toleranced, inputs, y []float64) []Contributor {
+func contributors(ts []*budget.Toleranced, inputs, y []float64) []Contributor {
 	nt := len(ts)
 	var rows []int
 	for i, v := range y {

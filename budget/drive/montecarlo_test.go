@@ -1,6 +1,7 @@
-package budget
+package drive
 
 import (
+	"beamledger/budget"
 	"math"
 	"slices"
 	"strings"
@@ -50,18 +51,18 @@ atoms = 1
 rms_size = ["10 um", "10 um", "10 um"]
 `
 
-func tolSetup(t *testing.T, eff, t2, goal string) (*Setup, []*AtomsResult) {
+func tolSetup(t *testing.T, eff, t2, goal string) (*budget.Setup, []*AtomsResult) {
 	t.Helper()
 	src := strings.NewReplacer("EFF", eff, "T2", t2, "GOAL", goal).Replace(tolLab)
-	s, err := Parse("tol.toml", []byte(src))
+	s, err := budget.Parse("tol.toml", []byte(src))
 	if err != nil {
 		t.Fatal(err)
 	}
-	b, err := Compute(s)
+	b, err := budget.Compute(s)
 	if err != nil {
 		t.Fatal(err)
 	}
-	return s, b.Drive()
+	return s, Evaluate(b)
 }
 
 // A single efficiency uniform on [a, b]: the margin is M0 + 10 log10(η/η0)
@@ -153,13 +154,13 @@ func TestToleranceDeterminism(t *testing.T) {
 func TestToleranceCloudGoal(t *testing.T) {
 	src := strings.Replace(beamOn("trap", "1064 nm", "7 W", "50 um", "z"), `power = "7 W"`, "power = \"7 W\"\noperating_power = \"4 W .. 6 W\"", 1) +
 		cloudC("none", "goal = \"trap_depth\"\ngoal_value = \"190 uK\"")
-	s, err := Parse("t.toml", []byte(src))
+	s, err := budget.Parse("t.toml", []byte(src))
 	if err != nil {
 		t.Fatal(err)
 	}
-	b, _ := Compute(s)
-	d := b.Drive()
-	cs := b.Clouds(d)
+	b, _ := budget.Compute(s)
+	d := Evaluate(b)
+	cs := Clouds(b, d)
 	res := Tolerances(s, d, 2000, DefaultSeed, 0)
 	gt := res[s.Clouds[0]]
 	if gt == nil || cs[0].Goal == nil {

@@ -1,36 +1,21 @@
-package budget
+package drive
 
 import (
 	"fmt"
 	"math"
 
+	"beamledger/budget"
 	"beamledger/budget/atoms"
 	"beamledger/budget/optics"
 	"beamledger/budget/units"
 )
 
-// FarDetuningFactor: a beam counts as far detuned when its detuning from
-// every line of the ground state that the dipole potential sums exceeds this
-// many of that line's natural linewidths (for the alkalis, 1000 Γ is a few
-// GHz, well beyond the excited-state hyperfine structure, so the D1/D2
-// treatment of Grimm et al. (2000), §2.3, applies). Our threshold. Light
-// within it of a line other than the driven one fits neither the far-detuned
-// formula nor the two-level figures of the driven line, and is refused.
-const FarDetuningFactor = 1000
-
-// Detuning sources.
-const (
-	DetuningFromElement     = "stated at the atoms element"
-	DetuningFromLaser       = "laser detuning plus AOM shifts"
-	DetuningFromWavelengths = "laser and transition wavelengths plus AOM shifts"
-)
-
 // AtomsResult is the drive at one atoms element, at the laser's operating
 // power.
 type AtomsResult struct {
-	Path       *PathBudget
-	Row        *Row
-	Cloud      *Cloud
+	Path       *budget.PathBudget
+	Row        *budget.Row
+	Cloud      *budget.Cloud
 	Transition *atoms.Transition
 	// Power is the power arriving at the cloud, W.
 	Power float64
@@ -58,7 +43,7 @@ type AtomsResult struct {
 	// Absorption is what the cloud does to this beam at the operating
 	// power (transmission; s at the entrance, centre and exit on the axis),
 	// and ScatteredPower the power it scatters, W.
-	Absorption     Absorption
+	Absorption     budget.Absorption
 	ScatteredPower float64
 	// FractionAboveGoal is the share of the atoms (density-weighted) whose
 	// s reaches the goal's at the operating power (NaN without a
@@ -115,19 +100,12 @@ type GoalResult struct {
 	Fraction float64
 }
 
-// Where a goal must hold.
-const (
-	GoalAtCentre = "centre"
-	GoalAtExit   = "exit"
-	GoalAtAll    = "all"
-)
-
 // Drive evaluates every atoms element of the budget.
-func (b *Budget) Drive() []*AtomsResult { return b.driveAll(true) }
+func Evaluate(b *budget.Budget) []*AtomsResult { return driveAll(b, true) }
 
 // driveAll is Drive; full as for atomsAt.
-func (b *Budget) driveAll(full bool) []*AtomsResult {
-	clouds := map[string]*Cloud{}
+func driveAll(b *budget.Budget, full bool) []*AtomsResult {
+	clouds := map[string]*budget.Cloud{}
 	for _, c := range b.Setup.Clouds {
 		clouds[c.Name] = c
 	}
@@ -136,14 +114,14 @@ func (b *Budget) driveAll(full bool) []*AtomsResult {
 		for _, pb := range own.Beams() {
 			for i := range pb.Rows {
 				r := &pb.Rows[i]
-				if r.Element.Type != TypeAtoms {
+				if r.Element.Type != budget.TypeAtoms {
 					continue
 				}
 				c := clouds[r.Element.Cloud]
 				if c == nil || c.Data == nil {
 					continue
 				}
-				out = append(out, b.atomsAt(pb, r, c, full))
+				out = append(out, atomsAt(b, pb, r, c, full))
 			}
 		}
 	}
@@ -153,7 +131,7 @@ func (b *Budget) driveAll(full bool) []*AtomsResult {
 // atomsAt evaluates the drive at one atoms element; full also integrates
 // the cloud's absorption over the beam (a tolerance sample needs only the
 // goal's margin).
-func (b *Budget) atomsAt(pb *PathBudget, r *Row, c *Cloud, full bool) *AtomsResult {
+func atomsAt(b *budget.Budget, pb *budget.PathBudget, r *budget.Row, c *budget.Cloud, full bool) *AtomsResult {
 	las := pb.Laser
 	tr := c.Data
 	a := &AtomsResult{Path: pb, Row: r, Cloud: c, Transition: tr}
@@ -163,7 +141,7 @@ func (b *Budget) atomsAt(pb *PathBudget, r *Row, c *Cloud, full bool) *AtomsResu
 	a.PeakIrradiance = beam.PeakIrradiance(a.Power)
 	// The cloud's rms sizes across the beam (its x and y planes) and along it.
 	n := r.Element.Direction
-	u, v := BeamAxes(n)
+	u, v := budget.BeamAxes(n)
 	σu, σv, σn := c.RMSAlong(u), c.RMSAlong(v), c.RMSAlong(n)
 	a.EdgeRelative = [2]float64{math.Exp(-2 * σu * σu / (wx * wx)), math.Exp(-2 * σv * σv / (wy * wy))}
 	for k, dz := range []float64{-σn, σn} {
@@ -171,11 +149,11 @@ func (b *Budget) atomsAt(pb *PathBudget, r *Row, c *Cloud, full bool) *AtomsResu
 		a.EndRadii[k] = [2]float64{ex, ey}
 	}
 	a.FocusOffset = [2]float64{beam.X.WaistDistance(), beam.Y.WaistDistance()}
-	var own *Element // the element's stated detuning is for the path's own laser
+	var own *budget.Element // the element's stated detuning is for the path's own laser
 	if !pb.IsJoined() {
 		own = r.Element
 	}
-	a.Detuning, a.DetuningSource = detuningAt(las, own, pb.ShiftBefore(pb.First+pb.rowIndex(r)), tr)
+	a.Detuning, a.DetuningSource = budget.DetuningAt(las, own, pb.ShiftBefore(pb.First+pb.RowIndex(r)), tr)
 	a.Isat, a.IsatNote, _ = tr.Isat(c.Saturation)
 	a.Saturation = atoms.Saturation(a.PeakIrradiance, a.Isat)
 	a.Rabi = atoms.Rabi(tr.Gamma, a.Saturation)
@@ -183,16 +161,16 @@ func (b *Budget) atomsAt(pb *PathBudget, r *Row, c *Cloud, full bool) *AtomsResu
 	a.OpticalDepth = atoms.OpticalDepth(a.CrossSection, c.Atoms, σu, σv)
 	a.FractionAboveGoal = math.NaN()
 	if full {
-		col := columnFor(pb, pb.First+pb.rowIndex(r), r.Element, c)
-		a.Absorption = col.absorb(a.Power, wx, wy)
+		col := budget.ColumnFor(pb, pb.First+pb.RowIndex(r), r.Element, c)
+		a.Absorption = col.Absorb(a.Power, wx, wy)
 		a.ScatteredPower = a.Power * (1 - a.Absorption.Transmission)
 	}
 	ω := tr.Frequency() + a.Detuning
 	near, δ := tr.NearestLine(ω)
-	nearDriven := math.Abs(a.Detuning) <= FarDetuningFactor*tr.Gamma
+	nearDriven := math.Abs(a.Detuning) <= budget.FarDetuningFactor*tr.Gamma
 	switch {
 	case nearDriven:
-	case math.Abs(δ) <= FarDetuningFactor*near.Gamma:
+	case math.Abs(δ) <= budget.FarDetuningFactor*near.Gamma:
 		a.NearLine, a.NearLineDetuning = near.Name, δ
 	default:
 		a.FarDetuned = true
@@ -218,7 +196,7 @@ func (b *Budget) atomsAt(pb *PathBudget, r *Row, c *Cloud, full bool) *AtomsResu
 	// A goal is the path's own laser's; another laser's beam on the path
 	// is shown beside it.
 	if e := r.Element; e.Goal != "" && !pb.IsJoined() {
-		a.Goal = b.goal(a, e, full)
+		a.Goal = goalOf(b, a, e, full)
 	}
 	return a
 }
@@ -237,110 +215,27 @@ func axialCurvature(beam optics.Beam) float64 {
 	return (g(h) - 2*g(0) + g(-h)) / (h * h * g(0))
 }
 
-// aomShift is the frequency shift of the AOMs before element upTo on path p
-// and, through the splitters that feed it, on its parent paths, Hz: the
-// shift the path's own laser carries there.
-func aomShift(p *Path, upTo *Element) float64 {
-	shift := 0.0
-	for p != nil {
-		for _, e := range p.Elements {
-			if upTo != nil && e == upTo {
-				break
-			}
-			shift += e.FrequencyShift()
-		}
-		upTo = p.ParentPort
-		p = p.Parent
-	}
-	return shift
-}
-
-// FrequencyShift is the shift an element gives the light passing it, Hz:
-// order × frequency × passes for an AOM, 0 for anything else.
-func (e *Element) FrequencyShift() float64 {
-	if e.Type != TypeAOM {
-		return 0
-	}
-	return float64(e.Order) * e.Frequency * float64(e.Passes)
-}
-
-// LightFrequency is the optical frequency of laser las after AOM shifts
-// totalling shift (Hz), from its vacuum wavelength, Hz.
-func LightFrequency(las *Laser, shift float64) float64 { return atoms.C/las.Wavelength + shift }
-
-// detuningAt finds Δ = ω_laser − ω_atom at atoms element e for laser las
-// carrying AOM shifts totalling shift (Hz), rad/s, and where it came from:
-// the element's stated detuning (e nil: not to be used, as for another
-// laser's beam on the path), the laser's stated detuning plus the shifts,
-// or the wavelengths plus the shifts.
-func detuningAt(las *Laser, e *Element, shift float64, tr *atoms.Transition) (float64, string) {
-	if e != nil && e.Detuning != nil {
-		return 2 * math.Pi * *e.Detuning, DetuningFromElement
-	}
-	if las.DetuningSet {
-		return 2 * math.Pi * (las.Detuning + shift), DetuningFromLaser
-	}
-	return 2 * math.Pi * (LightFrequency(las, shift) - atoms.C/tr.Wavelength), DetuningFromWavelengths
-}
-
-// DetuningTolerance is how far a stated detuning may sit from the one the
-// wavelengths give, as a fraction of the transition frequency: 0.1 %, about
-// 0.8 nm at 780 nm, so that a wavelength written to the nearest nanometre
-// passes while a laser on another line, or a stated detuning that belongs
-// to another laser, does not (our threshold).
-const DetuningTolerance = 1e-3
-
-// checkDetuning refuses, at atoms element e of path p, the path's own
-// light whose frequency after the AOM shifts is not positive, and a stated
-// detuning (on the element or the laser) that disagrees with the
-// wavelengths by more than DetuningTolerance. It returns the problem, or "".
-func checkDetuning(p *Path, e *Element, tr *atoms.Transition) string {
-	return detuningProblem(p.Laser, e, aomShift(p, e), tr)
-}
-
-// detuningProblem is checkDetuning for laser las carrying AOM shifts
-// totalling shift (Hz) to element e (nil: the element's detuning is not for
-// this laser).
-func detuningProblem(las *Laser, e *Element, shift float64, tr *atoms.Transition) string {
-	ν := LightFrequency(las, shift)
-	if !(ν > 0) {
-		return fmt.Sprintf("the AOM shifts (%s in all) take laser %q at %s to a frequency of %s, which is not positive",
-			units.FormatFrequency(shift), las.Name, units.FormatLength(las.Wavelength), units.FormatFrequency(ν))
-	}
-	Δ, source := detuningAt(las, e, shift, tr)
-	if source == DetuningFromWavelengths {
-		return ""
-	}
-	ν0 := atoms.C / tr.Wavelength
-	stated := ν0 + Δ/(2*math.Pi)
-	if diff := math.Abs(stated - ν); diff > DetuningTolerance*ν0 {
-		return fmt.Sprintf("the stated detuning (%s) puts the light at %s, %s from %s, but laser %q at %s (with %s of AOM shifts) is at %s; they differ by %s, more than the %.1f %% of the transition frequency allowed; correct the wavelength or the detuning",
-			source, units.FormatFrequency(stated), units.FormatFrequency(Δ/(2*math.Pi)), tr.Name, las.Name, units.FormatLength(las.Wavelength), units.FormatFrequency(shift), units.FormatFrequency(ν), units.FormatFrequency(diff), 100*DetuningTolerance)
-	}
-	return ""
-}
-
 // goal works out the power a goal needs at the atoms and at the laser.
-func (b *Budget) goal(a *AtomsResult, e *Element, full bool) *GoalResult {
+func goalOf(b *budget.Budget, a *AtomsResult, e *budget.Element, full bool) *GoalResult {
 	tr := a.Transition
 	g := &GoalResult{Kind: e.Goal, Available: a.Path.Laser.OperatingPower, Factor: 1}
 	if a.NearLine != "" {
 		g.Impossible = fmt.Sprintf("the light is %s from the line %s, within %d of its linewidths; neither the far-detuned dipole formula nor the two-level figures of %s apply there",
-			units.FormatFrequency(a.NearLineDetuning/(2*math.Pi)), a.NearLine, FarDetuningFactor, tr.Name)
+			units.FormatFrequency(a.NearLineDetuning/(2*math.Pi)), a.NearLine, budget.FarDetuningFactor, tr.Name)
 	}
 	switch e.Goal {
-	case GoalSaturation:
+	case budget.GoalSaturation:
 		g.Target = *e.GoalValue
 		g.Intensity = g.Target * a.Isat
-	case GoalRabi:
+	case budget.GoalRabi:
 		g.Target = 2 * math.Pi * *e.GoalValue
 		g.Intensity = atoms.SaturationForRabi(tr.Gamma, g.Target) * a.Isat
-	case GoalTrapDepth:
+	case budget.GoalTrapDepth:
 		g.Target = *e.GoalValue
 		switch {
 		case g.Impossible != "":
 		case !a.FarDetuned:
-			g.Impossible = fmt.Sprintf("the beam is %s from the transition, not far detuned (more than %d Γ); the trap-depth formula does not apply", units.FormatFrequency(a.Detuning/(2*math.Pi)), FarDetuningFactor)
+			g.Impossible = fmt.Sprintf("the beam is %s from the transition, not far detuned (more than %d Γ); the trap-depth formula does not apply", units.FormatFrequency(a.Detuning/(2*math.Pi)), budget.FarDetuningFactor)
 		case a.Dipole.PerIntensity >= 0:
 			g.Impossible = "the beam is blue detuned: a single beam repels the atoms and makes no trap"
 		case !(a.Row.FractionIn > 0):
@@ -355,7 +250,7 @@ func (b *Budget) goal(a *AtomsResult, e *Element, full bool) *GoalResult {
 				g.Intensity = k * a.PeakIrradiance
 			}
 		}
-	case GoalCollective:
+	case budget.GoalCollective:
 		g.Factor = e.GoalFactor
 		var col atoms.Collective
 		if a.Cloud.CollectiveRate > 0 {
@@ -373,20 +268,20 @@ func (b *Budget) goal(a *AtomsResult, e *Element, full bool) *GoalResult {
 	// A drive goal holds at a place in the cloud: the incident intensity
 	// must get through the atoms in front of it.
 	g.At, g.Fraction = e.GoalAt, e.GoalFraction
-	if g.Impossible == "" && e.Goal != GoalTrapDepth {
+	if g.Impossible == "" && e.Goal != budget.GoalTrapDepth {
 		sGoal := g.Intensity / a.Isat
-		col := columnFor(a.Path, a.Path.First+a.Path.rowIndex(a.Row), e, a.Cloud)
+		col := budget.ColumnFor(a.Path, a.Path.First+a.Path.RowIndex(a.Row), e, a.Cloud)
 		wx, wy := a.Row.BeamIn.Radii()
 		switch g.At {
-		case GoalAtExit:
-			g.Intensity = a.Isat * atoms.IncomingIntensity(sGoal, col.b0*atoms.ColumnFraction(2), col.a)
-		case GoalAtAll:
-			g.Intensity = a.Isat * col.incidentForFraction(sGoal, g.Fraction, wx, wy)
+		case budget.GoalAtExit:
+			g.Intensity = a.Isat * atoms.IncomingIntensity(sGoal, col.B0*atoms.ColumnFraction(2), col.A)
+		case budget.GoalAtAll:
+			g.Intensity = a.Isat * col.IncidentForFraction(sGoal, g.Fraction, wx, wy)
 		default:
-			g.Intensity = a.Isat * atoms.IncomingIntensity(sGoal, col.b0*atoms.ColumnFraction(0), col.a)
+			g.Intensity = a.Isat * atoms.IncomingIntensity(sGoal, col.B0*atoms.ColumnFraction(0), col.A)
 		}
 		if full {
-			a.FractionAboveGoal = col.fractionAbove(a.PeakIrradiance/a.Isat, wx, wy, sGoal)
+			a.FractionAboveGoal = col.FractionAbove(a.PeakIrradiance/a.Isat, wx, wy, sGoal)
 		}
 	}
 	if g.Impossible != "" {
@@ -403,17 +298,17 @@ func (b *Budget) goal(a *AtomsResult, e *Element, full bool) *GoalResult {
 
 // Finding kinds of the drive.
 const (
-	FindingGoalShort        FindingKind = "goal_short"
-	FindingGoalImpossible   FindingKind = "goal_impossible"
-	FindingDetuningGuess    FindingKind = "detuning_from_wavelengths"
-	FindingCollectiveDetune FindingKind = "collective_detuned"
-	FindingNearOtherLine    FindingKind = "near_other_line"
-	FindingNoLight          FindingKind = "no_light_at_atoms"
+	FindingGoalShort        budget.FindingKind = "goal_short"
+	FindingGoalImpossible   budget.FindingKind = "goal_impossible"
+	FindingDetuningGuess    budget.FindingKind = "detuning_from_wavelengths"
+	FindingCollectiveDetune budget.FindingKind = "collective_detuned"
+	FindingNearOtherLine    budget.FindingKind = "near_other_line"
+	FindingNoLight          budget.FindingKind = "no_light_at_atoms"
 )
 
 // DriveFindings lists goals not met and doubtful inputs at the atoms.
-func DriveFindings(results []*AtomsResult) []Finding {
-	var out []Finding
+func DriveFindings(results []*AtomsResult) []budget.Finding {
+	var out []budget.Finding
 	for _, a := range results {
 		e := a.Row.Element
 		where := fmt.Sprintf("element %d (atoms %q)", e.Index, a.Cloud.Name)
@@ -421,25 +316,25 @@ func DriveFindings(results []*AtomsResult) []Finding {
 		if g := a.Goal; g != nil {
 			switch {
 			case g.Impossible != "":
-				out = append(out, Finding{Severity: SeverityAction, Kind: FindingGoalImpossible, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: goal %s cannot be met: %s", where, g.Kind, g.Impossible)})
+				out = append(out, budget.Finding{Severity: budget.SeverityAction, Kind: FindingGoalImpossible, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: goal %s cannot be met: %s", where, g.Kind, g.Impossible)})
 			case !g.Met:
-				out = append(out, Finding{Severity: SeverityAction, Kind: FindingGoalShort, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: goal %s is short by %.1f dB at the laser: it needs %s from laser %q, whose operating power is %s",
+				out = append(out, budget.Finding{Severity: budget.SeverityAction, Kind: FindingGoalShort, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: goal %s is short by %.1f dB at the laser: it needs %s from laser %q, whose operating power is %s",
 					where, g.Kind, -g.MarginDB, units.FormatPower(g.SourcePower), a.Path.Laser.Name, units.FormatPower(g.Available))}.Figure(g.Available, g.SourcePower, "W"))
 			}
-			if g.Kind == GoalCollective && math.Abs(a.Detuning) > a.Transition.Gamma/2 {
-				out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingCollectiveDetune, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the drive is %s from resonance (more than Γ/2); the collective threshold model assumes a resonant drive",
+			if g.Kind == budget.GoalCollective && math.Abs(a.Detuning) > a.Transition.Gamma/2 {
+				out = append(out, budget.Finding{Severity: budget.SeverityAdvice, Kind: FindingCollectiveDetune, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the drive is %s from resonance (more than Γ/2); the collective threshold model assumes a resonant drive",
 					where, units.FormatFrequency(a.Detuning/(2*math.Pi)))})
 			}
 		}
 		switch {
 		case a.NearLine != "" && a.Goal == nil:
-			out = append(out, Finding{Severity: SeverityAction, Kind: FindingNearOtherLine, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the light is %s from the line %s, within %d of its linewidths; the drive there is not evaluated (neither the far-detuned dipole formula nor the two-level figures of %s apply)",
-				where, units.FormatFrequency(a.NearLineDetuning/(2*math.Pi)), a.NearLine, FarDetuningFactor, a.Transition.Name)})
+			out = append(out, budget.Finding{Severity: budget.SeverityAction, Kind: FindingNearOtherLine, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the light is %s from the line %s, within %d of its linewidths; the drive there is not evaluated (neither the far-detuned dipole formula nor the two-level figures of %s apply)",
+				where, units.FormatFrequency(a.NearLineDetuning/(2*math.Pi)), a.NearLine, budget.FarDetuningFactor, a.Transition.Name)})
 		case !(a.Power > 0) && a.Goal == nil:
-			out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingNoLight, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: %s", where, NoLightAtAtoms)})
+			out = append(out, budget.Finding{Severity: budget.SeverityAdvice, Kind: FindingNoLight, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: %s", where, NoLightAtAtoms)})
 		}
-		if a.DetuningSource == DetuningFromWavelengths && !a.FarDetuned && a.NearLine == "" {
-			out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingDetuningGuess, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the detuning %s comes from the wavelengths, which are not precise enough near resonance; state detuning on laser %q",
+		if a.DetuningSource == budget.DetuningFromWavelengths && !a.FarDetuned && a.NearLine == "" {
+			out = append(out, budget.Finding{Severity: budget.SeverityAdvice, Kind: FindingDetuningGuess, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the detuning %s comes from the wavelengths, which are not precise enough near resonance; state detuning on laser %q",
 				where, units.FormatFrequency(a.Detuning/(2*math.Pi)), a.Path.Laser.Name)})
 		}
 	}

@@ -1,4 +1,4 @@
-package budget
+package drive
 
 import (
 	"fmt"
@@ -8,6 +8,7 @@ import (
 	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/gonum/unit/constant"
 
+	"beamledger/budget"
 	"beamledger/budget/atoms"
 	"beamledger/budget/numeric"
 	"beamledger/budget/optics"
@@ -36,7 +37,7 @@ type CloudBeam struct {
 
 // CloudResult is everything at one cloud, all beams counted together.
 type CloudResult struct {
-	Cloud *Cloud
+	Cloud *budget.Cloud
 	Beams []*CloudBeam
 	// PotentialAtCloud is the combined dipole potential at the cloud's
 	// position, J.
@@ -102,7 +103,7 @@ type CloudGoal struct {
 	Kind   string
 	Target float64 // SI: K for a trap depth, rad/s for a Rabi frequency, s for saturation
 	Factor float64 // the collective goal's multiple of the threshold
-	Lasers []*Laser
+	Lasers []*budget.Laser
 	// Scale is k; Needed the operating power each laser then needs, W;
 	// MarginDB is −10 log10 k.
 	Scale      float64
@@ -130,7 +131,7 @@ type fieldBeam struct {
 	λ, power float64
 	perI     float64 // U/I, J per W/m²
 	n, u, v  [3]float64
-	laser    *Laser
+	laser    *budget.Laser
 	// back is the return pass of a standing wave, added coherently.
 	back *fieldBeam
 }
@@ -432,7 +433,7 @@ func (f *field) barrier(r [3]float64, vmin float64, d [3]float64, t0, tmax float
 // Clouds counts every beam at each cloud together: the combined potential
 // and its trap (with gravity), the light shifts, the near-resonant
 // saturation and scattering, and the cloud's own goal.
-func (b *Budget) Clouds(drive []*AtomsResult) []*CloudResult {
+func Clouds(b *budget.Budget, drive []*AtomsResult) []*CloudResult {
 	var out []*CloudResult
 	for _, c := range b.Setup.Clouds {
 		if cr := cloudResult(c, drive, true); cr != nil {
@@ -445,7 +446,7 @@ func (b *Budget) Clouds(drive []*AtomsResult) []*CloudResult {
 // cloudResult counts the beams in drive that reach cloud c together (nil
 // when none does); full also asks the findings' questions (a tolerance
 // sample needs only the goal).
-func cloudResult(c *Cloud, drive []*AtomsResult, full bool) *CloudResult {
+func cloudResult(c *budget.Cloud, drive []*AtomsResult, full bool) *CloudResult {
 	if c.Data == nil {
 		return nil
 	}
@@ -456,7 +457,7 @@ func cloudResult(c *Cloud, drive []*AtomsResult, full bool) *CloudResult {
 			continue
 		}
 		n := a.Row.Element.Direction
-		u, v := BeamAxes(n)
+		u, v := budget.BeamAxes(n)
 		cb := &CloudBeam{Atoms: a, Direction: n, U: u, V: v,
 			Far:  a.FarDetuned && a.Dipole != nil && a.Row.FractionIn > 0,
 			Near: !a.FarDetuned && a.NearLine == "" && a.Row.FractionIn > 0}
@@ -485,7 +486,7 @@ func cloudResult(c *Cloud, drive []*AtomsResult, full bool) *CloudResult {
 // fieldOf builds the field of the far-detuned beams, the powers of the
 // lasers in scaled multiplied by k (all lasers when scaled is nil and k is
 // 1), with or without gravity.
-func (cr *CloudResult) fieldOf(scaled []*Laser, k float64, gravity bool) *field {
+func (cr *CloudResult) fieldOf(scaled []*budget.Laser, k float64, gravity bool) *field {
 	f := &field{mass: cr.Cloud.Data.Mass, beams: make([]fieldBeam, 0, len(cr.Beams))}
 	if gravity {
 		f.down = cr.Cloud.Down
@@ -517,7 +518,7 @@ func (cr *CloudResult) fieldOf(scaled []*Laser, k float64, gravity bool) *field 
 // evaluate fills the combined figures, with the powers of the lasers in
 // scaled multiplied by k; full also asks whether a trap that fails against
 // gravity would hold without it (a goal's trial powers skip that).
-func (cr *CloudResult) evaluate(scaled []*Laser, k float64, full bool) {
+func (cr *CloudResult) evaluate(scaled []*budget.Laser, k float64, full bool) {
 	c := cr.Cloud
 	tr := c.Data
 	f := cr.fieldOf(scaled, k, true)
@@ -628,13 +629,13 @@ func MultiBeamScattering(Γ, s, sTotal, Δ float64) float64 {
 
 // goalLasers are the lasers a cloud goal scales: those it names, else the
 // far-detuned ones for a trap depth and the near-resonant ones otherwise.
-func (cr *CloudResult) goalLasers() []*Laser {
+func (cr *CloudResult) goalLasers() []*budget.Laser {
 	c := cr.Cloud
-	var out []*Laser
+	var out []*budget.Laser
 	for _, cb := range cr.Beams {
 		las := cb.Atoms.Path.Laser
 		want := cb.Near
-		if c.Goal == GoalTrapDepth {
+		if c.Goal == budget.GoalTrapDepth {
 			want = cb.Far
 		}
 		if len(c.GoalLasers) > 0 {
@@ -649,16 +650,16 @@ func (cr *CloudResult) goalLasers() []*Laser {
 
 // metric is what the cloud goal measures with the lasers scaled by k:
 // trap depth (K), s, or Ω (rad/s).
-func (cr *CloudResult) metric(lasers []*Laser, k float64) float64 {
+func (cr *CloudResult) metric(lasers []*budget.Laser, k float64) float64 {
 	trial := *cr
 	trial.evaluate(lasers, k, false)
 	switch cr.Cloud.Goal {
-	case GoalTrapDepth:
+	case budget.GoalTrapDepth:
 		if trial.Trap == nil || !trial.Trap.Holds || trial.Trap.Skipped != "" {
 			return 0
 		}
 		return trial.Trap.Depth / atoms.KB
-	case GoalSaturation:
+	case budget.GoalSaturation:
 		return trial.SaturationTotal
 	}
 	return atoms.Rabi(cr.Cloud.Data.Gamma, trial.SaturationTotal)
@@ -673,11 +674,11 @@ func (cr *CloudResult) goal() *CloudGoal {
 	tr := c.Data
 	g := &CloudGoal{Kind: c.Goal, Factor: c.GoalFactor, Lasers: cr.goalLasers()}
 	switch c.Goal {
-	case GoalTrapDepth, GoalSaturation:
+	case budget.GoalTrapDepth, budget.GoalSaturation:
 		g.Target = *c.GoalValue
-	case GoalRabi:
+	case budget.GoalRabi:
 		g.Target = 2 * math.Pi * *c.GoalValue
-	case GoalCollective:
+	case budget.GoalCollective:
 		// The threshold of the first near-resonant beam's cloud column.
 		for _, cb := range cr.Beams {
 			if cb.Near {
@@ -693,18 +694,18 @@ func (cr *CloudResult) goal() *CloudGoal {
 	}
 	switch {
 	case len(g.Lasers) == 0:
-		g.Impossible = fmt.Sprintf("no beam at the cloud can serve a %s goal (%s)", c.Goal, map[bool]string{true: "no far-detuned beam", false: "no near-resonant beam"}[c.Goal == GoalTrapDepth])
+		g.Impossible = fmt.Sprintf("no beam at the cloud can serve a %s goal (%s)", c.Goal, map[bool]string{true: "no far-detuned beam", false: "no near-resonant beam"}[c.Goal == budget.GoalTrapDepth])
 		return g
 	case !(g.Target > 0):
 		g.Impossible = "no near-resonant beam to set the collective threshold"
 		return g
 	}
-	if t := cr.Trap; c.Goal == GoalTrapDepth && t != nil && t.Skipped != "" {
+	if t := cr.Trap; c.Goal == budget.GoalTrapDepth && t != nil && t.Skipped != "" {
 		g.Impossible = "the combined trap was not searched for: " + t.Skipped
 		return g
 	}
 	γ := 1.0 // the figure's power law in k: s and U grow as k, Ω as √k
-	if c.Goal == GoalRabi || c.Goal == GoalCollective {
+	if c.Goal == budget.GoalRabi || c.Goal == budget.GoalCollective {
 		γ = 0.5
 	}
 	hi, ok := numeric.SolveScale(func(k float64) float64 { return cr.metric(g.Lasers, k) }, g.Target, γ)
@@ -721,7 +722,7 @@ func (cr *CloudResult) goal() *CloudGoal {
 	return g
 }
 
-func laserNames(ls []*Laser) string {
+func laserNames(ls []*budget.Laser) string {
 	out := ""
 	for i, l := range ls {
 		if i > 0 {
@@ -734,29 +735,29 @@ func laserNames(ls []*Laser) string {
 
 // Cloud finding kinds.
 const (
-	FindingNoHold              FindingKind = "trap_does_not_hold"
-	FindingTrapOffset          FindingKind = "trap_offset"
-	FindingCloudGoalShort      FindingKind = "cloud_goal_short"
-	FindingCloudGoalImpossible FindingKind = "cloud_goal_impossible"
+	FindingNoHold              budget.FindingKind = "trap_does_not_hold"
+	FindingTrapOffset          budget.FindingKind = "trap_offset"
+	FindingCloudGoalShort      budget.FindingKind = "cloud_goal_short"
+	FindingCloudGoalImpossible budget.FindingKind = "cloud_goal_impossible"
 )
 
 // CloudFindings lists what the clouds' combined figures found: a trap that
 // would hold but for gravity (action), a trap whose minimum lies more than
 // one rms size from the cloud (advice), and a cloud goal short or
 // impossible (action).
-func CloudFindings(clouds []*CloudResult) []Finding {
-	var out []Finding
+func CloudFindings(clouds []*CloudResult) []budget.Finding {
+	var out []budget.Finding
 	for _, cr := range clouds {
 		c := cr.Cloud
 		where := fmt.Sprintf("cloud %q", c.Name)
 		if t := cr.Trap; t != nil {
 			switch {
 			case !t.Holds && t.HoldsWithoutGravity:
-				out = append(out, Finding{Severity: SeverityAction, Kind: FindingNoHold, Message: fmt.Sprintf("%s: the far-detuned beams make a trap that does not hold against gravity (it would without it); raise their power or add confinement along gravity", where)})
+				out = append(out, budget.Finding{Severity: budget.SeverityAction, Kind: FindingNoHold, Message: fmt.Sprintf("%s: the far-detuned beams make a trap that does not hold against gravity (it would without it); raise their power or add confinement along gravity", where)})
 			case t.Holds:
 				off := math.Sqrt(numeric.Dot(t.Minimum, t.Minimum))
 				if rms := c.RMSAlong(normalizeOr(t.Minimum)); off > rms {
-					out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingTrapOffset, Message: fmt.Sprintf("%s: the trap minimum lies %s from the cloud's position (more than its rms size there, %s); the force at the cloud is %.3g g",
+					out = append(out, budget.Finding{Severity: budget.SeverityAdvice, Kind: FindingTrapOffset, Message: fmt.Sprintf("%s: the trap minimum lies %s from the cloud's position (more than its rms size there, %s); the force at the cloud is %.3g g",
 						where, units.FormatLength(off), units.FormatLength(rms), t.ForceAtCloud)}.Figure(off, rms, "m"))
 				}
 			}
@@ -764,9 +765,9 @@ func CloudFindings(clouds []*CloudResult) []Finding {
 		if g := cr.Goal; g != nil {
 			switch {
 			case g.Impossible != "":
-				out = append(out, Finding{Severity: SeverityAction, Kind: FindingCloudGoalImpossible, Message: fmt.Sprintf("%s: goal %s cannot be met: %s", where, g.Kind, g.Impossible)})
+				out = append(out, budget.Finding{Severity: budget.SeverityAction, Kind: FindingCloudGoalImpossible, Message: fmt.Sprintf("%s: goal %s cannot be met: %s", where, g.Kind, g.Impossible)})
 			case !g.Met:
-				out = append(out, Finding{Severity: SeverityAction, Kind: FindingCloudGoalShort, Message: fmt.Sprintf("%s: goal %s is short by %.1f dB: it needs %.3g × the operating powers of %s", where, g.Kind, -g.MarginDB, g.Scale, laserNames(g.Lasers))}.Figure(g.Scale, 1, "1"))
+				out = append(out, budget.Finding{Severity: budget.SeverityAction, Kind: FindingCloudGoalShort, Message: fmt.Sprintf("%s: goal %s is short by %.1f dB: it needs %.3g × the operating powers of %s", where, g.Kind, -g.MarginDB, g.Scale, laserNames(g.Lasers))}.Figure(g.Scale, 1, "1"))
 			}
 		}
 	}
@@ -790,7 +791,7 @@ func trapDepthScale(a *AtomsResult, depth float64) (k float64, why string) {
 		return 0, "the transition's data give no mass"
 	}
 	n := a.Row.Element.Direction
-	u, v := BeamAxes(n)
+	u, v := budget.BeamAxes(n)
 	beam := a.Row.BeamIn
 	var hint *[3]float64
 	at := func(k float64) float64 {

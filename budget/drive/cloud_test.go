@@ -1,4 +1,4 @@
-package budget
+package drive
 
 import (
 	"fmt"
@@ -6,6 +6,7 @@ import (
 	"strings"
 	"testing"
 
+	"beamledger/budget"
 	"beamledger/budget/atoms"
 	"beamledger/budget/numeric"
 )
@@ -47,17 +48,17 @@ down = %q
 `, down, extra)
 }
 
-func cloudsOf(t *testing.T, src string) (*Budget, []*CloudResult) {
+func cloudsOf(t *testing.T, src string) (*budget.Budget, []*CloudResult) {
 	t.Helper()
-	s, err := Parse("clouds.toml", []byte(src))
+	s, err := budget.Parse("clouds.toml", []byte(src))
 	if err != nil {
 		t.Fatal(err)
 	}
-	b, err := Compute(s)
+	b, err := budget.Compute(s)
 	if err != nil {
 		t.Fatal(err)
 	}
-	return b, b.Clouds(b.Drive())
+	return b, Clouds(b, Evaluate(b))
 }
 
 // u0 is a focused beam's depth U0 = |U/I| · 2P/(π w0²), J (Grimm,
@@ -208,7 +209,7 @@ func TestCloudTrapNotHoldingIsAFinding(t *testing.T) {
 		t.Fatalf("holds %v, without gravity %v", tr.Holds, tr.HoldsWithoutGravity)
 	}
 	fs := CloudFindings(cs)
-	if len(fs) != 1 || fs[0].Kind != FindingNoHold || fs[0].Severity != SeverityAction {
+	if len(fs) != 1 || fs[0].Kind != FindingNoHold || fs[0].Severity != budget.SeverityAction {
 		t.Errorf("findings %+v", fs)
 	}
 }
@@ -265,25 +266,6 @@ func TestExcitedShiftPerIntensity(t *testing.T) {
 	d := atoms.FarDetuned(tr.Lines, 2*math.Pi*atoms.C/1064e-9)
 	if got := ExcitedShiftPerIntensity(687); !relNear(got, d.PotentialPerIntensity, 0.03) {
 		t.Errorf("U/I for 687 a.u. = %g, the dipole potential gives %g", got, d.PotentialPerIntensity)
-	}
-}
-
-// The beam's planes in the cloud frame: along z they are x and y; along x,
-// y and z; along −z, x and −y (right-handed); and the rms size along a
-// direction of a Gaussian cloud is √Σ dᵢ² σᵢ² (by hand).
-func TestBeamAxes(t *testing.T) {
-	for _, c := range []struct{ n, u, v [3]float64 }{
-		{[3]float64{0, 0, 1}, [3]float64{1, 0, 0}, [3]float64{0, 1, 0}},
-		{[3]float64{1, 0, 0}, [3]float64{0, 1, 0}, [3]float64{0, 0, 1}},
-		{[3]float64{0, 0, -1}, [3]float64{1, 0, 0}, [3]float64{0, -1, 0}},
-	} {
-		if u, v := BeamAxes(c.n); u != c.u || v != c.v {
-			t.Errorf("along %v: x plane %v, y plane %v; want %v, %v", c.n, u, v, c.u, c.v)
-		}
-	}
-	cl := &Cloud{RMSSize: [3]float64{3, 4, 12}}
-	if got := cl.RMSAlong([3]float64{0.6, 0.8, 0}); !relNear(got, math.Sqrt(0.36*9+0.64*16), 1e-12) {
-		t.Errorf("rms along (0.6, 0.8, 0) = %g", got)
 	}
 }
 
