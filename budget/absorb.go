@@ -7,6 +7,7 @@ import (
 	"gonum.org/v1/gonum/integrate/quad"
 
 	"beamledger/budget/atoms"
+	"beamledger/budget/setup"
 )
 
 // Absorption is what an optically thick cloud does to a beam crossing it:
@@ -179,17 +180,17 @@ func (col CloudColumn) FractionAbove(i0, wx, wy, sGoal float64) float64 {
 // ColumnFor is cloud c as the beam pb sees it at element k of its path
 // (element e): the peak resonant optical depth across the beam's planes,
 // the detuning factor at the light's detuning there and the cloud's I_sat.
-func ColumnFor(pb *PathBudget, k int, e *Element, c *Cloud) CloudColumn {
+func ColumnFor(pb *PathBudget, k int, e *setup.Element, c *setup.Cloud) CloudColumn {
 	tr := c.Data
 	isat, _, _ := tr.Isat(c.Saturation)
-	u, v := BeamAxes(e.Direction)
+	u, v := setup.BeamAxes(e.Direction)
 	σx, σy := c.RMSAlong(u), c.RMSAlong(v)
 	σ0 := atoms.CrossSection(tr.Wavelength, tr.Gamma, isat)
-	var own *Element
+	var own *setup.Element
 	if !pb.IsJoined() {
 		own = e
 	}
-	Δ, _ := DetuningAt(pb.Laser, own, pb.ShiftBefore(k), tr)
+	Δ, _ := setup.DetuningAt(pb.Laser, own, pb.ShiftBefore(k), tr)
 	return CloudColumn{B0: atoms.OpticalDepth(σ0, c.Atoms, σx, σy), σx: σx, σy: σy, A: atoms.DetuningFactor(Δ, tr.Gamma), isat: isat}
 }
 

@@ -2,6 +2,7 @@ package budget
 
 import (
 	"beamledger/budget/optics"
+	"beamledger/budget/setup"
 	"fmt"
 	"math"
 	"sort"
@@ -38,7 +39,7 @@ type Loss struct {
 
 // Row is the budget at one element.
 type Row struct {
-	Element *Element
+	Element *setup.Element
 	// BeamIn is the beam arriving at the element; BeamOut the beam leaving it.
 	BeamIn, BeamOut optics.Beam
 	// FractionIn and FractionOut are the power arriving and leaving as
@@ -74,7 +75,7 @@ type Segment struct {
 	After    int         // index of the element it follows (0: the path start)
 	Beam     optics.Beam // at From
 	Fraction float64     // power in the segment, fraction of the source
-	Access   Access
+	Access   setup.Access
 	// Arrival marks the zero-length arrival of a joined beam at its
 	// combiner: its free space belongs to the path it came along.
 	Arrival bool
@@ -85,8 +86,8 @@ type Segment struct {
 // either from a combiner on the path or from the path's start when the
 // splitter feeding the path carries it.
 type PathBudget struct {
-	Path  *Path
-	Laser *Laser
+	Path  *setup.Path
+	Laser *setup.Laser
 	// First is the index in Path.Elements of the first element the beam
 	// meets: 0 for a beam from the path's start, the combiner's for a beam
 	// that joined there. Rows[k] is at Path.Elements[First+k], and
@@ -96,7 +97,7 @@ type PathBudget struct {
 	JoinedAt float64
 	// Combiner is the element where the beam joined the path (nil: it
 	// came from the path's start).
-	Combiner *Element
+	Combiner *setup.Element
 	// ShiftIn is the AOM frequency shift the beam carries onto the path, Hz.
 	ShiftIn float64
 	// Joined lists the other lasers' beams on the path, in the order they
@@ -114,9 +115,9 @@ type PathBudget struct {
 	OpenEnd bool
 	End     optics.Beam // at the path's end (at the combiner for a path that goes into one)
 	// UnfollowedPorts lists splitters whose other port no path follows.
-	UnfollowedPorts []*Element
+	UnfollowedPorts []*setup.Element
 
-	arrival Access // the access of the segment a joined beam arrives through
+	arrival setup.Access // the access of the segment a joined beam arrives through
 }
 
 // IsJoined reports whether the beam is another laser's on a shared path.
@@ -141,7 +142,7 @@ func (pb *PathBudget) ShiftBefore(k int) float64 {
 
 // LaserBalance accounts for all the power of one source.
 type LaserBalance struct {
-	Laser   *Laser
+	Laser   *setup.Laser
 	Dumped  float64 // fraction absorbed in dumps
 	Leaving float64 // fraction leaving open path ends
 	Lost    map[string]float64
@@ -170,7 +171,7 @@ func (b LaserBalance) LossKinds() []string {
 
 // Budget is the power and beam budget of a whole setup.
 type Budget struct {
-	Setup    *Setup
+	Setup    *setup.Setup
 	Paths    []*PathBudget
 	Balances []*LaserBalance
 	// AssumedLossless counts the elements whose loss was not stated.
@@ -190,27 +191,27 @@ func (b *Budget) Path(name string) *PathBudget {
 // Compute propagates every beam and accounts for its power. Paths are
 // taken in an order where the paths feeding one (through a splitter or a
 // combiner) come first; every beam a feeding path carries goes on into it.
-func Compute(s *Setup) (*Budget, error) {
+func Compute(s *setup.Setup) (*Budget, error) {
 	out := &Budget{Setup: s}
-	balances := map[*Laser]*LaserBalance{}
+	balances := map[*setup.Laser]*LaserBalance{}
 	for _, las := range s.Lasers {
 		bal := &LaserBalance{Laser: las, Lost: map[string]float64{}}
 		balances[las] = bal
 		out.Balances = append(out.Balances, bal)
 	}
-	followed := map[*Element]*Path{}
+	followed := map[*setup.Element]*setup.Path{}
 	for _, p := range s.Paths {
 		if p.ParentPort != nil {
 			followed[p.ParentPort] = p
 		}
 	}
-	clouds := map[string]*Cloud{}
+	clouds := map[string]*setup.Cloud{}
 	for _, c := range s.Clouds {
 		clouds[c.Name] = c
 	}
-	own := map[*Path]*PathBudget{}
-	lossless := map[*Element]bool{}
-	for _, p := range PathOrder(s) {
+	own := map[*setup.Path]*PathBudget{}
+	lossless := map[*setup.Element]bool{}
+	for _, p := range setup.PathOrder(s) {
 		var beams []*PathBudget
 		if p.Parent == nil {
 			las := p.Laser
@@ -220,7 +221,7 @@ func Compute(s *Setup) (*Budget, error) {
 				Y:          optics.NewPlane(las.Waist[1], las.WaistAt[1], las.M2[1], las.Wavelength),
 			}})
 		} else {
-			k := elementIndex(p.Parent, p.ParentPort)
+			k := setup.ElementIndex(p.Parent, p.ParentPort)
 			for _, q := range own[p.Parent].Beams() {
 				if q.First > k || q.row(p.ParentPort) == nil {
 					continue
@@ -235,7 +236,7 @@ func Compute(s *Setup) (*Budget, error) {
 			if j.IntoPath != p {
 				continue
 			}
-			k := elementIndex(p, j.IntoPort)
+			k := setup.ElementIndex(p, j.IntoPort)
 			for _, q := range own[j].Beams() {
 				beams = append(beams, &PathBudget{Path: p, Laser: q.Laser, First: k, JoinedAt: j.IntoPort.At, Combiner: j.IntoPort, Start: q.End,
 					StartFraction: q.EndFraction, ShiftIn: q.ShiftBefore(len(j.Elements)), arrival: q.Segments[len(q.Segments)-1].Access})
@@ -280,48 +281,6 @@ func Compute(s *Setup) (*Budget, error) {
 	return out, nil
 }
 
-// PathOrder lists the paths so that every path comes after the paths that
-// feed it: the one whose splitter it starts at and those that go into its
-// combiners (the loader refuses cycles).
-func PathOrder(s *Setup) []*Path {
-	joiners := map[*Path][]*Path{}
-	for _, p := range s.Paths {
-		if p.IntoPath != nil {
-			joiners[p.IntoPath] = append(joiners[p.IntoPath], p)
-		}
-	}
-	order := make([]*Path, 0, len(s.Paths))
-	done := make(map[*Path]bool, len(s.Paths))
-	var visit func(p *Path)
-	visit = func(p *Path) {
-		if done[p] {
-			return
-		}
-		done[p] = true
-		if p.Parent != nil {
-			visit(p.Parent)
-		}
-		for _, j := range joiners[p] {
-			visit(j)
-		}
-		order = append(order, p)
-	}
-	for _, p := range s.Paths {
-		visit(p)
-	}
-	return order
-}
-
-// elementIndex is the index of element e in path p's elements.
-func elementIndex(p *Path, e *Element) int {
-	for i, x := range p.Elements {
-		if x == e {
-			return i
-		}
-	}
-	return -1
-}
-
 // RowIndex is the index of row r in pb.Rows.
 func (pb *PathBudget) RowIndex(r *Row) int {
 	for i := range pb.Rows {
@@ -332,7 +291,7 @@ func (pb *PathBudget) RowIndex(r *Row) int {
 	return -1
 }
 
-func (pb *PathBudget) row(e *Element) *Row {
+func (pb *PathBudget) row(e *setup.Element) *Row {
 	for i := range pb.Rows {
 		if pb.Rows[i].Element == e {
 			return &pb.Rows[i]
@@ -342,7 +301,7 @@ func (pb *PathBudget) row(e *Element) *Row {
 }
 
 // propagate walks the beam through the path's elements from First.
-func (pb *PathBudget) propagate(file string, followed map[*Element]*Path, clouds map[string]*Cloud) error {
+func (pb *PathBudget) propagate(file string, followed map[*setup.Element]*setup.Path, clouds map[string]*setup.Cloud) error {
 	p := pb.Path
 	beam := pb.Start
 	frac := pb.StartFraction
@@ -374,11 +333,10 @@ func (pb *PathBudget) propagate(file string, followed map[*Element]*Path, clouds
 			frac *= row.ClipFraction
 		}
 		st := &stage{pb: pb, followed: followed, clouds: clouds, index: len(pb.Rows), lastLens: lastLens, beam: beam, frac: frac, row: &row, joining: joining}
-		kind, _ := KindOf(e.Type)
-		kind.apply(st, el)
+		effects[e.Type](st, el)
 		beam, frac, lastLens = st.beam, st.frac, st.lastLens
 		if !beam.Valid() {
-			return &InputError{[]string{fmt.Sprintf("%s:%d: path %q, element %d (%s): the beam of laser %q is not a finite Gaussian beam after this element; check its numbers", file, e.Line, p.Name, e.Index, e.Type, pb.Laser.Name)}}
+			return &setup.InputError{Problems: []string{fmt.Sprintf("%s:%d: path %q, element %d (%s): the beam of laser %q is not a finite Gaussian beam after this element; check its numbers", file, e.Line, p.Name, e.Index, e.Type, pb.Laser.Name)}}
 		}
 		row.BeamOut = beam
 		row.FractionOut = frac
@@ -389,8 +347,8 @@ func (pb *PathBudget) propagate(file string, followed map[*Element]*Path, clouds
 		switch {
 		case e.Access != "":
 			access = e.Access
-		case e.Type != TypeAtoms:
-			access = AccessOpen
+		case e.Type != setup.TypeAtoms:
+			access = setup.AccessOpen
 		}
 		after = e.Index
 	}
@@ -401,7 +359,7 @@ func (pb *PathBudget) propagate(file string, followed map[*Element]*Path, clouds
 		// The beam goes on into the combiner of another path.
 		pb.Segments = append(pb.Segments, Segment{From: pos, To: p.IntoAt, After: after, Beam: beam, Fraction: frac, Access: access})
 		pb.End = beam.Propagate(p.IntoAt - pos)
-	case last < 0 || p.Elements[last].Type != TypeDump:
+	case last < 0 || p.Elements[last].Type != setup.TypeDump:
 		pb.OpenEnd = true
 		pb.End = beam
 		pb.Segments = append(pb.Segments, Segment{From: pos, To: math.Inf(1), After: after, Beam: beam, Fraction: frac, Access: access})
@@ -415,16 +373,16 @@ func (pb *PathBudget) propagate(file string, followed map[*Element]*Path, clouds
 // light whose frequency after the AOMs is not positive or whose laser's
 // stated detuning disagrees with its wavelength (as the loader does for a
 // path's own beam).
-func (pb *PathBudget) checkJoinedDetuning(s *Setup) error {
+func (pb *PathBudget) checkJoinedDetuning(s *setup.Setup) error {
 	for k := pb.First; k < len(pb.Path.Elements); k++ {
 		e := pb.Path.Elements[k]
-		if e.Type != TypeAtoms {
+		if e.Type != setup.TypeAtoms {
 			continue
 		}
 		for _, c := range s.Clouds {
 			if c.Name == e.Cloud && c.Data != nil {
-				if msg := detuningProblem(pb.Laser, nil, pb.ShiftBefore(k), c.Data); msg != "" {
-					return &InputError{[]string{fmt.Sprintf("%s:%d: path %q, element %d (atoms, cloud %q), beam of laser %q: detuning: %s", s.File, e.Line, pb.Path.Name, e.Index, e.Cloud, pb.Laser.Name, msg)}}
+				if msg := setup.DetuningProblem(pb.Laser, nil, pb.ShiftBefore(k), c.Data); msg != "" {
+					return &setup.InputError{Problems: []string{fmt.Sprintf("%s:%d: path %q, element %d (atoms, cloud %q), beam of laser %q: detuning: %s", s.File, e.Line, pb.Path.Name, e.Index, e.Cloud, pb.Laser.Name, msg)}}
 				}
 			}
 		}
@@ -433,7 +391,7 @@ func (pb *PathBudget) checkJoinedDetuning(s *Setup) error {
 }
 
 // couple finds the fibre coupling at element e for the arriving beam.
-func (pb *PathBudget) couple(e *Element, beam optics.Beam, lastLens int) *FiberCoupling {
+func (pb *PathBudget) couple(e *setup.Element, beam optics.Beam, lastLens int) *FiberCoupling {
 	fc := &FiberCoupling{Overlap: math.NaN(), Alignment: 1}
 	if e.Coupling != nil {
 		fc.Coupling, fc.Given = *e.Coupling, true

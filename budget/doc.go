@@ -1,25 +1,23 @@
-// Package budget reads setup files and computes, for every beam path, the
-// beam size and power at each element.
+// Package budget computes the power budget of a setup: for every beam path,
+// the beam size and power at each element, every loss named, beams that
+// merge on combiners followed through the optics they share, and the
+// findings of the budget itself (clipping, poor fibre coupling, unused
+// lasers).
 //
 // Sources and conventions:
-//   - Quantities are float64 in SI base units (m, W, s, Hz, K, W/m²); units
-//     appear only in ParseQuantity and the Format functions.
-//   - Beam size is the 1/e² intensity radius W in x and y (for M² > 1 the
-//     second-moment radius of ISO 11146). Peak irradiance I₀ = 2P/(π Wx Wy).
-//   - Propagation: complex beam parameter q and ABCD matrices per plane, with
-//     the embedded-Gaussian treatment of M² (Siegman, Lasers (1986), ch. 17):
-//     a beam of quality M² propagates as a Gaussian of wavelength M²λ.
-//   - Clipping at a centred circular clear aperture: the exact fraction of an
-//     elliptical Gaussian (CircleFraction), not the round-beam shortcut.
-//   - Fibre coupling: the overlap with the fibre's Gaussian mode (Marcuse,
-//     Bell Syst. Tech. J. 56, 703 (1977)); beams with M² > 1 as Gaussian
-//     Schell-model beams (Gori, Opt. Commun. 34, 301 (1980)).
+//   - Gaussian propagation, clipping and fibre coupling come from package
+//     optics, each with its source; the element kinds' effects on the beam
+//     and its power are the table in effects.go, one entry per kind of the
+//     setup format (package setup).
 //   - Positions along a path are free-space distances from its start; a thick
 //     window's glass is counted in those distances, and its focus shift
 //     t(1 − 1/n) is applied at the window.
 //   - Power budget: every element's loss is named; an element whose loss is
 //     not stated is lossless, and counted as such. For each laser, dumps +
 //     open ends + losses = the source power.
+//   - Thick clouds: each ray through an atoms element is a saturable
+//     absorber (package atoms), integrated over the beam by Gauss–Legendre
+//     quadrature (CloudColumn); the drive shares the same column.
 //
 // # Formulas
 //
@@ -31,8 +29,6 @@
 //
 //	| quantity | expression | source | function | test |
 //	| --- | --- | --- | --- | --- |
-//	| light frequency | ν = c/λ + AOM shifts | CODATA c; Steck Rb-87 table 3 | LightFrequency | TestLightFrequency |
-//	| default viewing duration | 0.25 s in 400–700 nm, else 10 s | IEC 60825-1:2014 (from memory) | DefaultViewingDuration | TestDefaultViewingDuration |
-//	| beam axes in the cloud frame | x plane ∋ first cloud axis not along the beam | our convention | BeamAxes | TestBeamAxes |
-//	| cloud rms along a direction | √Σ dᵢ² σᵢ² | Gaussian cloud | Cloud.RMSAlong | TestBeamAxes |
+//	| laser balance | dumps + open ends + Σ named losses = 1 | energy conservation, common practice | LaserBalance.Total | TestBudgetCloses |
+//	| thick-cloud transmission | ∬ over the beam of each ray's saturable absorption | atoms.OutgoingIntensity per ray; the radial integral by gonum quadrature | CloudColumn.Absorb | TestAbsorbNarrowBeamAgainstRadialIntegral |
 package budget

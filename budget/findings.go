@@ -2,6 +2,7 @@ package budget
 
 import (
 	"beamledger/budget/optics"
+	"beamledger/budget/setup"
 	"beamledger/budget/units"
 	"fmt"
 	"math"
@@ -85,7 +86,7 @@ const PoorModeOverlap = 0.5
 // ratings, and say so.
 func (b *Budget) Findings() []Finding {
 	var out []Finding
-	used := map[*Laser]bool{}
+	used := map[*setup.Laser]bool{}
 	for _, own := range b.Paths {
 		p := own.Path
 		for _, pb := range own.Beams() {
@@ -132,7 +133,7 @@ func (b *Budget) Findings() []Finding {
 			maxWord = "the lasers'"
 		}
 		for _, e := range p.Elements {
-			if e.Type != TypeDump {
+			if e.Type != setup.TypeDump {
 				continue
 			}
 			pw := 0.0

@@ -1,6 +1,7 @@
 package budget
 
 import (
+	"beamledger/budget/setup"
 	"strings"
 	"testing"
 )
@@ -8,7 +9,7 @@ import (
 // A laser that feeds no path is a beam nobody described: a finding that
 // needs action, never silence.
 func TestUnusedLaserNeedsAction(t *testing.T) {
-	s, err := Parse("u.toml", []byte(okLaser+okPath+strings.Replace(okLaser, `name = "l"`, `name = "spare"`, 1)))
+	s, err := setup.Parse("u.toml", []byte(twoLasersOnePath))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -26,3 +27,24 @@ func TestUnusedLaserNeedsAction(t *testing.T) {
 	}
 	t.Error("no finding for the unused laser")
 }
+
+// twoLasersOnePath: laser "l" feeds path "p" to a dump; laser "spare" feeds
+// nothing.
+const twoLasersOnePath = `
+[[laser]]
+name = "l"
+wavelength = "780 nm"
+power = "1 W"
+waist = "1 mm"
+[[laser]]
+name = "spare"
+wavelength = "780 nm"
+power = "1 W"
+waist = "1 mm"
+[[path]]
+name = "p"
+from = "l"
+  [[path.element]]
+  type = "dump"
+  at = "1 m"
+`

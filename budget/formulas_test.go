@@ -22,6 +22,7 @@ func TestFormulaIndex(t *testing.T) {
 		"numeric":   "doc.go",
 		"optics":    "doc.go",
 		"drive":     "doc.go",
+		"setup":     "doc.go",
 		"atoms":     "transitions.go",
 		"../limits": "doc.go",
 		"../safety": "doc.go",

@@ -1,6 +1,7 @@
 package budget
 
 import (
+	"beamledger/budget/setup"
 	"math"
 	"testing"
 )
@@ -10,7 +11,7 @@ import (
 // x; a trap-like source with astigmatic waist positions.
 func mergedBudget(t *testing.T) *Budget {
 	t.Helper()
-	s, err := Load("testdata/merged.toml")
+	s, err := setup.Load("testdata/merged.toml")
 	if err != nil {
 		t.Fatal(err)
 	}

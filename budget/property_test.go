@@ -6,13 +6,14 @@ import (
 	"testing"
 
 	"beamledger/budget"
-	"beamledger/budget/synth"
+	"beamledger/budget/setup"
+	"beamledger/budget/setup/synth"
 )
 
 func generated(t testing.TB, seed uint64, o synth.Options) *budget.Budget {
 	t.Helper()
 	src := synth.Lab(seed, o)
-	s, err := budget.Parse(fmt.Sprintf("gen-%d.toml", seed), []byte(src))
+	s, err := setup.Parse(fmt.Sprintf("gen-%d.toml", seed), []byte(src))
 	if err != nil {
 		t.Fatalf("seed %d: generated setup does not load: %v", seed, err)
 	}
@@ -77,7 +78,7 @@ func TestAttenuatorsNeverAddPower(t *testing.T) {
 
 func BenchmarkComputeLargeLab(b *testing.B) {
 	src := synth.Lab(7, synth.Options{Lasers: 50, ElementsPerPath: 20, Splits: 1})
-	s, err := budget.Parse("large.toml", []byte(src))
+	s, err := setup.Parse("large.toml", []byte(src))
 	if err != nil {
 		b.Fatal(err)
 	}

@@ -5,11 +5,12 @@ import (
 
 	"beamledger/budget"
 	"beamledger/budget/drive"
+	"beamledger/budget/setup"
 )
 
 // Assessment is the whole evaluation of one setup.
 type Assessment struct {
-	Setup  *budget.Setup
+	Setup  *setup.Setup
 	Budget *budget.Budget
 	Atoms  []*drive.AtomsResult
 	// Clouds counts every beam at each cloud together.
@@ -38,10 +39,10 @@ var DefaultOptions = Options{Samples: drive.DefaultSamples, Seed: drive.DefaultS
 
 // Evaluate computes everything `check` reports, with the default tolerance
 // analysis.
-func Evaluate(s *budget.Setup) (*Assessment, error) { return EvaluateWith(s, DefaultOptions) }
+func Evaluate(s *setup.Setup) (*Assessment, error) { return EvaluateWith(s, DefaultOptions) }
 
 // EvaluateWith is Evaluate with the tolerance analysis's options.
-func EvaluateWith(s *budget.Setup, o Options) (*Assessment, error) {
+func EvaluateWith(s *setup.Setup, o Options) (*Assessment, error) {
 	b, err := budget.Compute(s)
 	if err != nil {
 		return nil, err
@@ -73,7 +74,7 @@ func EvaluateWith(s *budget.Setup, o Options) (*Assessment, error) {
 // ConservativeSetup is a copy of s with every toleranced loss value at its
 // highest transmission (the optical density's low end); positions, focal
 // lengths, waists and operating powers stay nominal.
-func ConservativeSetup(s *budget.Setup) *budget.Setup {
+func ConservativeSetup(s *setup.Setup) *setup.Setup {
 	c := s.Clone()
 	for _, t := range s.Tolerances {
 		if v, ok := t.HighTransmission(); ok {

@@ -13,6 +13,7 @@ import (
 
 	"beamledger/budget"
 	"beamledger/budget/optics"
+	"beamledger/budget/setup"
 	"beamledger/budget/units"
 	"beamledger/limits"
 )
@@ -23,8 +24,8 @@ const Standard = "IEC 60825-1:2014 (Edition 3)"
 // Default viewing durations for unintended exposure, s: the aversion response
 // in the visible, 10 s elsewhere.
 const (
-	DurationVisible = budget.AversionExposure
-	DurationOther   = budget.InvisibleExposure
+	DurationVisible = setup.AversionExposure
+	DurationOther   = setup.InvisibleExposure
 )
 
 // DefaultSurfaceReflectance is assumed per uncoated glass surface (common
@@ -41,7 +42,7 @@ const FiberFaceLimit = 1e10
 // LaserLimits are the exposure limits for one source at its viewing
 // duration.
 type LaserLimits struct {
-	Laser    *budget.Laser
+	Laser    *setup.Laser
 	Duration float64 // s
 	Eye      limits.Limit
 	// EyeIrradiance is the irradiance limit against which average
@@ -83,16 +84,16 @@ func (ll *LaserLimits) Rows() []limits.Provenance {
 
 // ViewingDuration is the assumed exposure for wavelength λ: the setup's
 // exposure if stated, else 0.25 s in 400–700 nm and 10 s elsewhere.
-func ViewingDuration(s *budget.Setup, λ float64) float64 {
+func ViewingDuration(s *setup.Setup, λ float64) float64 {
 	if s.Meta.Exposure > 0 {
 		return s.Meta.Exposure
 	}
-	return budget.DefaultViewingDuration(λ)
+	return setup.DefaultViewingDuration(λ)
 }
 
 // DurationAssumption says in words which viewing durations the evaluation
 // used, and why a stated one was accepted.
-func DurationAssumption(s *budget.Setup) string {
+func DurationAssumption(s *setup.Setup) string {
 	if s.Meta.Exposure == 0 {
 		return "0.25 s in 400–700 nm (aversion response) and 10 s elsewhere, for unintended viewing"
 	}
@@ -103,7 +104,7 @@ func DurationAssumption(s *budget.Setup) string {
 	return d
 }
 
-func laserLimits(s *budget.Setup, las *budget.Laser) (*LaserLimits, error) {
+func laserLimits(s *setup.Setup, las *setup.Laser) (*LaserLimits, error) {
 	t := ViewingDuration(s, las.Wavelength)
 	ll := &LaserLimits{Laser: las, Duration: t}
 	var err error
@@ -114,7 +115,7 @@ func laserLimits(s *budget.Setup, las *budget.Laser) (*LaserLimits, error) {
 		return nil, fmt.Errorf("laser %q: %w", las.Name, err)
 	}
 	ll.EyeIrradiance, ll.EyeRule, ll.SkinIrradiance = ll.Eye.Irradiance, ll.Eye.Rule, ll.Skin.Irradiance
-	if las.Emission == budget.EmissionPulsed {
+	if las.Emission == setup.EmissionPulsed {
 		p, err := limits.PulsedEyeMPE(las.Wavelength, las.PulseDuration, las.RepetitionRate, t, 0)
 		if err != nil {
 			return nil, fmt.Errorf("laser %q: %w", las.Name, err)
@@ -133,15 +134,15 @@ func laserLimits(s *budget.Setup, las *budget.Laser) (*LaserLimits, error) {
 	if ll.SkinAperture, ll.SkinApertureRow, err = limits.SkinAperture(las.Wavelength, t); err != nil {
 		return nil, err
 	}
-	ll.EN207Mode = limits.EN207Mode(las.Emission == budget.EmissionPulsed, las.PulseDuration)
-	if las.Emission == budget.EmissionPulsed {
+	ll.EN207Mode = limits.EN207Mode(las.Emission == setup.EmissionPulsed, las.PulseDuration)
+	if las.Emission == setup.EmissionPulsed {
 		ll.PulseEnergy = optics.PulseEnergy(las.Power, las.RepetitionRate)
 		ll.PeakPower = optics.PulsePeakPower(ll.PulseEnergy, las.PulseDuration)
 	}
 	if ll.AEL, err = limits.ContinuousAEL(las.Wavelength, 0); err != nil {
 		return nil, err
 	}
-	if las.Emission == budget.EmissionCW {
+	if las.Emission == setup.EmissionCW {
 		ll.Class = limits.ClassOf(las.Power, ll.AEL)
 		ll.ClassNote = "by maximum power against the continuous-emission AELs, the whole beam taken to enter the aperture (1M/2M not distinguished)"
 	} else {
@@ -176,7 +177,7 @@ type Exposure struct {
 	// shared OD of limits.SharedOD.
 	Wavelengths []float64
 	// Lasers are the lasers of the beams on the segment, one per beam.
-	Lasers                              []*budget.Laser
+	Lasers                              []*setup.Laser
 	CombinedEyeRatio, CombinedSkinRatio float64
 	Additive                            int
 	NOHD                                float64 // for an open end: distance beyond the last element, m
@@ -209,7 +210,7 @@ const (
 // Reflection is a stray reflection from a surface, or a diffuse hazard zone.
 type Reflection struct {
 	Path        *budget.PathBudget
-	Element     *budget.Element
+	Element     *setup.Element
 	Kind        ReflectionKind
 	Reflectance float64
 	Assumed     bool // the reflectance was a default
@@ -255,9 +256,9 @@ type Hazards struct {
 // pathsPerWorker is the least number of paths worth another core.
 const pathsPerWorker = 16
 
-func evaluateHazards(s *budget.Setup, b *budget.Budget) (*Hazards, error) {
+func evaluateHazards(s *setup.Setup, b *budget.Budget) (*Hazards, error) {
 	h := &Hazards{}
-	byLaser := map[*budget.Laser]*LaserLimits{}
+	byLaser := map[*setup.Laser]*LaserLimits{}
 	for _, las := range s.Lasers {
 		ll, err := laserLimits(s, las)
 		if err != nil {
@@ -321,14 +322,14 @@ type pathHazardResult struct {
 	findings    []budget.Finding
 	// the elements (nil: the open end) where a default reflectance was
 	// assumed, each counted once however many beams reach it
-	strayDefault, diffuseDefault map[*budget.Element]bool
+	strayDefault, diffuseDefault map[*setup.Element]bool
 }
 
 // pathHazards evaluates the open segments, reflections and damage of one
 // path, for every beam on it, at the lasers' maximum powers; exposures of
 // beams that share a segment are combined (combine).
-func pathHazards(own *budget.PathBudget, byLaser map[*budget.Laser]*LaserLimits) pathHazardResult {
-	res := pathHazardResult{strayDefault: map[*budget.Element]bool{}, diffuseDefault: map[*budget.Element]bool{}}
+func pathHazards(own *budget.PathBudget, byLaser map[*setup.Laser]*LaserLimits) pathHazardResult {
+	res := pathHazardResult{strayDefault: map[*setup.Element]bool{}, diffuseDefault: map[*setup.Element]bool{}}
 	for _, pb := range own.Beams() {
 		ll := byLaser[pb.Laser]
 		for _, seg := range pb.Segments {
@@ -340,7 +341,7 @@ func pathHazards(own *budget.PathBudget, byLaser map[*budget.Laser]*LaserLimits)
 		if pb.OpenEnd && pb.EndFraction > 0 {
 			// What the escaping beam hits may reflect diffusely.
 			n := len(pb.Rows)
-			var last *budget.Element
+			var last *setup.Element
 			if n > 0 {
 				last = pb.Rows[n-1].Element
 			}
@@ -361,7 +362,7 @@ func pathHazards(own *budget.PathBudget, byLaser map[*budget.Laser]*LaserLimits)
 // NOHD of an open end. Its finding is made by combine, which knows the
 // other beams on the segment.
 func (res *pathHazardResult) segment(pb *budget.PathBudget, ll *LaserLimits, seg budget.Segment) {
-	if seg.Access != budget.AccessOpen || seg.Fraction <= 0 || seg.Arrival {
+	if seg.Access != setup.AccessOpen || seg.Fraction <= 0 || seg.Arrival {
 		return
 	}
 	p := seg.Fraction * pb.Laser.Power
@@ -372,9 +373,9 @@ func (res *pathHazardResult) segment(pb *budget.PathBudget, ll *LaserLimits, seg
 		PeakIrr: seg.Beam.Propagate(at).PeakIrradiance(p), OpenEnd: math.IsInf(seg.To, 1)}
 	e.OD = limits.OpticalDensity(e.Ratio)
 	e.Wavelengths = []float64{pb.Laser.Wavelength}
-	e.Lasers = []*budget.Laser{pb.Laser}
+	e.Lasers = []*setup.Laser{pb.Laser}
 	e.CombinedEyeRatio, e.CombinedSkinRatio, e.Additive = e.Ratio, e.SkinRatio, 1
-	if las := pb.Laser; las.Emission == budget.EmissionPulsed {
+	if las := pb.Laser; las.Emission == setup.EmissionPulsed {
 		e.PulseRadiantExposure = optics.PulseEnergy(irr, las.RepetitionRate)
 		e.PulsePeakIrr = optics.PulsePeakPower(optics.PulseEnergy(e.PeakIrr, las.RepetitionRate), las.PulseDuration)
 	}
@@ -403,7 +404,7 @@ func (res *pathHazardResult) combine() {
 		g := groups[k]
 		if len(g) > 1 {
 			var λs []float64
-			var names []*budget.Laser
+			var names []*setup.Laser
 			for _, f := range g {
 				if !slices.Contains(λs, f.Laser.Laser.Wavelength) {
 					λs = append(λs, f.Laser.Laser.Wavelength)
@@ -471,16 +472,16 @@ func (res *pathHazardResult) element(pb *budget.PathBudget, ll *LaserLimits, i i
 	el := r.Element
 	in := precedingAccess(pb, i)
 	p := r.FractionIn * pb.Laser.Power
-	if surfaces := transmissiveSurfaces(el.Type); surfaces > 0 && in == budget.AccessOpen && p > 0 {
+	if surfaces := transmissiveSurfaces(el.Type); surfaces > 0 && in == setup.AccessOpen && p > 0 {
 		res.stray(pb, ll, r, surfaces, p)
 	}
 	// Light that leaves the path as a beam: a mirror's leakage behind it
 	// and an AOM's undiffracted orders. Each is a beam of the arriving
 	// size that must end in a dump.
-	if in == budget.AccessOpen || followingAccess(pb, i) == budget.AccessOpen {
+	if in == setup.AccessOpen || followingAccess(pb, i) == setup.AccessOpen {
 		res.escaping(pb, ll, r)
 	}
-	if el.Type == budget.TypeDump && in == budget.AccessOpen && p > 0 {
+	if el.Type == setup.TypeDump && in == setup.AccessOpen && p > 0 {
 		ρ, assumed := DefaultDiffuseReflectance, true
 		if el.DiffuseReflectance != nil {
 			ρ, assumed = *el.DiffuseReflectance, false
@@ -550,7 +551,7 @@ func assumedNote(assumed bool) string {
 // diffuse is the nominal hazard zone of a Lambertian reflector receiving
 // power p: r = √(ρ P cos θ / (π MPE)) at θ = 0, with the small-source MPE
 // (conservative).
-func diffuse(pb *budget.PathBudget, el *budget.Element, ll *LaserLimits, p, ρ float64, assumed bool) *Reflection {
+func diffuse(pb *budget.PathBudget, el *setup.Element, ll *LaserLimits, p, ρ float64, assumed bool) *Reflection {
 	r := limits.RoundUp(DiffuseHazardRadius(ρ, p, 1, ll.EyeIrradiance), 3)
 	return &Reflection{Path: pb, Element: el, Kind: ReflectionDiffuse, Reflectance: ρ, Assumed: assumed, Surfaces: 1, Power: p, Radius: r, Laser: ll}
 }
@@ -563,26 +564,26 @@ func DiffuseHazardRadius(ρ, p, cosθ, mpe float64) float64 {
 
 // transmissiveSurfaces is the number of an element's surfaces that reflect
 // part of the beam, from the element kinds' table.
-func transmissiveSurfaces(t budget.ElementType) int {
-	k, _ := budget.KindOf(t)
+func transmissiveSurfaces(t setup.ElementType) int {
+	k, _ := setup.KindOf(t)
 	return k.Surfaces
 }
 
 // followingAccess is the access of the segment leaving row i (the path's
 // last segment for the last element; a dump ends the path in no segment).
-func followingAccess(pb *budget.PathBudget, i int) budget.Access {
+func followingAccess(pb *budget.PathBudget, i int) setup.Access {
 	if i+1 < len(pb.Segments) {
 		return pb.Segments[i+1].Access
 	}
-	return budget.AccessEnclosed
+	return setup.AccessEnclosed
 }
 
 // precedingAccess is the access of the segment arriving at row i.
-func precedingAccess(pb *budget.PathBudget, i int) budget.Access {
+func precedingAccess(pb *budget.PathBudget, i int) setup.Access {
 	if i < len(pb.Segments) {
 		return pb.Segments[i].Access
 	}
-	return budget.AccessOpen
+	return setup.AccessOpen
 }
 
 // beamAt is one beam arriving at an element, at its laser's maximum power
@@ -602,7 +603,7 @@ type beamAt struct {
 // rating.
 func damage(own *budget.PathBudget) []budget.Finding {
 	var out []budget.Finding
-	byElement := map[*budget.Element][]beamAt{}
+	byElement := map[*setup.Element][]beamAt{}
 	for _, pb := range own.Beams() {
 		for i := range pb.Rows {
 			r := &pb.Rows[i]
@@ -626,10 +627,10 @@ func damage(own *budget.PathBudget) []budget.Finding {
 			for _, b := range beams {
 				las := b.pb.Laser
 				switch {
-				case !el.DamageIsFluence && las.Emission == budget.EmissionCW:
+				case !el.DamageIsFluence && las.Emission == setup.EmissionCW:
 					cw = append(cw, b)
 					lpd += LinearPowerDensity(b.r.BeamIn, b.p)
-				case el.DamageIsFluence && las.Emission == budget.EmissionPulsed:
+				case el.DamageIsFluence && las.Emission == setup.EmissionPulsed:
 					ep := b.p / las.RepetitionRate
 					f := b.r.BeamIn.PeakIrradiance(ep) // peak fluence 2E/(πWxWy), same form as the irradiance
 					// Scale the rated fluence by √(τ/τ_rated) (common practice).
@@ -647,7 +648,7 @@ func damage(own *budget.PathBudget) []budget.Finding {
 					units.FormatPower(lpd/100), sumNote(cw), units.FormatPower(el.DamageThreshold/100), atMaxPower(cw)), lpd, el.DamageThreshold, "W/m")
 			}
 		}
-		if el.Type == budget.TypeFiber {
+		if el.Type == setup.TypeFiber {
 			var peak float64
 			for _, b := range beams {
 				peak += b.r.BeamIn.PeakIrradiance(b.p)
@@ -766,7 +767,7 @@ func (n *EyewearNeed) EN207Label() string {
 	return fmt.Sprintf("%s LB%d", n.Mode, n.LB)
 }
 
-func checkEyewear(s *budget.Setup, needs []*EyewearNeed) []budget.Finding {
+func checkEyewear(s *setup.Setup, needs []*EyewearNeed) []budget.Finding {
 	var out []budget.Finding
 	for _, n := range needs {
 		if n.OD <= 0 {
@@ -800,7 +801,7 @@ func beamNote(pb *budget.PathBudget) string {
 	return fmt.Sprintf(", beam of laser %q", pb.Laser.Name)
 }
 
-func segmentName(p *budget.Path, seg budget.Segment) string {
+func segmentName(p *setup.Path, seg budget.Segment) string {
 	if p.IntoPath != nil && seg.To == p.IntoAt && (len(p.Elements) == 0 || seg.After == p.Elements[len(p.Elements)-1].Index) {
 		if seg.After == 0 {
 			return fmt.Sprintf("from the start to the combiner it goes into, %s (%s)", p.Into, units.FormatLength(seg.To))

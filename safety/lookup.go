@@ -3,7 +3,7 @@ package safety
 import (
 	"fmt"
 
-	"beamledger/budget"
+	"beamledger/budget/setup"
 	"beamledger/budget/units"
 	"beamledger/limits"
 )
@@ -52,7 +52,7 @@ func LookUpLimits(q LimitsQuery) (*LimitsLookup, error) {
 	λ, α := q.Wavelength, q.AngularSubtense
 	r := &LimitsLookup{Query: q, Duration: q.Duration}
 	if r.Duration == 0 {
-		r.Duration = budget.DefaultViewingDuration(λ)
+		r.Duration = setup.DefaultViewingDuration(λ)
 	}
 	t := r.Duration
 	pulsed := q.PulseDuration > 0 || q.RepetitionRate > 0

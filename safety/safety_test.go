@@ -11,13 +11,14 @@ import (
 
 	"beamledger/budget"
 	"beamledger/budget/optics"
-	"beamledger/budget/synth"
+	"beamledger/budget/setup"
+	"beamledger/budget/setup/synth"
 	"beamledger/limits"
 )
 
 func load(t testing.TB, src string) *Assessment {
 	t.Helper()
-	s, err := budget.Parse("t.toml", []byte(src))
+	s, err := setup.Parse("t.toml", []byte(src))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -34,7 +35,7 @@ func load(t testing.TB, src string) *Assessment {
 // 14.470 W/m² (C4 = 10^(0.002 · 80.24), C7 = 1; IEC 60825-1:2014 Annex A,
 // eye from 10 s, 400–1400 nm, α ≤ 1.5 mrad, from memory); ratio 2693.6, OD 4.
 func TestDemoFirstSegmentByHand(t *testing.T) {
-	s, err := budget.Load("../testdata/examples/table-c.toml")
+	s, err := setup.Load("../testdata/examples/table-c.toml")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -173,7 +174,7 @@ func TestHazardMonotone(t *testing.T) {
 	for seed := uint64(1); seed <= 40; seed++ {
 		src := synth.Lab(seed, synth.Options{Lasers: 2, ElementsPerPath: 6, Splits: 1, OpenEnds: true})
 		base := load(t, src)
-		s, _ := budget.Parse("x.toml", []byte(src))
+		s, _ := setup.Parse("x.toml", []byte(src))
 		for _, las := range s.Lasers {
 			las.Power *= 3
 			las.OperatingPower *= 3
@@ -187,7 +188,7 @@ func TestHazardMonotone(t *testing.T) {
 				t.Fatalf("seed %d: OD fell from %g to %g when the power tripled", seed, e.OD, up.Hazards.Exposures[i].OD)
 			}
 		}
-		s2, _ := budget.Parse("x.toml", []byte(src))
+		s2, _ := setup.Parse("x.toml", []byte(src))
 		for _, las := range s2.Lasers {
 			las.Waist[0] /= 2
 			las.Waist[1] /= 2
@@ -216,7 +217,7 @@ func countAbove(a *Assessment) int {
 }
 
 func BenchmarkEvaluateDemo(b *testing.B) {
-	s, err := budget.Load("../testdata/examples/table-c.toml")
+	s, err := setup.Load("../testdata/examples/table-c.toml")
 	if err != nil {
 		b.Fatal(err)
 	}
@@ -270,8 +271,8 @@ func FuzzEvaluate(f *testing.F) {
 		done := make(chan struct{})
 		go func() {
 			defer close(done)
-			var s *budget.Setup
-			if s, err = budget.Parse("fuzz.toml", data); err == nil {
+			var s *setup.Setup
+			if s, err = setup.Parse("fuzz.toml", data); err == nil {
 				a, err = Evaluate(s)
 			}
 		}()
@@ -503,7 +504,7 @@ access = "enclosed"
 // Scale table, from memory); the pulse energy is 50 mW / 10 Hz = 5 mJ and
 // the peak power 5 mJ / 7 ns = 714 kW (common practice).
 func TestPulsedSourceFigures(t *testing.T) {
-	s, err := budget.Load("../testdata/examples/ablation-pulse.toml")
+	s, err := setup.Load("../testdata/examples/ablation-pulse.toml")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -535,7 +536,7 @@ func TestPulsedSourceFigures(t *testing.T) {
 // here by hand from the parts; and the equal-share OD holds the attenuated
 // sum to at most 1.
 func TestSharedSegmentAddsByHand(t *testing.T) {
-	s, err := budget.Load("../testdata/examples/table-d.toml")
+	s, err := setup.Load("../testdata/examples/table-d.toml")
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -12,6 +12,7 @@ import (
 	"beamledger/budget/atoms"
 	"beamledger/budget/numeric"
 	"beamledger/budget/optics"
+	"beamledger/budget/setup"
 	"beamledger/budget/units"
 )
 
@@ -37,7 +38,7 @@ type CloudBeam struct {
 
 // CloudResult is everything at one cloud, all beams counted together.
 type CloudResult struct {
-	Cloud *budget.Cloud
+	Cloud *setup.Cloud
 	Beams []*CloudBeam
 	// PotentialAtCloud is the combined dipole potential at the cloud's
 	// position, J.
@@ -103,7 +104,7 @@ type CloudGoal struct {
 	Kind   string
 	Target float64 // SI: K for a trap depth, rad/s for a Rabi frequency, s for saturation
 	Factor float64 // the collective goal's multiple of the threshold
-	Lasers []*budget.Laser
+	Lasers []*setup.Laser
 	// Scale is k; Needed the operating power each laser then needs, W;
 	// MarginDB is −10 log10 k.
 	Scale      float64
@@ -131,7 +132,7 @@ type fieldBeam struct {
 	λ, power float64
 	perI     float64 // U/I, J per W/m²
 	n, u, v  [3]float64
-	laser    *budget.Laser
+	laser    *setup.Laser
 	// back is the return pass of a standing wave, added coherently.
 	back *fieldBeam
 }
@@ -446,7 +447,7 @@ func Clouds(b *budget.Budget, drive []*AtomsResult) []*CloudResult {
 // cloudResult counts the beams in drive that reach cloud c together (nil
 // when none does); full also asks the findings' questions (a tolerance
 // sample needs only the goal).
-func cloudResult(c *budget.Cloud, drive []*AtomsResult, full bool) *CloudResult {
+func cloudResult(c *setup.Cloud, drive []*AtomsResult, full bool) *CloudResult {
 	if c.Data == nil {
 		return nil
 	}
@@ -457,7 +458,7 @@ func cloudResult(c *budget.Cloud, drive []*AtomsResult, full bool) *CloudResult 
 			continue
 		}
 		n := a.Row.Element.Direction
-		u, v := budget.BeamAxes(n)
+		u, v := setup.BeamAxes(n)
 		cb := &CloudBeam{Atoms: a, Direction: n, U: u, V: v,
 			Far:  a.FarDetuned && a.Dipole != nil && a.Row.FractionIn > 0,
 			Near: !a.FarDetuned && a.NearLine == "" && a.Row.FractionIn > 0}
@@ -486,7 +487,7 @@ func cloudResult(c *budget.Cloud, drive []*AtomsResult, full bool) *CloudResult 
 // fieldOf builds the field of the far-detuned beams, the powers of the
 // lasers in scaled multiplied by k (all lasers when scaled is nil and k is
 // 1), with or without gravity.
-func (cr *CloudResult) fieldOf(scaled []*budget.Laser, k float64, gravity bool) *field {
+func (cr *CloudResult) fieldOf(scaled []*setup.Laser, k float64, gravity bool) *field {
 	f := &field{mass: cr.Cloud.Data.Mass, beams: make([]fieldBeam, 0, len(cr.Beams))}
 	if gravity {
 		f.down = cr.Cloud.Down
@@ -518,7 +519,7 @@ func (cr *CloudResult) fieldOf(scaled []*budget.Laser, k float64, gravity bool) 
 // evaluate fills the combined figures, with the powers of the lasers in
 // scaled multiplied by k; full also asks whether a trap that fails against
 // gravity would hold without it (a goal's trial powers skip that).
-func (cr *CloudResult) evaluate(scaled []*budget.Laser, k float64, full bool) {
+func (cr *CloudResult) evaluate(scaled []*setup.Laser, k float64, full bool) {
 	c := cr.Cloud
 	tr := c.Data
 	f := cr.fieldOf(scaled, k, true)
@@ -629,13 +630,13 @@ func MultiBeamScattering(Γ, s, sTotal, Δ float64) float64 {
 
 // goalLasers are the lasers a cloud goal scales: those it names, else the
 // far-detuned ones for a trap depth and the near-resonant ones otherwise.
-func (cr *CloudResult) goalLasers() []*budget.Laser {
+func (cr *CloudResult) goalLasers() []*setup.Laser {
 	c := cr.Cloud
-	var out []*budget.Laser
+	var out []*setup.Laser
 	for _, cb := range cr.Beams {
 		las := cb.Atoms.Path.Laser
 		want := cb.Near
-		if c.Goal == budget.GoalTrapDepth {
+		if c.Goal == setup.GoalTrapDepth {
 			want = cb.Far
 		}
 		if len(c.GoalLasers) > 0 {
@@ -650,16 +651,16 @@ func (cr *CloudResult) goalLasers() []*budget.Laser {
 
 // metric is what the cloud goal measures with the lasers scaled by k:
 // trap depth (K), s, or Ω (rad/s).
-func (cr *CloudResult) metric(lasers []*budget.Laser, k float64) float64 {
+func (cr *CloudResult) metric(lasers []*setup.Laser, k float64) float64 {
 	trial := *cr
 	trial.evaluate(lasers, k, false)
 	switch cr.Cloud.Goal {
-	case budget.GoalTrapDepth:
+	case setup.GoalTrapDepth:
 		if trial.Trap == nil || !trial.Trap.Holds || trial.Trap.Skipped != "" {
 			return 0
 		}
 		return trial.Trap.Depth / atoms.KB
-	case budget.GoalSaturation:
+	case setup.GoalSaturation:
 		return trial.SaturationTotal
 	}
 	return atoms.Rabi(cr.Cloud.Data.Gamma, trial.SaturationTotal)
@@ -674,11 +675,11 @@ func (cr *CloudResult) goal() *CloudGoal {
 	tr := c.Data
 	g := &CloudGoal{Kind: c.Goal, Factor: c.GoalFactor, Lasers: cr.goalLasers()}
 	switch c.Goal {
-	case budget.GoalTrapDepth, budget.GoalSaturation:
+	case setup.GoalTrapDepth, setup.GoalSaturation:
 		g.Target = *c.GoalValue
-	case budget.GoalRabi:
+	case setup.GoalRabi:
 		g.Target = 2 * math.Pi * *c.GoalValue
-	case budget.GoalCollective:
+	case setup.GoalCollective:
 		// The threshold of the first near-resonant beam's cloud column.
 		for _, cb := range cr.Beams {
 			if cb.Near {
@@ -694,18 +695,18 @@ func (cr *CloudResult) goal() *CloudGoal {
 	}
 	switch {
 	case len(g.Lasers) == 0:
-		g.Impossible = fmt.Sprintf("no beam at the cloud can serve a %s goal (%s)", c.Goal, map[bool]string{true: "no far-detuned beam", false: "no near-resonant beam"}[c.Goal == budget.GoalTrapDepth])
+		g.Impossible = fmt.Sprintf("no beam at the cloud can serve a %s goal (%s)", c.Goal, map[bool]string{true: "no far-detuned beam", false: "no near-resonant beam"}[c.Goal == setup.GoalTrapDepth])
 		return g
 	case !(g.Target > 0):
 		g.Impossible = "no near-resonant beam to set the collective threshold"
 		return g
 	}
-	if t := cr.Trap; c.Goal == budget.GoalTrapDepth && t != nil && t.Skipped != "" {
+	if t := cr.Trap; c.Goal == setup.GoalTrapDepth && t != nil && t.Skipped != "" {
 		g.Impossible = "the combined trap was not searched for: " + t.Skipped
 		return g
 	}
 	γ := 1.0 // the figure's power law in k: s and U grow as k, Ω as √k
-	if c.Goal == budget.GoalRabi || c.Goal == budget.GoalCollective {
+	if c.Goal == setup.GoalRabi || c.Goal == setup.GoalCollective {
 		γ = 0.5
 	}
 	hi, ok := numeric.SolveScale(func(k float64) float64 { return cr.metric(g.Lasers, k) }, g.Target, γ)
@@ -722,7 +723,7 @@ func (cr *CloudResult) goal() *CloudGoal {
 	return g
 }
 
-func laserNames(ls []*budget.Laser) string {
+func laserNames(ls []*setup.Laser) string {
 	out := ""
 	for i, l := range ls {
 		if i > 0 {
@@ -791,7 +792,7 @@ func trapDepthScale(a *AtomsResult, depth float64) (k float64, why string) {
 		return 0, "the transition's data give no mass"
 	}
 	n := a.Row.Element.Direction
-	u, v := budget.BeamAxes(n)
+	u, v := setup.BeamAxes(n)
 	beam := a.Row.BeamIn
 	var hint *[3]float64
 	at := func(k float64) float64 {

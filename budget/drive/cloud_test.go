@@ -9,6 +9,7 @@ import (
 	"beamledger/budget"
 	"beamledger/budget/atoms"
 	"beamledger/budget/numeric"
+	"beamledger/budget/setup"
 )
 
 // beamOn is a laser and a path putting its beam on cloud "c" along axis at
@@ -50,7 +51,7 @@ down = %q
 
 func cloudsOf(t *testing.T, src string) (*budget.Budget, []*CloudResult) {
 	t.Helper()
-	s, err := budget.Parse("clouds.toml", []byte(src))
+	s, err := setup.Parse("clouds.toml", []byte(src))
 	if err != nil {
 		t.Fatal(err)
 	}

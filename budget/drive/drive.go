@@ -7,6 +7,7 @@ import (
 	"beamledger/budget"
 	"beamledger/budget/atoms"
 	"beamledger/budget/optics"
+	"beamledger/budget/setup"
 	"beamledger/budget/units"
 )
 
@@ -15,7 +16,7 @@ import (
 type AtomsResult struct {
 	Path       *budget.PathBudget
 	Row        *budget.Row
-	Cloud      *budget.Cloud
+	Cloud      *setup.Cloud
 	Transition *atoms.Transition
 	// Power is the power arriving at the cloud, W.
 	Power float64
@@ -105,7 +106,7 @@ func Evaluate(b *budget.Budget) []*AtomsResult { return driveAll(b, true) }
 
 // driveAll is Drive; full as for atomsAt.
 func driveAll(b *budget.Budget, full bool) []*AtomsResult {
-	clouds := map[string]*budget.Cloud{}
+	clouds := map[string]*setup.Cloud{}
 	for _, c := range b.Setup.Clouds {
 		clouds[c.Name] = c
 	}
@@ -114,7 +115,7 @@ func driveAll(b *budget.Budget, full bool) []*AtomsResult {
 		for _, pb := range own.Beams() {
 			for i := range pb.Rows {
 				r := &pb.Rows[i]
-				if r.Element.Type != budget.TypeAtoms {
+				if r.Element.Type != setup.TypeAtoms {
 					continue
 				}
 				c := clouds[r.Element.Cloud]
@@ -131,7 +132,7 @@ func driveAll(b *budget.Budget, full bool) []*AtomsResult {
 // atomsAt evaluates the drive at one atoms element; full also integrates
 // the cloud's absorption over the beam (a tolerance sample needs only the
 // goal's margin).
-func atomsAt(b *budget.Budget, pb *budget.PathBudget, r *budget.Row, c *budget.Cloud, full bool) *AtomsResult {
+func atomsAt(b *budget.Budget, pb *budget.PathBudget, r *budget.Row, c *setup.Cloud, full bool) *AtomsResult {
 	las := pb.Laser
 	tr := c.Data
 	a := &AtomsResult{Path: pb, Row: r, Cloud: c, Transition: tr}
@@ -141,7 +142,7 @@ func atomsAt(b *budget.Budget, pb *budget.PathBudget, r *budget.Row, c *budget.C
 	a.PeakIrradiance = beam.PeakIrradiance(a.Power)
 	// The cloud's rms sizes across the beam (its x and y planes) and along it.
 	n := r.Element.Direction
-	u, v := budget.BeamAxes(n)
+	u, v := setup.BeamAxes(n)
 	σu, σv, σn := c.RMSAlong(u), c.RMSAlong(v), c.RMSAlong(n)
 	a.EdgeRelative = [2]float64{math.Exp(-2 * σu * σu / (wx * wx)), math.Exp(-2 * σv * σv / (wy * wy))}
 	for k, dz := range []float64{-σn, σn} {
@@ -149,11 +150,11 @@ func atomsAt(b *budget.Budget, pb *budget.PathBudget, r *budget.Row, c *budget.C
 		a.EndRadii[k] = [2]float64{ex, ey}
 	}
 	a.FocusOffset = [2]float64{beam.X.WaistDistance(), beam.Y.WaistDistance()}
-	var own *budget.Element // the element's stated detuning is for the path's own laser
+	var own *setup.Element // the element's stated detuning is for the path's own laser
 	if !pb.IsJoined() {
 		own = r.Element
 	}
-	a.Detuning, a.DetuningSource = budget.DetuningAt(las, own, pb.ShiftBefore(pb.First+pb.RowIndex(r)), tr)
+	a.Detuning, a.DetuningSource = setup.DetuningAt(las, own, pb.ShiftBefore(pb.First+pb.RowIndex(r)), tr)
 	a.Isat, a.IsatNote, _ = tr.Isat(c.Saturation)
 	a.Saturation = atoms.Saturation(a.PeakIrradiance, a.Isat)
 	a.Rabi = atoms.Rabi(tr.Gamma, a.Saturation)
@@ -167,10 +168,10 @@ func atomsAt(b *budget.Budget, pb *budget.PathBudget, r *budget.Row, c *budget.C
 	}
 	ω := tr.Frequency() + a.Detuning
 	near, δ := tr.NearestLine(ω)
-	nearDriven := math.Abs(a.Detuning) <= budget.FarDetuningFactor*tr.Gamma
+	nearDriven := math.Abs(a.Detuning) <= setup.FarDetuningFactor*tr.Gamma
 	switch {
 	case nearDriven:
-	case math.Abs(δ) <= budget.FarDetuningFactor*near.Gamma:
+	case math.Abs(δ) <= setup.FarDetuningFactor*near.Gamma:
 		a.NearLine, a.NearLineDetuning = near.Name, δ
 	default:
 		a.FarDetuned = true
@@ -216,26 +217,26 @@ func axialCurvature(beam optics.Beam) float64 {
 }
 
 // goal works out the power a goal needs at the atoms and at the laser.
-func goalOf(b *budget.Budget, a *AtomsResult, e *budget.Element, full bool) *GoalResult {
+func goalOf(b *budget.Budget, a *AtomsResult, e *setup.Element, full bool) *GoalResult {
 	tr := a.Transition
 	g := &GoalResult{Kind: e.Goal, Available: a.Path.Laser.OperatingPower, Factor: 1}
 	if a.NearLine != "" {
 		g.Impossible = fmt.Sprintf("the light is %s from the line %s, within %d of its linewidths; neither the far-detuned dipole formula nor the two-level figures of %s apply there",
-			units.FormatFrequency(a.NearLineDetuning/(2*math.Pi)), a.NearLine, budget.FarDetuningFactor, tr.Name)
+			units.FormatFrequency(a.NearLineDetuning/(2*math.Pi)), a.NearLine, setup.FarDetuningFactor, tr.Name)
 	}
 	switch e.Goal {
-	case budget.GoalSaturation:
+	case setup.GoalSaturation:
 		g.Target = *e.GoalValue
 		g.Intensity = g.Target * a.Isat
-	case budget.GoalRabi:
+	case setup.GoalRabi:
 		g.Target = 2 * math.Pi * *e.GoalValue
 		g.Intensity = atoms.SaturationForRabi(tr.Gamma, g.Target) * a.Isat
-	case budget.GoalTrapDepth:
+	case setup.GoalTrapDepth:
 		g.Target = *e.GoalValue
 		switch {
 		case g.Impossible != "":
 		case !a.FarDetuned:
-			g.Impossible = fmt.Sprintf("the beam is %s from the transition, not far detuned (more than %d Γ); the trap-depth formula does not apply", units.FormatFrequency(a.Detuning/(2*math.Pi)), budget.FarDetuningFactor)
+			g.Impossible = fmt.Sprintf("the beam is %s from the transition, not far detuned (more than %d Γ); the trap-depth formula does not apply", units.FormatFrequency(a.Detuning/(2*math.Pi)), setup.FarDetuningFactor)
 		case a.Dipole.PerIntensity >= 0:
 			g.Impossible = "the beam is blue detuned: a single beam repels the atoms and makes no trap"
 		case !(a.Row.FractionIn > 0):
@@ -250,7 +251,7 @@ func goalOf(b *budget.Budget, a *AtomsResult, e *budget.Element, full bool) *Goa
 				g.Intensity = k * a.PeakIrradiance
 			}
 		}
-	case budget.GoalCollective:
+	case setup.GoalCollective:
 		g.Factor = e.GoalFactor
 		var col atoms.Collective
 		if a.Cloud.CollectiveRate > 0 {
@@ -268,14 +269,14 @@ func goalOf(b *budget.Budget, a *AtomsResult, e *budget.Element, full bool) *Goa
 	// A drive goal holds at a place in the cloud: the incident intensity
 	// must get through the atoms in front of it.
 	g.At, g.Fraction = e.GoalAt, e.GoalFraction
-	if g.Impossible == "" && e.Goal != budget.GoalTrapDepth {
+	if g.Impossible == "" && e.Goal != setup.GoalTrapDepth {
 		sGoal := g.Intensity / a.Isat
 		col := budget.ColumnFor(a.Path, a.Path.First+a.Path.RowIndex(a.Row), e, a.Cloud)
 		wx, wy := a.Row.BeamIn.Radii()
 		switch g.At {
-		case budget.GoalAtExit:
+		case setup.GoalAtExit:
 			g.Intensity = a.Isat * atoms.IncomingIntensity(sGoal, col.B0*atoms.ColumnFraction(2), col.A)
-		case budget.GoalAtAll:
+		case setup.GoalAtAll:
 			g.Intensity = a.Isat * col.IncidentForFraction(sGoal, g.Fraction, wx, wy)
 		default:
 			g.Intensity = a.Isat * atoms.IncomingIntensity(sGoal, col.B0*atoms.ColumnFraction(0), col.A)
@@ -321,7 +322,7 @@ func DriveFindings(results []*AtomsResult) []budget.Finding {
 				out = append(out, budget.Finding{Severity: budget.SeverityAction, Kind: FindingGoalShort, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: goal %s is short by %.1f dB at the laser: it needs %s from laser %q, whose operating power is %s",
 					where, g.Kind, -g.MarginDB, units.FormatPower(g.SourcePower), a.Path.Laser.Name, units.FormatPower(g.Available))}.Figure(g.Available, g.SourcePower, "W"))
 			}
-			if g.Kind == budget.GoalCollective && math.Abs(a.Detuning) > a.Transition.Gamma/2 {
+			if g.Kind == setup.GoalCollective && math.Abs(a.Detuning) > a.Transition.Gamma/2 {
 				out = append(out, budget.Finding{Severity: budget.SeverityAdvice, Kind: FindingCollectiveDetune, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the drive is %s from resonance (more than Γ/2); the collective threshold model assumes a resonant drive",
 					where, units.FormatFrequency(a.Detuning/(2*math.Pi)))})
 			}
@@ -329,11 +330,11 @@ func DriveFindings(results []*AtomsResult) []budget.Finding {
 		switch {
 		case a.NearLine != "" && a.Goal == nil:
 			out = append(out, budget.Finding{Severity: budget.SeverityAction, Kind: FindingNearOtherLine, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the light is %s from the line %s, within %d of its linewidths; the drive there is not evaluated (neither the far-detuned dipole formula nor the two-level figures of %s apply)",
-				where, units.FormatFrequency(a.NearLineDetuning/(2*math.Pi)), a.NearLine, budget.FarDetuningFactor, a.Transition.Name)})
+				where, units.FormatFrequency(a.NearLineDetuning/(2*math.Pi)), a.NearLine, setup.FarDetuningFactor, a.Transition.Name)})
 		case !(a.Power > 0) && a.Goal == nil:
 			out = append(out, budget.Finding{Severity: budget.SeverityAdvice, Kind: FindingNoLight, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: %s", where, NoLightAtAtoms)})
 		}
-		if a.DetuningSource == budget.DetuningFromWavelengths && !a.FarDetuned && a.NearLine == "" {
+		if a.DetuningSource == setup.DetuningFromWavelengths && !a.FarDetuned && a.NearLine == "" {
 			out = append(out, budget.Finding{Severity: budget.SeverityAdvice, Kind: FindingDetuningGuess, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the detuning %s comes from the wavelengths, which are not precise enough near resonance; state detuning on laser %q",
 				where, units.FormatFrequency(a.Detuning/(2*math.Pi)), a.Path.Laser.Name)})
 		}

@@ -9,11 +9,12 @@ import (
 	"beamledger/budget"
 	"beamledger/budget/atoms"
 	"beamledger/budget/optics"
+	"beamledger/budget/setup"
 )
 
 func demoDrive(t *testing.T) []*AtomsResult {
 	t.Helper()
-	s, err := budget.Load("../../testdata/examples/table-c.toml")
+	s, err := setup.Load("../../testdata/examples/table-c.toml")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -38,7 +39,7 @@ func TestDemoDriveByHand(t *testing.T) {
 	if !near(a.OpticalDepth, 25.70, 2e-4) {
 		t.Errorf("b0 = %g, want 25.70", a.OpticalDepth)
 	}
-	if a.Detuning != 0 || a.DetuningSource != budget.DetuningFromLaser {
+	if a.Detuning != 0 || a.DetuningSource != setup.DetuningFromLaser {
 		t.Errorf("Δ = %g (%s), want 0 from laser + AOM", a.Detuning, a.DetuningSource)
 	}
 	g := a.Goal
@@ -90,7 +91,7 @@ func TestDemoTrapDepth(t *testing.T) {
 	// target.
 	k := g.Intensity / a.PeakIrradiance
 	n := a.Row.Element.Direction
-	u, v := budget.BeamAxes(n)
+	u, v := setup.BeamAxes(n)
 	f := &field{mass: a.Cloud.Data.Mass, down: a.Cloud.Down, beams: []fieldBeam{{x: a.Row.BeamIn.X, y: a.Row.BeamIn.Y, λ: a.Row.BeamIn.Wavelength, power: k * a.Power, perI: a.Dipole.PerIntensity, n: n, u: u, v: v}}}
 	if tr := f.findTrap(); !tr.Holds || !near(tr.Depth/atoms.KB, 0.5e-3, 1e-3) { // the bisection stops at 1e-3
 		t.Errorf("the goal's power makes a trap %g K deep (holds %v), want 0.5 mK", tr.Depth/atoms.KB, tr.Holds)
@@ -136,7 +137,7 @@ CLOUD
 func goalFor(t *testing.T, goal, cloud string) (*AtomsResult, []budget.Finding) {
 	t.Helper()
 	src := strings.Replace(strings.Replace(goalLab, "GOAL", goal, 1), "CLOUD", cloud, 1)
-	s, err := budget.Parse("goal.toml", []byte(src))
+	s, err := setup.Parse("goal.toml", []byte(src))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -203,7 +204,7 @@ func TestCollectiveRateOverride(t *testing.T) {
 }
 
 func BenchmarkDrive(b *testing.B) {
-	s, _ := budget.Load("../../testdata/examples/table-c.toml")
+	s, _ := setup.Load("../../testdata/examples/table-c.toml")
 	bud, _ := budget.Compute(s)
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
@@ -213,7 +214,7 @@ func BenchmarkDrive(b *testing.B) {
 
 // The clouds of the demo: its combined trap, searched for and measured.
 func BenchmarkCloudsDemo(b *testing.B) {
-	s, _ := budget.Load("../../testdata/examples/table-c.toml")
+	s, _ := setup.Load("../../testdata/examples/table-c.toml")
 	bud, _ := budget.Compute(s)
 	d := Evaluate(bud)
 	b.ResetTimer()
@@ -266,7 +267,7 @@ func TestNearAnotherLine(t *testing.T) {
 		t.Run(tc.name, func(t *testing.T) {
 			λ := atoms.C / tc.ν
 			src := rbCloudSetup(fmt.Sprintf("%.9f nm", λ*1e9), "")
-			s, err := budget.Parse("n.toml", []byte(src))
+			s, err := setup.Parse("n.toml", []byte(src))
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -296,7 +297,7 @@ func TestStatedDetuningAgainstWavelengths(t *testing.T) {
 	}{{"780 nm", true}, {"780.241 nm", true}, {"781.24 nm", false}, {"1064 nm", false}} {
 		t.Run(tc.wavelength, func(t *testing.T) {
 			src := rbCloudSetup(tc.wavelength, `detuning = "-20 MHz"`)
-			_, err := budget.Parse("d.toml", []byte(src))
+			_, err := setup.Parse("d.toml", []byte(src))
 			if (err == nil) != tc.ok {
 				t.Errorf("%s: error %v, want accepted %v", tc.wavelength, err, tc.ok)
 			}
@@ -381,7 +382,7 @@ func TestGoalAtExitAndAll(t *testing.T) {
 	a, _ = goalFor(t, "goal = \"saturation\"\n  goal_value = 1\n  goal_at = \"all\"\n  goal_fraction = 0.8", "")
 	col := budget.ColumnFor(a.Path, a.Path.First+a.Path.RowIndex(a.Row), a.Row.Element, a.Cloud)
 	wx, wy := a.Row.BeamIn.Radii()
-	if f := col.FractionAbove(a.Goal.Intensity/20, wx, wy, 1); math.Abs(f-0.8) > 1e-3 || a.Goal.At != budget.GoalAtAll || a.Goal.Fraction != 0.8 {
+	if f := col.FractionAbove(a.Goal.Intensity/20, wx, wy, 1); math.Abs(f-0.8) > 1e-3 || a.Goal.At != setup.GoalAtAll || a.Goal.Fraction != 0.8 {
 		t.Errorf("all: %g of the atoms above the goal at the goal's drive, want 0.8", f)
 	}
 }

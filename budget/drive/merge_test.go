@@ -5,6 +5,7 @@ import (
 	"testing"
 
 	"beamledger/budget"
+	"beamledger/budget/setup"
 )
 
 // testdata/merged.toml (budget's): a repumper joins the cooler on a cube and
@@ -12,7 +13,7 @@ import (
 // cloud is each laser's stated detuning plus the shift, and the joined beam
 // is not judged against the element's goal, which names the path's own.
 func TestJoinedBeamDetuningAndGoal(t *testing.T) {
-	s, err := budget.Load("../testdata/merged.toml")
+	s, err := setup.Load("../testdata/merged.toml")
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -3,6 +3,7 @@ package drive
 import (
 	"beamledger/budget"
 	"beamledger/budget/numeric"
+	"beamledger/budget/setup"
 	"math"
 	"math/rand/v2"
 	"runtime"
@@ -44,7 +45,7 @@ type GoalTolerance struct {
 
 // Contributor is one input's share of a goal's spread.
 type Contributor struct {
-	Input *budget.Toleranced
+	Input *setup.Toleranced
 	Share float64
 }
 
@@ -56,7 +57,7 @@ type goalRef struct {
 }
 
 // margins computes every referenced goal's margin for setup s.
-func margins(s *budget.Setup, refs []goalRef) []float64 {
+func margins(s *setup.Setup, refs []goalRef) []float64 {
 	out := make([]float64, len(refs))
 	b, err := budget.Compute(s)
 	if err != nil {
@@ -65,7 +66,7 @@ func margins(s *budget.Setup, refs []goalRef) []float64 {
 		}
 		return out
 	}
-	clouds := map[string]*budget.Cloud{}
+	clouds := map[string]*setup.Cloud{}
 	for _, c := range s.Clouds {
 		clouds[c.Name] = c
 	}
@@ -99,7 +100,7 @@ func margins(s *budget.Setup, refs []goalRef) []float64 {
 // elements and of whole clouds, in samples Monte Carlo samples from seed,
 // on up to workers goroutines (0: all cores). It returns one analysis per
 // goal, keyed by the *AtomsResult or the *Cloud it belongs to.
-func Tolerances(s *budget.Setup, drive []*AtomsResult, samples int, seed uint64, workers int) map[any]*GoalTolerance {
+func Tolerances(s *setup.Setup, drive []*AtomsResult, samples int, seed uint64, workers int) map[any]*GoalTolerance {
 	if len(s.Tolerances) == 0 || samples <= 0 {
 		return nil
 	}
@@ -194,7 +195,7 @@ func Tolerances(s *budget.Setup, drive []*AtomsResult, samples int, seed uint64,
 // contributors ranks the inputs by their standardized regression
 // coefficients on the margin (samples with a finite margin only):
 // share = SRC²/ΣSRC².
-func contributors(ts []*budget.Toleranced, inputs, y []float64) []Contributor {
+func contributors(ts []*setup.Toleranced, inputs, y []float64) []Contributor {
 	nt := len(ts)
 	var rows []int
 	for i, v := range y {

@@ -2,6 +2,7 @@ package drive
 
 import (
 	"beamledger/budget"
+	"beamledger/budget/setup"
 	"math"
 	"slices"
 	"strings"
@@ -51,10 +52,10 @@ atoms = 1
 rms_size = ["10 um", "10 um", "10 um"]
 `
 
-func tolSetup(t *testing.T, eff, t2, goal string) (*budget.Setup, []*AtomsResult) {
+func tolSetup(t *testing.T, eff, t2, goal string) (*setup.Setup, []*AtomsResult) {
 	t.Helper()
 	src := strings.NewReplacer("EFF", eff, "T2", t2, "GOAL", goal).Replace(tolLab)
-	s, err := budget.Parse("tol.toml", []byte(src))
+	s, err := setup.Parse("tol.toml", []byte(src))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -154,7 +155,7 @@ func TestToleranceDeterminism(t *testing.T) {
 func TestToleranceCloudGoal(t *testing.T) {
 	src := strings.Replace(beamOn("trap", "1064 nm", "7 W", "50 um", "z"), `power = "7 W"`, "power = \"7 W\"\noperating_power = \"4 W .. 6 W\"", 1) +
 		cloudC("none", "goal = \"trap_depth\"\ngoal_value = \"190 uK\"")
-	s, err := budget.Parse("t.toml", []byte(src))
+	s, err := setup.Parse("t.toml", []byte(src))
 	if err != nil {
 		t.Fatal(err)
 	}

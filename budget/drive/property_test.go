@@ -7,13 +7,14 @@ import (
 
 	"beamledger/budget"
 	"beamledger/budget/drive"
-	"beamledger/budget/synth"
+	"beamledger/budget/setup"
+	"beamledger/budget/setup/synth"
 )
 
 // computed loads and computes a generated lab.
-func computed(t testing.TB, seed uint64, o synth.Options) (*budget.Setup, *budget.Budget) {
+func computed(t testing.TB, seed uint64, o synth.Options) (*setup.Setup, *budget.Budget) {
 	t.Helper()
-	s, err := budget.Parse(fmt.Sprintf("gen-%d.toml", seed), []byte(synth.Lab(seed, o)))
+	s, err := setup.Parse(fmt.Sprintf("gen-%d.toml", seed), []byte(synth.Lab(seed, o)))
 	if err == nil {
 		var b *budget.Budget
 		if b, err = budget.Compute(s); err == nil {

@@ -6,7 +6,7 @@ import (
 	"testing"
 	"time"
 
-	"beamledger/budget"
+	"beamledger/budget/setup"
 	"beamledger/safety"
 	"beamledger/safety/render"
 )
@@ -20,7 +20,7 @@ func benchCheck(b *testing.B, file string) {
 	}
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
-		s, err := budget.Parse(file, data)
+		s, err := setup.Parse(file, data)
 		if err != nil {
 			b.Fatal(err)
 		}

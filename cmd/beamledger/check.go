@@ -5,8 +5,8 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"beamledger/budget"
 	"beamledger/budget/drive"
+	"beamledger/budget/setup"
 	"beamledger/safety"
 	"beamledger/safety/render"
 )
@@ -67,7 +67,7 @@ needs action, 1 a finding needs action, 2 the setup could not be used.`,
 }
 
 func (e *env) runCheck(o *checkOptions) error {
-	s, err := budget.Load(o.file)
+	s, err := setup.Load(o.file)
 	if err != nil {
 		return err
 	}

@@ -13,7 +13,7 @@ import (
 	"testing"
 	"time"
 
-	"beamledger/budget"
+	"beamledger/budget/setup"
 	"beamledger/limits"
 )
 
@@ -51,7 +51,7 @@ func TestInitWritesLoadableStarterAndNeverOverwrites(t *testing.T) {
 	if _, errOut, code := runCLI(t, "init", name); code != exitOK {
 		t.Fatalf("init: exit %d: %s", code, errOut)
 	}
-	s, err := budget.Load(name)
+	s, err := setup.Load(name)
 	if err != nil {
 		t.Fatalf("the starter file does not load: %v", err)
 	}
@@ -402,7 +402,7 @@ func TestReportDiagram(t *testing.T) {
 func TestSchemaAndInitSchemaLine(t *testing.T) {
 	out, errOut, code := runCLI(t, "schema")
 	var doc map[string]any
-	if code != exitOK || json.Unmarshal([]byte(out), &doc) != nil || doc["$schema"] != budget.SchemaDraft {
+	if code != exitOK || json.Unmarshal([]byte(out), &doc) != nil || doc["$schema"] != setup.SchemaDraft {
 		t.Fatalf("schema: exit %d, stderr %q, $schema %v", code, errOut, doc["$schema"])
 	}
 	name := filepath.Join(t.TempDir(), "lab.toml")
@@ -416,7 +416,7 @@ func TestSchemaAndInitSchemaLine(t *testing.T) {
 	if !strings.HasPrefix(string(data), "#:schema beamledger.schema.json\n#") {
 		t.Errorf("first lines %q", strings.SplitN(string(data), "\n", 3)[:2])
 	}
-	if _, err := budget.Load(name); err != nil {
+	if _, err := setup.Load(name); err != nil {
 		t.Errorf("the starter with its schema line does not load: %v", err)
 	}
 	if _, _, code := runCLI(t, "init", "--schema", "a\nb", filepath.Join(t.TempDir(), "x.toml")); code != exitBadInput {

@@ -3,7 +3,7 @@ package main
 import (
 	"github.com/spf13/cobra"
 
-	"beamledger/budget"
+	"beamledger/budget/setup"
 	"beamledger/safety"
 	"beamledger/safety/revision"
 )
@@ -42,11 +42,11 @@ could not be used.`,
 // loadRevision reads and evaluates one revision of a setup (hazards and
 // drive only: the tolerance analysis does not enter a comparison).
 func loadRevision(file string) (revision.Revision, error) {
-	data, err := budget.ReadSetupFile(file)
+	data, err := setup.ReadSetupFile(file)
 	if err != nil {
 		return revision.Revision{}, err
 	}
-	s, err := budget.Parse(file, data)
+	s, err := setup.Parse(file, data)
 	if err != nil {
 		return revision.Revision{}, err
 	}

@@ -14,7 +14,7 @@ import (
 	"github.com/pdfcpu/pdfcpu/pkg/api"
 	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu/model"
 
-	"beamledger/budget/synth"
+	"beamledger/budget/setup/synth"
 	"beamledger/safety"
 	"beamledger/safety/render"
 	"beamledger/safety/report"

@@ -9,7 +9,7 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"beamledger/budget/starter"
+	"beamledger/budget/setup/starter"
 )
 
 func (e *env) newInit() *cobra.Command {

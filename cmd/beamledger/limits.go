@@ -5,7 +5,7 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"beamledger/budget"
+	"beamledger/budget/setup"
 	"beamledger/budget/units"
 	"beamledger/limits"
 	"beamledger/safety"
@@ -59,7 +59,7 @@ and never replace, your laser safety officer's evaluation.`,
 // refused: a divergence of 1e-320 rad or a power of 1e300 W describes no
 // beam, and would only give a meaningless figure.
 var flagRange = map[string][2]float64{
-	"wavelength":       {budget.MinWavelength, budget.MaxWavelength},
+	"wavelength":       {setup.MinWavelength, setup.MaxWavelength},
 	"duration":         {limits.MinDuration, limits.MaxDuration},
 	"pulse-duration":   {limits.MinDuration, limits.MaxDuration},
 	"repetition-rate":  {1e-4, 1e12},

@@ -12,7 +12,7 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"beamledger/budget"
+	"beamledger/budget/setup"
 	"beamledger/safety"
 	"beamledger/safety/pdf"
 	"beamledger/safety/report"
@@ -107,11 +107,11 @@ func (e *env) runReport(o *reportOptions) error {
 			return fmt.Errorf("--diagram %s is the PDF's own name; give the SVG a name of its own", o.diagram)
 		}
 	}
-	data, err := budget.ReadSetupFile(o.file)
+	data, err := setup.ReadSetupFile(o.file)
 	if err != nil {
 		return err
 	}
-	s, err := budget.Parse(o.file, data)
+	s, err := setup.Parse(o.file, data)
 	if err != nil {
 		return err
 	}

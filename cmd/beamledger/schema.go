@@ -3,7 +3,7 @@ package main
 import (
 	"github.com/spf13/cobra"
 
-	"beamledger/budget"
+	"beamledger/budget/setup"
 )
 
 func (e *env) newSchema() *cobra.Command {
@@ -20,7 +20,7 @@ underlined while you type, and keys completed with their descriptions.`,
   beamledger init --schema beamledger.schema.json mylab.toml`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, args []string) error {
-			doc, err := budget.Schema(version)
+			doc, err := setup.Schema(version)
 			if err != nil {
 				return err
 			}

@@ -10,7 +10,7 @@ import (
 	"testing"
 	"time"
 
-	"beamledger/budget"
+	"beamledger/budget/setup"
 )
 
 // largestLab writes an invented setup at every size limit at once: the most
@@ -19,16 +19,16 @@ import (
 func largestLab() string {
 	var b strings.Builder
 	b.WriteString("# Invented: the largest setup beamledger accepts, for the speed test.\n[setup]\ntitle = \"Largest accepted setup\"\n\n")
-	for c := 0; c < budget.MaxClouds; c++ {
+	for c := 0; c < setup.MaxClouds; c++ {
 		fmt.Fprintf(&b, "[[cloud]]\nname = \"c%d\"\ntransition = \"Rb87 D2\"\natoms = 20000\nrms_size = [\"6 um\", \"6 um\", \"150 um\"]\n\n", c)
 	}
-	for w := 0; w < budget.MaxEyewear; w++ {
+	for w := 0; w < setup.MaxEyewear; w++ {
 		fmt.Fprintf(&b, "[[eyewear]]\nname = \"g%d\"\nbands = [{ from = \"%d nm\", to = \"%d nm\", od = 5 }]\n\n", w, 400+w, 500+w)
 	}
-	pathsPerLaser := budget.MaxPaths / budget.MaxLasers
-	elementsPerPath := budget.MaxElements / budget.MaxPaths
-	atomsPaths := budget.MaxAtomsElements / budget.MaxLasers // per laser
-	for l := 0; l < budget.MaxLasers; l++ {
+	pathsPerLaser := setup.MaxPaths / setup.MaxLasers
+	elementsPerPath := setup.MaxElements / setup.MaxPaths
+	atomsPaths := setup.MaxAtomsElements / setup.MaxLasers // per laser
+	for l := 0; l < setup.MaxLasers; l++ {
 		fmt.Fprintf(&b, "[[laser]]\nname = \"L%d\"\nwavelength = \"780.24 nm\"\npower = \"%d mW\"\nwaist = [\"1.1 mm\", \"0.6 mm\"]\nm2 = [1.3, 1.1]\ndetuning = \"0 Hz\"\n\n", l, 100+l)
 		for p := 0; p < pathsPerLaser; p++ {
 			from := fmt.Sprintf("L%d", l)
@@ -48,7 +48,7 @@ func largestLab() string {
 				el("  type = \"mirror\"\n  reflectivity = 0.99\n")
 			}
 			if p < atomsPaths {
-				el("  type = \"atoms\"\n  cloud = \"c%d\"\n  goal = \"collective\"\n  goal_factor = 1.5\n", (l*atomsPaths+p)%budget.MaxClouds)
+				el("  type = \"atoms\"\n  cloud = \"c%d\"\n  goal = \"collective\"\n  goal_factor = 1.5\n", (l*atomsPaths+p)%setup.MaxClouds)
 			}
 			for n < elementsPerPath-1 {
 				el("  type = \"window\"\n  transmission = 0.99\n")

@@ -8,7 +8,7 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"beamledger/budget"
+	"beamledger/budget/setup"
 	"beamledger/safety/verify"
 )
 
@@ -45,7 +45,7 @@ func (e *env) runVerify(args []string) error {
 	}
 	var given []byte
 	if len(args) == 2 {
-		if given, err = budget.ReadSetupFile(args[1]); err != nil {
+		if given, err = setup.ReadSetupFile(args[1]); err != nil {
 			return err
 		}
 	}

@@ -10,7 +10,7 @@ import (
 	"strings"
 	"testing"
 
-	"beamledger/budget"
+	"beamledger/budget/setup"
 	"beamledger/safety"
 	"beamledger/safety/safetytest"
 )
@@ -20,7 +20,7 @@ import (
 func FuzzRender(f *testing.F) {
 	safetytest.AddSeeds(f, "../..", "table-c", "splitter-tree", "weak-probe")
 	f.Fuzz(func(t *testing.T, data []byte) {
-		s, err := budget.Parse("fuzz.toml", data)
+		s, err := setup.Parse("fuzz.toml", data)
 		if err != nil {
 			return
 		}

@@ -12,6 +12,7 @@ import (
 	"beamledger/budget/atoms"
 	"beamledger/budget/drive"
 	"beamledger/budget/optics"
+	"beamledger/budget/setup"
 	"beamledger/budget/units"
 	"beamledger/limits"
 	"beamledger/safety"
@@ -492,7 +493,7 @@ func saturationPlot(at *drive.AtomsResult) *Plot {
 		pl.Series = append(pl.Series, Series{Name: name, X: xs, Y: ys, Dashed: dashed})
 	}
 	series("at the operating power", at.PeakIrradiance/at.Isat, false)
-	if g := at.Goal; g != nil && g.Impossible == "" && g.Kind != budget.GoalTrapDepth {
+	if g := at.Goal; g != nil && g.Impossible == "" && g.Kind != setup.GoalTrapDepth {
 		series("at the goal's power", g.Intensity/at.Isat, true)
 	}
 	return pl

@@ -7,6 +7,7 @@ import (
 	"unicode/utf8"
 
 	"beamledger/budget"
+	"beamledger/budget/setup"
 	"beamledger/budget/units"
 	"beamledger/safety"
 )
@@ -99,7 +100,7 @@ func slotsPerLine() int { return int(math.Floor((diagramWidth - slotLeft - 10) /
 type stop struct {
 	glyph string // element type, or "source", "port", "join", "open_end", "into"
 	label string
-	el    *budget.Element
+	el    *setup.Element
 	row   *budget.Row
 	fold  bool // a retro mirror: the rest comes back on the line below
 }
@@ -127,11 +128,11 @@ func Diagrams(a *safety.Assessment) []*Drawing {
 		}
 		ratio[e.Path][e.Segment.After] = e.CombinedEyeRatio
 	}
-	escaping := map[*budget.PathBudget]map[*budget.Element]float64{}
+	escaping := map[*budget.PathBudget]map[*setup.Element]float64{}
 	for _, rf := range a.Hazards.Reflections {
 		if rf.Kind == safety.ReflectionEscaping {
 			if escaping[rf.Path] == nil {
-				escaping[rf.Path] = map[*budget.Element]float64{}
+				escaping[rf.Path] = map[*setup.Element]float64{}
 			}
 			escaping[rf.Path][rf.Element] = math.Max(escaping[rf.Path][rf.Element], rf.Ratio)
 		}
@@ -187,7 +188,7 @@ func stack(title string, bands []band) []*Drawing {
 
 // pathBands lays out one beam on one path: a heading band, then lines of
 // stops.
-func pathBands(pb, own *budget.PathBudget, ratio map[int]float64, escaping map[*budget.Element]float64, hb *budget.Budget) []band {
+func pathBands(pb, own *budget.PathBudget, ratio map[int]float64, escaping map[*setup.Element]float64, hb *budget.Budget) []band {
 	p := pb.Path
 	stops := pathStops(pb, hb)
 	head := fmt.Sprintf("path %q: %s, %s", p.Name, units.FormatWavelength(pb.Laser.Wavelength), stops[0].label)
@@ -350,10 +351,10 @@ func pathStops(pb *budget.PathBudget, hb *budget.Budget) []stop {
 		r := &pb.Rows[k]
 		el := r.Element
 		s := stop{glyph: string(el.Type), label: fmt.Sprintf("%d %s", el.Index, el.Label()), el: el, row: r}
-		if el.Type == budget.TypeAtoms && el.Cloud != "" {
+		if el.Type == setup.TypeAtoms && el.Cloud != "" {
 			clouds[el.Cloud] = true
 		}
-		if el.Type == budget.TypeMirror && returnsToCloud(p, el.Index, clouds) {
+		if el.Type == setup.TypeMirror && returnsToCloud(p, el.Index, clouds) {
 			s.fold = true
 		}
 		stops = append(stops, s)
@@ -370,9 +371,9 @@ func pathStops(pb *budget.PathBudget, hb *budget.Budget) []stop {
 // returnsToCloud reports whether an atoms element after the mirror at
 // index i of path p drives a cloud that one before it drove: the mirror
 // sends the beam back (a retro-reflection).
-func returnsToCloud(p *budget.Path, i int, before map[string]bool) bool {
+func returnsToCloud(p *setup.Path, i int, before map[string]bool) bool {
 	for _, e := range p.Elements[i:] {
-		if e.Type == budget.TypeAtoms && before[e.Cloud] {
+		if e.Type == setup.TypeAtoms && before[e.Cloud] {
 			return true
 		}
 	}
@@ -387,9 +388,9 @@ func segmentStyle(pb *budget.PathBudget, i int, ratio map[int]float64) (Dash, fl
 	}
 	s := pb.Segments[i]
 	switch s.Access {
-	case budget.AccessEnclosed:
+	case setup.AccessEnclosed:
 		return Dashed, 0
-	case budget.AccessVacuum:
+	case setup.AccessVacuum:
 		return Dotted, 0
 	}
 	return Solid, ratio[s.After]
@@ -399,7 +400,7 @@ func segmentStyle(pb *budget.PathBudget, i int, ratio map[int]float64) (Dash, fl
 // AOM orders, a combiner's rejected light, a splitter port no path
 // follows), a splitter port a path follows, and the beams that join at a
 // combiner.
-func stubs(pb *budget.PathBudget, s stop, own *budget.PathBudget, cx, cy float64, escaping map[*budget.Element]float64, hb *budget.Budget) []Shape {
+func stubs(pb *budget.PathBudget, s stop, own *budget.PathBudget, cx, cy float64, escaping map[*setup.Element]float64, hb *budget.Budget) []Shape {
 	var out []Shape
 	up := func(label string, w float64) {
 		x2, y2 := cx+3.2, cy-5.2
@@ -414,14 +415,14 @@ func stubs(pb *budget.PathBudget, s stop, own *budget.PathBudget, cx, cy float64
 		what := map[string]string{budget.LossMirror: "leak", budget.LossDiffraction: "orders", budget.LossCombiner: "rejected", budget.LossSplitterPort: "unused port"}[l.Kind]
 		up(what, bandStroke[RatioBand(escaping[s.el])])
 	}
-	if s.el.Type == budget.TypeSplitter {
+	if s.el.Type == setup.TypeSplitter {
 		for _, q := range hb.Paths {
 			if q.Path.ParentPort == s.el && q.Path.Parent == pb.Path {
 				up(fmt.Sprintf("to %q", q.Path.Name), bandStroke[0])
 			}
 		}
 	}
-	if s.el.Type == budget.TypeCombiner {
+	if s.el.Type == setup.TypeCombiner {
 		for _, q := range own.Beams() {
 			if q.Combiner == s.el && q != pb {
 				// Joining beams come in from above, named over the
@@ -471,7 +472,7 @@ func fit(s string, width, size float64) string {
 // set, each told apart by outline and fill alone so that grey-scale print
 // keeps them apart. lower, for a retro mirror, is how far below its return
 // line runs.
-func glyph(kind string, el *budget.Element, x, y, lower float64) []Shape {
+func glyph(kind string, el *setup.Element, x, y, lower float64) []Shape {
 	const h = glyphHalf
 	line := func(w float64, p ...float64) Shape { return Shape{Kind: ShapeLine, P: p, Stroke: w, Fill: -1} }
 	switch kind {
@@ -488,16 +489,16 @@ func glyph(kind string, el *budget.Element, x, y, lower float64) []Shape {
 	case "into":
 		return []Shape{{Kind: ShapePolygon, P: []float64{x - h, y - 1.6, x + 0.5, y, x - h, y + 1.6}, Fill: 0}}
 	}
-	switch budget.ElementType(kind) {
-	case budget.TypeLens:
+	switch setup.ElementType(kind) {
+	case setup.TypeLens:
 		if el != nil && el.FocalLength < 0 {
 			return []Shape{{Kind: ShapePolygon, P: []float64{x - 1.2, y - h, x + 1.2, y - h, x + 0.4, y, x + 1.2, y + h, x - 1.2, y + h, x - 0.4, y}, Stroke: 0.3, Fill: 1}}
 		}
 		return []Shape{{Kind: ShapeEllipse, P: []float64{x, y, 0.9, h}, Stroke: 0.3, Fill: 1}}
-	case budget.TypeCylLens:
+	case setup.TypeCylLens:
 		return []Shape{{Kind: ShapePolygon, P: []float64{x - 0.9, y - h, x + 0.2, y - h, x + 0.9, y, x + 0.2, y + h, x - 0.9, y + h}, Stroke: 0.3, Fill: 1},
 			text(x, y-h-0.6, noteSize, "middle", el.Plane)}
-	case budget.TypeMirror:
+	case setup.TypeMirror:
 		if lower > 0 {
 			// A retro mirror, tall enough to meet both passes.
 			out := []Shape{line(0.6, x, y-h, x, y+lower+h)}
@@ -507,27 +508,27 @@ func glyph(kind string, el *budget.Element, x, y, lower float64) []Shape {
 			return out
 		}
 		return []Shape{line(0.6, x-1.6, y+h, x+1.6, y-h), line(0.15, x-1.0, y+h+0.4, x+2.2, y-h+0.4)}
-	case budget.TypeWindow:
+	case setup.TypeWindow:
 		return []Shape{{Kind: ShapeRect, P: []float64{x - 0.6, y - h, 1.2, 2 * h}, Stroke: 0.25, Fill: 0.85}}
-	case budget.TypeAOM:
+	case setup.TypeAOM:
 		out := []Shape{{Kind: ShapeRect, P: []float64{x - 2.2, y - 1.6, 4.4, 3.2}, Stroke: 0.3, Fill: 1}}
 		for _, dx := range []float64{-1, 0, 1} {
 			out = append(out, line(0.15, x+dx, y-1.1, x+dx, y+1.1))
 		}
 		return out
-	case budget.TypeFilter:
+	case setup.TypeFilter:
 		return []Shape{{Kind: ShapeRect, P: []float64{x - 0.8, y - h, 1.6, 2 * h}, Stroke: 0.25, Fill: 0.45}}
-	case budget.TypeAperture:
+	case setup.TypeAperture:
 		return []Shape{line(0.5, x, y-h, x, y-0.9), line(0.5, x, y+0.9, x, y+h)}
-	case budget.TypeSplitter:
+	case setup.TypeSplitter:
 		return []Shape{{Kind: ShapeRect, P: []float64{x - 2, y - 2, 4, 4}, Stroke: 0.3, Fill: 1}, line(0.3, x-2, y+2, x+2, y-2)}
-	case budget.TypeCombiner:
+	case setup.TypeCombiner:
 		return []Shape{{Kind: ShapeRect, P: []float64{x - 2, y - 2, 4, 4}, Stroke: 0.3, Fill: 0.85}, line(0.3, x-2, y-2, x+2, y+2)}
-	case budget.TypeFiber:
+	case setup.TypeFiber:
 		return []Shape{{Kind: ShapeEllipse, P: []float64{x, y, 2, 2}, Stroke: 0.3, Fill: 1}, {Kind: ShapeEllipse, P: []float64{x, y, 1.1, 1.1}, Stroke: 0.3, Fill: -1}}
-	case budget.TypeAtoms:
+	case setup.TypeAtoms:
 		return []Shape{{Kind: ShapeEllipse, P: []float64{x, y, 2.2, 1.5}, Stroke: 0.2, Fill: 0.6}}
-	case budget.TypeDump:
+	case setup.TypeDump:
 		return []Shape{{Kind: ShapeRect, P: []float64{x - 1.2, y - h, 2.8, 2 * h}, Fill: 0}}
 	}
 	return []Shape{{Kind: ShapeRect, P: []float64{x - 2, y - 2, 4, 4}, Stroke: 0.3, Fill: 1}, text(x, y+1.2, noteSize, "middle", "?")}
@@ -555,7 +556,7 @@ func Legend() *Drawing {
 	d.Shapes = append(d.Shapes, text(0, y+1, labelSize, "start", "open segments above the eye MPE carry their ratio (×N, the combined ratio where beams share a segment); arrows above an element are light leaving the path"))
 	y += 8
 	kinds := []string{"source", "port", "join", "into", "open_end"}
-	for _, k := range budget.Kinds {
+	for _, k := range setup.Kinds {
 		kinds = append(kinds, string(k.Type))
 	}
 	names := map[string]string{"source": "laser", "port": "splitter's other port", "join": "joins at a combiner", "into": "into a combiner", "open_end": "open end"}
@@ -563,7 +564,7 @@ func Legend() *Drawing {
 	for i, k := range kinds {
 		cx := 4 + float64(i%per)*29
 		cy := y + float64(i/per)*11
-		el := &budget.Element{Type: budget.ElementType(k), FocalLength: 1, Plane: "x"}
+		el := &setup.Element{Type: setup.ElementType(k), FocalLength: 1, Plane: "x"}
 		d.Shapes = append(d.Shapes, glyph(k, el, cx, cy, 0)...)
 		name := names[k]
 		if name == "" {

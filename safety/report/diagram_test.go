@@ -10,7 +10,7 @@ import (
 	"testing"
 	"unicode/utf8"
 
-	"beamledger/budget"
+	"beamledger/budget/setup"
 	"beamledger/safety"
 	"beamledger/safety/safetytest"
 )
@@ -243,8 +243,8 @@ func TestSVG(t *testing.T) {
 
 // The glyph of every element kind is drawn, none as the unknown mark.
 func TestEveryKindHasAGlyph(t *testing.T) {
-	for _, k := range budget.Kinds {
-		g := glyph(string(k.Type), &budget.Element{Type: k.Type, Plane: "x"}, 10, 10, 0)
+	for _, k := range setup.Kinds {
+		g := glyph(string(k.Type), &setup.Element{Type: k.Type, Plane: "x"}, 10, 10, 0)
 		for _, s := range g {
 			if s.Kind == ShapeText && s.Text == "?" {
 				t.Errorf("%s has no glyph of its own", k.Type)
@@ -258,7 +258,7 @@ func TestEveryKindHasAGlyph(t *testing.T) {
 func FuzzDiagram(f *testing.F) {
 	safetytest.AddSeeds(f, "../..", "table-c", "table-d", "splitter-tree")
 	f.Fuzz(func(t *testing.T, data []byte) {
-		s, err := budget.Parse("fuzz.toml", data)
+		s, err := setup.Parse("fuzz.toml", data)
 		if err != nil {
 			return
 		}

@@ -7,7 +7,7 @@ import (
 	"strings"
 	"testing"
 
-	"beamledger/budget"
+	"beamledger/budget/setup"
 	"beamledger/safety"
 	"beamledger/safety/revision"
 	"beamledger/safety/safetytest"
@@ -57,7 +57,7 @@ func TestModelOrderAndWording(t *testing.T) {
 }
 
 func nil2(t *testing.T) *safety.Assessment {
-	s, err := budget.Load("../../testdata/examples/splitter-tree.toml")
+	s, err := setup.Load("../../testdata/examples/splitter-tree.toml")
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -20,6 +20,7 @@ import (
 	"github.com/BurntSushi/toml"
 
 	"beamledger/budget"
+	"beamledger/budget/setup"
 	"beamledger/budget/units"
 	"beamledger/safety"
 )
@@ -198,9 +199,9 @@ func metaAffects(key string) bool { return key == "exposure" || key == "exposure
 // direction in the cloud) do not change the hazards; every other key of
 // every element can.
 func elementAffects(typ string) func(string) bool {
-	k, ok := budget.KindOf(budget.ElementType(typ))
+	k, ok := setup.KindOf(setup.ElementType(typ))
 	return func(key string) bool {
-		return !(ok && k.Type == budget.TypeAtoms && k.Has(key))
+		return !(ok && k.Type == setup.TypeAtoms && k.Has(key))
 	}
 }
 

@@ -11,7 +11,7 @@ import (
 	"strings"
 	"testing"
 
-	"beamledger/budget"
+	"beamledger/budget/setup"
 	"beamledger/safety"
 )
 
@@ -19,7 +19,7 @@ import (
 // evaluates it; any error fails the test.
 func Evaluate(t testing.TB, name string, src []byte) *safety.Assessment {
 	t.Helper()
-	s, err := budget.Parse(name, src)
+	s, err := setup.Parse(name, src)
 	if err != nil {
 		t.Fatal(err)
 	}

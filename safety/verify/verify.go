@@ -18,7 +18,7 @@ import (
 	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu/model"
 	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu/validate"
 
-	"beamledger/budget"
+	"beamledger/budget/setup"
 	"beamledger/safety"
 	"beamledger/safety/report"
 )
@@ -78,7 +78,7 @@ func Check(pdf []byte, given []byte) (*Result, error) {
 	if err != nil {
 		return nil, fmt.Errorf("%w: not a readable PDF: %v", ErrUnusable, err)
 	}
-	var setup, recorded []byte
+	var attached, recorded []byte
 	r := &Result{}
 	for _, a := range atts {
 		data, err := io.ReadAll(a)
@@ -89,22 +89,22 @@ func Check(pdf []byte, given []byte) (*Result, error) {
 		case a.FileName == report.HazardsAttachment:
 			recorded = data
 		case strings.HasSuffix(a.FileName, ".toml") || strings.Contains(a.Desc, "SHA-256"):
-			setup, r.SetupName = data, a.FileName
+			attached, r.SetupName = data, a.FileName
 			if _, h, ok := strings.Cut(a.Desc, "SHA-256 "); ok {
 				r.RecordedSHA256 = strings.TrimSpace(h)
 			}
 		}
 	}
-	if setup == nil {
+	if attached == nil {
 		return nil, fmt.Errorf("%w: the PDF carries no setup file (was it written by beamledger report?)", ErrUnusable)
 	}
-	sum := sha256.Sum256(setup)
+	sum := sha256.Sum256(attached)
 	r.SetupSHA256 = hex.EncodeToString(sum[:])
 	if given != nil {
 		r.Given = true
-		r.GivenMatches = bytes.Equal(given, setup)
+		r.GivenMatches = bytes.Equal(given, attached)
 	}
-	s, err := budget.Parse(r.SetupName, setup)
+	s, err := setup.Parse(r.SetupName, attached)
 	if err != nil {
 		return nil, fmt.Errorf("%w: the attached setup no longer loads: %v", ErrUnusable, err)
 	}

@@ -6,8 +6,8 @@ import (
 	"strconv"
 	"strings"
 
-	"beamledger/budget"
 	"beamledger/budget/drive"
+	"beamledger/budget/setup"
 	"beamledger/budget/units"
 	"beamledger/safety"
 )
@@ -96,9 +96,9 @@ func (b *builder) atomsRecord(a *drive.AtomsResult) Record {
 	switch {
 	case a.NearLine != "":
 		r.Line(fmt.Sprintf("  the light is {near_line_detuning_hz} from the line {near_line}, within %d of its linewidths: neither the far-detuned dipole formula nor the two-level figures of %s apply; not evaluated",
-			budget.FarDetuningFactor, tr.Name))
+			setup.FarDetuningFactor, tr.Name))
 	case a.FarDetuned:
-		r.Line(fmt.Sprintf("  far detuned (|Δ| > %d Γ): dipole potential from the lines %s with counter-rotating terms (Grimm et al. 2000)", budget.FarDetuningFactor, strings.Join(tr.LineNames(), ", ")))
+		r.Line(fmt.Sprintf("  far detuned (|Δ| > %d Γ): dipole potential from the lines %s with counter-rotating terms (Grimm et al. 2000)", setup.FarDetuningFactor, strings.Join(tr.LineNames(), ", ")))
 		kind := "attractive: a trap this deep"
 		if d.PerIntensity >= 0 {
 			kind = "repulsive: blue detuned, no trap"
@@ -145,9 +145,9 @@ func (b *builder) goalRecord(a *drive.AtomsResult, g *drive.GoalResult) *Record 
 	r := &Record{Members: b.members(20)}
 	r.F(Str(dKind2, g.Kind))
 	switch g.Kind {
-	case budget.GoalRabi, budget.GoalCollective:
+	case setup.GoalRabi, setup.GoalCollective:
 		r.F(Num(dTargetSi, g.Target, hz(g.Target))) // Ω in rad/s
-	case budget.GoalTrapDepth:
+	case setup.GoalTrapDepth:
 		r.F(Num(dTargetSi, g.Target, units.FormatSI(g.Target, "K")))
 	default:
 		r.F(num(dTargetSi, g.Target))
@@ -173,10 +173,10 @@ func (b *builder) goalRecord(a *drive.AtomsResult, g *drive.GoalResult) *Record 
 	}
 	r.F(Flag(dMet, g.Met, verdict))
 	r.F(Field{d: dImpossible, Kind: String, Text: g.Impossible, OmitEmpty: true})
-	if g.Kind != budget.GoalTrapDepth {
+	if g.Kind != setup.GoalTrapDepth {
 		r.F(Str(dGoalAt, g.At))
-		where := map[string]string{budget.GoalAtCentre: "at the cloud centre, reached through the atoms in front of it", budget.GoalAtExit: "at the cloud's exit (+2 rms, the weakest-driven end), reached through the atoms in front of it"}[g.At]
-		if g.At == budget.GoalAtAll {
+		where := map[string]string{setup.GoalAtCentre: "at the cloud centre, reached through the atoms in front of it", setup.GoalAtExit: "at the cloud's exit (+2 rms, the weakest-driven end), reached through the atoms in front of it"}[g.At]
+		if g.At == setup.GoalAtAll {
 			r.F(Plain(dGoalFraction, g.Fraction))
 			where = fmt.Sprintf("for %s of the atoms (weighted by density), reached through the atoms in front of them", fixed(100*g.Fraction, 0, " %"))
 		} else {
@@ -185,13 +185,13 @@ func (b *builder) goalRecord(a *drive.AtomsResult, g *drive.GoalResult) *Record 
 		r.F(Field{d: dGoalWhere, Kind: String, Text: where, People: true})
 	}
 	switch g.Kind {
-	case budget.GoalSaturation:
+	case setup.GoalSaturation:
 		r.Line("  goal: saturation s = {target_si}, {goal_where}")
-	case budget.GoalRabi:
+	case setup.GoalRabi:
 		r.Line("  goal: Rabi frequency Ω/2π = {target_si}, {goal_where}")
-	case budget.GoalTrapDepth:
+	case setup.GoalTrapDepth:
 		r.Line("  goal: trap depth U/k_B = {target_si}")
-	case budget.GoalCollective:
+	case setup.GoalCollective:
 		c := g.Collective
 		r.F(num(dGoalFactor, g.Factor)).
 			F(hzField(dThresholdRabiFrequencyHz, c.OmegaC)).

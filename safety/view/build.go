@@ -10,6 +10,7 @@ import (
 	"beamledger/budget"
 	"beamledger/budget/atoms"
 	"beamledger/budget/drive"
+	"beamledger/budget/setup"
 	"beamledger/budget/units"
 	"beamledger/safety"
 )
@@ -142,7 +143,7 @@ func (b *builder) pathRecord(pb *budget.PathBudget) Record {
 	r.F(Field{d: dSource, Kind: String, Text: src, People: true})
 	r.Line(fmt.Sprintf("Path %q from {source}, {wavelength_m}", p.Name))
 	r.Line("  powers at the operating power {operating_power_w} (maximum {max_power_w}); W = 1/e² radius arriving at the element; peak irradiance 2P/(πWxWy) on arrival")
-	if las.Emission == budget.EmissionPulsed {
+	if las.Emission == setup.EmissionPulsed {
 		r.F(Num(dPulsePeakFactor, 1/(las.RepetitionRate*las.PulseDuration), fmtG(1/(las.RepetitionRate*las.PulseDuration))))
 		r.Line("  pulsed source: powers and peak irradiances here are of the average power; during a pulse the irradiance is {pulse_peak_factor} times higher (1/(f τ), rectangular pulse)")
 	}

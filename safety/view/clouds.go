@@ -6,9 +6,9 @@ import (
 	"slices"
 	"strings"
 
-	"beamledger/budget"
 	"beamledger/budget/atoms"
 	"beamledger/budget/drive"
+	"beamledger/budget/setup"
 	"beamledger/budget/units"
 	"beamledger/safety"
 )
@@ -139,18 +139,18 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 			names = append(names, las.Name)
 		}
 		goal.F(Str(dKind6, g.Kind)).F(StrList(dGoalLasers, names))
-		if g.Kind == budget.GoalCollective {
+		if g.Kind == setup.GoalCollective {
 			goal.F(Plain(dGoalFactor2, g.Factor))
 		} else {
 			goal.F(Absent(dGoalFactor2, true))
 		}
 		target := fmtG(g.Target)
 		switch g.Kind {
-		case budget.GoalTrapDepth:
+		case setup.GoalTrapDepth:
 			target = units.FormatSI(g.Target, "K")
-		case budget.GoalRabi, budget.GoalCollective:
+		case setup.GoalRabi, setup.GoalCollective:
 			target = "Ω/2π = " + units.FormatFrequency(g.Target/(2*math.Pi))
-		case budget.GoalSaturation:
+		case setup.GoalSaturation:
 			target = "s = " + fmtG(g.Target)
 		}
 		goal.F(Num(dTargetSI, g.Target, target))

@@ -6,7 +6,7 @@ import (
 	"strconv"
 	"strings"
 
-	"beamledger/budget"
+	"beamledger/budget/setup"
 	"beamledger/budget/units"
 	"beamledger/limits"
 	"beamledger/safety"
@@ -21,7 +21,7 @@ var Cautions = []string{
 }
 
 // Assumptions lists what the hazard figures assume, for every output.
-func Assumptions(s *budget.Setup) []string {
+func Assumptions(s *setup.Setup) []string {
 	out := []string{
 		"intrabeam viewing of a small source (angular subtense at most 1.5 mrad)",
 		"each laser at its maximum power",
@@ -351,7 +351,7 @@ func (b *builder) reflectionRecord(rf *safety.Reflection) Record {
 		where = strconv.AppendQuote(append(where, " (beam of laser "...), rf.Path.Laser.Name)
 		where = append(where, ')')
 	}
-	if rf.Element != nil && (rf.Kind != safety.ReflectionDiffuse || rf.Element.Type == budget.TypeDump) {
+	if rf.Element != nil && (rf.Kind != safety.ReflectionDiffuse || rf.Element.Type == setup.TypeDump) {
 		where = strconv.AppendInt(append(where, ", element "...), int64(rf.Element.Index), 10)
 		where = append(append(append(where, " ("...), rf.Element.Label()...), ')')
 	} else {

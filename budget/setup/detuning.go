@@ -1,4 +1,4 @@
-package budget
+package setup
 
 import (
 	"beamledger/budget/atoms"
@@ -81,13 +81,13 @@ const DetuningTolerance = 1e-3
 // detuning (on the element or the laser) that disagrees with the
 // wavelengths by more than DetuningTolerance. It returns the problem, or "".
 func checkDetuning(p *Path, e *Element, tr *atoms.Transition) string {
-	return detuningProblem(p.Laser, e, aomShift(p, e), tr)
+	return DetuningProblem(p.Laser, e, aomShift(p, e), tr)
 }
 
-// detuningProblem is checkDetuning for laser las carrying AOM shifts
+// DetuningProblem is checkDetuning for laser las carrying AOM shifts
 // totalling shift (Hz) to element e (nil: the element's detuning is not for
 // this laser).
-func detuningProblem(las *Laser, e *Element, shift float64, tr *atoms.Transition) string {
+func DetuningProblem(las *Laser, e *Element, shift float64, tr *atoms.Transition) string {
 	ν := LightFrequency(las, shift)
 	if !(ν > 0) {
 		return fmt.Sprintf("the AOM shifts (%s in all) take laser %q at %s to a frequency of %s, which is not positive",

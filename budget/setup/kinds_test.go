@@ -1,14 +1,14 @@
-package budget
+package setup
 
 import (
 	"os"
 	"strings"
 	"testing"
 
-	"beamledger/budget/synth"
+	"beamledger/budget/setup/synth"
 )
 
-// Every element kind is whole: it says what it does, it reads and applies,
+// Every element kind is whole: it says what it does, it reads its keys,
 // the generator makes it (so the property tests exercise it), README lists
 // it, and the loader accepts each of its keys (an unknown key would be an
 // error).
@@ -17,14 +17,14 @@ func TestElementKindsComplete(t *testing.T) {
 	for seed := uint64(1); seed <= 20; seed++ {
 		gen.WriteString(synth.Lab(seed, synth.Options{Lasers: 2, ElementsPerPath: 12, Splits: 1, Fibers: true, Merges: true}))
 	}
-	readme, err := os.ReadFile("../README.md")
+	readme, err := os.ReadFile("../../README.md")
 	if err != nil {
 		t.Fatal(err)
 	}
 	for _, k := range Kinds {
 		t.Run(string(k.Type), func(t *testing.T) {
-			if k.Does == "" || k.read == nil || k.apply == nil {
-				t.Errorf("kind %s lacks its description, reader or effect", k.Type)
+			if k.Does == "" || k.read == nil {
+				t.Errorf("kind %s lacks its description or reader", k.Type)
 			}
 			if !strings.Contains(gen.String(), `type = "`+string(k.Type)+`"`) {
 				t.Errorf("the generator never makes a %s", k.Type)

@@ -1,4 +1,4 @@
-package budget
+package setup
 
 import (
 	"errors"
@@ -9,7 +9,7 @@ import (
 )
 
 func TestLoadDemo(t *testing.T) {
-	s, err := Load("../testdata/examples/table-c.toml")
+	s, err := Load("../../testdata/examples/table-c.toml")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -140,7 +140,7 @@ func TestLoadErrors(t *testing.T) {
 }
 
 func TestLoadExamplesAll(t *testing.T) {
-	files, _ := filepath.Glob("../testdata/examples/*.toml")
+	files, _ := filepath.Glob("../../testdata/examples/*.toml")
 	if len(files) < 4 {
 		t.Fatalf("found %d examples, want at least 4", len(files))
 	}
@@ -151,34 +151,8 @@ func TestLoadExamplesAll(t *testing.T) {
 	}
 }
 
-func FuzzParseSetup(f *testing.F) {
-	files, _ := filepath.Glob("../testdata/examples/*.toml")
-	for _, name := range files {
-		data, err := os.ReadFile(name)
-		if err == nil {
-			f.Add(data)
-		}
-	}
-	f.Add([]byte(okLaser + okPath))
-	f.Fuzz(func(t *testing.T, data []byte) {
-		s, err := Parse("fuzz.toml", data)
-		if err != nil {
-			return
-		}
-		b, err := Compute(s)
-		if err != nil {
-			return
-		}
-		for _, bal := range b.Balances {
-			if tot := bal.Total(); bal.Laser != nil && len(s.Paths) > 0 && !(tot >= 0 && tot <= 1+1e-9) {
-				t.Fatalf("laser %q: balance total %g", bal.Laser.Name, tot)
-			}
-		}
-	})
-}
-
 func BenchmarkLoadDemo(b *testing.B) {
-	data, err := os.ReadFile("../testdata/examples/table-c.toml")
+	data, err := os.ReadFile("../../testdata/examples/table-c.toml")
 	if err != nil {
 		b.Fatal(err)
 	}

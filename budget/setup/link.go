@@ -1,4 +1,4 @@
-package budget
+package setup
 
 import (
 	"beamledger/budget/numeric"
@@ -402,7 +402,7 @@ func Arrivals(s *Setup) map[*Element][]Arrival {
 		if p.Parent == nil {
 			arr = append(arr, arrival{p.Laser, 0, false})
 		} else {
-			k := elementIndex(p.Parent, p.ParentPort)
+			k := ElementIndex(p.Parent, p.ParentPort)
 			for _, a := range on[p.Parent] {
 				if a.first <= k {
 					arr = append(arr, arrival{a.las, 0, false})
@@ -411,7 +411,7 @@ func Arrivals(s *Setup) map[*Element][]Arrival {
 		}
 		for _, j := range s.Paths {
 			if j.IntoPath == p {
-				k := elementIndex(p, j.IntoPort)
+				k := ElementIndex(p, j.IntoPort)
 				for _, a := range on[j] {
 					arr = append(arr, arrival{a.las, k, true})
 				}
@@ -470,4 +470,46 @@ func (l *loader) checkClouds(s *Setup, lasers map[string]*Laser, locs map[*Path]
 			}
 		}
 	}
+}
+
+// PathOrder lists the paths so that every path comes after the paths that
+// feed it: the one whose splitter it starts at and those that go into its
+// combiners (the loader refuses cycles).
+func PathOrder(s *Setup) []*Path {
+	joiners := map[*Path][]*Path{}
+	for _, p := range s.Paths {
+		if p.IntoPath != nil {
+			joiners[p.IntoPath] = append(joiners[p.IntoPath], p)
+		}
+	}
+	order := make([]*Path, 0, len(s.Paths))
+	done := make(map[*Path]bool, len(s.Paths))
+	var visit func(p *Path)
+	visit = func(p *Path) {
+		if done[p] {
+			return
+		}
+		done[p] = true
+		if p.Parent != nil {
+			visit(p.Parent)
+		}
+		for _, j := range joiners[p] {
+			visit(j)
+		}
+		order = append(order, p)
+	}
+	for _, p := range s.Paths {
+		visit(p)
+	}
+	return order
+}
+
+// ElementIndex is the index of element e in path p's elements.
+func ElementIndex(p *Path, e *Element) int {
+	for i, x := range p.Elements {
+		if x == e {
+			return i
+		}
+	}
+	return -1
 }

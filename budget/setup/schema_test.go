@@ -1,4 +1,4 @@
-package budget
+package setup
 
 import (
 	"bytes"
@@ -15,7 +15,7 @@ import (
 	"github.com/BurntSushi/toml"
 	"github.com/santhosh-tekuri/jsonschema/v6"
 
-	"beamledger/budget/starter"
+	"beamledger/budget/setup/starter"
 	"beamledger/budget/units"
 )
 
@@ -154,9 +154,9 @@ func TestSchemaAgreesWithLoader(t *testing.T) {
 // and the starter validate.
 func TestShippedSetupsValidate(t *testing.T) {
 	sch := schema(t)
-	files, _ := filepath.Glob("../testdata/examples/*.toml")
-	more, _ := filepath.Glob("../testdata/hostile/*.toml")
-	files = append(append(files, more...), "../testdata/scale/lab-2000.toml")
+	files, _ := filepath.Glob("../../testdata/examples/*.toml")
+	more, _ := filepath.Glob("../../testdata/hostile/*.toml")
+	files = append(append(files, more...), "../../testdata/scale/lab-2000.toml")
 	if len(files) < 10 {
 		t.Fatalf("%d files", len(files))
 	}
@@ -178,7 +178,7 @@ func TestShippedSetupsValidate(t *testing.T) {
 // A missing required key fails validation.
 func TestBadInputsFailValidation(t *testing.T) {
 	sch := schema(t)
-	errs, _ := filepath.Glob("../testdata/bad/*.err")
+	errs, _ := filepath.Glob("../../testdata/bad/*.err")
 	kinds := regexp.MustCompile(`unknown key|: missing \(|, got (a|an) |has no unit|is not one of`)
 	n := 0
 	for _, e := range errs {
