@@ -1,6 +1,7 @@
 package limits
 
 import (
+	"beamledger/budget/numeric"
 	"math"
 )
 
@@ -14,7 +15,7 @@ func OneOverEDiameter(d float64) float64 { return d / math.Sqrt2 }
 // an MPE irradiance (W/m²), from the closed form with the 1/e quantities a
 // and φ₁/ₑ: NOHD = (√(4P/(π MPE)) − a)/φ₁/ₑ, where 4P/(π a²) is the peak
 // irradiance. It is 0 when the exit itself is below the MPE and +Inf for a
-// beam that does not diverge. The value is rounded up (RoundUp).
+// beam that does not diverge. The value is rounded up (numeric.RoundUp).
 func NOHD(p, d, φ, mpe float64) float64 {
 	a, phi := OneOverEDiameter(d), OneOverEDiameter(φ)
 	r := (math.Sqrt(4*p/(math.Pi*mpe)) - a) / phi
@@ -24,21 +25,7 @@ func NOHD(p, d, φ, mpe float64) float64 {
 	case phi <= 0:
 		return math.Inf(1)
 	}
-	return RoundUp(r, 3)
-}
-
-// RoundUp rounds v > 0 up to n significant figures.
-func RoundUp(v float64, n int) float64 {
-	if v <= 0 || math.IsInf(v, 0) || math.IsNaN(v) {
-		return v
-	}
-	e := math.Floor(math.Log10(v)) - float64(n-1)
-	s := math.Pow(10, e)
-	r := math.Ceil(v/s-1e-9) * s
-	if r < v {
-		r += s
-	}
-	return r
+	return numeric.RoundUp(r, 3)
 }
 
 // OpticalDensity is the OD an attenuator needs to bring an exposure ratio

@@ -6,6 +6,7 @@ import (
 	"beamledger/budget"
 	"beamledger/budget/drive"
 	"beamledger/budget/setup"
+	"beamledger/budget/units"
 )
 
 // Assessment is the whole evaluation of one setup.
@@ -108,10 +109,10 @@ func HazardDigest(a *Assessment) []string {
 	}
 	for _, e := range h.Exposures {
 		out = append(out, fmt.Sprintf("open segment: path %q after element %d, laser %q: eye ratio %s, skin ratio %s, OD %g",
-			e.Path.Path.Name, e.Segment.After, e.Laser.Laser.Name, FormatRatio(e.CombinedEyeRatio), FormatRatio(e.CombinedSkinRatio), e.OD))
+			e.Path.Path.Name, e.Segment.After, e.Laser.Laser.Name, units.FormatRatio(e.CombinedEyeRatio), units.FormatRatio(e.CombinedSkinRatio), e.OD))
 	}
 	for _, n := range h.Eyewear {
-		out = append(out, fmt.Sprintf("eyewear: %s %s, OD %g, %s", fmtNM(n.Wavelength), n.Mode, n.OD, n.EN207Label()))
+		out = append(out, fmt.Sprintf("eyewear: %s %s, OD %g, %s", units.FormatNanometres(n.Wavelength), n.Mode, n.OD, n.EN207Label()))
 	}
 	for _, f := range a.Findings {
 		if f.Severity == budget.SeverityAction {

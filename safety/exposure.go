@@ -5,7 +5,6 @@ import (
 
 	"beamledger/budget/numeric"
 	"beamledger/budget/optics"
-	"beamledger/limits"
 )
 
 // apertureIrradiance is the irradiance of beam b carrying power p (W)
@@ -87,7 +86,7 @@ func hazardDistance(b optics.Beam, p, d, mpe float64) float64 {
 			hi = m
 		}
 	}
-	return limits.RoundUp(hi, 3)
+	return numeric.RoundUp(hi, 3)
 }
 
 // MaxHazardDistance bounds the search for a hazard distance, m: 100 km, past

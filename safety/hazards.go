@@ -12,6 +12,7 @@ import (
 	"sync/atomic"
 
 	"beamledger/budget"
+	"beamledger/budget/numeric"
 	"beamledger/budget/optics"
 	"beamledger/budget/setup"
 	"beamledger/budget/units"
@@ -447,19 +448,19 @@ func (res *pathHazardResult) segmentFinding(g []*Exposure) {
 	var msg string
 	if len(g) == 1 {
 		msg = fmt.Sprintf("%s: up to %s reaches %s × the eye MPE (%s averaged over %s, %s exposure) and %s × the skin MPE; eyewear needs OD %g at %s",
-			segmentName(pb.Path, seg), units.FormatPower(worst.Power), FormatRatio(worst.Ratio), units.FormatIrradiance(worst.Irradiance), units.FormatLength(ll.EyeAperture),
-			units.FormatSI(ll.Duration, "s"), FormatRatio(worst.SkinRatio), worst.OD, fmtNM(pb.Laser.Wavelength))
+			segmentName(pb.Path, seg), units.FormatPower(worst.Power), units.FormatRatio(worst.Ratio), units.FormatIrradiance(worst.Irradiance), units.FormatLength(ll.EyeAperture),
+			units.FormatSI(ll.Duration, "s"), units.FormatRatio(worst.SkinRatio), worst.OD, units.FormatNanometres(pb.Laser.Wavelength))
 	} else {
 		var parts, ods []string
 		for _, e := range g {
-			parts = append(parts, fmt.Sprintf("%s %s × (eye), %s × (skin)", fmtNM(e.Laser.Laser.Wavelength), FormatRatio(e.Ratio), FormatRatio(e.SkinRatio)))
-			ods = append(ods, fmt.Sprintf("OD %g at %s", e.OD, fmtNM(e.Laser.Laser.Wavelength)))
+			parts = append(parts, fmt.Sprintf("%s %s × (eye), %s × (skin)", units.FormatNanometres(e.Laser.Laser.Wavelength), units.FormatRatio(e.Ratio), units.FormatRatio(e.SkinRatio)))
+			ods = append(ods, fmt.Sprintf("OD %g at %s", e.OD, units.FormatNanometres(e.Laser.Laser.Wavelength)))
 		}
 		msg = fmt.Sprintf("%s: %d beams share the segment (%s); where their effects add the exposures sum to %s × the eye MPE and %s × the skin MPE; eyewear needs %s (each additive wavelength held to an equal share of the limit)",
-			segmentName(pb.Path, seg), len(g), strings.Join(parts, "; "), FormatRatio(worst.CombinedEyeRatio), FormatRatio(worst.CombinedSkinRatio), strings.Join(ods, ", "))
+			segmentName(pb.Path, seg), len(g), strings.Join(parts, "; "), units.FormatRatio(worst.CombinedEyeRatio), units.FormatRatio(worst.CombinedSkinRatio), strings.Join(ods, ", "))
 	}
 	if worst.OpenEnd {
-		msg += fmt.Sprintf("; the escaping beam stays above the MPE for %s beyond the path's end (NOHD)", FormatDistance(worst.NOHD))
+		msg += fmt.Sprintf("; the escaping beam stays above the MPE for %s beyond the path's end (NOHD)", units.FormatDistance(worst.NOHD, MaxHazardDistance))
 	}
 	res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingExposure, Path: pb.Path.Name,
 		Element: seg.After, At: worst.At, Message: msg}.Figure(worst.CombinedEyeRatio*ll.EyeIrradiance, ll.EyeIrradiance, "W/m2"))
@@ -536,7 +537,7 @@ func (res *pathHazardResult) escaping(pb *budget.PathBudget, ll *LaserLimits, r 
 			res.reflections = append(res.reflections, ref)
 			res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingEscaping, Path: pb.Path.Name,
 				Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s%s): %s %s, %s × the eye MPE; describe where it goes or end it in a rated dump",
-					el.Index, el.Label(), beamNote(pb), units.FormatPower(pl), what, FormatRatio(ref.Ratio))}.Figure(irr, ll.EyeIrradiance, "W/m2"))
+					el.Index, el.Label(), beamNote(pb), units.FormatPower(pl), what, units.FormatRatio(ref.Ratio))}.Figure(irr, ll.EyeIrradiance, "W/m2"))
 		}
 	}
 }
@@ -552,7 +553,7 @@ func assumedNote(assumed bool) string {
 // power p: r = √(ρ P cos θ / (π MPE)) at θ = 0, with the small-source MPE
 // (conservative).
 func diffuse(pb *budget.PathBudget, el *setup.Element, ll *LaserLimits, p, ρ float64, assumed bool) *Reflection {
-	r := limits.RoundUp(DiffuseHazardRadius(ρ, p, 1, ll.EyeIrradiance), 3)
+	r := numeric.RoundUp(DiffuseHazardRadius(ρ, p, 1, ll.EyeIrradiance), 3)
 	return &Reflection{Path: pb, Element: el, Kind: ReflectionDiffuse, Reflectance: ρ, Assumed: assumed, Surfaces: 1, Power: p, Radius: r, Laser: ll}
 }
 
@@ -782,9 +783,9 @@ func checkEyewear(s *setup.Setup, needs []*EyewearNeed) []budget.Finding {
 			}
 		}
 		if len(n.CoveredBy) == 0 {
-			msg := fmt.Sprintf("no declared eyewear gives OD %g at %s", n.OD, fmtNM(n.Wavelength))
+			msg := fmt.Sprintf("no declared eyewear gives OD %g at %s", n.OD, units.FormatNanometres(n.Wavelength))
 			if len(s.Eyewear) == 0 {
-				msg = fmt.Sprintf("no eyewear is declared; OD %g is needed at %s", n.OD, fmtNM(n.Wavelength))
+				msg = fmt.Sprintf("no eyewear is declared; OD %g is needed at %s", n.OD, units.FormatNanometres(n.Wavelength))
 			}
 			out = append(out, budget.Finding{Severity: budget.SeverityAction, Kind: FindingEyewearGap, Message: msg})
 		}
@@ -815,21 +816,4 @@ func segmentName(p *setup.Path, seg budget.Segment) string {
 		return fmt.Sprintf("from the start to element 1 (%s)", units.FormatLength(seg.To))
 	}
 	return fmt.Sprintf("between elements %d and %d (%s to %s)", seg.After, seg.After+1, units.FormatLength(seg.From), units.FormatLength(seg.To))
-}
-
-// FormatRatio writes a ratio to its limit to three figures, rounded up.
-func FormatRatio(r float64) string { return units.FormatNumber(limits.RoundUp(r, 3)) }
-
-func fmtNM(λ float64) string { return fmt.Sprintf("%s nm", units.FormatNumber(λ*1e9)) }
-
-// FormatDistance writes a hazard distance, m; one past MaxHazardDistance
-// (+Inf) is "beyond 100 km": too far to matter on any site.
-func FormatDistance(d float64) string {
-	if math.IsInf(d, 1) || d > MaxHazardDistance {
-		return fmt.Sprintf("beyond %s", units.FormatLength(MaxHazardDistance))
-	}
-	if d == 0 {
-		return "0 m"
-	}
-	return units.FormatLength(d)
 }

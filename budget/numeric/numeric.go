@@ -245,3 +245,17 @@ func SimplexMin(f func([3]float64) float64, x0 [3]float64, step, ftol float64, s
 	}
 	return x[0], fx[0]
 }
+
+// RoundUp rounds v > 0 up to n significant figures.
+func RoundUp(v float64, n int) float64 {
+	if v <= 0 || math.IsInf(v, 0) || math.IsNaN(v) {
+		return v
+	}
+	e := math.Floor(math.Log10(v)) - float64(n-1)
+	s := math.Pow(10, e)
+	r := math.Ceil(v/s-1e-9) * s
+	if r < v {
+		r += s
+	}
+	return r
+}

@@ -149,3 +149,14 @@ func TestSimplexMinStopsAtLimit(t *testing.T) {
 		t.Errorf("%d evaluations with a limit of 50 on an unbounded function", evals)
 	}
 }
+
+// RoundUp never rounds down, and rounds to n significant figures: by hand,
+// 502.6265 → 503, 1.0001 → 1.01, 999.01 → 1000, 0.012341 → 0.0124; a value
+// already at n figures stays (common practice for hazard figures: round up).
+func TestRoundUp(t *testing.T) {
+	for _, c := range []struct{ v, want float64 }{{502.6265, 503}, {1.0001, 1.01}, {999.01, 1000}, {0.012341, 0.0124}, {2.5, 2.5}, {1000, 1000}} {
+		if r := RoundUp(c.v, 3); r < c.v || math.Abs(r-c.want) > 1e-12*c.want {
+			t.Errorf("RoundUp(%g, 3) = %g, want %g", c.v, r, c.want)
+		}
+	}
+}

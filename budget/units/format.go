@@ -1,6 +1,7 @@
 package units
 
 import (
+	"beamledger/budget/numeric"
 	"bytes"
 	"fmt"
 	"math"
@@ -91,3 +92,25 @@ func Decibels(ratio float64) float64 { return 10 * math.Log10(ratio) }
 // FormatWavelength writes a wavelength, m, in nm to 0.01 nm ("780.24 nm"),
 // as the path headings print it.
 func FormatWavelength(λ float64) string { return fmt.Sprintf("%.2f nm", λ*1e9) }
+
+// FormatRatio writes a ratio to its limit (exposure ÷ MPE) to three
+// significant figures, rounded up: a hazard figure never reads lower than
+// it is.
+func FormatRatio(r float64) string { return FormatNumber(numeric.RoundUp(r, 3)) }
+
+// FormatNanometres writes a wavelength in nm to four significant figures,
+// trailing zeros trimmed ("780.2 nm", "1064 nm").
+func FormatNanometres(λ float64) string { return FormatNumber(λ*1e9) + " nm" }
+
+// FormatDistance writes a hazard distance d, m, where searched is how far
+// the search for it went: a distance past it (or +Inf) is "beyond" that
+// distance, and zero is "0 m".
+func FormatDistance(d, searched float64) string {
+	if math.IsInf(d, 1) || d > searched {
+		return "beyond " + FormatLength(searched)
+	}
+	if d == 0 {
+		return "0 m"
+	}
+	return FormatLength(d)
+}

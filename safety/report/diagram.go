@@ -247,12 +247,12 @@ func pathBands(pb, own *budget.PathBudget, ratio map[int]float64, escaping map[*
 		case a.line == b.line && b.col > a.col:
 			seg(a.line, x(a.col)+glyphHalf, x(b.col)-glyphHalf)
 			if r > 1 {
-				add(a.line, text((x(a.col)+x(b.col))/2, yc-1.6, noteSize, "middle", "×"+safety.FormatRatio(r)))
+				add(a.line, text((x(a.col)+x(b.col))/2, yc-1.6, noteSize, "middle", "×"+units.FormatRatio(r)))
 			}
 		case a.line == b.line:
 			seg(a.line, x(b.col)+glyphHalf, x(a.col)-glyphHalf)
 			if r > 1 {
-				add(a.line, text((x(a.col)+x(b.col))/2, yc-1.6, noteSize, "middle", "×"+safety.FormatRatio(r)))
+				add(a.line, text((x(a.col)+x(b.col))/2, yc-1.6, noteSize, "middle", "×"+units.FormatRatio(r)))
 			}
 		case stops[i].fold:
 			// The return pass leaves the tall retro mirror on the line
@@ -260,7 +260,7 @@ func pathBands(pb, own *budget.PathBudget, ratio map[int]float64, escaping map[*
 			seg(b.line, x(b.col)+glyphHalf, x(a.col)-0.8)
 			add(b.line, text(x(b.col)+glyphHalf+0.5, yc+3.6, noteSize, "start", "return pass"))
 			if r > 1 {
-				add(b.line, text((x(a.col)+x(b.col))/2, yc-1.6, noteSize, "middle", "×"+safety.FormatRatio(r)))
+				add(b.line, text((x(a.col)+x(b.col))/2, yc-1.6, noteSize, "middle", "×"+units.FormatRatio(r)))
 			}
 		case goingLeft[i]:
 			// A return pass reaching the left edge: it runs off there and

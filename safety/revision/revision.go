@@ -458,10 +458,10 @@ func hazardEntries(a *safety.Assessment, ids *idMap, old bool) map[string]entry 
 		}
 		what := fmt.Sprintf("path %q %s, laser %q", path, where, e.Laser.Laser.Name)
 		figs := map[string]float64{"eye_ratio": e.CombinedEyeRatio, "skin_ratio": e.CombinedSkinRatio, "od": e.OD}
-		text := fmt.Sprintf("eye %s × MPE, skin %s × MPE, OD %g", safety.FormatRatio(e.CombinedEyeRatio), safety.FormatRatio(e.CombinedSkinRatio), e.OD)
+		text := fmt.Sprintf("eye %s × MPE, skin %s × MPE, OD %g", units.FormatRatio(e.CombinedEyeRatio), units.FormatRatio(e.CombinedSkinRatio), e.OD)
 		if e.OpenEnd {
 			figs["nohd_m"] = e.NOHD
-			text += ", open end, NOHD " + safety.FormatDistance(e.NOHD)
+			text += ", open end, NOHD " + units.FormatDistance(e.NOHD, safety.MaxHazardDistance)
 		}
 		out["seg|"+what] = entry{"open_segment", what, text, figs}
 	}
@@ -470,10 +470,10 @@ func hazardEntries(a *safety.Assessment, ids *idMap, old bool) map[string]entry 
 		what := fmt.Sprintf("path %q, element %s, laser %q", path, ids.id(old, path, rf.Element.Index), rf.Laser.Laser.Name)
 		kind := map[safety.ReflectionKind]string{safety.ReflectionStray: "stray_reflection", safety.ReflectionEscaping: "escaping_beam", safety.ReflectionDiffuse: "diffuse_zone"}[rf.Kind]
 		figs := map[string]float64{"eye_ratio": rf.Ratio, "od": rf.OD}
-		text := fmt.Sprintf("%s × the eye MPE, OD %g", safety.FormatRatio(rf.Ratio), rf.OD)
+		text := fmt.Sprintf("%s × the eye MPE, OD %g", units.FormatRatio(rf.Ratio), rf.OD)
 		if kind == "diffuse_zone" {
 			figs = map[string]float64{"radius_m": rf.Radius}
-			text = "zone radius " + safety.FormatDistance(rf.Radius)
+			text = "zone radius " + units.FormatDistance(rf.Radius, safety.MaxHazardDistance)
 		}
 		out[kind+"|"+what] = entry{kind, what, text, figs}
 	}

@@ -264,10 +264,10 @@ func (b *builder) exposureRecord(e *safety.Exposure) Record {
 	case math.IsInf(e.NOHD, 1):
 		r.F(Absent(dNohdM, false))
 		r.F(Len(dNohdBeyondM, safety.MaxHazardDistance))
-		nohd = safety.FormatDistance(e.NOHD)
+		nohd = units.FormatDistance(e.NOHD, safety.MaxHazardDistance)
 	default:
-		r.F(Num(dNohdM, e.NOHD, safety.FormatDistance(e.NOHD)))
-		nohd = safety.FormatDistance(e.NOHD)
+		r.F(Num(dNohdM, e.NOHD, units.FormatDistance(e.NOHD, safety.MaxHazardDistance)))
+		nohd = units.FormatDistance(e.NOHD, safety.MaxHazardDistance)
 	}
 	r.F(Field{d: dSegment, Kind: String, Text: segLabel(e), People: true}).
 		F(Field{d: dNohd, Kind: String, Text: nohd, People: true})
@@ -342,7 +342,7 @@ func (b *builder) reflectionRecord(rf *safety.Reflection) Record {
 		r.F(Absent(dApertureIrradianceWM22, false)).
 			F(Absent(dRatio2, false)).
 			F(Absent(dOdRequired2, false)).
-			F(Num(dHazardRadiusM, rf.Radius, safety.FormatDistance(rf.Radius)))
+			F(Num(dHazardRadiusM, rf.Radius, units.FormatDistance(rf.Radius, safety.MaxHazardDistance)))
 	}
 	// A diffuse zone sits at a dump, or where an open end's beam lands.
 	where := make([]byte, 0, 64)

@@ -118,11 +118,11 @@ func Limits(l *safety.LimitsLookup) *Doc {
 			r.Line("  class: not assessed for pulsed emission")
 		}
 		if l.NOHD > safety.MaxHazardDistance {
-			r.F(Num(dNohdBeyondM2, safety.MaxHazardDistance, safety.FormatDistance(l.NOHD)))
-			r.F(Field{d: dNohd2, Kind: String, Text: safety.FormatDistance(l.NOHD), People: true})
+			r.F(Num(dNohdBeyondM2, safety.MaxHazardDistance, units.FormatDistance(l.NOHD, safety.MaxHazardDistance)))
+			r.F(Field{d: dNohd2, Kind: String, Text: units.FormatDistance(l.NOHD, safety.MaxHazardDistance), People: true})
 		} else {
-			r.F(Num(dNohdM2, l.NOHD, safety.FormatDistance(l.NOHD)))
-			r.F(Field{d: dNohd2, Kind: String, Text: safety.FormatDistance(l.NOHD) + " (rounded up)", People: true})
+			r.F(Num(dNohdM2, l.NOHD, units.FormatDistance(l.NOHD, safety.MaxHazardDistance)))
+			r.F(Field{d: dNohd2, Kind: String, Text: units.FormatDistance(l.NOHD, safety.MaxHazardDistance) + " (rounded up)", People: true})
 		}
 		r.F(Num(dOdRequired4, l.ODRequired, fmt.Sprintf("%g", l.ODRequired))).
 			F(Irr(dExitApertureIrradianceWM2, l.ExitIrr))
