@@ -505,16 +505,11 @@ func (res *pathHazardResult) stray(pb *budget.PathBudget, ll *LaserLimits, r *bu
 	if assumed {
 		res.strayDefault[el] = true
 	}
-	pr := R * p
-	irr := apertureIrradiance(r.BeamIn, pr, ll.EyeAperture)
-	ref := &Reflection{Path: pb, Element: el, Kind: ReflectionStray, Reflectance: R, Assumed: assumed, Surfaces: surfaces,
-		Power: pr, Irradiance: irr, Ratio: irr / ll.EyeIrradiance, Laser: ll}
-	ref.OD = limits.OpticalDensity(ref.Ratio)
-	if ref.Ratio > 1 {
-		res.reflections = append(res.reflections, ref)
+	ref := res.leaving(pb, ll, r, &Reflection{Kind: ReflectionStray, Reflectance: R, Assumed: assumed, Surfaces: surfaces, Power: R * p})
+	if ref != nil {
 		res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingStray, Path: pb.Path.Name,
 			Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s%s): each of its %d surface(s) reflects %s (R = %g%s), %.3g × the eye MPE at the surface; block or enclose the back-reflection",
-				el.Index, el.Label(), beamNote(pb), surfaces, units.FormatPower(pr), R, assumedNote(assumed), ref.Ratio)}.Figure(irr, ll.EyeIrradiance, "W/m2"))
+				el.Index, el.Label(), beamNote(pb), surfaces, units.FormatPower(ref.Power), R, assumedNote(assumed), ref.Ratio)}.Figure(ref.Irradiance, ll.EyeIrradiance, "W/m2"))
 	}
 }
 
@@ -528,18 +523,30 @@ func (res *pathHazardResult) escaping(pb *budget.PathBudget, ll *LaserLimits, r 
 		}
 		what := map[string]string{budget.LossMirror: "leaks through the mirror", budget.LossDiffraction: "leaves in the undiffracted (and other) orders",
 			budget.LossCombiner: "leaves the combiner's other port"}[l.Kind]
-		pl := l.Fraction * pb.Laser.Power
-		irr := apertureIrradiance(r.BeamIn, pl, ll.EyeAperture)
-		ref := &Reflection{Path: pb, Element: el, Kind: ReflectionEscaping, Reflectance: l.Fraction / r.FractionIn, Surfaces: 1,
-			Power: pl, Irradiance: irr, Ratio: irr / ll.EyeIrradiance, Laser: ll}
-		ref.OD = limits.OpticalDensity(ref.Ratio)
-		if ref.Ratio > 1 {
-			res.reflections = append(res.reflections, ref)
+		ref := res.leaving(pb, ll, r, &Reflection{Kind: ReflectionEscaping, Reflectance: l.Fraction / r.FractionIn, Surfaces: 1, Power: l.Fraction * pb.Laser.Power})
+		if ref != nil {
 			res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingEscaping, Path: pb.Path.Name,
 				Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s%s): %s %s, %s × the eye MPE; describe where it goes or end it in a rated dump",
-					el.Index, el.Label(), beamNote(pb), units.FormatPower(pl), what, units.FormatRatio(ref.Ratio))}.Figure(irr, ll.EyeIrradiance, "W/m2"))
+					el.Index, el.Label(), beamNote(pb), units.FormatPower(ref.Power), what, units.FormatRatio(ref.Ratio))}.Figure(ref.Irradiance, ll.EyeIrradiance, "W/m2"))
 		}
 	}
+}
+
+// leaving judges light that leaves the path at row r's element with the
+// beam's size there (a surface's reflection, a mirror's leak, an unused
+// order): ref gives its kind, reflectance, surfaces and power; leaving fills
+// in the aperture-averaged irradiance, the ratio to the eye MPE and the OD,
+// and records and returns it when it is above the MPE (nil otherwise).
+func (res *pathHazardResult) leaving(pb *budget.PathBudget, ll *LaserLimits, r *budget.Row, ref *Reflection) *Reflection {
+	ref.Path, ref.Element, ref.Laser = pb, r.Element, ll
+	ref.Irradiance = apertureIrradiance(r.BeamIn, ref.Power, ll.EyeAperture)
+	ref.Ratio = ref.Irradiance / ll.EyeIrradiance
+	ref.OD = limits.OpticalDensity(ref.Ratio)
+	if !(ref.Ratio > 1) {
+		return nil
+	}
+	res.reflections = append(res.reflections, ref)
+	return ref
 }
 
 func assumedNote(assumed bool) string {
