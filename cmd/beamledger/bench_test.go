@@ -8,7 +8,7 @@ import (
 
 	"beamledger/budget/setup"
 	"beamledger/safety"
-	"beamledger/safety/render"
+	"beamledger/safety/view"
 )
 
 // benchCheck runs what `check` does, minus process start: load, evaluate,
@@ -28,7 +28,7 @@ func benchCheck(b *testing.B, file string) {
 		if err != nil {
 			b.Fatal(err)
 		}
-		if err := render.Text(io.Discard, a); err != nil {
+		if err := view.Text(io.Discard, a); err != nil {
 			b.Fatal(err)
 		}
 	}

@@ -8,7 +8,7 @@ import (
 	"beamledger/budget/drive"
 	"beamledger/budget/setup"
 	"beamledger/safety"
-	"beamledger/safety/render"
+	"beamledger/safety/view"
 )
 
 type checkOptions struct {
@@ -80,9 +80,9 @@ func (e *env) runCheck(o *checkOptions) error {
 		return err
 	}
 	if o.json {
-		err = render.JSON(e.stdout, a)
+		err = view.JSON(e.stdout, a)
 	} else {
-		err = render.Text(e.stdout, a)
+		err = view.Text(e.stdout, a)
 	}
 	if err != nil {
 		return err

@@ -28,8 +28,8 @@ func runCLI(t *testing.T, args ...string) (stdout, stderr string, code int) {
 func noInterrupts() (<-chan os.Signal, func()) { return nil, func() {} }
 
 // Every shipped example has a known exit status, and check prints exactly
-// the renderer's golden text and JSON (safety/render/testdata/golden, which
-// go test ./safety/render -update rewrites).
+// the renderer's golden text and JSON (safety/view/testdata/golden, which
+// go test ./safety/view -update rewrites).
 func TestCheckGolden(t *testing.T) {
 	t.Chdir("../..")
 	files, err := filepath.Glob("testdata/examples/*.toml")
@@ -62,7 +62,7 @@ func TestCheckGolden(t *testing.T) {
 				if got != code {
 					t.Errorf("%v: exit %d, want %d (stderr %q)", args, got, code, errOut)
 				}
-				safetytest.Golden(t, filepath.Join("safety", "render", "testdata", "golden", base+c.ext), out, false)
+				safetytest.Golden(t, filepath.Join("safety", "view", "testdata", "golden", base+c.ext), out, false)
 			}
 		})
 	}

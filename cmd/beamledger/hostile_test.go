@@ -16,9 +16,9 @@ import (
 
 	"beamledger/budget/setup/synth"
 	"beamledger/safety"
-	"beamledger/safety/render"
 	"beamledger/safety/report"
 	"beamledger/safety/safetytest"
+	"beamledger/safety/view"
 )
 
 // Every file in testdata/hostile is a setup that must be accepted and must
@@ -136,10 +136,10 @@ func TestNoNonFiniteOutput(t *testing.T) {
 func checkFiniteOutputs(t *testing.T, a *safety.Assessment, data []byte) {
 	t.Helper()
 	var text, js, model bytes.Buffer
-	if err := render.Text(&text, a); err != nil {
+	if err := view.Text(&text, a); err != nil {
 		t.Fatal(err)
 	}
-	if err := render.JSON(&js, a); err != nil {
+	if err := view.JSON(&js, a); err != nil {
 		t.Fatalf("JSON: %v", err)
 	}
 	doc := report.Build(a, report.Meta{Date: "2026-01-02", ToolVersion: "test", SetupBytes: data})

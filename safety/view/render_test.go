@@ -1,4 +1,4 @@
-package render
+package view
 
 import (
 	"encoding/json"
@@ -51,7 +51,7 @@ var nonFiniteWord = regexp.MustCompile(`\b(NaN|[+-]?Inf)\b`)
 var update = flag.Bool("update", false, "rewrite the golden files under testdata/golden")
 
 // The text and JSON of every shipped example against their golden files
-// (go test ./safety/render -update rewrites them; read the diff).
+// (go test ./safety/view -update rewrites them; read the diff).
 func TestGolden(t *testing.T) {
 	safetytest.ForEachExample(t, "../..", func(t *testing.T, base, f string) {
 		data, err := os.ReadFile(f)
