@@ -15,8 +15,29 @@ func (l *loader) link(s *Setup) {
 	lasers := uniqueNames(l, "laser", s.Lasers, func(x *Laser) (string, int) { return x.Name, x.Line })
 	clouds := uniqueNames(l, "cloud", s.Clouds, func(x *Cloud) (string, int) { return x.Name, x.Line })
 	uniqueNames(l, "eyewear", s.Eyewear, func(x *Eyewear) (string, int) { return x.Name, x.Line })
-	paths := map[string]*Path{}
 	locs := pathLocs(s)
+	paths := l.checkPaths(s, clouds, locs)
+	// Each step needs the ones before it to have found nothing.
+	steps := []func(){
+		func() { l.linkSources(s, lasers, paths, locs) },
+		func() { l.linkLasers(s, locs) },
+		func() { l.linkInto(s, paths, locs) },
+		func() { l.checkPerLaser(s, lasers, locs); l.checkClouds(s, lasers, locs) },
+		func() { l.checkDetunings(s, clouds, locs) },
+	}
+	for _, step := range steps {
+		if len(l.problems) > 0 {
+			return
+		}
+		step()
+	}
+}
+
+// checkPaths indexes the paths by name and checks each path's own
+// elements: unique names, positions in order, a window no thicker than the
+// gap after it, clouds that exist, nothing after a dump.
+func (l *loader) checkPaths(s *Setup, clouds map[string]*Cloud, locs map[*Path]int) map[string]*Path {
+	paths := map[string]*Path{}
 	for _, p := range s.Paths {
 		ctx := fmt.Sprintf("path %q", p.Name)
 		if prev, dup := paths[p.Name]; dup {
@@ -58,10 +79,12 @@ func (l *loader) link(s *Setup) {
 			}
 		}
 	}
-	if len(l.problems) > 0 {
-		return
-	}
-	// Resolve sources: a laser name or "<path>:<splitter>".
+	return paths
+}
+
+// linkSources resolves each path's source: a laser name or
+// "<path>:<splitter>"; one output feeds one path.
+func (l *loader) linkSources(s *Setup, lasers map[string]*Laser, paths map[string]*Path, locs map[*Path]int) {
 	fedBy := map[string]*Path{} // laser name or path:element -> path it feeds
 	for _, p := range s.Paths {
 		ctx := fmt.Sprintf("path %q", p.Name)
@@ -89,13 +112,13 @@ func (l *loader) link(s *Setup) {
 			p.Parent, p.ParentPort = parent, port
 		}
 	}
-	if len(l.problems) > 0 {
-		return
-	}
-	// Follow each path's parents to its laser; a cycle never reaches one.
-	// One walk over the parent links (each path has at most one parent), so
-	// the work is linear in the number of paths and each cycle is reported
-	// once, at the path of the cycle that comes first in the file.
+}
+
+// linkLasers follows each path's parents to its laser; a cycle never
+// reaches one. One walk over the parent links (each path has at most one
+// parent), so the work is linear in the number of paths and each cycle is
+// reported once, at the path of the cycle that comes first in the file.
+func (l *loader) linkLasers(s *Setup, locs map[*Path]int) {
 	const (
 		unvisited = iota
 		onWalk
@@ -137,18 +160,13 @@ func (l *loader) link(s *Setup) {
 			w.Laser = las
 		}
 	}
-	if len(l.problems) > 0 {
-		return
-	}
-	l.linkInto(s, paths, locs)
-	if len(l.problems) > 0 {
-		return
-	}
-	l.checkPerLaser(s, lasers, locs)
-	l.checkClouds(s, lasers, locs)
-	if len(l.problems) > 0 {
-		return
-	}
+}
+
+// checkDetunings checks, at every atoms element on a known transition, that
+// a stated detuning agrees with the wavelengths (checkDetuning); the message
+// names the element, or the laser when the laser's detuning is the one
+// stated.
+func (l *loader) checkDetunings(s *Setup, clouds map[string]*Cloud, locs map[*Path]int) {
 	laserLocs := make(map[*Laser]int, len(s.Lasers))
 	for i, las := range s.Lasers {
 		laserLocs[las] = i
