@@ -31,24 +31,24 @@ func (b *builder) atomsRecord(a *drive.AtomsResult) Record {
 	las := a.Path.Laser
 	wx, wy := a.Row.BeamIn.Radii()
 	r := Record{Members: b.members(40)}
-	r.F(Str(dPath, a.Path.Path.Name)).F(Whole(dElement2, e.Index)).
-		F(Str(dCloud, a.Cloud.Name)).F(Str(dTransition, tr.Name)).
-		F(Len(dAtM, e.At)).
-		F(Pow(dPowerW4, a.Power)).
-		F(Len(dRadiusXM, wx)).F(Len(dRadiusYM, wy)).
-		F(Irr(dPeakIrradianceWM2, a.PeakIrradiance)).
+	r.F(Str(dPathRef, a.Path.Path.Name)).F(Whole(dElementRef, e.Index)).
+		F(Str(dCloud, a.Cloud.Name)).F(Str(dTransitionName, tr.Name)).
+		F(Len(dElementAtM, e.At)).
+		F(Pow(dAtomsResultPowerW, a.Power)).
+		F(Len(dRowRadiusXM, wx)).F(Len(dRowRadiusYM, wy)).
+		F(Irr(dAtomsResultPeakIrradianceWM2, a.PeakIrradiance)).
 		F(Num(dIrradianceAtRmsXRelative, a.EdgeRelative[0], fixed(100*a.EdgeRelative[0], 1, " %"))).
 		F(Num(dIrradianceAtRmsYRelative, a.EdgeRelative[1], fixed(100*a.EdgeRelative[1], 1, " %")))
 	r.F(NumRows(dRadiusAtCloudEndsM, [][]float64{a.EndRadii[0][:], a.EndRadii[1][:]}, fmt.Sprintf("%s × %s and %s × %s", units.FormatLength(a.EndRadii[0][0]), units.FormatLength(a.EndRadii[0][1]), units.FormatLength(a.EndRadii[1][0]), units.FormatLength(a.EndRadii[1][1]))))
 	r.F(Field{d: dFocusX, Kind: Number, SI: a.FocusOffset[0], Text: units.FormatLength(a.FocusOffset[0]), People: true}).
 		F(Field{d: dFocusY, Kind: Number, SI: a.FocusOffset[1], Text: units.FormatLength(a.FocusOffset[1]), People: true})
-	r.F(hzField(dDetuningHz, a.Detuning)).
+	r.F(hzField(dAtomsResultDetuningHz, a.Detuning)).
 		F(Str(dDetuningSource, a.DetuningSource)).
 		F(Irr(dSaturationIntensityWM2, a.Isat)).
 		F(Str(dSaturationIntensityKind, a.IsatNote)).
 		F(num(dSaturation, a.Saturation)).
 		F(hzField(dRabiFrequencyHz, a.Rabi)).
-		F(num(dScatteringRatePerS, a.ScatteringRate)).
+		F(num(dAtomsResultScatteringRatePerS, a.ScatteringRate)).
 		F(num(dCrossSectionM2, a.CrossSection)).
 		F(num(dOpticalDepth, a.OpticalDepth)).
 		F(Flag(dFarDetuned, a.FarDetuned, yesNo(a.FarDetuned)))
@@ -61,7 +61,7 @@ func (b *builder) atomsRecord(a *drive.AtomsResult) Record {
 		depth := math.Max(0, -d.Depth/kB) // a repulsive beam makes no trap
 		r.F(Num(dDipolePotentialK, d.Depth/kB, units.FormatSI(d.Depth/kB, "K"))).
 			F(Num(dDipolePotentialHz, d.Depth/hPlanck, units.FormatFrequency(d.Depth/hPlanck))).
-			F(Num(dTrapDepthK, depth, units.FormatSI(depth, "K"))).
+			F(Num(dDipoleResultTrapDepthK, depth, units.FormatSI(depth, "K"))).
 			F(hzField(dTrapFrequencyRadialHz, math.Sqrt(d.TrapX*d.TrapY))).
 			F(hzField(dTrapFrequencyXHz, d.TrapX)).
 			F(hzField(dTrapFrequencyYHz, d.TrapY)).
@@ -143,7 +143,7 @@ func (b *builder) atomsRecord(a *drive.AtomsResult) Record {
 
 func (b *builder) goalRecord(a *drive.AtomsResult, g *drive.GoalResult) *Record {
 	r := &Record{Members: b.members(20)}
-	r.F(Str(dKind2, g.Kind))
+	r.F(Str(dGoalResultKind, g.Kind))
 	switch g.Kind {
 	case setup.GoalRabi, setup.GoalCollective:
 		r.F(Num(dTargetSi, g.Target, hz(g.Target))) // Ω in rad/s
@@ -155,24 +155,24 @@ func (b *builder) goalRecord(a *drive.AtomsResult, g *drive.GoalResult) *Record 
 	if g.Impossible == "" {
 		r.F(Irr(dIrradianceNeededWM2, g.Intensity)).
 			F(Pow(dPowerAtAtomsW, g.PowerAtAtoms)).
-			F(Pow(dSourcePowerW, g.SourcePower))
+			F(Pow(dGoalResultSourcePowerW, g.SourcePower))
 	} else {
 		r.F(Absent(dIrradianceNeededWM2, false)).
 			F(Absent(dPowerAtAtomsW, false)).
-			F(Absent(dSourcePowerW, false))
+			F(Absent(dGoalResultSourcePowerW, false))
 	}
 	r.F(Pow(dAvailableSourcePowerW, g.Available))
 	if g.Impossible == "" {
-		r.F(Num(dMarginDb, g.MarginDB, fmt.Sprintf("%+.1f dB", g.MarginDB)))
+		r.F(Num(dGoalResultMarginDb, g.MarginDB, fmt.Sprintf("%+.1f dB", g.MarginDB)))
 	} else {
-		r.F(Absent(dMarginDb, false))
+		r.F(Absent(dGoalResultMarginDb, false))
 	}
 	verdict := "met"
 	if !g.Met {
 		verdict = "NOT met"
 	}
-	r.F(Flag(dMet, g.Met, verdict))
-	r.F(Field{d: dImpossible, Kind: String, Text: g.Impossible, OmitEmpty: true})
+	r.F(Flag(dGoalResultMet, g.Met, verdict))
+	r.F(Field{d: dGoalResultImpossible, Kind: String, Text: g.Impossible, OmitEmpty: true})
 	if g.Kind != setup.GoalTrapDepth {
 		r.F(Str(dGoalAt, g.At))
 		where := map[string]string{setup.GoalAtCentre: "at the cloud centre, reached through the atoms in front of it", setup.GoalAtExit: "at the cloud's exit (+2 rms, the weakest-driven end), reached through the atoms in front of it"}[g.At]
@@ -193,7 +193,7 @@ func (b *builder) goalRecord(a *drive.AtomsResult, g *drive.GoalResult) *Record 
 		r.Line("  goal: trap depth U/k_B = {target_si}")
 	case setup.GoalCollective:
 		c := g.Collective
-		r.F(num(dGoalFactor, g.Factor)).
+		r.F(num(dGoalResultGoalFactor, g.Factor)).
 			F(hzField(dThresholdRabiFrequencyHz, c.OmegaC)).
 			F(hzField(dThresholdRabiFrequencyLowHz, c.OmegaCLow)).
 			F(num(dThresholdSaturation, c.SatC)).
@@ -237,7 +237,7 @@ func toleranceRecord(gt *drive.GoalTolerance) *Record {
 		F(Field{d: dSeed, Kind: Int, SI: float64(gt.Seed), Text: strconv.FormatUint(gt.Seed, 10)}).
 		F(Num(dProbabilityMet, gt.ProbabilityMet, fixed(100*gt.ProbabilityMet, 1, " %"))).
 		F(db(dMarginNominal, gt.Nominal)).
-		F(db(dMarginP05, gt.P05)).F(db(dMarginP50, gt.P50)).F(db(dMarginP95, gt.P95)).
+		F(db(dGoalToleranceMarginDbP05, gt.P05)).F(db(dGoalToleranceMarginDbP50, gt.P50)).F(db(dGoalToleranceMarginDbP95, gt.P95)).
 		F(db(dMarginWorst, gt.Worst))
 	cl := &List{Key: "contributors"}
 	var top []string
@@ -248,8 +248,8 @@ func toleranceRecord(gt *drive.GoalTolerance) *Record {
 		if in.Laser < 0 {
 			path, idx = in.PathName, in.Element+1
 		}
-		cr.F(Str(dContribPath, path)).F(Whole(dElementIndex2, idx)).F(Str(dContribKey, in.Key)).F(Str(dContribLabel, in.Label)).
-			F(Num(dShare2, c.Share, fixed(100*c.Share, 0, " %")))
+		cr.F(Str(dContribPath, path)).F(Whole(dTolerancedElementIndex, idx)).F(Str(dContribKey, in.Key)).F(Str(dContribLabel, in.Label)).
+			F(Num(dContributorShare, c.Share, fixed(100*c.Share, 0, " %")))
 		cl.Records = append(cl.Records, cr)
 		if i < 3 {
 			top = append(top, fmt.Sprintf("%s (%s)", in.Label, fixed(100*c.Share, 0, " %")))

@@ -133,9 +133,9 @@ func (b *builder) pathRecord(pb *budget.PathBudget) Record {
 	}
 	sx, sy := pb.Start.Radii()
 	startP := pb.StartFraction * op
-	r.F(Str(dName2, p.Name)).F(Str(dFrom, p.From)).F(Str(dLaser, las.Name)).
-		F(Num(dWavelengthM4, las.Wavelength, units.FormatWavelength(las.Wavelength))).
-		F(Pow(dOperatingPowerW, op)).
+	r.F(Str(dPathName, p.Name)).F(Str(dFrom, p.From)).F(Str(dLaserRef, las.Name)).
+		F(Num(dLaserWavelengthM, las.Wavelength, units.FormatWavelength(las.Wavelength))).
+		F(Pow(dLaserOperatingPowerW, op)).
 		F(Pow(dMaxPowerW, las.Power)).
 		F(Pow(dStartPowerW, startP)).
 		F(Len(dStartRadiusXM, sx)).
@@ -157,10 +157,10 @@ func (b *builder) pathRecord(pb *budget.PathBudget) Record {
 		if jb.Combiner != nil {
 			how = "at combiner " + strconv.Quote(jb.Combiner.Label())
 		}
-		jr.F(Str(dLaser3, jb.Laser.Name)).
-			F(Num(dWavelengthM5, jb.Laser.Wavelength, units.FormatWavelength(jb.Laser.Wavelength))).
+		jr.F(Str(dPathBudgetLaser, jb.Laser.Name)).
+			F(Num(dLaserLambdaM, jb.Laser.Wavelength, units.FormatWavelength(jb.Laser.Wavelength))).
 			F(Len(dJoinedAtM, jb.JoinedAt)).
-			F(Pow(dOperatingPowerW2, jop)).
+			F(Pow(dLaserOperatingPowerW, jop)).
 			F(Field{d: dJoinedHow, Kind: String, Text: how, People: true})
 		jr.Line("beam of laser {laser} ({wavelength_m}, operating power {operating_power_w}) joins at {joined_at_m}, {how}:")
 		jr.L(b.elementsList(jb, jop, "joins"))
@@ -173,7 +173,7 @@ func (b *builder) pathRecord(pb *budget.PathBudget) Record {
 	} else {
 		r.F(Absent(dInto, true)).F(Absent(dIntoAtM, true))
 	}
-	r.F(Flag(dOpenEnd2, pb.OpenEnd, yesNo(pb.OpenEnd)))
+	r.F(Flag(dPathBudgetOpenEnd, pb.OpenEnd, yesNo(pb.OpenEnd)))
 	endP := pb.EndFraction * op
 	r.F(Pow(dEndPowerW, endP))
 	if pb.OpenEnd {
@@ -205,14 +205,14 @@ func (b *builder) elementsList(pb *budget.PathBudget, op float64, lead string) *
 	startP := pb.StartFraction * op
 	els := &List{Key: "elements", Columns: []string{"index", "element", "at_m", "radius_x_m", "radius_y_m", "power_in_w", "power_out_w", "peak_irradiance_w_m2", "cumulative_loss_db", "losses_here"}, Left: 2, Indent: 1, Records: make([]Record, 0, len(pb.Rows))}
 	lr := &Record{Members: b.members(10)}
-	lr.F(Whole(dIndex, 0)).F(Field{d: dElement4, Kind: String, Text: lead, People: true}).
-		F(Field{d: dAtM3, Kind: Number, SI: pb.JoinedAt, Text: startAt(pb.JoinedAt)}).
-		F(Field{d: dRadiusXM2, Kind: Number, SI: sx, Text: units.FormatLength(sx)}).
-		F(Field{d: dRadiusYM2, Kind: Number, SI: sy, Text: units.FormatLength(sy)}).
-		F(Field{d: dPowerInW2, Kind: Number, SI: math.NaN(), Text: ""}).
-		F(Field{d: dPowerOutW2, Kind: Number, SI: startP, Text: units.FormatPower(startP)}).
-		F(Field{d: dPeakIrradianceWM23, Kind: Number, SI: pb.Start.PeakIrradiance(startP), Text: units.FormatIrradiance(pb.Start.PeakIrradiance(startP))}).
-		F(Field{d: dCumulativeLossDb2, Kind: Number, Text: fmtDB(pb.StartFraction)}).
+	lr.F(Whole(dRowIndex, 0)).F(Field{d: dElementLabel, Kind: String, Text: lead, People: true}).
+		F(Field{d: dAtM, Kind: Number, SI: pb.JoinedAt, Text: startAt(pb.JoinedAt)}).
+		F(Field{d: dRadiusXM, Kind: Number, SI: sx, Text: units.FormatLength(sx)}).
+		F(Field{d: dRadiusYM, Kind: Number, SI: sy, Text: units.FormatLength(sy)}).
+		F(Field{d: dPowerInW, Kind: Number, SI: math.NaN(), Text: ""}).
+		F(Field{d: dPowerOutW, Kind: Number, SI: startP, Text: units.FormatPower(startP)}).
+		F(Field{d: dPeakIrradianceWM2, Kind: Number, SI: pb.Start.PeakIrradiance(startP), Text: units.FormatIrradiance(pb.Start.PeakIrradiance(startP))}).
+		F(Field{d: dCumulativeLossDb, Kind: Number, Text: fmtDB(pb.StartFraction)}).
 		F(Field{d: dLossesHere, Kind: String, Text: ""})
 	els.Lead = lr
 	for i := range pb.Rows {
@@ -231,19 +231,19 @@ func (b *builder) elementRecord(row *budget.Row, op float64) Record {
 	}
 	pin, pout := row.FractionIn*op, row.FractionOut*op
 	peak := row.BeamIn.PeakIrradiance(pin)
-	r.F(Whole(dIndex2, e.Index)).F(Str(dName3, e.Name)).
-		F(Str(dType, string(e.Type))).F(Field{d: dElement4, Kind: String, Text: label, People: true}).
-		F(Len(dAtM, e.At)).
-		F(Len(dRadiusXM, wx)).F(Len(dRadiusYM, wy)).
+	r.F(Whole(dElementIndex, e.Index)).F(Str(dElementName, e.Name)).
+		F(Str(dType, string(e.Type))).F(Field{d: dElementLabel, Kind: String, Text: label, People: true}).
+		F(Len(dElementAtM, e.At)).
+		F(Len(dRowRadiusXM, wx)).F(Len(dRowRadiusYM, wy)).
 		F(Plain(dCurvatureXPerM, row.BeamIn.X.Curvature())).
 		F(Plain(dCurvatureYPerM, row.BeamIn.Y.Curvature())).
-		F(Pow(dPowerInW, pin)).
-		F(Pow(dPowerOutW, pout)).
-		F(Irr(dPeakIrradianceWM22, peak))
+		F(Pow(dRowPowerInW, pin)).
+		F(Pow(dRowPowerOutW, pout)).
+		F(Irr(dRowPeakIrradianceWM2, peak))
 	if row.FractionOut > 0 {
-		r.F(Num(dCumulativeLossDb, -units.Decibels(row.FractionOut), fmtDB(row.FractionOut)))
+		r.F(Num(dRowCumulativeLossDb, -units.Decibels(row.FractionOut), fmtDB(row.FractionOut)))
 	} else {
-		r.F(Field{d: dCumulativeLossDb, Kind: Number, SI: math.NaN(), Text: "—"})
+		r.F(Field{d: dRowCumulativeLossDb, Kind: Number, SI: math.NaN(), Text: "—"})
 	}
 	r.F(Plain(dClipTransmission, row.ClipFraction)).
 		F(Flag(dAssumedLossless, row.AssumedLossless, yesNo(row.AssumedLossless)))
@@ -251,7 +251,7 @@ func (b *builder) elementRecord(row *budget.Row, op float64) Record {
 	var here []byte // "kind power, kind power"
 	for _, l := range row.Losses {
 		lr := Record{Members: b.members(2)}
-		lr.F(Str(dKind3, l.Kind)).F(Pow(dPowerW5, l.Fraction*op))
+		lr.F(Str(dLossKind, l.Kind)).F(Pow(dLossPowerW, l.Fraction*op))
 		losses.Records = append(losses.Records, lr)
 		if l.Fraction >= negligibleLoss {
 			here = appendItem(here, l.Kind)
@@ -324,8 +324,8 @@ func (b *builder) balancesList(a *safety.Assessment) *List {
 	for _, bal := range a.Budget.Balances {
 		op := bal.Laser.OperatingPower
 		var r Record
-		r.F(Str(dLaser2, bal.Laser.Name)).
-			F(Pow(dSourcePowerW2, op)).
+		r.F(Str(dLaserBalanceLaser, bal.Laser.Name)).
+			F(Pow(dLaserSourcePowerW, op)).
 			F(Num(dDumpedW, bal.Dumped*op, fmtPct(bal.Dumped))).
 			F(Num(dLeavingW, bal.Leaving*op, fmtPct(bal.Leaving)))
 		lost := &Record{}
@@ -386,20 +386,20 @@ func (b *builder) findingsList(a *safety.Assessment) *List {
 	groups := FindingGroups(a.Findings)
 	for i, f := range a.Findings {
 		r := Record{Members: b.members(11)}
-		r.F(Str(dSeverity, string(f.Severity))).F(Str(dKind4, string(f.Kind))).
-			F(Str(dPath2, f.Path)).F(Whole(dElement3, f.Element)).
-			F(Len(dAtM2, f.At)).F(Str(dMessage, f.Message))
+		r.F(Str(dSeverity, string(f.Severity))).F(Str(dFindingKind, string(f.Kind))).
+			F(Str(dFindingPath, f.Path)).F(Whole(dFindingElement, f.Element)).
+			F(Len(dFindingAtM, f.At)).F(Str(dMessage, f.Message))
 		if f.Unit != "" {
 			r.F(Num(dValueSi, f.Value, withUnit(f.Value, f.Unit))).
 				F(Num(dLimitSi, f.Limit, withUnit(f.Limit, f.Unit))).
 				F(Str(dUnit, f.Unit)).
-				F(Plain(dRatio3, f.Ratio()))
+				F(Plain(dFindingRatio, f.Ratio()))
 		}
 		where := ""
 		if f.Path != "" {
 			where = "path " + strconv.Quote(f.Path) + ": "
 		}
-		r.F(Field{d: dWhere2, Kind: String, Text: where, People: true})
+		r.F(Field{d: dGoalWhereText, Kind: String, Text: where, People: true})
 		switch n := groups[i]; {
 		case n == 1:
 			r.Lines = findingLines

@@ -38,7 +38,7 @@ func lengths(v [3]float64) string {
 func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 	c := cr.Cloud
 	r := Record{Members: b.members(24)}
-	r.F(Str(dName5, c.Name)).F(Str(dTransition2, c.Transition))
+	r.F(Str(dCloudName, c.Name)).F(Str(dCloudTransition, c.Transition))
 	down := "none"
 	if c.Down != [3]float64{} {
 		down = vec(c.Down)
@@ -61,10 +61,10 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 			role = "no light"
 		}
 		br := Record{Members: b.members(8)}
-		br.F(Str(dPath4, at.Path.Path.Name)).F(Whole(dElementIndex, at.Row.Element.Index)).F(Str(dLaser4, at.Path.Laser.Name)).
-			F(Pow(dPowerW6, at.Power)).
+		br.F(Str(dPathRef, at.Path.Path.Name)).F(Whole(dElementIndexRef, at.Row.Element.Index)).F(Str(dLaserRef, at.Path.Laser.Name)).
+			F(Pow(dAtomsResultPowerW, at.Power)).
 			F(NumList(dDirection, cb.Direction[:], vec(cb.Direction))).
-			F(Num(dDetuningHz2, at.Detuning/(2*math.Pi), units.FormatFrequency(at.Detuning/(2*math.Pi)))).
+			F(Num(dAtomsResultDetuningHz, at.Detuning/(2*math.Pi), units.FormatFrequency(at.Detuning/(2*math.Pi)))).
 			F(Field{d: dRole, Kind: String, Text: role, People: true})
 		beams.Records = append(beams.Records, br)
 	}
@@ -77,15 +77,15 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 	t := cr.Trap
 	switch {
 	case t == nil:
-		r.F(Absent(dTrapMinimumOffsetM, false)).F(Absent(dTrapDepthK2, false)).F(Absent(dTrapFrequenciesHz, false)).F(Absent(dTrapAxes, false)).
+		r.F(Absent(dTrapMinimumOffsetM, false)).F(Absent(dTrapTrapDepthK, false)).F(Absent(dTrapFrequenciesHz, false)).F(Absent(dTrapAxes, false)).
 			F(Absent(dGravitySagM, false)).F(Absent(dHoldsAgainstGravity, false)).F(Absent(dForceAtCloudG, false)).F(Absent(dLatticeFrequencyHz, false)).F(Absent(dEscapeDirection, false)).F(Absent(dTrapNote, true))
 		r.After = append(r.After, "  no far-detuned beam: no dipole trap")
 	case t.Skipped != "":
-		r.F(Absent(dTrapMinimumOffsetM, false)).F(Absent(dTrapDepthK2, false)).F(Absent(dTrapFrequenciesHz, false)).F(Absent(dTrapAxes, false)).
+		r.F(Absent(dTrapMinimumOffsetM, false)).F(Absent(dTrapTrapDepthK, false)).F(Absent(dTrapFrequenciesHz, false)).F(Absent(dTrapAxes, false)).
 			F(Absent(dGravitySagM, false)).F(Absent(dHoldsAgainstGravity, false)).F(Absent(dForceAtCloudG, false)).F(Absent(dLatticeFrequencyHz, false)).F(Absent(dEscapeDirection, false)).F(Str(dTrapNote, t.Skipped))
 		r.After = append(r.After, "  trap: not searched for: {trap_note}")
 	case !t.Found:
-		r.F(Absent(dTrapMinimumOffsetM, false)).F(Absent(dTrapDepthK2, false)).F(Absent(dTrapFrequenciesHz, false)).F(Absent(dTrapAxes, false)).
+		r.F(Absent(dTrapMinimumOffsetM, false)).F(Absent(dTrapTrapDepthK, false)).F(Absent(dTrapFrequenciesHz, false)).F(Absent(dTrapAxes, false)).
 			F(Absent(dGravitySagM, false)).F(Flag(dHoldsAgainstGravity, false, "no")).F(Absent(dForceAtCloudG, false)).F(Absent(dLatticeFrequencyHz, false)).F(Absent(dEscapeDirection, false)).F(Absent(dTrapNote, true))
 		r.After = append(r.After, "  trap: the combined potential has no minimum near the cloud (with gravity): the beams do not trap the atoms")
 	default:
@@ -95,7 +95,7 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 		}
 		axes := [][]float64{t.Axes[0][:], t.Axes[1][:], t.Axes[2][:]}
 		r.F(NumList(dTrapMinimumOffsetM, t.Minimum[:], lengths(t.Minimum))).
-			F(Num(dTrapDepthK2, t.Depth/atoms.KB, units.FormatSI(t.Depth/atoms.KB, "K"))).
+			F(Num(dTrapTrapDepthK, t.Depth/atoms.KB, units.FormatSI(t.Depth/atoms.KB, "K"))).
 			F(NumList(dTrapFrequenciesHz, t.Frequencies[:], strings.Join(freqs, ", "))).
 			F(NumRows(dTrapAxes, axes, vec(t.Axes[0])+", "+vec(t.Axes[1])+", "+vec(t.Axes[2]))).
 			F(Len(dGravitySagM, t.Sag)).
@@ -127,7 +127,7 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 		r.F(Num(dDifferentialLightShiftHz, cr.DifferentialShift, units.FormatFrequency(cr.DifferentialShift)))
 		r.After = append(r.After, "  light shift of the ground state {ground_light_shift_hz}, of the transition (excited − ground) {differential_light_shift_hz} at the trap minimum, added to the near-resonant beams' detuning")
 	}
-	r.F(Plain(dSaturationTotal, cr.SaturationTotal)).F(Num(dScatteringRatePerS2, cr.ScatteringRate, fmtG(cr.ScatteringRate)+" photons/s"))
+	r.F(Plain(dSaturationTotal, cr.SaturationTotal)).F(Num(dCloudResultScatteringRatePerS, cr.ScatteringRate, fmtG(cr.ScatteringRate)+" photons/s"))
 	if slices.ContainsFunc(cr.Beams, func(cb *drive.CloudBeam) bool { return cb.Near }) {
 		r.After = append(r.After, "  near-resonant beams at the cloud centre: s = {saturation_total} in all, scattering rate {scattering_rate_per_s} ((Γ/2) s_i/(1 + s_total + 4Δ_i²/Γ²) summed)")
 	}
@@ -138,11 +138,11 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 		for _, las := range g.Lasers {
 			names = append(names, las.Name)
 		}
-		goal.F(Str(dKind6, g.Kind)).F(StrList(dGoalLasers, names))
+		goal.F(Str(dCloudGoalKind, g.Kind)).F(StrList(dGoalLasers, names))
 		if g.Kind == setup.GoalCollective {
-			goal.F(Plain(dGoalFactor2, g.Factor))
+			goal.F(Plain(dCloudGoalGoalFactor, g.Factor))
 		} else {
-			goal.F(Absent(dGoalFactor2, true))
+			goal.F(Absent(dCloudGoalGoalFactor, true))
 		}
 		target := fmtG(g.Target)
 		switch g.Kind {
@@ -155,7 +155,7 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 		}
 		goal.F(Num(dTargetSI, g.Target, target))
 		if g.Impossible != "" {
-			goal.F(Absent(dScaleFactor, false)).F(Absent(dMarginDb2, false)).F(Flag(dMet2, false, "no")).F(Str(dImpossible2, g.Impossible))
+			goal.F(Absent(dScaleFactor, false)).F(Absent(dCloudGoalMarginDb, false)).F(Flag(dCloudGoalMet, false, "no")).F(Str(dCloudGoalImpossible, g.Impossible))
 			r.After = append(r.After, "  goal for the whole cloud: {goal.kind} {goal.target_si}: cannot be met: {goal.impossible}")
 		} else {
 			var needed []string
@@ -163,10 +163,10 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 				needed = append(needed, fmt.Sprintf("%s %s", las.Name, units.FormatPower(g.Needed[i])))
 			}
 			goal.F(Num(dScaleFactor, g.Scale, fmtG(g.Scale))).
-				F(Num(dMarginDb2, g.MarginDB, fmt.Sprintf("%+.1f dB", g.MarginDB))).
-				F(Flag(dMet2, g.Met, map[bool]string{true: "met", false: "NOT met"}[g.Met])).
+				F(Num(dCloudGoalMarginDb, g.MarginDB, fmt.Sprintf("%+.1f dB", g.MarginDB))).
+				F(Flag(dCloudGoalMet, g.Met, map[bool]string{true: "met", false: "NOT met"}[g.Met])).
 				F(NumList(dNeededW, g.Needed, strings.Join(needed, ", "))).
-				F(Absent(dImpossible2, true))
+				F(Absent(dCloudGoalImpossible, true))
 			r.After = append(r.After, "  goal for the whole cloud: {goal.kind} {goal.target_si} scaling {goal.lasers}: factor {goal.scale_factor} on their operating powers ({goal.needed_w}); margin {goal.margin_db}: {goal.met}")
 		}
 	}

@@ -166,18 +166,18 @@ func (b *builder) laserRecord(ll *safety.LaserLimits) Record {
 	if cl == "" {
 		cl = "not assessed"
 	}
-	r.F(Str(dName, las.Name)).
-		F(Nm(dWavelengthM, las.Wavelength)).
-		F(Pow(dPowerW, las.Power)).
+	r.F(Str(dLaserName, las.Name)).
+		F(Nm(dLaserLambdaM, las.Wavelength)).
+		F(Pow(dLaserPowerW, las.Power)).
 		F(Str(dEmission, las.Emission))
 	if ll.Class != "" {
-		r.F(Str(dClass, ll.Class))
+		r.F(Str(dLaserLimitsClass, ll.Class))
 	} else {
-		r.F(Absent(dClass, false))
+		r.F(Absent(dLaserLimitsClass, false))
 	}
 	r.F(Field{d: dClassText, Kind: String, Text: cl, People: true}).
 		F(Str(dClassNote, ll.ClassNote)).
-		F(Sec(dDurationS, ll.Duration)).
+		F(Sec(dLaserLimitsDurationS, ll.Duration)).
 		F(Irr(dEyeMpeIrradianceWM2, ll.EyeIrradiance)).
 		F(Str(dEyeMpeRule, ll.EyeRule)).
 		F(Str(dEyeMpeEffect, ll.Eye.Effect)).
@@ -242,35 +242,35 @@ func classMeaning(c string) string {
 func (b *builder) exposureRecord(e *safety.Exposure) Record {
 	r := Record{Members: b.members(20)}
 	s := e.Segment
-	r.F(Str(dPath, e.Path.Path.Name)).
+	r.F(Str(dPathRef, e.Path.Path.Name)).
 		F(Whole(dAfterElement, s.After)).
 		F(Len(dFromM, s.From)).
 		F(Len(dToM, s.To)).
 		F(Len(dWorstAtM, e.At)).
-		F(Nm(dWavelengthM, e.Path.Laser.Wavelength)).
-		F(Sec(dDurationS, e.Laser.Duration)).
-		F(Pow(dPowerW2, e.Power)).
-		F(Irr(dApertureIrradianceWM2, e.Irradiance)).
-		F(Irr(dMpeIrradianceWM2, e.Laser.EyeIrradiance)).
-		F(Ratio(dRatio, e.Ratio)).
-		F(Plain(dOdRequired, e.OD)).
+		F(Nm(dLaserLambdaM, e.Path.Laser.Wavelength)).
+		F(Sec(dLaserLimitsDurationS, e.Laser.Duration)).
+		F(Pow(dExposurePowerW, e.Power)).
+		F(Irr(dExposureApertureIrradianceWM2, e.Irradiance)).
+		F(Irr(dLaserLimitsMpeIrradianceWM2, e.Laser.EyeIrradiance)).
+		F(Ratio(dExposureRatio, e.Ratio)).
+		F(Plain(dExposureOdRequired, e.OD)).
 		F(Irr(dSkinApertureIrradianceWM2, e.SkinIrr)).
 		F(Ratio(dSkinRatio, e.SkinRatio)).
-		F(Flag(dOpenEnd, e.OpenEnd, yesNo(e.OpenEnd)))
+		F(Flag(dExposureOpenEnd, e.OpenEnd, yesNo(e.OpenEnd)))
 	nohd := ""
 	switch {
 	case !e.OpenEnd:
-		r.F(Absent(dNohdM, false))
+		r.F(Absent(dExposureNohdM, false))
 	case math.IsInf(e.NOHD, 1):
-		r.F(Absent(dNohdM, false))
-		r.F(Len(dNohdBeyondM, safety.MaxHazardDistance))
+		r.F(Absent(dExposureNohdM, false))
+		r.F(Len(dExposureNohdBeyondM, safety.MaxHazardDistance))
 		nohd = units.FormatDistance(e.NOHD, safety.MaxHazardDistance)
 	default:
-		r.F(Num(dNohdM, e.NOHD, units.FormatDistance(e.NOHD, safety.MaxHazardDistance)))
+		r.F(Num(dExposureNohdM, e.NOHD, units.FormatDistance(e.NOHD, safety.MaxHazardDistance)))
 		nohd = units.FormatDistance(e.NOHD, safety.MaxHazardDistance)
 	}
 	r.F(Field{d: dSegment, Kind: String, Text: segLabel(e), People: true}).
-		F(Field{d: dNohd, Kind: String, Text: nohd, People: true})
+		F(Field{d: dExposureNohdText, Kind: String, Text: nohd, People: true})
 	var nms []string
 	for _, λ := range e.Wavelengths {
 		nms = append(nms, units.FormatNumber(λ*1e9)+" nm")
@@ -291,7 +291,7 @@ func (b *builder) exposureRecord(e *safety.Exposure) Record {
 		r.Line("      {segment}: lasers {lasers} share this segment; with the beams whose effects add ({additive_beams} on the eye) the ratios sum to {combined_eye_ratio} (eye) and {combined_skin_ratio} (skin); OD {od_required} holds this wavelength to an equal share")
 	}
 	if e.Laser.Pulsed != nil {
-		r.F(Num(dPulseRadiantExposureJM2, e.PulseRadiantExposure, withUnit(e.PulseRadiantExposure, "J/m²"))).
+		r.F(Num(dExposurePulseRadiantExposureJM2, e.PulseRadiantExposure, withUnit(e.PulseRadiantExposure, "J/m²"))).
 			F(Irr(dPulsePeakIrradianceWM2, e.PulsePeakIrr)).
 			F(Irr(dAverageBeamPeakWM2, e.PeakIrr))
 		r.Line("      {segment} per pulse: {pulse_radiant_exposure_j_m2} over the eye aperture; peak irradiance during a pulse {pulse_peak_irradiance_w_m2} (of the average power: {average_power_peak_irradiance_w_m2})")
@@ -321,27 +321,27 @@ func segLabel(e *safety.Exposure) string {
 
 func (b *builder) reflectionRecord(rf *safety.Reflection) Record {
 	r := Record{Members: b.members(14)}
-	r.F(Str(dPath, rf.Path.Path.Name))
+	r.F(Str(dPathRef, rf.Path.Path.Name))
 	if rf.Element != nil {
-		r.F(Whole(dElement, rf.Element.Index))
+		r.F(Whole(dReflectionElement, rf.Element.Index))
 	} else {
-		r.F(Absent(dElement, false))
+		r.F(Absent(dReflectionElement, false))
 	}
-	r.F(Str(dKind, string(rf.Kind))).
-		F(Nm(dWavelengthM, rf.Path.Laser.Wavelength)).
+	r.F(Str(dReflectionKind, string(rf.Kind))).
+		F(Nm(dLaserLambdaM, rf.Path.Laser.Wavelength)).
 		F(Num(dReflectance, rf.Reflectance, fmt.Sprintf("%g", rf.Reflectance))).
 		F(Flag(dReflectanceAssumed, rf.Assumed, assumed(rf.Assumed))).
 		F(Whole(dSurfaces, rf.Surfaces)).
-		F(Pow(dPowerW3, rf.Power))
+		F(Pow(dReflectionPowerW, rf.Power))
 	if rf.Kind != safety.ReflectionDiffuse {
-		r.F(Irr(dApertureIrradianceWM22, rf.Irradiance)).
-			F(Ratio(dRatio2, rf.Ratio)).
-			F(Plain(dOdRequired2, rf.OD)).
+		r.F(Irr(dReflectionApertureIrradianceWM2, rf.Irradiance)).
+			F(Ratio(dReflectionRatio, rf.Ratio)).
+			F(Plain(dReflectionOdRequired, rf.OD)).
 			F(Absent(dHazardRadiusM, false))
 	} else {
-		r.F(Absent(dApertureIrradianceWM22, false)).
-			F(Absent(dRatio2, false)).
-			F(Absent(dOdRequired2, false)).
+		r.F(Absent(dReflectionApertureIrradianceWM2, false)).
+			F(Absent(dReflectionRatio, false)).
+			F(Absent(dReflectionOdRequired, false)).
 			F(Num(dHazardRadiusM, rf.Radius, units.FormatDistance(rf.Radius, safety.MaxHazardDistance)))
 	}
 	// A diffuse zone sits at a dump, or where an open end's beam lands.
@@ -357,12 +357,12 @@ func (b *builder) reflectionRecord(rf *safety.Reflection) Record {
 	} else {
 		where = append(where, ", the open end"...)
 	}
-	r.F(Field{d: dWhere, Kind: String, Text: string(where), People: true})
+	r.F(Field{d: dReflectionWhere, Kind: String, Text: string(where), People: true})
 	switch rf.Kind {
 	case safety.ReflectionStray:
 		r.Line("{where}: {surfaces} surface(s), R = {reflectance}{reflectance_assumed}, {power_w} each, {ratio} × the eye MPE, OD {od_required}")
 	case safety.ReflectionEscaping:
-		r.F(Field{d: dShare, Kind: Number, SI: rf.Reflectance, Text: fmtPct(rf.Reflectance), People: true})
+		r.F(Field{d: dReflectionShare, Kind: Number, SI: rf.Reflectance, Text: fmtPct(rf.Reflectance), People: true})
 		r.Line("{where}: {power_w} ({share} of the arriving power), {ratio} × the eye MPE, OD {od_required}")
 	default:
 		r.Line("{where}: {power_w}, ρ = {reflectance}{reflectance_assumed}: hazard zone radius {hazard_radius_m}")
@@ -372,8 +372,8 @@ func (b *builder) reflectionRecord(rf *safety.Reflection) Record {
 
 func (b *builder) eyewearRecord(n *safety.EyewearNeed) Record {
 	var r Record
-	r.F(Nm(dWavelengthM2, n.Wavelength)).
-		F(Plain(dOdRequired3, n.OD))
+	r.F(Nm(dEyewearNeedWavelengthM, n.Wavelength)).
+		F(Plain(dEyewearNeedOdRequired, n.OD))
 	if n.LBValid {
 		f := Whole(dEn207Scale, n.LB)
 		f.Text = n.EN207Label()
@@ -388,10 +388,10 @@ func (b *builder) eyewearRecord(n *safety.EyewearNeed) Record {
 	r.F(Irr(dIrradianceWM2, n.Irradiance))
 	r.F(Field{d: dCoverage, Kind: String, Text: n.Coverage(), People: true})
 	if n.Mode == limits.EN207D {
-		r.F(Absent(dPulseRadiantExposureJM22, true))
+		r.F(Absent(dEyewearNeedPulseRadiantExposureJM2, true))
 		r.Line("{wavelength_m}: OD {od_required}, {en207_scale} (continuous; largest aperture-averaged irradiance {irradiance_w_m2}); {coverage}")
 	} else {
-		r.F(Num(dPulseRadiantExposureJM22, n.PulseRadiantExposure, withUnit(n.PulseRadiantExposure, "J/m²")))
+		r.F(Num(dEyewearNeedPulseRadiantExposureJM2, n.PulseRadiantExposure, withUnit(n.PulseRadiantExposure, "J/m²")))
 		r.Line("{wavelength_m}: OD {od_required}, {en207_scale} (pulsed, condition {en207_mode}; largest radiant exposure per pulse over the eye aperture {pulse_radiant_exposure_j_m2}); {coverage}")
 	}
 	return r
@@ -440,6 +440,6 @@ func (b *builder) pulsedRecord(p *limits.PulsedLimit, τ, f, T float64) *Record 
 		r.Line("  rule 3, pulse train: not applied ({train_note})")
 	}
 	r.Line("  the {governing_rule} rule governs: {mpe_per_pulse_j_m2} per pulse, an average irradiance of {mpe_average_irradiance_w_m2}")
-	r.F(Sec(dDurationS3, T))
+	r.F(Sec(dExposureDurationS, T))
 	return r
 }

@@ -22,15 +22,15 @@ func Limits(l *safety.LimitsLookup) *Doc {
 	if q.AngularSubtense > limits.AlphaMin {
 		src = fmt.Sprintf("a source of angular subtense %s", units.FormatSI(q.AngularSubtense, "rad"))
 	}
-	r.F(Num(dWavelengthM3, q.Wavelength, units.FormatNumber(q.Wavelength*1e9)+" nm")).
-		F(Sec(dDurationS2, l.Duration)).
+	r.F(Num(dLimitsQueryWavelengthM, q.Wavelength, units.FormatNumber(q.Wavelength*1e9)+" nm")).
+		F(Sec(dLimitsLookupDurationS, l.Duration)).
 		F(Num(dAngularSubtenseRad, q.AngularSubtense, units.FormatSI(q.AngularSubtense, "rad"))).
 		F(Str(dStandard, safety.Standard))
 	r.Line("{standard} limits at {wavelength_m}, exposure {duration_s}, " + src)
 	var b builder
 	side := func(key, name string, m limits.Limit, ap float64, apRow limits.Provenance) {
 		s := &Record{}
-		s.F(Num(dMpeIrradianceWM22, m.Irradiance, units.FormatSI(m.Irradiance, "W/m²")+" = "+units.FormatIrradiance(m.Irradiance))).
+		s.F(Num(dLimitMpeIrradianceWM2, m.Irradiance, units.FormatSI(m.Irradiance, "W/m²")+" = "+units.FormatIrradiance(m.Irradiance))).
 			F(Num(dMpeRadiantExposureJM2, m.RadiantExposure, units.FormatSI(m.RadiantExposure, "J/m²"))).
 			F(Len(dApertureDiameterM, ap)).
 			F(Str(dRule, m.Rule)).F(Str(dEffect, m.Effect))
@@ -45,8 +45,8 @@ func Limits(l *safety.LimitsLookup) *Doc {
 	side("eye", "eye ", l.Eye, l.EyeAperture, l.EyeApertureRow)
 	side("skin", "skin", l.Skin, l.SkinAperture, l.SkinApertureRow)
 	ael := &Record{}
-	ael.F(Pow(dClass1, l.AEL.Class1)).
-		F(orNone(Pow(dClass2, l.AEL.Class2))).
+	ael.F(Pow(dAELClass1, l.AEL.Class1)).
+		F(orNone(Pow(dAELClass2, l.AEL.Class2))).
 		F(orNone(Pow(dClass3r, l.AEL.Class3R))).
 		F(Pow(dClass3b, l.AEL.Class3B))
 	r.O("ael_w", ael, false)
@@ -112,19 +112,19 @@ func Limits(l *safety.LimitsLookup) *Doc {
 	}
 	if l.HasBeam {
 		if l.Class != "" {
-			r.F(Str(dClass3, l.Class))
+			r.F(Str(dLimitsLookupClass, l.Class))
 			r.Line("  class {class} (whole beam through the aperture; 1M/2M not distinguished)")
 		} else {
 			r.Line("  class: not assessed for pulsed emission")
 		}
 		if l.NOHD > safety.MaxHazardDistance {
-			r.F(Num(dNohdBeyondM2, safety.MaxHazardDistance, units.FormatDistance(l.NOHD, safety.MaxHazardDistance)))
-			r.F(Field{d: dNohd2, Kind: String, Text: units.FormatDistance(l.NOHD, safety.MaxHazardDistance), People: true})
+			r.F(Num(dLimitsLookupNohdBeyondM, safety.MaxHazardDistance, units.FormatDistance(l.NOHD, safety.MaxHazardDistance)))
+			r.F(Field{d: dLimitsLookupNohdText, Kind: String, Text: units.FormatDistance(l.NOHD, safety.MaxHazardDistance), People: true})
 		} else {
-			r.F(Num(dNohdM2, l.NOHD, units.FormatDistance(l.NOHD, safety.MaxHazardDistance)))
-			r.F(Field{d: dNohd2, Kind: String, Text: units.FormatDistance(l.NOHD, safety.MaxHazardDistance) + " (rounded up)", People: true})
+			r.F(Num(dLimitsLookupNohdM, l.NOHD, units.FormatDistance(l.NOHD, safety.MaxHazardDistance)))
+			r.F(Field{d: dLimitsLookupNohdText, Kind: String, Text: units.FormatDistance(l.NOHD, safety.MaxHazardDistance) + " (rounded up)", People: true})
 		}
-		r.F(Num(dOdRequired4, l.ODRequired, fmt.Sprintf("%g", l.ODRequired))).
+		r.F(Num(dLimitsLookupOdRequired, l.ODRequired, fmt.Sprintf("%g", l.ODRequired))).
 			F(Irr(dExitApertureIrradianceWM2, l.ExitIrr))
 		r.Line("  at the exit: {exit_aperture_irradiance_w_m2} over the eye aperture, OD {od_required} needed; NOHD {nohd}")
 	}
