@@ -92,7 +92,7 @@ func EN207Scale(λ float64, mode string, od, exposure float64) (n int, ok bool) 
 
 // EN207Row is where the scale table comes from.
 func EN207Row() Provenance {
-	return Provenance{Standard: "EN 207:2017", Table: "scale numbers, 315–1400 nm", Row: "D: 10^(n+1) W/m²; I, R: 0.05·10^(n−1) J/m²; M: 1.5e-3·10^(n−1) J/m²", Status: StatusRecalled}
+	return Provenance{Standard: "EN 207:2017", Table: "scale numbers, 315–1400 nm", Row: "D: 10^(n+1) W/m²; I, R: 0.05·10^(n−1) J/m²; M: 1.5e-3·10^(n−1) J/m²", Status: StatusFromMemory}
 }
 
 // ApertureAverage is the irradiance (W/m²) of a round Gaussian beam of power

@@ -8,12 +8,10 @@ const (
 	// StatusChecked: the value was compared with a named public source that
 	// prints it (CheckedAgainst).
 	StatusChecked Status = "checked"
-	// StatusFromMemory: transcribed from memory of the standard's printed
-	// table; no public source was at hand to compare it with.
-	StatusFromMemory Status = "edition 3, from memory"
-	// StatusRecalled: a value of another standard (EN 207) recalled from
-	// memory.
-	StatusRecalled Status = "from memory"
+	// StatusFromMemory: transcribed from memory of the printed table of the
+	// standard the provenance names (IEC 60825-1:2014, EN 207); no public
+	// source was at hand to compare it with.
+	StatusFromMemory Status = "from memory"
 	// StatusSubstitute: a value of our own that stands in for one we could
 	// not confirm, chosen to be at least as restrictive (Replaces says what
 	// it stands in for).
