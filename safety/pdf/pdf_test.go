@@ -18,6 +18,7 @@ import (
 
 	"beamledger/safety/report"
 	"beamledger/safety/safetytest"
+	"beamledger/safety/view"
 )
 
 func init() {
@@ -220,12 +221,12 @@ func TestUndrawableAndPlaceholderText(t *testing.T) {
 // A plot whose data hold NaN, infinities or non-positive values on a log
 // axis is drawn without them: no such operand reaches the content stream.
 func TestPlotLeavesOutNonFinite(t *testing.T) {
-	doc := &report.Document{Title: "plot", Sections: []report.Section{{Heading: "p", Blocks: []report.Block{{Plot: &report.Plot{
+	doc := &report.Document{Title: "plot", Sections: []report.Section{{Heading: "p", Blocks: []report.Block{{Plot: &view.Plot{
 		Title: "t", LogY: true,
-		Series:  []report.Series{{Name: "s", X: []float64{0, 1, 2, 3}, Y: []float64{1, math.Inf(1), math.NaN(), -1}}},
-		Markers: []report.Marker{{X: math.Inf(1), Label: "m"}},
-		HLines:  []report.HLine{{Y: math.Inf(-1), Label: "h"}, {Y: 0, Label: "zero"}},
-	}}, {Plot: &report.Plot{Title: "bars", Bars: []report.Bar{{Label: "a", Value: math.NaN()}, {Label: "b", Value: 2}}}}}}}}
+		Series:  []view.Series{{Name: "s", X: []float64{0, 1, 2, 3}, Y: []float64{1, math.Inf(1), math.NaN(), -1}}},
+		Markers: []view.Marker{{X: math.Inf(1), Label: "m"}},
+		HLines:  []view.HLine{{Y: math.Inf(-1), Label: "h"}, {Y: 0, Label: "zero"}},
+	}}, {Plot: &view.Plot{Title: "bars", Bars: []view.Bar{{Label: "a", Value: math.NaN()}, {Label: "b", Value: 2}}}}}}}}
 	var b bytes.Buffer
 	if err := Write(&b, doc, Options{Date: time.Date(2026, 1, 2, 0, 0, 0, 0, time.UTC)}); err != nil {
 		t.Fatal(err)

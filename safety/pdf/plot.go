@@ -6,7 +6,7 @@ import (
 	"strconv"
 	"strings"
 
-	"beamledger/safety/report"
+	"beamledger/safety/view"
 )
 
 const plotHeight = 64.0 // mm, frame plus labels
@@ -110,7 +110,7 @@ func dataRange(vals []float64, log, fromZero bool) (float64, float64) {
 	return lo, hi + pad
 }
 
-func (w *writer) plot(p *report.Plot) {
+func (w *writer) plot(p *view.Plot) {
 	f := w.f
 	w.need(plotHeight + 6)
 	top := f.GetY() + 2
@@ -159,7 +159,7 @@ func (w *writer) plot(p *report.Plot) {
 	// it; labels that would overlap are moved apart and joined to their
 	// line by a short leader.
 	var mx []float64
-	var ms []report.Marker
+	var ms []view.Marker
 	for _, m := range p.Markers {
 		if plottable(m.X, p.LogX) {
 			x := ax.at(m.X)
@@ -172,7 +172,7 @@ func (w *writer) plot(p *report.Plot) {
 	}
 	size, every := markerLabelSize(len(mx), x1-x0-2)
 	var wx []float64
-	var wm []report.Marker
+	var wm []view.Marker
 	for i := 0; i < len(mx); i += every {
 		wx, wm = append(wx, mx[i]), append(wm, ms[i])
 	}
@@ -250,7 +250,7 @@ func roundTo3(v float64) float64 {
 	return f
 }
 
-func (w *writer) bars(p *report.Plot, x0, x1, y0, y1 float64) {
+func (w *writer) bars(p *view.Plot, x0, x1, y0, y1 float64) {
 	f := w.f
 	vals := make([]float64, len(p.Bars))
 	for i, b := range p.Bars {

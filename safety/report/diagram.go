@@ -9,7 +9,7 @@ import (
 	"beamledger/budget"
 	"beamledger/budget/setup"
 	"beamledger/budget/units"
-	"beamledger/safety"
+	"beamledger/safety/view"
 )
 
 // Drawing is a schematic made of simple shapes, in mm, with the origin at
@@ -115,48 +115,26 @@ type band struct {
 }
 
 // Diagrams draws one schematic per laser from the path tree of the hazard
-// budget: every beam of the laser on every path, with its elements as
+// budget, with the titles and ratios the view gathered (view.BuildDrawn): every beam of the laser on every path, with its elements as
 // glyphs, the segments styled by access and weighted by eye-exposure
 // ratio, and the beams that leave a path as stubs. A laser whose drawing is
 // too tall for a page gets more than one, split between lines.
-func Diagrams(a *safety.Assessment) []*Drawing {
-	hb := a.HazardBudget
-	ratio := map[*budget.PathBudget]map[int]float64{}
-	for _, e := range a.Hazards.Exposures {
-		if ratio[e.Path] == nil {
-			ratio[e.Path] = map[int]float64{}
-		}
-		ratio[e.Path][e.Segment.After] = e.CombinedEyeRatio
-	}
-	escaping := map[*budget.PathBudget]map[*setup.Element]float64{}
-	for _, rf := range a.Hazards.Reflections {
-		if rf.Kind == safety.ReflectionEscaping {
-			if escaping[rf.Path] == nil {
-				escaping[rf.Path] = map[*setup.Element]float64{}
-			}
-			escaping[rf.Path][rf.Element] = math.Max(escaping[rf.Path][rf.Element], rf.Ratio)
-		}
-	}
+func Diagrams(dr *view.Drawn) []*Drawing {
+	hb := dr.Budget
 	var out []*Drawing
-	for _, las := range a.Setup.Lasers {
-		title := fmt.Sprintf("Laser %q, %s", las.Name, units.FormatWavelength(las.Wavelength))
-		for _, ll := range a.Hazards.Lasers {
-			if ll.Laser == las && ll.Class != "" {
-				title += ", Class " + ll.Class
-			}
-		}
+	for _, dl := range dr.Lasers {
 		var bands []band
 		for _, own := range hb.Paths {
 			for _, pb := range own.Beams() {
-				if pb.Laser == las {
-					bands = append(bands, pathBands(pb, own, ratio[pb], escaping[pb], hb)...)
+				if pb.Laser == dl.Laser {
+					bands = append(bands, pathBands(pb, own, dr.SegmentRatio[pb], dr.EscapingRatio[pb], hb)...)
 				}
 			}
 		}
 		if len(bands) == 0 {
 			bands = []band{{height: headerHeight, shapes: []Shape{text(0, 4, labelSize+1, "start", "no path starts at this laser")}}}
 		}
-		out = append(out, stack(title, bands)...)
+		out = append(out, stack(dl.Title, bands)...)
 	}
 	return out
 }

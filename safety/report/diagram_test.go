@@ -13,6 +13,7 @@ import (
 	"beamledger/budget/setup"
 	"beamledger/safety"
 	"beamledger/safety/safetytest"
+	"beamledger/safety/view"
 )
 
 // The bands of the issue's legend: at most 1, 10², 10⁴, above.
@@ -45,7 +46,7 @@ func shapesWith(ds []*Drawing, k ShapeKind, s string) []Shape {
 // found.
 func TestDiagramsOfDemo(t *testing.T) {
 	a, _ := safetytest.EvaluateFile(t, "../../testdata/examples/table-c.toml")
-	ds := Diagrams(a)
+	ds := Diagrams(view.BuildDrawn(a))
 	if len(ds) != 2 || !strings.Contains(ds[0].Title, `"probe-amp", 780.24 nm`) || !strings.Contains(ds[1].Title, `"trap", 1064.00 nm`) {
 		t.Fatalf("drawings %d: %v", len(ds), titles(ds))
 	}
@@ -83,7 +84,7 @@ func TestDiagramsOfDemo(t *testing.T) {
 // the forward and the return line.
 func TestDiagramsOfMergedTable(t *testing.T) {
 	a, _ := safetytest.EvaluateFile(t, "../../testdata/examples/table-d.toml")
-	ds := Diagrams(a)
+	ds := Diagrams(view.BuildDrawn(a))
 	for _, want := range []string{"+ repump", `laser "repump" (780.23 nm) joins at "pbs"`, `into "pbs" on "cool"`, "return pass", `joins at combiner "pbs" from path "repump"`} {
 		if len(shapesWith(ds, ShapeText, want)) == 0 {
 			t.Errorf("no %q in the drawing", want)
@@ -115,7 +116,7 @@ func TestDiagramsFitAndStayLegible(t *testing.T) {
 		fmt.Fprintf(&b, "[[path.element]]\ntype = \"window\"\nname = \"w%d\"\nat = \"%d mm\"\ntransmission = 0.999\n", i, 10*i)
 	}
 	a := safetytest.Evaluate(t, "long.toml", []byte(b.String()))
-	ds := Diagrams(a)
+	ds := Diagrams(view.BuildDrawn(a))
 	if len(ds) < 2 || !strings.HasSuffix(ds[1].Title, "(continued)") {
 		t.Fatalf("200 elements: %d drawings %v", len(ds), titles(ds))
 	}
@@ -127,7 +128,7 @@ func TestDiagramsFitAndStayLegible(t *testing.T) {
 	// retro mirrors, long paths).
 	for _, name := range []string{"examples/table-c", "examples/table-d", "examples/splitter-tree", "examples/clipped-telescope", "examples/ablation-pulse", "examples/elliptical-diode", "examples/weak-probe", "examples/table-c-rev4", "scale/lab-2000"} {
 		a, _ := safetytest.EvaluateFile(t, "../../testdata/"+name+".toml")
-		all = append(all, Diagrams(a)...)
+		all = append(all, Diagrams(view.BuildDrawn(a))...)
 	}
 	for _, d := range all {
 		if d.Height > maxDrawingTall+bandHeight {
@@ -191,7 +192,7 @@ func titles(ds []*Drawing) []string {
 // drawing, and carries the labels.
 func TestSVG(t *testing.T) {
 	a, _ := safetytest.EvaluateFile(t, "../../testdata/examples/table-d.toml")
-	ds := append([]*Drawing{Legend()}, Diagrams(a)...)
+	ds := append([]*Drawing{Legend()}, Diagrams(view.BuildDrawn(a))...)
 	ds[1].Title += " <&> \"quoted\"" // escaped, not breaking the XML
 	var buf bytes.Buffer
 	if err := WriteSVG(&buf, ds); err != nil {
@@ -266,7 +267,7 @@ func FuzzDiagram(f *testing.F) {
 		if err != nil {
 			return
 		}
-		ds := Diagrams(a)
+		ds := Diagrams(view.BuildDrawn(a))
 		for _, d := range ds {
 			for _, sh := range d.Shapes {
 				for _, v := range sh.P {

@@ -3,6 +3,8 @@
 // drawing. Package pdf draws it; tests read the model as text.
 package report
 
+import "beamledger/safety/view"
+
 // Document is the whole sign-off document.
 type Document struct {
 	Title, Site, Revision, PreparedBy string
@@ -35,7 +37,7 @@ type Block struct {
 	Paragraph  string
 	Bullets    []string
 	Table      *Table
-	Plot       *Plot
+	Plot       *view.Plot
 	Drawing    *Drawing
 	SignOff    []string // roles, each with name, signature and date lines
 }
@@ -46,42 +48,4 @@ type Table struct {
 	Rows   [][]string
 	// Right marks columns whose cells align right (numbers).
 	Right []bool
-}
-
-// Plot is a vector chart.
-type Plot struct {
-	Title          string
-	XLabel, YLabel string
-	LogX, LogY     bool
-	Series         []Series
-	Markers        []Marker
-	Bars           []Bar
-	// HLines are horizontal reference lines.
-	HLines []HLine
-}
-
-// Series is a line through points; Dashed distinguishes it in black and
-// white.
-type Series struct {
-	Name   string
-	X, Y   []float64
-	Dashed bool
-}
-
-// Marker is a labelled vertical line, e.g. an element's position.
-type Marker struct {
-	X     float64
-	Label string
-}
-
-// Bar is one bar of a bar chart.
-type Bar struct {
-	Label string
-	Value float64
-}
-
-// HLine is a labelled horizontal line.
-type HLine struct {
-	Y     float64
-	Label string
 }

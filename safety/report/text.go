@@ -1,6 +1,7 @@
 package report
 
 import (
+	"beamledger/safety/view"
 	"fmt"
 	"io"
 	"math"
@@ -45,7 +46,7 @@ func (d *Document) WriteText(w io.Writer) error {
 	return err
 }
 
-func writePlotText(b *strings.Builder, p *Plot) {
+func writePlotText(b *strings.Builder, p *view.Plot) {
 	fmt.Fprintf(b, "  [plot] %s; x: %s; y: %s", p.Title, p.XLabel, p.YLabel)
 	if p.LogX || p.LogY {
 		fmt.Fprintf(b, " (log x %v, log y %v)", p.LogX, p.LogY)
