@@ -30,12 +30,6 @@ func fromE(e, t float64, rule, effect string, thermal bool, f map[string]float64
 	return Limit{RadiantExposure: e * t, Irradiance: e, Rule: rule, Effect: effect, Thermal: thermal, Factors: f, Provenance: p}
 }
 
-// Band edges. The tables print each band with two figures and neighbouring
-// bands do not always meet (18 t^0.75 at 5 µs is 1.90e-3 J/m² against the
-// 2e-3 J/m² printed before it). This package prints what the tables print:
-// A duration on an edge belongs to the band that starts there, and nothing
-// is blended for continuity.
-
 // uv is the eye and skin limit for 180–400 nm (the skin table has the same
 // values).
 func uv(nm, t float64) Limit {
@@ -172,6 +166,12 @@ func retinalPhotochemical(nm, t float64) (Limit, bool) {
 // wavelength λ (m) from a source of angular subtense α (rad; anything up to
 // 1.5 mrad is a small source). In 400–600 nm for t ≥ 10 s the thermal and
 // the photochemical limits both apply and the lower is returned.
+//
+// Band edges. The tables print each band with two figures and neighbouring
+// bands do not always meet (18 t^0.75 at 5 µs is 1.90e-3 J/m² against the
+// 2e-3 J/m² printed before it). This package prints what the tables print:
+// A duration on an edge belongs to the band that starts there, and nothing
+// is blended for continuity.
 func EyeMPE(λ, t, α float64) (Limit, error) {
 	if err := checkRange(λ, t); err != nil {
 		return Limit{}, err

@@ -2,6 +2,15 @@ package atoms
 
 import "math"
 
+// DetuningFactor is a = 1 + 4Δ²/Γ² for detuning Δ and linewidth Γ (rad/s).
+func DetuningFactor(Δ, Γ float64) float64 { return 1 + 4*Δ*Δ/(Γ*Γ) }
+
+// OutgoingIntensity solves the saturable-absorber relation for i_out given
+// i_in ≥ 0, the optical depth b ≥ 0 and a ≥ 1 (intensities in units of
+// I_sat): Newton's method on x = ln i_out, safeguarded by bisection on the
+// bracket [ln i_in − (b + i_in)/a, ln i_in], where the function is monotone
+// and concave; it cannot fail for any finite input.
+//
 // Saturable absorption along one ray through a cloud of independent
 // two-level atoms in steady state. With intensities in units of the
 // saturation intensity (i = I/I_sat), a = 1 + 4Δ²/Γ² and b the resonant
@@ -13,15 +22,6 @@ import "math"
 // al., Opt. Lett. 32, 3143 (2007), eq. (1) with α* = a). Nothing here
 // models diffraction or lensing by the cloud, Doppler broadening or
 // optical pumping.
-
-// DetuningFactor is a = 1 + 4Δ²/Γ² for detuning Δ and linewidth Γ (rad/s).
-func DetuningFactor(Δ, Γ float64) float64 { return 1 + 4*Δ*Δ/(Γ*Γ) }
-
-// OutgoingIntensity solves the saturable-absorber relation for i_out given
-// i_in ≥ 0, the optical depth b ≥ 0 and a ≥ 1 (intensities in units of
-// I_sat): Newton's method on x = ln i_out, safeguarded by bisection on the
-// bracket [ln i_in − (b + i_in)/a, ln i_in], where the function is monotone
-// and concave; it cannot fail for any finite input.
 func OutgoingIntensity(iIn, b, a float64) float64 {
 	if !(iIn > 0) || !(b > 0) {
 		return iIn

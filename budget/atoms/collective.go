@@ -1,5 +1,7 @@
 package atoms
 
+// Collective is the threshold estimate for one cloud and drive.
+//
 // The threshold of cooperative resonance fluorescence.
 //
 // Model: N two-level atoms driven on resonance, H = (ħΩ/2)(S⁺ + S⁻), with one
@@ -14,8 +16,6 @@ package atoms
 // and D = b0/2 (lower). At large D the photon budget governs instead: the
 // drive's photon flux equals N Γ / 2 at s = D. With single-atom decay
 // included, the crossover is smooth for D ≤ 32 and bistable above.
-
-// Collective is the threshold estimate for one cloud and drive.
 type Collective struct {
 	// OmegaC and OmegaCLow are the threshold Rabi frequencies Ω_c for
 	// D = b0 and D = b0/2, rad/s (equal when the collective rate was given).

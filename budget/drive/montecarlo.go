@@ -13,12 +13,6 @@ import (
 	"gonum.org/v1/gonum/mat"
 )
 
-// Tolerance analysis: Monte Carlo over the whole budget. Every sample
-// draws each toleranced value from its own distribution with its own random
-// stream (PCG seeded by the seed and the sample's number), re-propagates
-// every beam and re-solves every goal, so the result is the same on any
-// number of cores.
-
 // DefaultSamples and DefaultSeed are the analysis's defaults.
 const (
 	DefaultSamples = 10000
@@ -100,6 +94,12 @@ func margins(s *setup.Setup, refs []goalRef) []float64 {
 // elements and of whole clouds, in samples Monte Carlo samples from seed,
 // on up to workers goroutines (0: all cores). It returns one analysis per
 // goal, keyed by the *AtomsResult or the *Cloud it belongs to.
+//
+// Tolerance analysis: Monte Carlo over the whole budget. Every sample
+// draws each toleranced value from its own distribution with its own random
+// stream (PCG seeded by the seed and the sample's number), re-propagates
+// every beam and re-solves every goal, so the result is the same on any
+// number of cores.
 func Tolerances(s *setup.Setup, drive []*AtomsResult, samples int, seed uint64, workers int) map[any]*GoalTolerance {
 	if len(s.Tolerances) == 0 || samples <= 0 {
 		return nil

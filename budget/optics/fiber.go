@@ -2,7 +2,9 @@ package optics
 
 import "math"
 
-// Fibre coupling.
+// ModeOverlap1D is the power coupled in one plane: a beam of 1/e² radius w
+// (m), wavefront curvature 1/R (1/m) and beam quality m2 into a Gaussian mode
+// of radius wf (m) with a flat wavefront, at wavelength λ (m).
 //
 // A beam with M² = 1 couples into the fibre's fundamental mode (a Gaussian of
 // 1/e² radius w_f = MFD/2 with a flat wavefront at the face) by the overlap
@@ -22,10 +24,6 @@ import "math"
 //
 // which for M² = 1 is the coherent overlap 2/(W w_f |1/W² + 1/w_f² + i b|)
 // (Marcuse, Bell Syst. Tech. J. 56, 703 (1977), for the untilted, centred case).
-
-// ModeOverlap1D is the power coupled in one plane: a beam of 1/e² radius w
-// (m), wavefront curvature 1/R (1/m) and beam quality m2 into a Gaussian mode
-// of radius wf (m) with a flat wavefront, at wavelength λ (m).
 func ModeOverlap1D(w, invR, m2, wf, λ float64) float64 {
 	m4 := m2 * m2
 	a := (m4+1)/(2*w*w) + 1/(wf*wf)

@@ -5,6 +5,9 @@ import (
 	"math"
 )
 
+// BeamAxes returns the unit vectors of a beam's x and y planes in the cloud
+// frame for a beam running along the unit vector n.
+//
 // The cloud frame. A cloud's rms_size = [x, y, z] are its axes; an atoms
 // element's beam runs along Direction in that frame. The beam's own x plane
 // contains the first of the cloud's axes (x, then y, then z) that is not
@@ -12,9 +15,6 @@ import (
 // set (y_beam = along × x_beam): for a beam along z its x and y planes are
 // the cloud's x and y; along x they are the cloud's y and z; along y, x and
 // z (with the sign of along × x).
-
-// BeamAxes returns the unit vectors of a beam's x and y planes in the cloud
-// frame for a beam running along the unit vector n.
 func BeamAxes(n [3]float64) (u, v [3]float64) {
 	for _, e := range [][3]float64{{1, 0, 0}, {0, 1, 0}, {0, 0, 1}} {
 		if math.Abs(numeric.Dot(e, n)) < 0.9 {

@@ -8,13 +8,6 @@ import (
 	"beamledger/budget/units"
 )
 
-// The setup format's key table: every table of a setup file, every key it
-// takes, what kind of value, which keys are required (always, or when
-// another key has a given value). The loader reads keys only from this
-// table (table.get refuses any other), tests check that it accepts and
-// requires exactly what the table says, and `beamledger schema` writes the
-// table as a JSON Schema for editors.
-
 // ValueKind is the kind of value a key takes, as the setup file writes it.
 type ValueKind string
 
@@ -150,6 +143,13 @@ var goalNeeds = []Requirement{
 
 // SetupTables lists the tables of the format; the element table holds the
 // keys every element type takes, and Kinds adds each type's own.
+//
+// The setup format's key table: every table of a setup file, every key it
+// takes, what kind of value, which keys are required (always, or when
+// another key has a given value). The loader reads keys only from this
+// table (table.get refuses any other), tests check that it accepts and
+// requires exactly what the table says, and `beamledger schema` writes the
+// table as a JSON Schema for editors.
 var SetupTables = []*TableSpec{
 	{Name: "setup", Path: "[setup]", Doc: "who, where, and evaluation-wide choices", Keys: []KeySpec{
 		text("title", false, "the setup's title, printed on every page of the sign-off", `"Elongated cloud, table C"`),

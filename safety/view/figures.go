@@ -13,13 +13,13 @@ import (
 	"sort"
 )
 
-// The figures of the sign-off document: every plot's series and every
-// number a drawing prints, built here from the assessment so that the
-// document takes them, like its tables, from the view.
-
 // Figures are the plots of an assessment, in the order of the view's lists:
 // one PathFigures per path, one AtomsFigures per atoms element, one
 // CloudFigures per cloud.
+//
+// The figures of the sign-off document: every plot's series and every
+// number a drawing prints, built here from the assessment so that the
+// document takes them, like its tables, from the view.
 type Figures struct {
 	Paths  []PathFigures
 	Atoms  []AtomsFigures
