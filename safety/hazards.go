@@ -508,8 +508,8 @@ func (res *pathHazardResult) stray(pb *budget.PathBudget, ll *LaserLimits, r *bu
 	ref := res.leaving(pb, ll, r, &Reflection{Kind: ReflectionStray, Reflectance: R, Assumed: assumed, Surfaces: surfaces, Power: R * p})
 	if ref != nil {
 		res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingStray, Path: pb.Path.Name,
-			Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s%s): each of its %d surface(s) reflects %s (R = %g%s), %.3g × the eye MPE at the surface; block or enclose the back-reflection",
-				el.Index, el.Label(), beamNote(pb), surfaces, units.FormatPower(ref.Power), R, assumedNote(assumed), ref.Ratio)}.Figure(ref.Irradiance, ll.EyeIrradiance, "W/m2"))
+			Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s%s): each of its %d surface(s) reflects %s (R = %g%s), %s × the eye MPE at the surface; block or enclose the back-reflection",
+				el.Index, el.Label(), beamNote(pb), surfaces, units.FormatPower(ref.Power), R, assumedNote(assumed), units.FormatRatio(ref.Ratio))}.Figure(ref.Irradiance, ll.EyeIrradiance, "W/m2"))
 	}
 }
 
