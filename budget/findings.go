@@ -11,11 +11,16 @@ import (
 // Severity of a finding.
 type Severity string
 
-// Severities: an action finding must be dealt with before alignment and makes
-// `check` exit 1; advice is shown but does not.
+// Severities. A defect is to be fixed before alignment whatever the
+// controls; a hazard is an exposure above the MPE, acceptable only when a
+// declared control handles it (ControlledBy); a drive finding is planning,
+// never safety; a note is for information. `check` exits 1 on a defect or an
+// uncontrolled hazard (and, when asked, on an unmet drive goal).
 const (
-	SeverityAction Severity = "action"
-	SeverityAdvice Severity = "advice"
+	SeverityDefect Severity = "defect"
+	SeverityHazard Severity = "hazard"
+	SeverityDrive  Severity = "drive"
+	SeverityNote   Severity = "note"
 )
 
 // FindingKind is the short machine-readable kind of a finding, e.g.
@@ -35,6 +40,16 @@ type Finding struct {
 	// the finding has no figure.
 	Value, Limit float64
 	Unit         string
+	// ControlledBy names, for a hazard, the declared controls that handle
+	// it (the eyewear worn, the perimeter barrier); empty when it is
+	// uncontrolled. Nil for other severities.
+	ControlledBy []string
+}
+
+// Uncontrolled reports whether the finding is a defect or a hazard that no
+// declared control handles: what makes `check` exit 1.
+func (f Finding) Uncontrolled() bool {
+	return f.Severity == SeverityDefect || (f.Severity == SeverityHazard && len(f.ControlledBy) == 0)
 }
 
 // Ratio is Value over Limit, 0 when the finding has no figure.
@@ -104,26 +119,26 @@ func (b *Budget) Findings() []Finding {
 					wx, wy := r.BeamIn.Radii()
 					w := math.Max(wx, wy)
 					if clipped := r.FractionIn * (1 - r.ClipFraction) * max; clipped >= ClippedPowerAction {
-						out = append(out, Finding{Severity: SeverityAction, Kind: FindingClippedPower, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: up to %s (%.1f %% of the arriving beam, at the laser's maximum power) falls outside its %s clear aperture onto the mount or iris; that much absorbed power can burn, melt or start a fire: enlarge the aperture, or make the part a rated dump",
+						out = append(out, Finding{Severity: SeverityDefect, Kind: FindingClippedPower, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: up to %s (%.1f %% of the arriving beam, at the laser's maximum power) falls outside its %s clear aperture onto the mount or iris; that much absorbed power can burn, melt or start a fire: enlarge the aperture, or make the part a rated dump",
 							where, units.FormatPower(clipped), 100*(1-r.ClipFraction), units.FormatLength(clear))}.Figure(clipped, ClippedPowerAction, "W"))
 					} else if clear < ClearApertureFactor*w {
-						out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingClipping, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: clear aperture %s is under π·W = %s for the beam there; %.2f %% of the power is clipped (included in the budget; diffraction from the edge is not modelled)",
+						out = append(out, Finding{Severity: SeverityNote, Kind: FindingClipping, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: clear aperture %s is under π·W = %s for the beam there; %.2f %% of the power is clipped (included in the budget; diffraction from the edge is not modelled)",
 							where, units.FormatLength(clear), units.FormatLength(ClearApertureFactor*w), 100*(1-r.ClipFraction))}.Figure(clear, ClearApertureFactor*w, "m"))
 					}
 				}
 				if !r.BeamOut.Paraxial() {
-					out = append(out, Finding{Severity: SeverityAction, Kind: FindingNotParaxial, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the beam leaving it diverges at a half-angle of %.3g rad, past the %g rad the Gaussian beam model holds to; the figures after it are not reliable (check the focal lengths and distances, or the optic's real aperture)",
+					out = append(out, Finding{Severity: SeverityDefect, Kind: FindingNotParaxial, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the beam leaving it diverges at a half-angle of %.3g rad, past the %g rad the Gaussian beam model holds to; the figures after it are not reliable (check the focal lengths and distances, or the optic's real aperture)",
 						where, r.BeamOut.HalfAngle(), optics.MaxParaxialAngle)}.Figure(r.BeamOut.HalfAngle(), optics.MaxParaxialAngle, "rad"))
 				}
 				if r.Fiber != nil && !r.Fiber.Given && r.Fiber.Overlap < PoorModeOverlap {
-					out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingModeMatch, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: mode overlap with the fibre is only %.1f %%; the coupling optics do not match the beam to the mode (ideal coupling-lens focal length %s)",
+					out = append(out, Finding{Severity: SeverityNote, Kind: FindingModeMatch, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: mode overlap with the fibre is only %.1f %%; the coupling optics do not match the beam to the mode (ideal coupling-lens focal length %s)",
 						where, 100*r.Fiber.Overlap, formatFocalPair(r.Fiber.IdealFocalLength))}.Figure(r.Fiber.Overlap, PoorModeOverlap, "1"))
 				}
 			}
 			for _, e := range pb.UnfollowedPorts {
 				r := pb.row(e)
 				pw := r.FractionIn * r.ClipFraction * (1 - *e.For(pb.Laser).Transmission) * max
-				out = append(out, Finding{Severity: SeverityAction, Kind: FindingUnfollowed, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("element %d (%s%s): up to %s leaves the other port and no path follows it; describe where it goes (a path from %q) or block it",
+				out = append(out, Finding{Severity: SeverityDefect, Kind: FindingUnfollowed, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("element %d (%s%s): up to %s leaves the other port and no path follows it; describe where it goes (a path from %q) or block it",
 					e.Index, e.Label(), beamNote, units.FormatPower(pw), p.Name+":"+e.Name)})
 			}
 		}
@@ -144,9 +159,9 @@ func (b *Budget) Findings() []Finding {
 			}
 			where := fmt.Sprintf("element %d (%s)", e.Index, e.Label())
 			if e.Rating == 0 {
-				out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingDumpUnrated, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: no rating stated; it receives up to %s at %s maximum power", where, units.FormatPower(pw), maxWord)})
+				out = append(out, Finding{Severity: SeverityNote, Kind: FindingDumpUnrated, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: no rating stated; it receives up to %s at %s maximum power", where, units.FormatPower(pw), maxWord)})
 			} else if pw > e.Rating {
-				out = append(out, Finding{Severity: SeverityAction, Kind: FindingDumpRating, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: receives up to %s at %s maximum power, above its rating of %s", where, units.FormatPower(pw), maxWord, units.FormatPower(e.Rating))}.Figure(pw, e.Rating, "W"))
+				out = append(out, Finding{Severity: SeverityDefect, Kind: FindingDumpRating, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: receives up to %s at %s maximum power, above its rating of %s", where, units.FormatPower(pw), maxWord, units.FormatPower(e.Rating))}.Figure(pw, e.Rating, "W"))
 			}
 		}
 		if own.OpenEnd {
@@ -158,16 +173,16 @@ func (b *Budget) Findings() []Finding {
 			for _, pb := range own.Beams() {
 				pw += pb.EndFraction * pb.Laser.Power
 			}
-			out = append(out, Finding{Severity: SeverityAction, Kind: FindingOpenEnd, Path: p.Name, Element: 0, At: at, Message: fmt.Sprintf("the path ends without a dump: up to %s leaves it at %s; end it in a rated dump", units.FormatPower(pw), units.FormatLength(at))})
+			out = append(out, Finding{Severity: SeverityDefect, Kind: FindingOpenEnd, Path: p.Name, Element: 0, At: at, Message: fmt.Sprintf("the path ends without a dump: up to %s leaves it at %s; end it in a rated dump", units.FormatPower(pw), units.FormatLength(at))})
 		}
 	}
 	for _, las := range b.Setup.Lasers {
 		if !used[las] {
-			out = append(out, Finding{Severity: SeverityAction, Kind: FindingUnusedLaser, Path: "", Element: 0, At: 0, Message: fmt.Sprintf("laser %q feeds no path, so its beam is not evaluated at all; describe where its beam goes", las.Name)})
+			out = append(out, Finding{Severity: SeverityDefect, Kind: FindingUnusedLaser, Path: "", Element: 0, At: 0, Message: fmt.Sprintf("laser %q feeds no path, so its beam is not evaluated at all; describe where its beam goes", las.Name)})
 		}
 	}
 	if b.AssumedLossless > 0 {
-		out = append(out, Finding{Severity: SeverityAdvice, Kind: FindingLosslessGuess, Path: "", Element: 0, At: 0, Message: fmt.Sprintf("%d element(s) have no stated loss and were assumed lossless; the budget is optimistic by their real losses", b.AssumedLossless)})
+		out = append(out, Finding{Severity: SeverityNote, Kind: FindingLosslessGuess, Path: "", Element: 0, At: 0, Message: fmt.Sprintf("%d element(s) have no stated loss and were assumed lossless; the budget is optimistic by their real losses", b.AssumedLossless)})
 	}
 	return out
 }

@@ -19,7 +19,7 @@ func TestUnusedLaserNeedsAction(t *testing.T) {
 	}
 	for _, f := range b.Findings() {
 		if f.Kind == FindingUnusedLaser {
-			if f.Severity != SeverityAction || !strings.Contains(f.Message, `laser "spare" feeds no path`) {
+			if f.Severity != SeverityDefect || !strings.Contains(f.Message, `laser "spare" feeds no path`) {
 				t.Errorf("finding %+v", f)
 			}
 			return

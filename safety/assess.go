@@ -2,6 +2,7 @@ package safety
 
 import (
 	"fmt"
+	"slices"
 
 	"beamledger/budget"
 	"beamledger/budget/drive"
@@ -69,6 +70,7 @@ func EvaluateWith(s *setup.Setup, o Options) (*Assessment, error) {
 	}
 	a.Hazards = h
 	a.Findings = append(a.Findings, h.Findings...)
+	controlOpenEnds(hs, a.HazardBudget, a.Findings)
 	return a, nil
 }
 
@@ -85,10 +87,25 @@ func ConservativeSetup(s *setup.Setup) *setup.Setup {
 	return c
 }
 
-// NeedsAction reports whether any finding must be dealt with.
+// NeedsAction reports whether any finding is a defect or a hazard that no
+// declared control handles: what makes check exit 1.
 func (a *Assessment) NeedsAction() bool {
 	for _, f := range a.Findings {
-		if f.Severity == budget.SeverityAction {
+		if f.Uncontrolled() {
+			return true
+		}
+	}
+	return false
+}
+
+// GoalFindingKinds are the drive findings of a goal not met (check
+// --fail-on-goals exits 1 on them).
+var GoalFindingKinds = []budget.FindingKind{drive.FindingGoalShort, drive.FindingGoalImpossible, drive.FindingCloudGoalShort, drive.FindingCloudGoalImpossible}
+
+// GoalsUnmet reports whether a drive goal is not met.
+func (a *Assessment) GoalsUnmet() bool {
+	for _, f := range a.Findings {
+		if slices.Contains(GoalFindingKinds, f.Kind) {
 			return true
 		}
 	}
@@ -115,8 +132,11 @@ func HazardDigest(a *Assessment) []string {
 		out = append(out, fmt.Sprintf("eyewear: %s %s, OD %g, %s", units.FormatNanometres(n.Wavelength), n.Mode, n.OD, n.EN207Label()))
 	}
 	for _, f := range a.Findings {
-		if f.Severity == budget.SeverityAction {
-			out = append(out, fmt.Sprintf("finding: %s, path %q, element %d", f.Kind, f.Path, f.Element))
+		switch {
+		case f.Severity == budget.SeverityDefect:
+			out = append(out, fmt.Sprintf("defect: %s, path %q, element %d", f.Kind, f.Path, f.Element))
+		case f.Severity == budget.SeverityHazard:
+			out = append(out, fmt.Sprintf("hazard: %s, path %q, element %d, %s", f.Kind, f.Path, f.Element, ControlText(f)))
 		}
 	}
 	return out

@@ -250,6 +250,9 @@ type Hazards struct {
 	Reflections []*Reflection
 	Eyewear     []*EyewearNeed
 	Findings    []budget.Finding
+	// Controls are the control measures the classes present may need, each
+	// with whether the setup declares it.
+	Controls []ControlCheck
 	// DefaultsAssumed lists default values the evaluation had to assume.
 	DefaultsAssumed []string
 }
@@ -268,7 +271,7 @@ func evaluateHazards(s *setup.Setup, b *budget.Budget) (*Hazards, error) {
 		byLaser[las] = ll
 		h.Lasers = append(h.Lasers, ll)
 		if ll.Class == "" {
-			h.Findings = append(h.Findings, budget.Finding{Severity: budget.SeverityAdvice, Kind: FindingClassNotAssessed,
+			h.Findings = append(h.Findings, budget.Finding{Severity: budget.SeverityNote, Kind: FindingClassNotAssessed,
 				Message: fmt.Sprintf("laser %q: class %s", las.Name, ll.ClassNote)})
 		}
 	}
@@ -298,9 +301,14 @@ func evaluateHazards(s *setup.Setup, b *budget.Budget) (*Hazards, error) {
 		wg.Wait()
 	}
 	strayDefault, diffuseDefault := 0, 0
+	var refs []hazardRef
 	for _, r := range results {
 		h.Exposures = append(h.Exposures, r.exposures...)
 		h.Reflections = append(h.Reflections, r.reflections...)
+		for _, ref := range r.hazards {
+			ref.index += len(h.Findings)
+			refs = append(refs, ref)
+		}
 		h.Findings = append(h.Findings, r.findings...)
 		strayDefault += len(r.strayDefault)
 		diffuseDefault += len(r.diffuseDefault)
@@ -312,7 +320,11 @@ func evaluateHazards(s *setup.Setup, b *budget.Budget) (*Hazards, error) {
 		h.DefaultsAssumed = append(h.DefaultsAssumed, fmt.Sprintf("diffuse reflectance %g (conservative) at %d dump(s) or path end(s) without diffuse_reflectance", DefaultDiffuseReflectance, diffuseDefault))
 	}
 	h.Eyewear = eyewearNeeds(h)
+	controlHazards(s, h, h.Findings, refs)
 	h.Findings = append(h.Findings, checkEyewear(s, h.Eyewear)...)
+	checks, missing := CheckControls(s, h)
+	h.Controls = checks
+	h.Findings = append(h.Findings, missing...)
 	return h, nil
 }
 
@@ -321,6 +333,8 @@ type pathHazardResult struct {
 	exposures   []*Exposure
 	reflections []*Reflection
 	findings    []budget.Finding
+	// hazards ties each hazard finding to its lasers (indexes in findings)
+	hazards []hazardRef
 	// the elements (nil: the open end) where a default reflectance was
 	// assumed, each counted once however many beams reach it
 	strayDefault, diffuseDefault map[*setup.Element]bool
@@ -352,9 +366,13 @@ func pathHazards(own *budget.PathBudget, byLaser map[*setup.Laser]*LaserLimits) 
 	}
 	res.findings = append(res.findings, damage(own)...)
 	// The segments' findings come first, as they always have.
-	elementFindings := res.findings
-	res.findings = nil
+	elementFindings, elementHazards := res.findings, res.hazards
+	res.findings, res.hazards = nil, nil
 	res.combine()
+	for _, h := range elementHazards {
+		h.index += len(res.findings)
+		res.hazards = append(res.hazards, h)
+	}
 	res.findings = append(res.findings, elementFindings...)
 	return res
 }
@@ -462,7 +480,14 @@ func (res *pathHazardResult) segmentFinding(g []*Exposure) {
 	if worst.OpenEnd {
 		msg += fmt.Sprintf("; the escaping beam stays above the MPE for %s beyond the path's end (NOHD)", units.FormatDistance(worst.NOHD, MaxHazardDistance))
 	}
-	res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingExposure, Path: pb.Path.Name,
+	ref := hazardRef{index: len(res.findings)}
+	for _, e := range g {
+		ref.lasers = append(ref.lasers, e.Laser)
+		ref.eye = ref.eye || e.CombinedEyeRatio > 1
+		ref.skin = ref.skin || e.CombinedSkinRatio > 1
+	}
+	res.hazards = append(res.hazards, ref)
+	res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityHazard, Kind: FindingExposure, Path: pb.Path.Name,
 		Element: seg.After, At: worst.At, Message: msg}.Figure(worst.CombinedEyeRatio*ll.EyeIrradiance, ll.EyeIrradiance, "W/m2"))
 }
 
@@ -507,7 +532,8 @@ func (res *pathHazardResult) stray(pb *budget.PathBudget, ll *LaserLimits, r *bu
 	}
 	ref := res.leaving(pb, ll, r, &Reflection{Kind: ReflectionStray, Reflectance: R, Assumed: assumed, Surfaces: surfaces, Power: R * p})
 	if ref != nil {
-		res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingStray, Path: pb.Path.Name,
+		res.hazards = append(res.hazards, hazardRef{index: len(res.findings), lasers: []*LaserLimits{ll}, eye: true})
+		res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityHazard, Kind: FindingStray, Path: pb.Path.Name,
 			Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s%s): each of its %d surface(s) reflects %s (R = %g%s), %s × the eye MPE at the surface; block or enclose the back-reflection",
 				el.Index, el.Label(), beamNote(pb), surfaces, units.FormatPower(ref.Power), R, assumedNote(assumed), units.FormatRatio(ref.Ratio))}.Figure(ref.Irradiance, ll.EyeIrradiance, "W/m2"))
 	}
@@ -525,7 +551,8 @@ func (res *pathHazardResult) escaping(pb *budget.PathBudget, ll *LaserLimits, r 
 			budget.LossCombiner: "leaves the combiner's other port"}[l.Kind]
 		ref := res.leaving(pb, ll, r, &Reflection{Kind: ReflectionEscaping, Reflectance: l.Fraction / r.FractionIn, Surfaces: 1, Power: l.Fraction * pb.Laser.Power})
 		if ref != nil {
-			res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityAction, Kind: FindingEscaping, Path: pb.Path.Name,
+			res.hazards = append(res.hazards, hazardRef{index: len(res.findings), lasers: []*LaserLimits{ll}, eye: true})
+			res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityHazard, Kind: FindingEscaping, Path: pb.Path.Name,
 				Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s%s): %s %s, %s × the eye MPE; describe where it goes or end it in a rated dump",
 					el.Index, el.Label(), beamNote(pb), units.FormatPower(ref.Power), what, units.FormatRatio(ref.Ratio))}.Figure(ref.Irradiance, ll.EyeIrradiance, "W/m2"))
 		}
@@ -644,15 +671,15 @@ func damage(own *budget.PathBudget) []budget.Finding {
 					// Scale the rated fluence by √(τ/τ_rated) (common practice).
 					thr := el.DamageThreshold * math.Sqrt(las.PulseDuration/el.DamagePulseDuration)
 					if f > thr {
-						add(budget.SeverityAction, FindingDamage, beamNote(b.pb), fmt.Sprintf("peak fluence %s exceeds its damage threshold scaled to the pulse length, %s",
+						add(budget.SeverityDefect, FindingDamage, beamNote(b.pb), fmt.Sprintf("peak fluence %s exceeds its damage threshold scaled to the pulse length, %s",
 							units.FormatSI(f*1e-4, "J/cm²"), units.FormatSI(thr*1e-4, "J/cm²")), f, thr, "J/m2")
 					}
 				default:
-					add(budget.SeverityAdvice, FindingDamageUnchecked, beamNote(b.pb), "its damage threshold is for the other kind of emission (a linear power density for cw, a fluence for pulses); not checked", 0, 0, "")
+					add(budget.SeverityNote, FindingDamageUnchecked, beamNote(b.pb), "its damage threshold is for the other kind of emission (a linear power density for cw, a fluence for pulses); not checked", 0, 0, "")
 				}
 			}
 			if lpd > el.DamageThreshold {
-				add(budget.SeverityAction, FindingDamage, beamsNote(cw), fmt.Sprintf("linear power density %s/cm%s exceeds its damage threshold %s/cm at %s",
+				add(budget.SeverityDefect, FindingDamage, beamsNote(cw), fmt.Sprintf("linear power density %s/cm%s exceeds its damage threshold %s/cm at %s",
 					units.FormatPower(lpd/100), sumNote(cw), units.FormatPower(el.DamageThreshold/100), atMaxPower(cw)), lpd, el.DamageThreshold, "W/m")
 			}
 		}
@@ -662,7 +689,7 @@ func damage(own *budget.PathBudget) []budget.Finding {
 				peak += b.r.BeamIn.PeakIrradiance(b.p)
 			}
 			if peak > FiberFaceLimit {
-				add(budget.SeverityAction, FindingFibreFace, beamsNote(beams), fmt.Sprintf("the focused beam%s on the input face reach%s %s%s at %s, above the %s that common practice allows a clean silica face",
+				add(budget.SeverityDefect, FindingFibreFace, beamsNote(beams), fmt.Sprintf("the focused beam%s on the input face reach%s %s%s at %s, above the %s that common practice allows a clean silica face",
 					plural(beams, "", "s"), plural(beams, "es", ""), units.FormatIrradiance(peak), sumNote(beams), atMaxPower(beams), units.FormatIrradiance(FiberFaceLimit)), peak, FiberFaceLimit, "W/m2")
 			}
 		}
@@ -781,20 +808,35 @@ func checkEyewear(s *setup.Setup, needs []*EyewearNeed) []budget.Finding {
 		if n.OD <= 0 {
 			continue
 		}
+		var short []string
 		for _, ew := range s.Eyewear {
+			covered := false
 			for _, b := range ew.Bands {
-				if n.Wavelength >= b.From && n.Wavelength <= b.To && b.OD >= n.OD {
-					n.CoveredBy = append(n.CoveredBy, ew.Name)
+				ok, why := covers(b, n)
+				if ok {
+					covered = true
 					break
 				}
+				if n.Wavelength >= b.From && n.Wavelength <= b.To {
+					short = append(short, fmt.Sprintf("%q: %s", ew.Name, why))
+				}
+			}
+			if covered {
+				n.CoveredBy = append(n.CoveredBy, ew.Name)
 			}
 		}
 		if len(n.CoveredBy) == 0 {
 			msg := fmt.Sprintf("no declared eyewear gives OD %g at %s", n.OD, units.FormatNanometres(n.Wavelength))
+			if n.LBValid {
+				msg += fmt.Sprintf(" with EN 207 %s LB%d where marked", n.Mode, n.LB)
+			}
+			if len(short) > 0 {
+				msg += " (" + strings.Join(short, "; ") + ")"
+			}
 			if len(s.Eyewear) == 0 {
 				msg = fmt.Sprintf("no eyewear is declared; OD %g is needed at %s", n.OD, units.FormatNanometres(n.Wavelength))
 			}
-			out = append(out, budget.Finding{Severity: budget.SeverityAction, Kind: FindingEyewearGap, Message: msg})
+			out = append(out, budget.Finding{Severity: budget.SeverityDefect, Kind: FindingEyewearGap, Message: msg})
 		}
 	}
 	return out

@@ -754,11 +754,11 @@ func CloudFindings(clouds []*CloudResult) []budget.Finding {
 		if t := cr.Trap; t != nil {
 			switch {
 			case !t.Holds && t.HoldsWithoutGravity:
-				out = append(out, budget.Finding{Severity: budget.SeverityAction, Kind: FindingNoHold, Message: fmt.Sprintf("%s: the far-detuned beams make a trap that does not hold against gravity (it would without it); raise their power or add confinement along gravity", where)})
+				out = append(out, budget.Finding{Severity: budget.SeverityDrive, Kind: FindingNoHold, Message: fmt.Sprintf("%s: the far-detuned beams make a trap that does not hold against gravity (it would without it); raise their power or add confinement along gravity", where)})
 			case t.Holds:
 				off := math.Sqrt(numeric.Dot(t.Minimum, t.Minimum))
 				if rms := c.RMSAlong(normalizeOr(t.Minimum)); off > rms {
-					out = append(out, budget.Finding{Severity: budget.SeverityAdvice, Kind: FindingTrapOffset, Message: fmt.Sprintf("%s: the trap minimum lies %s from the cloud's position (more than its rms size there, %s); the force at the cloud is %.3g g",
+					out = append(out, budget.Finding{Severity: budget.SeverityNote, Kind: FindingTrapOffset, Message: fmt.Sprintf("%s: the trap minimum lies %s from the cloud's position (more than its rms size there, %s); the force at the cloud is %.3g g",
 						where, units.FormatLength(off), units.FormatLength(rms), t.ForceAtCloud)}.Figure(off, rms, "m"))
 				}
 			}
@@ -766,9 +766,9 @@ func CloudFindings(clouds []*CloudResult) []budget.Finding {
 		if g := cr.Goal; g != nil {
 			switch {
 			case g.Impossible != "":
-				out = append(out, budget.Finding{Severity: budget.SeverityAction, Kind: FindingCloudGoalImpossible, Message: fmt.Sprintf("%s: goal %s cannot be met: %s", where, g.Kind, g.Impossible)})
+				out = append(out, budget.Finding{Severity: budget.SeverityDrive, Kind: FindingCloudGoalImpossible, Message: fmt.Sprintf("%s: goal %s cannot be met: %s", where, g.Kind, g.Impossible)})
 			case !g.Met:
-				out = append(out, budget.Finding{Severity: budget.SeverityAction, Kind: FindingCloudGoalShort, Message: fmt.Sprintf("%s: goal %s is short by %.1f dB: it needs %.3g × the operating powers of %s", where, g.Kind, -g.MarginDB, g.Scale, laserNames(g.Lasers))}.Figure(g.Scale, 1, "1"))
+				out = append(out, budget.Finding{Severity: budget.SeverityDrive, Kind: FindingCloudGoalShort, Message: fmt.Sprintf("%s: goal %s is short by %.1f dB: it needs %.3g × the operating powers of %s", where, g.Kind, -g.MarginDB, g.Scale, laserNames(g.Lasers))}.Figure(g.Scale, 1, "1"))
 			}
 		}
 	}

@@ -210,7 +210,7 @@ func TestCloudTrapNotHoldingIsAFinding(t *testing.T) {
 		t.Fatalf("holds %v, without gravity %v", tr.Holds, tr.HoldsWithoutGravity)
 	}
 	fs := CloudFindings(cs)
-	if len(fs) != 1 || fs[0].Kind != FindingNoHold || fs[0].Severity != budget.SeverityAction {
+	if len(fs) != 1 || fs[0].Kind != FindingNoHold || fs[0].Severity != budget.SeverityDrive {
 		t.Errorf("findings %+v", fs)
 	}
 }

@@ -317,25 +317,25 @@ func DriveFindings(results []*AtomsResult) []budget.Finding {
 		if g := a.Goal; g != nil {
 			switch {
 			case g.Impossible != "":
-				out = append(out, budget.Finding{Severity: budget.SeverityAction, Kind: FindingGoalImpossible, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: goal %s cannot be met: %s", where, g.Kind, g.Impossible)})
+				out = append(out, budget.Finding{Severity: budget.SeverityDrive, Kind: FindingGoalImpossible, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: goal %s cannot be met: %s", where, g.Kind, g.Impossible)})
 			case !g.Met:
-				out = append(out, budget.Finding{Severity: budget.SeverityAction, Kind: FindingGoalShort, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: goal %s is short by %.1f dB at the laser: it needs %s from laser %q, whose operating power is %s",
+				out = append(out, budget.Finding{Severity: budget.SeverityDrive, Kind: FindingGoalShort, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: goal %s is short by %.1f dB at the laser: it needs %s from laser %q, whose operating power is %s",
 					where, g.Kind, -g.MarginDB, units.FormatPower(g.SourcePower), a.Path.Laser.Name, units.FormatPower(g.Available))}.Figure(g.Available, g.SourcePower, "W"))
 			}
 			if g.Kind == setup.GoalCollective && math.Abs(a.Detuning) > a.Transition.Gamma/2 {
-				out = append(out, budget.Finding{Severity: budget.SeverityAdvice, Kind: FindingCollectiveDetune, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the drive is %s from resonance (more than Γ/2); the collective threshold model assumes a resonant drive",
+				out = append(out, budget.Finding{Severity: budget.SeverityNote, Kind: FindingCollectiveDetune, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the drive is %s from resonance (more than Γ/2); the collective threshold model assumes a resonant drive",
 					where, units.FormatFrequency(a.Detuning/(2*math.Pi)))})
 			}
 		}
 		switch {
 		case a.NearLine != "" && a.Goal == nil:
-			out = append(out, budget.Finding{Severity: budget.SeverityAction, Kind: FindingNearOtherLine, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the light is %s from the line %s, within %d of its linewidths; the drive there is not evaluated (neither the far-detuned dipole formula nor the two-level figures of %s apply)",
+			out = append(out, budget.Finding{Severity: budget.SeverityDefect, Kind: FindingNearOtherLine, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the light is %s from the line %s, within %d of its linewidths; the drive there is not evaluated (neither the far-detuned dipole formula nor the two-level figures of %s apply)",
 				where, units.FormatFrequency(a.NearLineDetuning/(2*math.Pi)), a.NearLine, setup.FarDetuningFactor, a.Transition.Name)})
 		case !(a.Power > 0) && a.Goal == nil:
-			out = append(out, budget.Finding{Severity: budget.SeverityAdvice, Kind: FindingNoLight, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: %s", where, NoLightAtAtoms)})
+			out = append(out, budget.Finding{Severity: budget.SeverityNote, Kind: FindingNoLight, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: %s", where, NoLightAtAtoms)})
 		}
 		if a.DetuningSource == setup.DetuningFromWavelengths && !a.FarDetuned && a.NearLine == "" {
-			out = append(out, budget.Finding{Severity: budget.SeverityAdvice, Kind: FindingDetuningGuess, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the detuning %s comes from the wavelengths, which are not precise enough near resonance; state detuning on laser %q",
+			out = append(out, budget.Finding{Severity: budget.SeverityNote, Kind: FindingDetuningGuess, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the detuning %s comes from the wavelengths, which are not precise enough near resonance; state detuning on laser %q",
 				where, units.FormatFrequency(a.Detuning/(2*math.Pi)), a.Path.Laser.Name)})
 		}
 	}

@@ -178,7 +178,7 @@ func TestGoalSaturationByHand(t *testing.T) {
 
 func TestGoalShortIsAFinding(t *testing.T) {
 	a, f := goalFor(t, `goal = "saturation"`+"\n  goal_value = 1e5", "")
-	if a.Goal.Met || len(f) != 1 || f[0].Kind != FindingGoalShort || f[0].Severity != budget.SeverityAction {
+	if a.Goal.Met || len(f) != 1 || f[0].Kind != FindingGoalShort || f[0].Severity != budget.SeverityDrive {
 		t.Fatalf("goal %+v findings %+v", *a.Goal, f)
 	}
 	if !strings.Contains(f[0].Message, "short by") || !strings.Contains(f[0].Message, `laser "l"`) {

@@ -223,6 +223,22 @@ var SetupTables = []*TableSpec{
 		quantity("from", units.Length, true, "the band's shortest wavelength", `"740 nm"`),
 		quantity("to", units.Length, true, "the band's longest wavelength", `"1100 nm"`),
 		number("od", 0, 0, true, "the optical density over the band", "7"),
+		text("en207", false, "the band's EN 207 marking: test conditions (D, I, R, M) and scale number, several joined by +", `"D LB6 + IR LB7"`),
+	}},
+	{Name: "controls", Path: "[controls]", Doc: "the control measures in place", Keys: []KeySpec{
+		choice("eyewear", []string{EyewearWorn, ControlNone}, false, "worn: the [[eyewear]] entries are worn by everyone in the area while any laser is on (default none)", `"worn"`),
+		choice("entry", []string{EntryInterlock, EntryWarning, EntrySign, ControlNone}, false, "the strongest entry control at the area's doors (default none)", `"interlock"`),
+		choice("key_control", []string{KeyInPlace, ControlNone}, false, "in_place: the lasers' keys are held by a named person (default none)", `"in_place"`),
+		choice("warning_signs", []string{SignsPosted, ControlNone}, false, "posted: laser warning signs at the area's entrances (default none)", `"posted"`),
+		choice("training", []string{TrainingDone, ControlNone}, false, "completed: everyone who works in the area has had laser safety training (default none)", `"completed"`),
+		choice("perimeter", []string{PerimeterBarrier, ControlNone}, false, "barrier: a barrier around the table's edge stops beams that leave it (default none)", `"barrier"`),
+		with(quantity("perimeter_rating", units.Irradiance, false, "the irradiance the perimeter barrier withstands", `"100 W/cm2"`), "perimeter="+PerimeterBarrier),
+		text("procedure", false, "the written operating procedure's reference", `"LAB-SOP-12 rev. 2"`),
+		text("alignment_procedure", false, "the written alignment procedure's reference", `"LAB-ALIGN-3"`),
+		text("officer", false, "the laser safety officer's name", `"Dr. A. Example"`),
+		text("notes", false, "anything else the officer should know", `"curtain closed during alignment"`),
+	}, Needs: []Requirement{
+		{If: "perimeter", Is: PerimeterBarrier, AnyOf: []string{"perimeter_rating"}, Why: "a perimeter barrier needs the irradiance it withstands"},
 	}},
 }
 
@@ -244,6 +260,7 @@ var TopKeys = []KeySpec{
 	{Key: "path", Kind: ValTables, Table: "path", Doc: "the beam paths"},
 	{Key: "cloud", Kind: ValTables, Table: "cloud", Doc: "the atom clouds"},
 	{Key: "eyewear", Kind: ValTables, Table: "eyewear", Doc: "the eyewear the group holds"},
+	{Key: "controls", Table: "controls", Doc: "the control measures in place"},
 }
 
 func init() {

@@ -54,6 +54,9 @@ func (l *loader) setup(raw map[string]any) *Setup {
 		}
 		t.done()
 	}
+	if m := top.subtable("controls"); m != nil {
+		s.Controls = l.controls(m)
+	}
 	if !top.has("laser") {
 		l.addf(0, "", "the setup describes no laser ([[laser]] with name, wavelength, power and waist); there is nothing to evaluate")
 	}
@@ -311,6 +314,12 @@ func (l *loader) eyewear(i int, m map[string]any) *Eyewear {
 			bt.fail("od", "must not be negative, got %s", show(b["od"]))
 		}
 		band.OD = od
+		if band.EN207 = bt.str("en207", false); bt.has("en207") {
+			var err error
+			if band.Ratings, err = ParseEN207(band.EN207); err != nil {
+				bt.fail("en207", "%q: %v", band.EN207, err)
+			}
+		}
 		bt.done()
 		e.Bands = append(e.Bands, band)
 	}
@@ -510,4 +519,59 @@ func (t *table) integer(key string, def, lo, hi int) int {
 		return def
 	}
 	return int(n)
+}
+
+// controls reads [controls].
+func (l *loader) controls(m map[string]any) Controls {
+	t := l.table("[controls]", "controls", m).of(TableNamed("controls"))
+	c := Controls{Line: l.lines.line("", "controls")}
+	c.Eyewear = t.enum("eyewear", ControlNone, EyewearWorn, ControlNone)
+	c.Entry = t.enum("entry", ControlNone, EntryInterlock, EntryWarning, EntrySign, ControlNone)
+	c.KeyControl = t.enum("key_control", ControlNone, KeyInPlace, ControlNone)
+	c.WarningSigns = t.enum("warning_signs", ControlNone, SignsPosted, ControlNone)
+	c.Training = t.enum("training", ControlNone, TrainingDone, ControlNone)
+	c.Perimeter = t.enum("perimeter", ControlNone, PerimeterBarrier, ControlNone)
+	if c.Perimeter == PerimeterBarrier {
+		c.PerimeterRating = t.positive("perimeter_rating", units.Irradiance, true)
+	} else if t.has("perimeter_rating") {
+		t.get("perimeter_rating")
+		t.fail("perimeter_rating", "given without perimeter = \"barrier\"")
+	}
+	c.Procedure = t.str("procedure", false)
+	c.AlignmentProcedure = t.str("alignment_procedure", false)
+	c.Officer = t.str("officer", false)
+	c.Notes = t.str("notes", false)
+	t.done()
+	return c
+}
+
+// ParseEN207 reads an EN 207 marking: one or more parts joined by "+",
+// each test conditions (letters of D, I, R, M) and a scale number "LB1" to
+// "LB10" ("D LB6", "DIR LB5", "D LB5 + IR LB6"); a wavelength written in a
+// part ("D 1064 LB6") is allowed and not checked against the band.
+func ParseEN207(s string) ([]EN207Rating, error) {
+	var out []EN207Rating
+	for _, part := range strings.Split(s, "+") {
+		f := strings.Fields(part)
+		if len(f) < 2 {
+			return nil, fmt.Errorf("want test conditions and a scale number, e.g. \"D LB6\"")
+		}
+		conds, lb := f[0], f[len(f)-1]
+		n, err := strconv.Atoi(strings.TrimPrefix(lb, "LB"))
+		if !strings.HasPrefix(lb, "LB") || err != nil || n < 1 || n > 10 {
+			return nil, fmt.Errorf("%q is not a scale number LB1 to LB10", lb)
+		}
+		for _, w := range f[1 : len(f)-1] {
+			if _, err := strconv.Atoi(w); err != nil {
+				return nil, fmt.Errorf("%q is neither a wavelength in nm nor a scale number", w)
+			}
+		}
+		for _, c := range conds {
+			if !strings.ContainsRune("DIRM", c) {
+				return nil, fmt.Errorf("test condition %q is not one of D, I, R, M", c)
+			}
+			out = append(out, EN207Rating{Condition: string(c), LB: n})
+		}
+	}
+	return out, nil
 }

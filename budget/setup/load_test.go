@@ -4,6 +4,7 @@ import (
 	"errors"
 	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 )
@@ -160,5 +161,32 @@ func BenchmarkLoadDemo(b *testing.B) {
 		if _, err := Parse("table-c.toml", data); err != nil {
 			b.Fatal(err)
 		}
+	}
+}
+
+// EN 207 markings as eyewear prints them (EN 207: test conditions D, I, R,
+// M and scale numbers LB1 to LB10; common practice for the written form).
+func TestParseEN207(t *testing.T) {
+	for _, c := range []struct {
+		in   string
+		want []EN207Rating
+		ok   bool
+	}{
+		{"D LB6", []EN207Rating{{"D", 6}}, true},
+		{"DIR LB5", []EN207Rating{{"D", 5}, {"I", 5}, {"R", 5}}, true},
+		{"D 1064 LB6 + IR 1064 LB7", []EN207Rating{{"D", 6}, {"I", 7}, {"R", 7}}, true},
+		{"D LB11", nil, false},
+		{"X LB3", nil, false},
+		{"LB3", nil, false},
+		{"D LBx", nil, false},
+	} {
+		got, err := ParseEN207(c.in)
+		if (err == nil) != c.ok || (c.ok && !slices.Equal(got, c.want)) {
+			t.Errorf("%q: %v, %v; want %v", c.in, got, err, c.want)
+		}
+	}
+	b := EyewearBand{Ratings: []EN207Rating{{"D", 5}, {"I", 7}}}
+	if !b.Rates("D", 5) || b.Rates("D", 6) || !b.Rates("I", 6) || b.Rates("R", 1) {
+		t.Error("Rates")
 	}
 }

@@ -11,6 +11,8 @@ type Setup struct {
 	Paths   []*Path
 	Clouds  []*Cloud
 	Eyewear []*Eyewear
+	// Controls are the control measures the setup declares ([controls]).
+	Controls Controls
 	// Tolerances lists the values written as ranges or ± tolerances; every
 	// figure but the tolerance analysis uses their nominal values.
 	Tolerances []*Toleranced
@@ -303,10 +305,70 @@ type Eyewear struct {
 	Bands []EyewearBand
 }
 
-// EyewearBand is an optical density over a wavelength band, m.
+// EyewearBand is an optical density over a wavelength band, m, with the
+// band's EN 207 marking when the eyewear states one.
 type EyewearBand struct {
 	From, To, OD float64
+	// EN207 is the marking as written ("D LB6", "D LB5 + IR LB6"), "" when
+	// none is stated; Ratings is it read, one test condition and scale
+	// number each.
+	EN207   string
+	Ratings []EN207Rating
 }
+
+// EN207Rating is one part of an EN 207 marking: a test condition (D, I, R
+// or M) and its scale number LBn.
+type EN207Rating struct {
+	Condition string
+	LB        int
+}
+
+// Rates reports whether the band is marked for test condition mode at
+// scale number lb or more; a band with no marking rates nothing.
+func (b EyewearBand) Rates(mode string, lb int) bool {
+	for _, r := range b.Ratings {
+		if r.Condition == mode && r.LB >= lb {
+			return true
+		}
+	}
+	return false
+}
+
+// Controls are the control measures a setup declares, in the trade's words
+// ([controls]); a control not declared is taken as not in place.
+type Controls struct {
+	// Eyewear is "worn" when the [[eyewear]] entries are worn by everyone
+	// in the area while any laser is on.
+	Eyewear string
+	// Entry is the strongest entry control: "interlock", "warning_light",
+	// "sign" or "none".
+	Entry string
+	// KeyControl, WarningSigns and Training: "in_place", "posted",
+	// "completed", or "none".
+	KeyControl, WarningSigns, Training string
+	// Perimeter is "barrier" (around the table's edge) or "none";
+	// PerimeterRating the irradiance the barrier withstands, W/m².
+	Perimeter       string
+	PerimeterRating float64
+	// Procedure and AlignmentProcedure are the written procedures'
+	// references; Officer the laser safety officer's name; Notes free text.
+	Procedure, AlignmentProcedure, Officer, Notes string
+	// Line is the line of [controls], 0 when the table is absent.
+	Line int
+}
+
+// Control values.
+const (
+	EyewearWorn      = "worn"
+	EntryInterlock   = "interlock"
+	EntryWarning     = "warning_light"
+	EntrySign        = "sign"
+	ControlNone      = "none"
+	KeyInPlace       = "in_place"
+	SignsPosted      = "posted"
+	TrainingDone     = "completed"
+	PerimeterBarrier = "barrier"
+)
 
 // Where a goal must hold.
 const (

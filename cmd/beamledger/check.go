@@ -12,9 +12,10 @@ import (
 )
 
 type checkOptions struct {
-	file string
-	json bool
-	tol  toleranceFlags
+	file        string
+	json        bool
+	failOnGoals bool
+	tol         toleranceFlags
 }
 
 // toleranceFlags are the tolerance analysis's flags, shared by check and
@@ -48,11 +49,14 @@ each atom cloud the irradiance, saturation, Rabi frequency, optical depth,
 dipole trap and the power each goal needs at the laser; the hazards against
 IEC 60825-1:2014 (open segments, escaping beams, reflections, damage, classes,
 eyewear) with their assumptions; the power balance of each laser; and the
-findings.
+findings: defects (to fix before alignment, whatever the controls), hazards
+(exposures above the MPE, each controlled by a declared control or not),
+drive findings (planning, never safety) and notes.
 
 Powers in the budget are at each laser's operating power; hazards, ratings and
-escaping beams are judged at its maximum power. Exit status: 0 no finding
-needs action, 1 a finding needs action, 2 the setup could not be used.`,
+escaping beams are judged at its maximum power. Exit status: 0 no defect and
+no uncontrolled hazard, 1 a defect or an uncontrolled hazard (or, with
+--fail-on-goals, a drive goal not met), 2 the setup could not be used.`,
 		Example: `  beamledger check testdata/examples/table-c.toml
   beamledger check --json testdata/examples/table-c.toml`,
 		Args: cobra.ExactArgs(1),
@@ -62,6 +66,7 @@ needs action, 1 a finding needs action, 2 the setup could not be used.`,
 		},
 	}
 	cmd.Flags().BoolVar(&o.json, "json", false, "write JSON (SI units, unit-suffixed keys) instead of text")
+	cmd.Flags().BoolVar(&o.failOnGoals, "fail-on-goals", false, "exit 1 also when a drive goal is not met")
 	o.tol.add(cmd)
 	return cmd
 }
@@ -87,7 +92,7 @@ func (e *env) runCheck(o *checkOptions) error {
 	if err != nil {
 		return err
 	}
-	if a.NeedsAction() {
+	if a.NeedsAction() || (o.failOnGoals && a.GoalsUnmet()) {
 		return errFindings
 	}
 	return nil

@@ -166,7 +166,7 @@ func TestReportWritesReproduciblePDF(t *testing.T) {
 	env := map[string]string{"SOURCE_DATE_EPOCH": "1767225600"} // 2026-01-01
 	for _, out := range []string{a, b} {
 		stdout, errOut, code := runCLIEnv(t, env, "report", "../../testdata/examples/table-c.toml", "-o", out)
-		if code != exitFindings || !strings.Contains(stdout, "2026-01-01") {
+		if code != exitOK || !strings.Contains(stdout, "2026-01-01") {
 			t.Fatalf("report: exit %d, %q, %q", code, stdout, errOut)
 		}
 	}
@@ -179,7 +179,7 @@ func TestReportWritesReproduciblePDF(t *testing.T) {
 	if _, errOut, code := runCLIEnv(t, env, "report", "../../testdata/examples/table-c.toml", "-o", a); code != exitBadInput || !strings.Contains(errOut, "--force") {
 		t.Errorf("overwrite without --force: exit %d, %q", code, errOut)
 	}
-	if _, _, code := runCLIEnv(t, env, "report", "../../testdata/examples/table-c.toml", "-o", a, "--force", "--date", "2026-03-04"); code != exitFindings {
+	if _, _, code := runCLIEnv(t, env, "report", "../../testdata/examples/table-c.toml", "-o", a, "--force", "--date", "2026-03-04"); code != exitOK {
 		t.Errorf("--force: exit %d", code)
 	}
 	if pc, _ := os.ReadFile(a); bytes.Equal(pc, pa) {

@@ -48,7 +48,11 @@ the hazards and the drive, as diff shows them.
 The date comes from --date, else from SOURCE_DATE_EPOCH, else today; the same
 setup, tool version and date give the same bytes. The PDF is written to a
 temporary file beside OUT and renamed into place; an existing OUT is replaced
-only with --force, and nothing is written when the setup cannot be used.`,
+only with --force, and nothing is written when the setup cannot be used.
+
+Exit status: 0 once the document is written, whatever it finds (its job is
+the document; check is the gate), 2 when the setup could not be used or the
+document could not be written.`,
 		Example: `  beamledger report testdata/examples/table-c.toml -o table-c.pdf
   SOURCE_DATE_EPOCH=1767225600 beamledger report testdata/examples/table-c.toml -o table-c.pdf --force`,
 		Args: cobra.ExactArgs(1),
@@ -161,9 +165,6 @@ func (e *env) runReport(o *reportOptions) error {
 		if _, err := fmt.Fprintf(e.stdout, "wrote %s (the drawing of the beam paths)\n", o.diagram); err != nil {
 			return err
 		}
-	}
-	if a.NeedsAction() {
-		return errFindings
 	}
 	return nil
 }

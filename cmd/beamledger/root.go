@@ -14,15 +14,16 @@ import (
 
 // Exit statuses, decided here only.
 const (
-	exitOK       = 0 // every check within limits, every goal reached
-	exitFindings = 1 // a finding needs action (a limit exceeded, a goal short, an optic over its rating)
+	exitOK       = 0 // no defect and no uncontrolled hazard (check), the document written (report)
+	exitFindings = 1 // a defect or an uncontrolled hazard; with check --fail-on-goals also a drive goal not met
 	exitBadInput = 2 // the input could not be used
 )
 
 // version of the tool, printed by `version` and recorded in reports.
 var version = "0.1.0"
 
-// errFindings is returned by a command whose run produced action findings.
+// errFindings is returned by check when a defect or an uncontrolled hazard
+// (or, when asked, an unmet goal) was found.
 var errFindings = errors.New("findings need action")
 
 // env carries what commands take from outside: output streams and the clock.

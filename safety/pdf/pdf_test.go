@@ -143,7 +143,7 @@ func TestPDFValidAndComplete(t *testing.T) {
 	flat := strings.Join(strings.Fields(text), " ")
 	for _, want := range []string{
 		"Elongated cloud, table C", "Summary", "1 Sources", "2 Drawing of the beam paths", "3 Beam paths", "4 At the atoms", "5 At each cloud", "6 Hazards", "7 Eyewear",
-		"8 Where the limits come from", "9 Assumptions", "10 Cautions", "11 Sign-off", "Key", "Laser \"probe-amp\", 780.24 nm, Class 4", "×2700", "4 pick", "from memory", "Directive 2006/25/EC", "Reviewed by (laser safety officer)", "Approved by (responsible person)",
+		"8 Control measures", "9 Where the limits come from", "10 Assumptions", "11 Cautions", "12 Sign-off", "Control measures by class", "entry control (interlock or warning light): needed by Class 4", "Key", "Laser \"probe-amp\", 780.24 nm, Class 4", "×2700", "4 pick", "from memory", "Directive 2006/25/EC", "Reviewed by (laser safety officer)", "Approved by (responsible person)",
 		doc.SetupSHA256, "page 1 of", "2694", "25.7", "19.49 MHz", "µm", "W/cm²", "Ω/2π", "Δ/2π", "λ", "≤", "IEC 60825-1:2014",
 		"laser safety officer",
 	} {
@@ -155,10 +155,12 @@ func TestPDFValidAndComplete(t *testing.T) {
 	if n := strings.Count(flat, "Align at the lowest power that works"); n != 1 {
 		t.Errorf("the alignment practice appears %d times", n)
 	}
-	// Findings of one kind on one path share a line: the demo's 26 action
-	// findings take 10 lines.
-	if !strings.Contains(flat, "26 findings need action before alignment (10 lines in the findings list") || !strings.Contains(flat, "5 findings of kind stray_reflection") {
-		t.Errorf("the PDF does not group the demo's findings")
+	// Findings of one kind on one path share a line, with how they are
+	// controlled: the demo's five stray reflections on path "drive", all
+	// handled by the eyewear worn; page 1 gives the verdict.
+	if !strings.Contains(flat, "5 findings of kind stray_reflection") || !strings.Contains(flat, "Controlled by goggles-780-1064") ||
+		!strings.Contains(flat, "no defect and no hazard that a declared control does not handle") {
+		t.Errorf("the PDF does not group the demo's findings with their controls, or lacks the verdict")
 	}
 	if n := strings.Count(flat, doc.SetupSHA256); n < pages+1 {
 		t.Errorf("the hash appears %d times; want the title block and every footer (%d pages)", n, pages)

@@ -52,7 +52,7 @@ func Build(a *safety.Assessment, m Meta) *Document {
 	if len(f.Clouds) > 0 {
 		d.Sections = append(d.Sections, cloudsSection(f, lists["clouds"]))
 	}
-	d.Sections = append(d.Sections, hazards(lists), eyewear(lists["eyewear"]), provenance(lists["limits_used"]), assumptions(a), cautions(), signOff())
+	d.Sections = append(d.Sections, hazards(lists), eyewear(lists["eyewear"]), controls(a, lists["control_checks"]), provenance(lists["limits_used"]), assumptions(a), cautions(), signOff())
 	return d
 }
 
@@ -386,4 +386,15 @@ func cautions() Section {
 
 func signOff() Section {
 	return Section{Heading: "Sign-off", Blocks: []Block{{SignOff: SignOffRoles}}}
+}
+
+// controls is the section on the control measures: what the setup declares
+// and, for each measure a class may need, whether it is needed and in place.
+func controls(a *safety.Assessment, l *view.List) Section {
+	return Section{Heading: "Control measures", Blocks: []Block{
+		{Paragraph: "Declared in the setup's [controls]: " + safety.ControlSummary(a.Setup.Controls) + "."},
+		{Paragraph: l.Heading + ":"},
+		{Bullets: listLines(l)},
+		{Paragraph: "A hazard counts as controlled only by a control declared here: the eyewear worn, where it covers every wavelength on the hazard with the OD and, where marked, the EN 207 scale number needed; for the skin, training with a written procedure; for a beam leaving the table, a rated perimeter barrier. The laser safety officer confirms that each declared control is in place and adequate."},
+	}}
 }

@@ -41,7 +41,7 @@ func TestModelOrderAndWording(t *testing.T) {
 	for _, s := range doc.Sections {
 		heads = append(heads, s.Heading)
 	}
-	want := "Sources|Drawing of the beam paths|Beam paths|At the atoms|At each cloud, every beam counted together|Hazards|Eyewear|Where the limits come from|Assumptions|Cautions|Sign-off"
+	want := "Sources|Drawing of the beam paths|Beam paths|At the atoms|At each cloud, every beam counted together|Hazards|Eyewear|Control measures|Where the limits come from|Assumptions|Cautions|Sign-off"
 	if got := strings.Join(heads, "|"); got != want {
 		t.Errorf("sections %s, want %s", got, want)
 	}
@@ -85,7 +85,7 @@ func TestModelSince(t *testing.T) {
 	if err := doc.WriteText(&b); err != nil {
 		t.Fatal(err)
 	}
-	for _, want := range []string{"Elongated cloud, table C, revision draft 3 (table-c.toml, SHA-256 e960c5f41f6f3479a6bc5c32144a05b85e2d2f31915b503752501b54f67fb4c2)", "[safety] changed laser \"probe-amp\": power: \"1.5 W\" → \"2 W\""} {
+	for _, want := range []string{"Elongated cloud, table C, revision draft 3 (table-c.toml, SHA-256 8b12622bc9edd140db0d4367632e11a1e47dcfc04725a9400f5729c39cde2a5f)", "[safety] changed laser \"probe-amp\": power: \"1.5 W\" → \"2 W\""} {
 		if !strings.Contains(b.String(), want) {
 			t.Errorf("the section lacks %q", want)
 		}

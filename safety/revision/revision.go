@@ -146,6 +146,8 @@ func (m *idMap) id(old bool, path string, element int) string {
 func setupChanges(ro, rn map[string]any, ids *idMap) []Change {
 	var out []Change
 	out = append(out, tableChanges("setup", "[setup]", table(ro["setup"]), table(rn["setup"]), ro["setup"] != nil, rn["setup"] != nil, metaAffects)...)
+	// Every control but the officer's notes is safety.
+	out = append(out, tableChanges("controls", "[controls]", table(ro["controls"]), table(rn["controls"]), ro["controls"] != nil, rn["controls"] != nil, func(k string) bool { return k != "notes" })...)
 	for _, k := range []string{"laser", "eyewear", "cloud"} {
 		affects := func(key string) bool { return k != "cloud" && !(k == "laser" && driveLaserKeys[key]) }
 		for _, p := range pairNamed(tables(ro[k]), tables(rn[k])) {
@@ -487,11 +489,12 @@ func hazardEntries(a *safety.Assessment, ids *idMap, old bool) map[string]entry 
 	}
 	counts := map[string]int{}
 	whats := map[string]string{}
+	uncontrolled := map[string]bool{}
 	for _, f := range a.Findings {
-		if f.Severity != budget.SeverityAction {
+		if f.Severity != budget.SeverityDefect && f.Severity != budget.SeverityHazard {
 			continue
 		}
-		what := string(f.Kind)
+		what := string(f.Severity) + " " + string(f.Kind)
 		if f.Path != "" {
 			what += fmt.Sprintf(", path %q", f.Path)
 			if f.Element > 0 {
@@ -502,9 +505,14 @@ func hazardEntries(a *safety.Assessment, ids *idMap, old bool) map[string]entry 
 		}
 		counts[what]++
 		whats[what] = what
+		uncontrolled[what] = uncontrolled[what] || f.Uncontrolled()
 	}
 	for what, n := range counts {
-		out["finding|"+what] = entry{"finding", whats[what], fmt.Sprintf("%d finding(s) that need action", n), map[string]float64{"count": float64(n)}}
+		state := "controlled"
+		if uncontrolled[what] {
+			state = "not controlled"
+		}
+		out["finding|"+what] = entry{"finding", whats[what], fmt.Sprintf("%d, %s", n, state), map[string]float64{"count": float64(n)}}
 	}
 	return out
 }
@@ -568,7 +576,7 @@ func unionKeys[V any](a, b map[string]V) []string {
 var hazardOrder = map[string]int{"class": 0, "open_segment": 1, "escaping_beam": 2, "stray_reflection": 3, "diffuse_zone": 4, "eyewear": 5, "finding": 6}
 
 func hazardMoved(a, b entry) bool {
-	if a.kind == "class" || a.kind == "eyewear" {
+	if a.kind == "class" || a.kind == "eyewear" || a.kind == "finding" {
 		return a.text != b.text
 	}
 	if len(a.figs) != len(b.figs) {

@@ -55,8 +55,8 @@ func TestShippedRevisions(t *testing.T) {
 		`[safety] added path "photodiode"`,
 		`[safety] removed path "trap", element 7 (dump) of the old revision`,
 		`OD 5 → eye 10200 × MPE, skin 143 × MPE, OD 5, open end, NOHD 33 m`,
-		`[safety] added finding: open_end, path "trap"`,
-		`power at cloud: path "drive", element 7 (atoms), laser "probe-amp": 344.4 mW → 438.4 mW`,
+		`[safety] added finding: defect open_end, path "trap"`,
+		`power at cloud: path "drive", element 7 (atoms), laser "probe-amp": 307 mW → 390.7 mW`,
 		`changed [setup]: revision: "draft 3" → "rev 4"`,
 	} {
 		if !strings.Contains(text.String(), want) {

@@ -344,11 +344,11 @@ func (b *builder) balancesList(a *safety.Assessment) *List {
 
 // findingLines is the sentence of every finding (shared: records' lines are
 // only read).
-var findingLines = []string{"[{severity}] {where}{message}"}
+var findingLines = []string{"[{severity}] {where}{message}{control}"}
 
 // groupedFindingLines is the sentence of a group of findings of one kind on
 // one path: the count and the worst of them.
-var groupedFindingLines = []string{"[{severity}] {where}{group}{message}"}
+var groupedFindingLines = []string{"[{severity}] {where}{group}{message}{control}"}
 
 // FindingGroups groups findings for people: findings of the same severity
 // and kind on the same path share one line, with their count and the worst
@@ -357,9 +357,10 @@ var groupedFindingLines = []string{"[{severity}] {where}{group}{message}"}
 // at the others; a finding alone, or not on a path, counts 1.
 func FindingGroups(fs []budget.Finding) []int {
 	type key struct {
-		sev  budget.Severity
-		kind budget.FindingKind
-		path string
+		sev     budget.Severity
+		kind    budget.FindingKind
+		path    string
+		control string
 	}
 	n := make([]int, len(fs))
 	worst := map[key]int{}
@@ -369,7 +370,7 @@ func FindingGroups(fs []budget.Finding) []int {
 			n[i] = 1
 			continue
 		}
-		k := key{f.Severity, f.Kind, f.Path}
+		k := key{f.Severity, f.Kind, f.Path, safety.ControlText(f)}
 		count[k]++
 		if w, ok := worst[k]; !ok || f.Ratio() > fs[w].Ratio() {
 			worst[k] = i
@@ -385,7 +386,7 @@ func (b *builder) findingsList(a *safety.Assessment) *List {
 	l := &List{Key: "findings", Empty: "none in what was evaluated (see the assumptions above)", Records: make([]Record, 0, len(a.Findings))}
 	groups := FindingGroups(a.Findings)
 	for i, f := range a.Findings {
-		r := Record{Members: b.members(11)}
+		r := Record{Members: b.members(13)}
 		r.F(Str(dSeverity, string(f.Severity))).F(Str(dFindingKind, string(f.Kind))).
 			F(Str(dFindingPath, f.Path)).F(Whole(dFindingElement, f.Element)).
 			F(Len(dFindingAtM, f.At)).F(Str(dMessage, f.Message))
@@ -400,6 +401,12 @@ func (b *builder) findingsList(a *safety.Assessment) *List {
 			where = "path " + strconv.Quote(f.Path) + ": "
 		}
 		r.F(Field{d: dGoalWhereText, Kind: String, Text: where, People: true})
+		control := ""
+		if f.Severity == budget.SeverityHazard {
+			r.F(StrList(dFindingControlledBy, f.ControlledBy))
+			control = " — " + strings.ToUpper(safety.ControlText(f)[:1]) + safety.ControlText(f)[1:]
+		}
+		r.F(Field{d: dFindingControl, Kind: String, Text: control, People: true})
 		switch n := groups[i]; {
 		case n == 1:
 			r.Lines = findingLines

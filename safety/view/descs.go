@@ -5,6 +5,25 @@ package view
 // with its descriptor (Num(dLaserPowerW, …)), so that every field of a kind
 // shares these strings. A new field gets its descriptor here.
 var (
+	dControlsEyewear                    = &Desc{"eyewear", "eyewear", "Controls.Eyewear"}
+	dControlsEntry                      = &Desc{"entry", "entry", "Controls.Entry"}
+	dControlsKeyControl                 = &Desc{"key_control", "key control", "Controls.KeyControl"}
+	dControlsWarningSigns               = &Desc{"warning_signs", "warning signs", "Controls.WarningSigns"}
+	dControlsTraining                   = &Desc{"training", "training", "Controls.Training"}
+	dControlsPerimeter                  = &Desc{"perimeter", "perimeter", "Controls.Perimeter"}
+	dControlsPerimeterRatingWM2         = &Desc{"perimeter_rating_w_m2", "perimeter rating", "Controls.PerimeterRating"}
+	dControlsProcedure                  = &Desc{"procedure", "procedure", "Controls.Procedure"}
+	dControlsAlignmentProcedure         = &Desc{"alignment_procedure", "alignment procedure", "Controls.AlignmentProcedure"}
+	dControlsOfficer                    = &Desc{"officer", "laser safety officer", "Controls.Officer"}
+	dControlsNotes                      = &Desc{"notes", "notes", "Controls.Notes"}
+	dControlCheckName                   = &Desc{"name", "control", "ControlCheck.Name"}
+	dControlCheckNeededBy               = &Desc{"needed_by", "needed by", "ControlCheck.NeededBy"}
+	dControlCheckNeeded                 = &Desc{"needed", "needed", ""}
+	dControlCheckInPlace                = &Desc{"in_place", "in place", "ControlCheck.InPlace"}
+	dControlCheckDeclared               = &Desc{"declared", "declared", "ControlCheck.Declared"}
+	dControlCheckStatus                 = &Desc{"status", "status", ""}
+	dFindingControlledBy                = &Desc{"controlled_by", "controlled by", "Finding.ControlledBy"}
+	dFindingControl                     = &Desc{"control", "control", ""}
 	dSamples                            = &Desc{"samples", "samples", "GoalTolerance.Samples"}
 	dSeed                               = &Desc{"seed", "seed", "GoalTolerance.Seed"}
 	dProbabilityMet                     = &Desc{"probability_met", "probability met", "GoalTolerance.ProbabilityMet"}

@@ -142,8 +142,11 @@ func (b *builder) hazards(a *safety.Assessment) hazardView {
 		}
 	}
 	v.provenance = provenanceList(rows)
+	declared, checks := b.controls(a)
 	v.json.L(v.lasers).L(v.exposures).L(v.reflections).L(v.eyewear).
 		F(StrList(dDefaultsAssumed, h.DefaultsAssumed)).L(v.provenance)
+	v.json.O("controls", declared, false)
+	v.json.L(checks)
 
 	blocks := []Block{{Indent: 1, Line: "assumptions:"}}
 	for _, as := range Assumptions(a.Setup) {
@@ -154,7 +157,8 @@ func (b *builder) hazards(a *safety.Assessment) hazardView {
 	}
 	blocks = append(blocks, Block{Indent: 1, List: v.lasers}, Block{Indent: 1, List: v.exposures},
 		Block{Indent: 1, List: v.stray}, Block{Indent: 1, List: v.escaping}, Block{Indent: 1, List: v.diffuse},
-		Block{Indent: 1, List: v.eyewear}, Block{Indent: 1, List: v.provenance}, Block{Indent: 1, Line: "Cautions"}, Block{Indent: 2, Bullets: Cautions})
+		Block{Indent: 1, List: v.eyewear}, Block{Indent: 1, Line: "controls declared: " + safety.ControlSummary(a.Setup.Controls)}, Block{Indent: 1, List: checks},
+		Block{Indent: 1, List: v.provenance}, Block{Indent: 1, Line: "Cautions"}, Block{Indent: 2, Bullets: Cautions})
 	v.section = Section{Heading: fmt.Sprintf("Hazards (%s)", safety.Standard), Blocks: blocks}
 	return v
 }
@@ -442,4 +446,41 @@ func (b *builder) pulsedRecord(p *limits.PulsedLimit, τ, f, T float64) *Record 
 	r.Line("  the {governing_rule} rule governs: {mpe_per_pulse_j_m2} per pulse, an average irradiance of {mpe_average_irradiance_w_m2}")
 	r.F(Sec(dExposureDurationS, T))
 	return r
+}
+
+// controls is the record of the declared controls and the list of the
+// control measures the classes present need.
+func (b *builder) controls(a *safety.Assessment) (*Record, *List) {
+	c := a.Setup.Controls
+	declared := &Record{}
+	declared.F(Str(dControlsEyewear, c.Eyewear)).F(Str(dControlsEntry, c.Entry)).F(Str(dControlsKeyControl, c.KeyControl)).
+		F(Str(dControlsWarningSigns, c.WarningSigns)).F(Str(dControlsTraining, c.Training)).F(Str(dControlsPerimeter, c.Perimeter))
+	if c.Perimeter == setup.PerimeterBarrier {
+		declared.F(Irr(dControlsPerimeterRatingWM2, c.PerimeterRating))
+	} else {
+		declared.F(Absent(dControlsPerimeterRatingWM2, false))
+	}
+	declared.F(Str(dControlsProcedure, c.Procedure)).F(Str(dControlsAlignmentProcedure, c.AlignmentProcedure)).
+		F(Str(dControlsOfficer, c.Officer)).F(Str(dControlsNotes, c.Notes))
+	l := &List{Key: "control_checks", Heading: "Control measures by class (" + safety.ControlsStandard + ", from memory; the laser safety officer decides)", Records: make([]Record, 0, len(a.Hazards.Controls))}
+	for _, cc := range a.Hazards.Controls {
+		r := Record{}
+		status := "not needed by the classes present"
+		switch {
+		case cc.NeededBy != "" && cc.InPlace:
+			status = "needed by " + cc.NeededBy + "; in place"
+		case cc.NeededBy != "":
+			status = "needed by " + cc.NeededBy + "; MISSING"
+		}
+		r.F(Str(dControlCheckName, cc.Name)).F(Str(dControlCheckNeededBy, cc.NeededBy)).
+			F(Flag(dControlCheckNeeded, cc.NeededBy != "", yesNo(cc.NeededBy != ""))).
+			F(Flag(dControlCheckInPlace, cc.InPlace, yesNo(cc.InPlace))).
+			F(Str(dControlCheckDeclared, cc.Declared)).
+			F(Field{d: dControlCheckStatus, Kind: String, Text: status, People: true})
+		prov := provenanceRecord(cc.Provenance)
+		r.O("provenance", &prov, false)
+		r.Line("{name}: {status} (declared: {declared})")
+		l.Records = append(l.Records, r)
+	}
+	return declared, l
 }

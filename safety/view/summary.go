@@ -12,34 +12,24 @@ import (
 // what, how many findings need action, which drive goals are met, the
 // highest class present, and the deference to the laser safety officer.
 func Summary(a *safety.Assessment) string {
-	action, advice := 0, 0
+	count := map[budget.Severity]int{}
+	uncontrolled := 0
 	for _, f := range a.Findings {
-		if f.Severity == budget.SeverityAction {
-			action++
-		} else {
-			advice++
+		count[f.Severity]++
+		if f.Severity == budget.SeverityHazard && len(f.ControlledBy) == 0 {
+			uncontrolled++
 		}
 	}
 	var b strings.Builder
 	fmt.Fprintf(&b, "This document evaluates the setup described in %s against %s and the drive goals it states. ", a.Setup.File, safety.Standard)
-	switch action {
-	case 0:
-		b.WriteString("No finding needs action before alignment under the stated assumptions")
-	case 1:
-		b.WriteString("1 finding needs action before alignment")
+	defects, hazards := count[budget.SeverityDefect], count[budget.SeverityHazard]
+	switch {
+	case defects == 0 && uncontrolled == 0:
+		b.WriteString("Under the stated assumptions it finds no defect and no hazard that a declared control does not handle")
 	default:
-		fmt.Fprintf(&b, "%d findings need action before alignment", action)
-		lines := 0
-		for i, n := range FindingGroups(a.Findings) {
-			if n > 0 && a.Findings[i].Severity == budget.SeverityAction {
-				lines++
-			}
-		}
-		if lines < action {
-			fmt.Fprintf(&b, " (%d lines in the findings list, where findings of one kind on one path share a line)", lines)
-		}
+		fmt.Fprintf(&b, "It finds %s to fix before alignment and %s that no declared control handles", plural(defects, "defect"), plural(uncontrolled, "uncontrolled hazard"))
 	}
-	fmt.Fprintf(&b, ", and %d more are advice. ", advice)
+	fmt.Fprintf(&b, "; %s in all (exposures above the MPE), %d controlled; %s and %s. ", plural(hazards, "hazard"), hazards-uncontrolled, plural(count[budget.SeverityDrive], "drive finding"), plural(count[budget.SeverityNote], "note"))
 	met, goals := 0, 0
 	var short []string
 	for _, at := range a.Atoms {
@@ -71,4 +61,12 @@ func Summary(a *safety.Assessment) string {
 	}
 	b.WriteString("These figures support, and never replace, the evaluation of the laser safety officer under local regulations; this document does not certify the setup as safe to use.")
 	return b.String()
+}
+
+// plural writes a count with its noun, "1 defect", "3 defects".
+func plural(n int, noun string) string {
+	if n == 1 {
+		return "1 " + noun
+	}
+	return fmt.Sprintf("%d %ss", n, noun)
 }

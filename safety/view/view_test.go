@@ -123,13 +123,13 @@ func TestFindingGroups(t *testing.T) {
 		return budget.Finding{Severity: sev, Kind: kind, Path: path}.Figure(ratio, 1, "W")
 	}
 	fs := []budget.Finding{
-		f(budget.SeverityAction, "stray_reflection", "a", 3),
-		f(budget.SeverityAction, "stray_reflection", "a", 9),
-		f(budget.SeverityAction, "stray_reflection", "b", 1),
-		f(budget.SeverityAdvice, "stray_reflection", "a", 50),
-		f(budget.SeverityAction, "eyewear_gap", "", 1),
-		f(budget.SeverityAction, "eyewear_gap", "", 2),
-		f(budget.SeverityAction, "stray_reflection", "a", 9),
+		f(budget.SeverityHazard, "stray_reflection", "a", 3),
+		f(budget.SeverityHazard, "stray_reflection", "a", 9),
+		f(budget.SeverityHazard, "stray_reflection", "b", 1),
+		f(budget.SeverityNote, "stray_reflection", "a", 50),
+		f(budget.SeverityDefect, "eyewear_gap", "", 1),
+		f(budget.SeverityDefect, "eyewear_gap", "", 2),
+		f(budget.SeverityHazard, "stray_reflection", "a", 9),
 	}
 	want := []int{0, 3, 1, 1, 1, 1, 0}
 	if got := FindingGroups(fs); !slices.Equal(got, want) {
