@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"slices"
+	"strings"
 
 	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/gonum/unit/constant"
@@ -112,6 +113,9 @@ type CloudGoal struct {
 	MarginDB   float64
 	Met        bool
 	Impossible string
+	// BeyondMaximum is set when a laser would need more than its maximum
+	// power: no setting of the lasers meets the goal.
+	BeyondMaximum bool
 }
 
 // field is the combined potential of far-detuned beams with gravity.
@@ -717,6 +721,7 @@ func (cr *CloudResult) goal() *CloudGoal {
 	g.Scale = hi
 	for _, las := range g.Lasers {
 		g.Needed = append(g.Needed, hi*las.OperatingPower)
+		g.BeyondMaximum = g.BeyondMaximum || hi*las.OperatingPower > las.Power
 	}
 	g.MarginDB = -units.Decibels(hi)
 	g.Met = hi <= 1
@@ -768,7 +773,11 @@ func CloudFindings(clouds []*CloudResult) []budget.Finding {
 			case g.Impossible != "":
 				out = append(out, budget.Finding{Severity: budget.SeverityDrive, Kind: FindingCloudGoalImpossible, Message: fmt.Sprintf("%s: goal %s cannot be met: %s", where, g.Kind, g.Impossible)})
 			case !g.Met:
-				out = append(out, budget.Finding{Severity: budget.SeverityDrive, Kind: FindingCloudGoalShort, Message: fmt.Sprintf("%s: goal %s is short by %.1f dB: it needs %.3g × the operating powers of %s", where, g.Kind, -g.MarginDB, g.Scale, laserNames(g.Lasers))}.Figure(g.Scale, 1, "1"))
+				msg := fmt.Sprintf("%s: goal %s is short by %.1f dB: it needs %.3g × the operating powers of %s", where, g.Kind, -g.MarginDB, g.Scale, laserNames(g.Lasers))
+				if g.BeyondMaximum {
+					msg += "; that is more than the maximum power of " + beyondNames(g) + ", so no setting of the lasers meets it"
+				}
+				out = append(out, budget.Finding{Severity: budget.SeverityDrive, Kind: FindingCloudGoalShort, Message: msg}.Figure(g.Scale, 1, "1"))
 			}
 		}
 	}
@@ -813,4 +822,16 @@ func trapDepthScale(a *AtomsResult, depth float64) (k float64, why string) {
 		return 0, "even a million times the power makes no trap that deep against gravity"
 	}
 	return k, ""
+}
+
+// beyondNames lists the lasers a cloud goal would take past their maximum
+// power, each with the power it would need and its maximum.
+func beyondNames(g *CloudGoal) string {
+	var parts []string
+	for i, las := range g.Lasers {
+		if g.Needed[i] > las.Power {
+			parts = append(parts, fmt.Sprintf("%q (needs %s, has at most %s)", las.Name, units.FormatPower(g.Needed[i]), units.FormatPower(las.Power)))
+		}
+	}
+	return strings.Join(parts, ", ")
 }

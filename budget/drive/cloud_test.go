@@ -230,6 +230,10 @@ func TestCloudGoalScale(t *testing.T) {
 	if !relNear(g.Scale, k, 1e-3) || !relNear(g.MarginDB, -10*math.Log10(k), 1e-2) || len(g.Needed) != 2 || !relNear(g.Needed[0], 5*k, 1e-3) {
 		t.Errorf("scale %g (want %g), margin %g dB, needed %v", g.Scale, k, g.MarginDB, g.Needed)
 	}
+	// The beams' maximum is their 5 W: a factor above 1 is beyond it.
+	if g.BeyondMaximum != (5*g.Scale > 5) {
+		t.Errorf("factor %g: beyond the maximum power %v", g.Scale, g.BeyondMaximum)
+	}
 }
 
 // Near-resonant beams: their saturation parameters add (incoherent), and

@@ -91,6 +91,10 @@ type GoalResult struct {
 	Available    float64 // W, the laser's operating power
 	MarginDB     float64
 	Met          bool
+	// BeyondMaximum is set when the source power needed exceeds the laser's
+	// maximum power, Maximum (W): no setting of the laser meets the goal.
+	BeyondMaximum bool
+	Maximum       float64
 	// Impossible explains why no power reaches the goal ("" otherwise).
 	Impossible string
 	Collective *atoms.Collective
@@ -294,6 +298,8 @@ func goalOf(b *budget.Budget, a *AtomsResult, e *setup.Element, full bool) *Goal
 	g.SourcePower = g.PowerAtAtoms / a.Row.FractionIn
 	g.MarginDB = units.Decibels(g.Available / g.SourcePower)
 	g.Met = g.Available >= g.SourcePower
+	g.Maximum = a.Path.Laser.Power
+	g.BeyondMaximum = g.SourcePower > g.Maximum
 	return g
 }
 
@@ -319,8 +325,12 @@ func DriveFindings(results []*AtomsResult) []budget.Finding {
 			case g.Impossible != "":
 				out = append(out, budget.Finding{Severity: budget.SeverityDrive, Kind: FindingGoalImpossible, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: goal %s cannot be met: %s", where, g.Kind, g.Impossible)})
 			case !g.Met:
-				out = append(out, budget.Finding{Severity: budget.SeverityDrive, Kind: FindingGoalShort, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: goal %s is short by %.1f dB at the laser: it needs %s from laser %q, whose operating power is %s",
-					where, g.Kind, -g.MarginDB, units.FormatPower(g.SourcePower), a.Path.Laser.Name, units.FormatPower(g.Available))}.Figure(g.Available, g.SourcePower, "W"))
+				msg := fmt.Sprintf("%s: goal %s is short by %.1f dB at the laser: it needs %s from laser %q, whose operating power is %s",
+					where, g.Kind, -g.MarginDB, units.FormatPower(g.SourcePower), a.Path.Laser.Name, units.FormatPower(g.Available))
+				if g.BeyondMaximum {
+					msg += fmt.Sprintf("; that is more than its maximum power of %s, so no setting of the laser meets it", units.FormatPower(g.Maximum))
+				}
+				out = append(out, budget.Finding{Severity: budget.SeverityDrive, Kind: FindingGoalShort, Path: p, Element: e.Index, At: e.At, Message: msg}.Figure(g.Available, g.SourcePower, "W"))
 			}
 			if g.Kind == setup.GoalCollective && math.Abs(a.Detuning) > a.Transition.Gamma/2 {
 				out = append(out, budget.Finding{Severity: budget.SeverityNote, Kind: FindingCollectiveDetune, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: the drive is %s from resonance (more than Γ/2); the collective threshold model assumes a resonant drive",

@@ -3,6 +3,7 @@ package drive
 import (
 	"fmt"
 	"math"
+	"os"
 	"strings"
 	"testing"
 
@@ -384,5 +385,41 @@ func TestGoalAtExitAndAll(t *testing.T) {
 	wx, wy := a.Row.BeamIn.Radii()
 	if f := col.FractionAbove(a.Goal.Intensity/20, wx, wy, 1); math.Abs(f-0.8) > 1e-3 || a.Goal.At != setup.GoalAtAll || a.Goal.Fraction != 0.8 {
 		t.Errorf("all: %g of the atoms above the goal at the goal's drive, want 0.8", f)
+	}
+}
+
+// A goal beyond the laser's maximum power: goal-short's probe needs more
+// than its 2 mW (its power and operating power), so no setting meets it;
+// the same laser able to give 3 mW at most, run at 2 mW, falls short but
+// could meet it (common practice: compare the need with the laser's
+// maximum, not only its operating point).
+func TestGoalBeyondMaximumPower(t *testing.T) {
+	src, err := os.ReadFile("../../testdata/examples/goal-short.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, c := range []struct {
+		power  string
+		beyond bool
+	}{{`power = "2 mW"`, true}, {`power = "3 mW"` + "\noperating_power = \"2 mW\"", false}} {
+		s, err := setup.Parse("g.toml", []byte(strings.Replace(string(src), `power = "2 mW"`, c.power, 1)))
+		if err != nil {
+			t.Fatal(err)
+		}
+		b, err := budget.Compute(s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		g := Evaluate(b)[0].Goal
+		if g.Met || g.BeyondMaximum != c.beyond || g.BeyondMaximum != (g.SourcePower > g.Maximum) || g.Maximum != s.Lasers[0].Power {
+			t.Errorf("%s: needs %g W, maximum %g W, beyond %v; want beyond %v", c.power, g.SourcePower, g.Maximum, g.BeyondMaximum, c.beyond)
+		}
+		msgs := ""
+		for _, f := range DriveFindings(Evaluate(b)) {
+			msgs += f.Message
+		}
+		if strings.Contains(msgs, "more than its maximum power") != c.beyond {
+			t.Errorf("%s: findings %q", c.power, msgs)
+		}
 	}
 }

@@ -171,7 +171,12 @@ func (b *builder) goalRecord(a *drive.AtomsResult, g *drive.GoalResult) *Record 
 	if !g.Met {
 		verdict = "NOT met"
 	}
+	if g.BeyondMaximum {
+		verdict += ", beyond the laser's maximum power"
+	}
 	r.F(Flag(dGoalResultMet, g.Met, verdict))
+	r.F(Pow(dGoalResultMaximumPowerW, g.Maximum)).
+		F(Flag(dGoalResultBeyondMaximum, g.BeyondMaximum, yesNo(g.BeyondMaximum)))
 	r.F(Field{d: dGoalResultImpossible, Kind: String, Text: g.Impossible, OmitEmpty: true})
 	if g.Kind != setup.GoalTrapDepth {
 		r.F(Str(dGoalAt, g.At))

@@ -155,7 +155,8 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 		}
 		goal.F(Num(dTargetSI, g.Target, target))
 		if g.Impossible != "" {
-			goal.F(Absent(dScaleFactor, false)).F(Absent(dCloudGoalMarginDb, false)).F(Flag(dCloudGoalMet, false, "no")).F(Str(dCloudGoalImpossible, g.Impossible))
+			goal.F(Absent(dScaleFactor, false)).F(Absent(dCloudGoalMarginDb, false)).F(Flag(dCloudGoalMet, false, "no")).F(Str(dCloudGoalImpossible, g.Impossible)).
+				F(Flag(dCloudGoalBeyondMaximum, false, "no"))
 			r.After = append(r.After, "  goal for the whole cloud: {goal.kind} {goal.target_si}: cannot be met: {goal.impossible}")
 		} else {
 			var needed []string
@@ -164,9 +165,10 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 			}
 			goal.F(Num(dScaleFactor, g.Scale, fmtG(g.Scale))).
 				F(Num(dCloudGoalMarginDb, g.MarginDB, fmt.Sprintf("%+.1f dB", g.MarginDB))).
-				F(Flag(dCloudGoalMet, g.Met, map[bool]string{true: "met", false: "NOT met"}[g.Met])).
+				F(Flag(dCloudGoalMet, g.Met, map[bool]string{true: "met", false: "NOT met"}[g.Met]+map[bool]string{true: ", beyond a laser's maximum power", false: ""}[g.BeyondMaximum])).
 				F(NumList(dNeededW, g.Needed, strings.Join(needed, ", "))).
-				F(Absent(dCloudGoalImpossible, true))
+				F(Absent(dCloudGoalImpossible, true)).
+				F(Flag(dCloudGoalBeyondMaximum, g.BeyondMaximum, yesNo(g.BeyondMaximum)))
 			r.After = append(r.After, "  goal for the whole cloud: {goal.kind} {goal.target_si} scaling {goal.lasers}: factor {goal.scale_factor} on their operating powers ({goal.needed_w}); margin {goal.margin_db}: {goal.met}")
 		}
 	}

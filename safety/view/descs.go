@@ -5,6 +5,9 @@ package view
 // with its descriptor (Num(dLaserPowerW, …)), so that every field of a kind
 // shares these strings. A new field gets its descriptor here.
 var (
+	dGoalResultMaximumPowerW            = &Desc{"maximum_power_w", "laser's maximum power", "GoalResult.Maximum"}
+	dGoalResultBeyondMaximum            = &Desc{"beyond_maximum_power", "beyond the maximum power", "GoalResult.BeyondMaximum"}
+	dCloudGoalBeyondMaximum             = &Desc{"beyond_maximum_power", "beyond the maximum power", "CloudGoal.BeyondMaximum"}
 	dControlsEyewear                    = &Desc{"eyewear", "eyewear", "Controls.Eyewear"}
 	dControlsEntry                      = &Desc{"entry", "entry", "Controls.Entry"}
 	dControlsKeyControl                 = &Desc{"key_control", "key control", "Controls.KeyControl"}

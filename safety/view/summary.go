@@ -2,6 +2,7 @@ package view
 
 import (
 	"beamledger/budget"
+	"beamledger/budget/units"
 	"beamledger/limits"
 	"beamledger/safety"
 	"fmt"
@@ -31,21 +32,48 @@ func Summary(a *safety.Assessment) string {
 	}
 	fmt.Fprintf(&b, "; %s in all (exposures above the MPE), %d controlled; %s and %s. ", plural(hazards, "hazard"), hazards-uncontrolled, plural(count[budget.SeverityDrive], "drive finding"), plural(count[budget.SeverityNote], "note"))
 	met, goals := 0, 0
-	var short []string
+	var short, beyond []string
 	for _, at := range a.Atoms {
 		if g := at.Goal; g != nil {
 			goals++
-			if g.Met {
+			what := fmt.Sprintf("%s on path %q, element %d", g.Kind, at.Path.Path.Name, at.Row.Element.Index)
+			switch {
+			case g.Met:
 				met++
-			} else {
-				short = append(short, fmt.Sprintf("%s on path %q", g.Kind, at.Path.Path.Name))
+			case g.BeyondMaximum:
+				beyond = append(beyond, fmt.Sprintf("%s (it needs %s from laser %q, whose maximum power is %s)", what, units.FormatPower(g.SourcePower), at.Path.Laser.Name, units.FormatPower(g.Maximum)))
+			default:
+				short = append(short, what)
+			}
+		}
+	}
+	for _, cr := range a.Clouds {
+		if g := cr.Goal; g != nil {
+			goals++
+			what := fmt.Sprintf("%s of cloud %q", g.Kind, cr.Cloud.Name)
+			switch {
+			case g.Met:
+				met++
+			case g.BeyondMaximum:
+				var needs []string
+				for i, las := range g.Lasers {
+					if g.Needed[i] > las.Power {
+						needs = append(needs, fmt.Sprintf("%s from laser %q, whose maximum power is %s", units.FormatPower(g.Needed[i]), las.Name, units.FormatPower(las.Power)))
+					}
+				}
+				beyond = append(beyond, fmt.Sprintf("%s (it needs %s)", what, strings.Join(needs, "; ")))
+			default:
+				short = append(short, what)
 			}
 		}
 	}
 	if goals > 0 {
-		fmt.Fprintf(&b, "Of %d drive goal(s), %d are met at the lasers' operating powers", goals, met)
+		fmt.Fprintf(&b, "Of %d drive goal(s) (at atoms elements and for whole clouds), %d are met at the lasers' operating powers", goals, met)
 		if len(short) > 0 {
 			fmt.Fprintf(&b, "; not met: %s", strings.Join(short, ", "))
+		}
+		if len(beyond) > 0 {
+			fmt.Fprintf(&b, "; not met even at the lasers' maximum powers: %s", strings.Join(beyond, ", "))
 		}
 		b.WriteString(". ")
 	}
