@@ -168,3 +168,47 @@ func TestClass4NeedsEntryControl(t *testing.T) {
 		}
 	}
 }
+
+// Alignment power by hand for one Gaussian beam: 10 mW at 780 nm with a
+// 1 mm waist at the output, in an enclosed segment to a dump at 1 m. The
+// worst point is the waist, where the 7 mm eye aperture takes the whole
+// beam (1 − exp(−2 · 3.5²/1²) = 1 − 2e-11): E = P/(π (3.5 mm)²). The MPE is
+// 10 C4 W/m², C4 = 10^(0.002 (780 − 700)) (IEC 60825-1:2014 Annex A, 400–
+// 1400 nm, 10 s, small source, from memory), so the ratio is 17.98 and the
+// highest power within the MPE is P / 18.0 (the ratio rounded up to three
+// figures) = 0.5556 mW; from 10 mW an attenuator of OD ⌈log10 18⌉ = 2. The
+// enclosed segment's figures are those of the opened segment and make no
+// finding.
+func TestAlignmentPowerByHand(t *testing.T) {
+	a := load(t, `[[laser]]
+name = "l"
+wavelength = "780 nm"
+power = "10 mW"
+waist = "1 mm"
+
+[[path]]
+name = "p"
+from = "l"
+access = "enclosed"
+  [[path.element]]
+  type = "dump"
+  at = "1 m"
+  rating = "1 W"
+`)
+	a3 := 3.5e-3
+	ratio := 10e-3 * (1 - math.Exp(-2*a3*a3/1e-6)) / (math.Pi * a3 * a3) / (10 * math.Pow(10, 0.002*80))
+	ll := a.Hazards.Lasers[0]
+	if want := 10e-3 / 18.0; math.Abs(ratio-17.98) > 0.01 || !(math.Abs(ll.AlignmentPower-want) <= 1e-9*want) || ll.AlignmentOD != 2 {
+		t.Errorf("alignment power %g W, OD %g; by hand %g W (ratio %g), OD 2", ll.AlignmentPower, ll.AlignmentOD, want, ratio)
+	}
+	if len(a.Hazards.Exposures) != 0 || len(a.Hazards.Enclosed) != 1 || !a.Hazards.Enclosed[0].Enclosed ||
+		!(math.Abs(a.Hazards.Enclosed[0].Ratio-ratio) <= 1e-3*ratio) {
+		t.Errorf("open %d, enclosed %d exposures; want the one enclosed, ratio %g", len(a.Hazards.Exposures), len(a.Hazards.Enclosed), ratio)
+	}
+	if fs := findingAt(a, FindingExposure, "p", 0); len(fs) != 0 {
+		t.Errorf("the enclosed segment made findings %+v", fs)
+	}
+	if got := AlignmentPower(1, 0.5); got != 1 {
+		t.Errorf("a beam within the MPE: alignment power %g, want the full power", got)
+	}
+}

@@ -65,6 +65,11 @@ type LaserLimits struct {
 	PulseEnergy, PeakPower float64
 	// EN207Mode is the EN 207 test condition of the source (D, I, R or M).
 	EN207Mode string
+	// AlignmentPower is the highest power at which every segment of the
+	// laser's beams, enclosed ones taken as opened, stays within the eye and
+	// skin MPE, W (AlignmentPower); AlignmentOD the optical density of an
+	// attenuator that brings the operating power down to it (0: none).
+	AlignmentPower, AlignmentOD float64
 }
 
 // Rows lists where every limit used for the laser comes from.
@@ -182,6 +187,9 @@ type Exposure struct {
 	CombinedEyeRatio, CombinedSkinRatio float64
 	Additive                            int
 	NOHD                                float64 // for an open end: distance beyond the last element, m
+	// Enclosed marks an enclosed segment's exposure, as when its enclosure
+	// is opened for alignment.
+	Enclosed bool
 }
 
 // ReflectionKind says how light leaves a path at a surface.
@@ -245,8 +253,12 @@ type EyewearNeed struct {
 
 // Hazards is the safety half of the assessment.
 type Hazards struct {
-	Lasers      []*LaserLimits
-	Exposures   []*Exposure
+	Lasers    []*LaserLimits
+	Exposures []*Exposure
+	// Enclosed are the exposures of the enclosed segments as they would be
+	// with the enclosure opened for alignment: figures only, never a
+	// finding (the enclosure controls them).
+	Enclosed    []*Exposure
 	Reflections []*Reflection
 	Eyewear     []*EyewearNeed
 	Findings    []budget.Finding
@@ -304,6 +316,7 @@ func evaluateHazards(s *setup.Setup, b *budget.Budget) (*Hazards, error) {
 	var refs []hazardRef
 	for _, r := range results {
 		h.Exposures = append(h.Exposures, r.exposures...)
+		h.Enclosed = append(h.Enclosed, r.enclosed...)
 		h.Reflections = append(h.Reflections, r.reflections...)
 		for _, ref := range r.hazards {
 			ref.index += len(h.Findings)
@@ -319,6 +332,16 @@ func evaluateHazards(s *setup.Setup, b *budget.Budget) (*Hazards, error) {
 	if diffuseDefault > 0 {
 		h.DefaultsAssumed = append(h.DefaultsAssumed, fmt.Sprintf("diffuse reflectance %g (conservative) at %d dump(s) or path end(s) without diffuse_reflectance", DefaultDiffuseReflectance, diffuseDefault))
 	}
+	for _, ll := range h.Lasers {
+		worst := 0.0
+		for _, e := range slices.Concat(h.Exposures, h.Enclosed) {
+			if e.Laser == ll {
+				worst = max(worst, e.Ratio, e.SkinRatio)
+			}
+		}
+		ll.AlignmentPower = AlignmentPower(ll.Laser.Power, worst)
+		ll.AlignmentOD = limits.OpticalDensity(ll.Laser.OperatingPower / ll.AlignmentPower)
+	}
 	h.Eyewear = eyewearNeeds(h)
 	controlHazards(s, h, h.Findings, refs)
 	h.Findings = append(h.Findings, checkEyewear(s, h.Eyewear)...)
@@ -331,6 +354,7 @@ func evaluateHazards(s *setup.Setup, b *budget.Budget) (*Hazards, error) {
 // pathHazardResult is what one path contributes to the hazards.
 type pathHazardResult struct {
 	exposures   []*Exposure
+	enclosed    []*Exposure
 	reflections []*Reflection
 	findings    []budget.Finding
 	// hazards ties each hazard finding to its lasers (indexes in findings)
@@ -381,7 +405,7 @@ func pathHazards(own *budget.PathBudget, byLaser map[*setup.Laser]*LaserLimits) 
 // NOHD of an open end. Its finding is made by combine, which knows the
 // other beams on the segment.
 func (res *pathHazardResult) segment(pb *budget.PathBudget, ll *LaserLimits, seg budget.Segment) {
-	if seg.Access != setup.AccessOpen || seg.Fraction <= 0 || seg.Arrival {
+	if seg.Access == setup.AccessVacuum || seg.Fraction <= 0 || seg.Arrival {
 		return
 	}
 	p := seg.Fraction * pb.Laser.Power
@@ -401,18 +425,33 @@ func (res *pathHazardResult) segment(pb *budget.PathBudget, ll *LaserLimits, seg
 	if e.OpenEnd {
 		e.NOHD = hazardDistance(seg.Beam, p, ll.EyeAperture, ll.EyeIrradiance)
 	}
+	if seg.Access == setup.AccessEnclosed {
+		e.Enclosed = true
+		res.enclosed = append(res.enclosed, e)
+		return
+	}
 	res.exposures = append(res.exposures, e)
 }
 
 // combine adds up the exposures of the beams that share a segment of the
-// path: each exposure's combined eye (skin) ratio is the sum of the ratios
-// on the segment whose effects on the eye (skin) add to its own
-// (limits.EffectsAdd), and its OD holds it to an equal share of the limit
-// (limits.SharedOD). It then makes one finding per segment above a limit.
+// path (combineShared), then makes one finding per open segment above a
+// limit; the enclosed segments, evaluated as when opened for alignment, are
+// combined alike and make no finding.
 func (res *pathHazardResult) combine() {
+	combineShared(res.enclosed)
+	for _, g := range combineShared(res.exposures) {
+		res.segmentFinding(g)
+	}
+}
+
+// combineShared groups exposures by segment: each exposure's combined eye
+// (skin) ratio is the sum of the ratios on the segment whose effects on the
+// eye (skin) add to its own (limits.EffectsAdd), and its OD holds it to an
+// equal share of the limit (limits.SharedOD).
+func combineShared(exposures []*Exposure) [][]*Exposure {
 	var order []int
 	groups := map[int][]*Exposure{}
-	for _, e := range res.exposures {
+	for _, e := range exposures {
 		k := e.Segment.After
 		if _, ok := groups[k]; !ok {
 			order = append(order, k)
@@ -446,8 +485,12 @@ func (res *pathHazardResult) combine() {
 				e.OD = limits.SharedOD(e.Ratio, e.Additive)
 			}
 		}
-		res.segmentFinding(g)
 	}
+	out := make([][]*Exposure, 0, len(order))
+	for _, k := range order {
+		out = append(out, groups[k])
+	}
+	return out
 }
 
 // segmentFinding is the finding of one segment whose exposures (one per
@@ -865,4 +908,16 @@ func segmentName(p *setup.Path, seg budget.Segment) string {
 		return fmt.Sprintf("from the start to element 1 (%s)", units.FormatLength(seg.To))
 	}
 	return fmt.Sprintf("between elements %d and %d (%s to %s)", seg.After, seg.After+1, units.FormatLength(seg.From), units.FormatLength(seg.To))
+}
+
+// AlignmentPower is the highest power of a source at which its worst
+// exposure, ratio times its limit at power p, stays within the limit: the
+// ratio scales with the power, so p / ratio, with the ratio rounded up to
+// the three figures printed (numeric.RoundUp: the power never rounds up);
+// p itself when the ratio is at most 1.
+func AlignmentPower(p, ratio float64) float64 {
+	if !(ratio > 1) {
+		return p
+	}
+	return p / numeric.RoundUp(ratio, 3)
 }

@@ -5,6 +5,9 @@ package view
 // with its descriptor (Num(dLaserPowerW, …)), so that every field of a kind
 // shares these strings. A new field gets its descriptor here.
 var (
+	dExposureEnclosed                   = &Desc{"enclosed", "enclosed", "Exposure.Enclosed"}
+	dAlignmentPowerW                    = &Desc{"alignment_power_w", "alignment power", "LaserLimits.AlignmentPower"}
+	dAlignmentAttenuatorOd              = &Desc{"alignment_attenuator_od", "alignment attenuator OD", "LaserLimits.AlignmentOD"}
 	dGoalResultMaximumPowerW            = &Desc{"maximum_power_w", "laser's maximum power", "GoalResult.Maximum"}
 	dGoalResultBeyondMaximum            = &Desc{"beyond_maximum_power", "beyond the maximum power", "GoalResult.BeyondMaximum"}
 	dCloudGoalBeyondMaximum             = &Desc{"beyond_maximum_power", "beyond the maximum power", "CloudGoal.BeyondMaximum"}

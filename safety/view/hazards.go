@@ -3,6 +3,7 @@ package view
 import (
 	"fmt"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -105,7 +106,7 @@ func (b *builder) hazards(a *safety.Assessment) hazardView {
 	}
 	v.exposures = &List{Key: "exposures", Heading: "Open segments (worst point; ratio = aperture-averaged irradiance ÷ MPE)", Empty: "no open segment carries light",
 		Columns: []string{"segment", "power_w", "aperture_irradiance_w_m2", "ratio", "od_required", "skin_ratio", "worst_at_m", "nohd"}, Records: make([]Record, 0, len(h.Exposures))}
-	for _, e := range h.Exposures {
+	for _, e := range slices.Concat(h.Exposures, h.Enclosed) {
 		v.exposures.Records = append(v.exposures.Records, b.exposureRecord(e))
 	}
 	v.reflections = &List{Key: "reflections", Records: make([]Record, 0, len(h.Reflections))}
@@ -196,7 +197,9 @@ func (b *builder) laserRecord(ll *safety.LaserLimits) Record {
 	r.O("eye_mpe_provenance", &eyeProv, false)
 	skinProv := provenanceRecord(ll.Skin.Provenance)
 	r.O("skin_mpe_provenance", &skinProv, false)
+	r.F(Pow(dAlignmentPowerW, ll.AlignmentPower)).F(Plain(dAlignmentAttenuatorOd, ll.AlignmentOD))
 	r.Line(las.Name + ": eye limit {eye_mpe_rule} ({eye_mpe_effect}; {eye_mpe_provenance.status}); class {class_note}")
+	r.Line(las.Name + ": for alignment at most {alignment_power_w}, every segment within the MPE with every enclosure opened; from the operating power an attenuator of OD {alignment_attenuator_od}")
 	if p := ll.Pulsed; p != nil {
 		r.F(Num(dPulseEnergyJ, ll.PulseEnergy, units.FormatSI(ll.PulseEnergy, "J"))).
 			F(Pow(dPeakPowerW, ll.PeakPower)).
@@ -260,7 +263,8 @@ func (b *builder) exposureRecord(e *safety.Exposure) Record {
 		F(Plain(dExposureOdRequired, e.OD)).
 		F(Irr(dSkinApertureIrradianceWM2, e.SkinIrr)).
 		F(Ratio(dSkinRatio, e.SkinRatio)).
-		F(Flag(dExposureOpenEnd, e.OpenEnd, yesNo(e.OpenEnd)))
+		F(Flag(dExposureOpenEnd, e.OpenEnd, yesNo(e.OpenEnd))).
+		F(Flag(dExposureEnclosed, e.Enclosed, yesNo(e.Enclosed)))
 	nohd := ""
 	switch {
 	case !e.OpenEnd:
@@ -304,6 +308,15 @@ func (b *builder) exposureRecord(e *safety.Exposure) Record {
 }
 
 func segLabel(e *safety.Exposure) string {
+	if e.Enclosed {
+		return segName(e) + " (enclosed; when opened for alignment)"
+	}
+	return segName(e)
+}
+
+// segName names an exposure's segment: its path and the elements it lies
+// between.
+func segName(e *safety.Exposure) string {
 	s := e.Segment
 	p := e.Path.Path
 	name := p.Name
