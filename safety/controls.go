@@ -308,3 +308,18 @@ func ControlText(f budget.Finding) string {
 	}
 	return "controlled by " + strings.Join(f.ControlledBy, ", ")
 }
+
+// LabelClassNote compares the class on a laser's label with the class
+// computed for its beam as used, at its maximum power ("" when they agree or
+// no label class is stated). 1M and 2M are not told apart from 1 and 2 by
+// the computation, so they agree with them.
+func LabelClassNote(label, computed string) string {
+	base := strings.TrimSuffix(label, "M")
+	switch {
+	case label == "" || base == computed:
+		return ""
+	case computed == "":
+		return fmt.Sprintf("labelled Class %s; the class of the beam as used was not assessed", label)
+	}
+	return fmt.Sprintf("labelled Class %s, but the beam as used, at its maximum power, is Class %s; the laser safety officer decides which governs", label, computed)
+}

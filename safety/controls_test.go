@@ -212,3 +212,18 @@ access = "enclosed"
 		t.Errorf("a beam within the MPE: alignment power %g, want the full power", got)
 	}
 }
+
+// A label class against the class computed for the beam as used: 1M and 2M
+// agree with 1 and 2 (the computation does not tell them apart); any other
+// difference, or a class not assessed, is said (common practice: the label
+// states the product's class, the beam as used may differ).
+func TestLabelClassNote(t *testing.T) {
+	for _, c := range []struct {
+		label, computed string
+		note            bool
+	}{{"", "4", false}, {"4", "4", false}, {"1M", "1", false}, {"2M", "2", false}, {"3R", "3B", true}, {"4", "", true}, {"3B", "4", true}} {
+		if got := LabelClassNote(c.label, c.computed); (got != "") != c.note {
+			t.Errorf("label %q, computed %q: %q", c.label, c.computed, got)
+		}
+	}
+}

@@ -207,6 +207,7 @@ const (
 // Finding kinds of the hazard evaluation.
 const (
 	FindingClassNotAssessed budget.FindingKind = "class_not_assessed"
+	FindingLabelClass       budget.FindingKind = "label_class_differs"
 	FindingExposure         budget.FindingKind = "exposure_above_mpe"
 	FindingStray            budget.FindingKind = "stray_reflection"
 	FindingEscaping         budget.FindingKind = "escaping_beam"
@@ -285,6 +286,9 @@ func evaluateHazards(s *setup.Setup, b *budget.Budget) (*Hazards, error) {
 		if ll.Class == "" {
 			h.Findings = append(h.Findings, budget.Finding{Severity: budget.SeverityNote, Kind: FindingClassNotAssessed,
 				Message: fmt.Sprintf("laser %q: class %s", las.Name, ll.ClassNote)})
+		}
+		if msg := LabelClassNote(las.LabelClass, ll.Class); msg != "" {
+			h.Findings = append(h.Findings, budget.Finding{Severity: budget.SeverityNote, Kind: FindingLabelClass, Message: fmt.Sprintf("laser %q: %s", las.Name, msg)})
 		}
 	}
 	// Paths are independent: evaluate them on all cores (a few paths are

@@ -22,6 +22,7 @@ const (
 	ValTriple   ValueKind = "triple"   // [x, y, z], three quantities
 	ValVector   ValueKind = "vector"   // [dx, dy, dz], three numbers
 	ValNames    ValueKind = "names"    // a list of names
+	ValTexts    ValueKind = "texts"    // a list of texts
 	ValByLaser  ValueKind = "by_laser" // an inline table of laser name = number
 	ValTables   ValueKind = "tables"   // an array of tables (Table names them)
 )
@@ -171,6 +172,11 @@ var SetupTables = []*TableSpec{
 		with(quantity("pulse_duration", units.Time, false, "pulsed: the pulse duration", `"7 ns"`), "emission="+EmissionPulsed, "repetition_rate"),
 		with(quantity("repetition_rate", units.Frequency, false, "pulsed: the repetition rate", `"10 Hz"`), "emission="+EmissionPulsed, "pulse_duration"),
 		quantity("detuning", units.Frequency, false, "the laser frequency minus the driven transition's", `"80 MHz"`),
+		text("maker", false, "inventory: the maker", `"Example Photonics"`),
+		text("model", false, "inventory: the model", `"TA-780"`),
+		text("serial", false, "inventory: the serial number", `"SN 0042"`),
+		choice("label_class", LabelClasses, false, "inventory: the class on the laser's label (compared with the class computed for the beam as used)", `"4"`),
+		text("location", false, "inventory: where the laser stands", `"table C, north end"`),
 	}, Needs: []Requirement{
 		{If: "emission", Is: EmissionPulsed, AnyOf: []string{"pulse_duration"}, Why: "a pulsed source needs its pulse duration"},
 		{If: "emission", Is: EmissionPulsed, AnyOf: []string{"repetition_rate"}, Why: "a pulsed source needs its repetition rate"},
@@ -225,6 +231,10 @@ var SetupTables = []*TableSpec{
 		number("od", 0, 0, true, "the optical density over the band", "7"),
 		text("en207", false, "the band's EN 207 marking: test conditions (D, I, R, M) and scale number, several joined by +", `"D LB6 + IR LB7"`),
 	}},
+	{Name: "signoff", Path: "[signoff]", Doc: "what the sign-off document carries for the officer", Keys: []KeySpec{
+		{Key: "conditions", Kind: ValTexts, Doc: "the officer's conditions, printed in the sign-off's conditions box", Example: `["align at 1 mW or less with the attenuator in place"]`},
+		text("review", false, "the date by which the setup is reviewed again (YYYY-MM-DD)", `"2027-06-01"`),
+	}},
 	{Name: "controls", Path: "[controls]", Doc: "the control measures in place", Keys: []KeySpec{
 		choice("eyewear", []string{EyewearWorn, ControlNone}, false, "worn: the [[eyewear]] entries are worn by everyone in the area while any laser is on (default none)", `"worn"`),
 		choice("entry", []string{EntryInterlock, EntryWarning, EntrySign, ControlNone}, false, "the strongest entry control at the area's doors (default none)", `"interlock"`),
@@ -261,6 +271,7 @@ var TopKeys = []KeySpec{
 	{Key: "cloud", Kind: ValTables, Table: "cloud", Doc: "the atom clouds"},
 	{Key: "eyewear", Kind: ValTables, Table: "eyewear", Doc: "the eyewear the group holds"},
 	{Key: "controls", Table: "controls", Doc: "the control measures in place"},
+	{Key: "signoff", Table: "signoff", Doc: "what the sign-off document carries for the officer"},
 }
 
 func init() {

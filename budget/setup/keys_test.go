@@ -131,7 +131,7 @@ func keysSetup(spec *TableSpec, kind ElementType, keys map[string]string) string
 			keys["type"] = fmt.Sprintf("%q", kind)
 		}
 		b.WriteString(lines("\n"))
-	case spec.Name == "setup" || spec.Name == "controls":
+	case spec.Name == "setup" || spec.Name == "controls" || spec.Name == "signoff":
 		b.WriteString("[" + spec.Name + "]\n" + lines("\n") + "\n\n" + keysBase)
 	case spec.Name == "band":
 		b.WriteString(keysBase + "\n[[eyewear]]\nname = \"tested\"\nbands = [{ " + lines(", ") + " }]\n")

@@ -262,6 +262,37 @@ func unprintable(s string) (rune, bool) {
 // name reads the name of a laser, path, element, cloud or pair of eyewear:
 // printable, at most MaxNameLength characters, without ":" (which joins a
 // path and an element name in a port reference such as "drive:pick").
+// texts reads a list of texts, each checked as str checks one.
+func (t *table) texts(key string) []string {
+	v, ok := t.get(key)
+	if !ok {
+		return nil
+	}
+	arr, isArr := v.([]any)
+	if !isArr || len(arr) == 0 {
+		t.fail(key, "want a list of texts, e.g. [\"first\", \"second\"]")
+		return nil
+	}
+	var out []string
+	for _, e := range arr {
+		s, isStr := e.(string)
+		if !isStr {
+			t.fail(key, "want texts, got %s", show(e))
+			return nil
+		}
+		if r, bad := unprintable(s); bad {
+			t.fail(key, "holds the control or direction character %U; text in a setup is printed in the sign-off and may hold no line breaks, tabs or control characters", r)
+			return nil
+		}
+		if n := utf8.RuneCountInString(s); n > MaxTextLength {
+			t.fail(key, "an entry is %d characters long, more than the %d a setup's text may have", n, MaxTextLength)
+			return nil
+		}
+		out = append(out, s)
+	}
+	return out
+}
+
 func (t *table) name(required bool) string {
 	s := t.str("name", required)
 	switch {

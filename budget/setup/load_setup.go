@@ -7,6 +7,7 @@ import (
 	"slices"
 	"strconv"
 	"strings"
+	"time"
 
 	"beamledger/budget/atoms"
 	"beamledger/budget/optics"
@@ -56,6 +57,16 @@ func (l *loader) setup(raw map[string]any) *Setup {
 	}
 	if m := top.subtable("controls"); m != nil {
 		s.Controls = l.controls(m)
+	}
+	if m := top.subtable("signoff"); m != nil {
+		t := l.table("[signoff]", "signoff", m).of(TableNamed("signoff"))
+		s.SignOff.Conditions = t.texts("conditions")
+		if s.SignOff.Review = t.str("review", false); s.SignOff.Review != "" {
+			if _, err := time.Parse("2006-01-02", s.SignOff.Review); err != nil {
+				t.fail("review", "%q is not a date written YYYY-MM-DD", s.SignOff.Review)
+			}
+		}
+		t.done()
 	}
 	if !top.has("laser") {
 		l.addf(0, "", "the setup describes no laser ([[laser]] with name, wavelength, power and waist); there is nothing to evaluate")
@@ -170,6 +181,8 @@ func (l *loader) laser(i int, m map[string]any) *Laser {
 	}
 	las.WaistAt, _ = t.pair("waist_at", units.Length, false, math.Inf(-1))
 	las.Emission = t.enum("emission", EmissionCW, EmissionValues...)
+	las.Maker, las.Model, las.Serial, las.Location = t.str("maker", false), t.str("model", false), t.str("serial", false), t.str("location", false)
+	las.LabelClass = t.enum("label_class", "", LabelClasses...)
 	if las.Emission == EmissionPulsed {
 		las.PulseDuration = t.positive("pulse_duration", units.Time, true)
 		if d := las.PulseDuration; d > 0 && (d < limits.MinDuration || d > limits.MaxDuration) {

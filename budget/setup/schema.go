@@ -148,6 +148,8 @@ func (b *schemaBuilder) keySchema(k *KeySpec) map[string]any {
 		s = map[string]any{"type": "array", "items": map[string]any{"type": "number"}, "minItems": 3, "maxItems": 3}
 	case ValNames:
 		s = map[string]any{"type": "array", "items": map[string]any{"type": "string"}, "minItems": 1}
+	case ValTexts:
+		s = map[string]any{"type": "array", "items": map[string]any{"type": "string", "maxLength": MaxTextLength}, "minItems": 1}
 	case ValByLaser:
 		s = map[string]any{"type": "object", "minProperties": 1, "additionalProperties": b.quantitySchema(&KeySpec{Dims: []units.Dimension{units.Dimensionless}})}
 	case ValTables:

@@ -13,6 +13,8 @@ type Setup struct {
 	Eyewear []*Eyewear
 	// Controls are the control measures the setup declares ([controls]).
 	Controls Controls
+	// SignOff is what the sign-off document carries for the officer.
+	SignOff SignOff
 	// Tolerances lists the values written as ranges or ± tolerances; every
 	// figure but the tolerance analysis uses their nominal values.
 	Tolerances []*Toleranced
@@ -83,7 +85,13 @@ type Laser struct {
 	Detuning float64
 	// DetuningSet is set when the setup states the detuning.
 	DetuningSet bool
+	// Inventory: maker, model, serial number, the class on the label ("" when
+	// not stated) and where the laser stands.
+	Maker, Model, Serial, LabelClass, Location string
 }
+
+// LabelClasses are the classes a laser's label may state.
+var LabelClasses = []string{"1", "1M", "2", "2M", "3R", "3B", "4"}
 
 // Access says what surrounds a segment of a path.
 type Access string
@@ -332,6 +340,13 @@ func (b EyewearBand) Rates(mode string, lb int) bool {
 		}
 	}
 	return false
+}
+
+// SignOff is the [signoff] table: the officer's conditions and the date
+// by which the setup is reviewed again ("" when not stated).
+type SignOff struct {
+	Conditions []string
+	Review     string
 }
 
 // Controls are the control measures a setup declares, in the trade's words

@@ -3,8 +3,10 @@ package report
 import (
 	"crypto/sha256"
 	"encoding/hex"
+	"slices"
 	"strings"
 
+	"beamledger/budget/setup"
 	"beamledger/safety"
 	"beamledger/safety/revision"
 	"beamledger/safety/view"
@@ -52,7 +54,7 @@ func Build(a *safety.Assessment, m Meta) *Document {
 	if len(f.Clouds) > 0 {
 		d.Sections = append(d.Sections, cloudsSection(f, lists["clouds"]))
 	}
-	d.Sections = append(d.Sections, hazards(lists), eyewear(lists["eyewear"]), controls(a, lists["control_checks"]), provenance(lists["limits_used"]), assumptions(a), cautions(), signOff())
+	d.Sections = append(d.Sections, hazards(lists), eyewear(lists["eyewear"]), controls(a, lists["control_checks"]), provenance(lists["limits_used"]), assumptions(a), cautions(), signOff(a.Setup.SignOff))
 	return d
 }
 
@@ -338,20 +340,30 @@ func hazards(lists map[string]*view.List) Section {
 		}
 	}
 	findings := listLines(lists["findings"])
-	sec.Blocks = append(sec.Blocks, Block{Subheading: "All findings (damage, ratings, goals and exposures), action first"}, Block{Bullets: actionFirst(findings)})
+	sec.Blocks = append(sec.Blocks, Block{Subheading: "All findings: defects, then uncontrolled hazards, controlled hazards, drive findings and notes"}, Block{Bullets: byVerdict(findings)})
 	return sec
 }
 
-func actionFirst(fs []string) []string {
-	var a, b []string
-	for _, f := range fs {
-		if strings.HasPrefix(f, "[action]") {
-			a = append(a, f)
-		} else {
-			b = append(b, f)
+// byVerdict orders finding lines for the officer: defects, uncontrolled
+// hazards, controlled hazards, drive findings, notes; each group keeps its
+// order.
+func byVerdict(fs []string) []string {
+	rank := func(f string) int {
+		switch {
+		case strings.HasPrefix(f, "[defect]"):
+			return 0
+		case strings.HasPrefix(f, "[hazard]") && strings.HasSuffix(f, "— Uncontrolled"):
+			return 1
+		case strings.HasPrefix(f, "[hazard]"):
+			return 2
+		case strings.HasPrefix(f, "[drive]"):
+			return 3
 		}
+		return 4
 	}
-	return append(a, b...)
+	out := slices.Clone(fs)
+	slices.SortStableFunc(out, func(a, b string) int { return rank(a) - rank(b) })
+	return out
 }
 
 func eyewear(l *view.List) Section {
@@ -384,17 +396,46 @@ func cautions() Section {
 	return Section{Heading: "Cautions", Blocks: []Block{{Bullets: view.Cautions}}}
 }
 
-func signOff() Section {
-	return Section{Heading: "Sign-off", Blocks: []Block{{SignOff: SignOffRoles}}}
+// signOff is the last section: the officer's decision (three boxes the
+// officer ticks by hand; the tool never ticks one), the conditions (the
+// setup's, or blank lines to write them on), the review date, and the
+// signatures.
+func signOff(so setup.SignOff) Section {
+	conditions := []Block{{Bullets: so.Conditions}}
+	if len(so.Conditions) == 0 {
+		line := Block{Paragraph: strings.Repeat("_", 90)}
+		conditions = []Block{line, line, line}
+	}
+	review := "Review by: " + strings.Repeat("_", 20) + " (YYYY-MM-DD)"
+	if so.Review != "" {
+		review = "Review by: " + so.Review + "."
+	}
+	blocks := []Block{
+		{Subheading: "The laser safety officer's decision (ticked by hand; this tool never ticks it)"},
+		{Paragraph: "[   ] approved        [   ] approved with the conditions below        [   ] not approved"},
+		{Subheading: "Conditions"},
+	}
+	blocks = append(blocks, conditions...)
+	blocks = append(blocks, Block{Paragraph: review}, Block{SignOff: SignOffRoles})
+	return Section{Heading: "Sign-off", Blocks: blocks}
 }
 
 // controls is the section on the control measures: what the setup declares
 // and, for each measure a class may need, whether it is needed and in place.
 func controls(a *safety.Assessment, l *view.List) Section {
+	t := &Table{Header: []string{"control measure", "needed by", "declared", "in place", "officer's check"}, Right: []bool{false, false, false, false, false}}
+	for i := range l.Records {
+		r := &l.Records[i]
+		needed := r.Field("needed_by").Text
+		if needed == "" {
+			needed = "not needed by the classes present"
+		}
+		t.Rows = append(t.Rows, []string{r.Field("name").Text, needed, r.Field("declared").Text, r.Field("in_place").Text, "[   ]"})
+	}
 	return Section{Heading: "Control measures", Blocks: []Block{
 		{Paragraph: "Declared in the setup's [controls]: " + safety.ControlSummary(a.Setup.Controls) + "."},
 		{Paragraph: l.Heading + ":"},
-		{Bullets: listLines(l)},
-		{Paragraph: "A hazard counts as controlled only by a control declared here: the eyewear worn, where it covers every wavelength on the hazard with the OD and, where marked, the EN 207 scale number needed; for the skin, training with a written procedure; for a beam leaving the table, a rated perimeter barrier. The laser safety officer confirms that each declared control is in place and adequate."},
+		{Table: t},
+		{Paragraph: "A hazard counts as controlled only by a control declared here: the eyewear worn, where it covers every wavelength on the hazard with the OD and, where marked, the EN 207 scale number needed; for the skin, training with a written procedure; for a beam leaving the table, a rated perimeter barrier. The laser safety officer confirms that each declared control is in place and adequate, and ticks the last column."},
 	}}
 }

@@ -42,7 +42,7 @@ func (c Change) Marked() string {
 }
 
 // setupKinds are the kinds of setup changes, whose What names the table.
-var setupKinds = map[string]bool{"setup": true, "laser": true, "path": true, "element": true, "cloud": true, "eyewear": true, "controls": true}
+var setupKinds = map[string]bool{"setup": true, "laser": true, "path": true, "element": true, "cloud": true, "eyewear": true, "controls": true, "signoff": true}
 
 // Heading names the two revisions: title, revision, file and SHA-256.
 func (s Side) Heading() string {

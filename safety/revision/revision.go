@@ -148,6 +148,9 @@ func setupChanges(ro, rn map[string]any, ids *idMap) []Change {
 	out = append(out, tableChanges("setup", "[setup]", table(ro["setup"]), table(rn["setup"]), ro["setup"] != nil, rn["setup"] != nil, metaAffects)...)
 	// Every control but the officer's notes is safety.
 	out = append(out, tableChanges("controls", "[controls]", table(ro["controls"]), table(rn["controls"]), ro["controls"] != nil, rn["controls"] != nil, func(k string) bool { return k != "notes" })...)
+	// The officer's conditions and review date are the officer's words, not
+	// the setup's hazards.
+	out = append(out, tableChanges("signoff", "[signoff]", table(ro["signoff"]), table(rn["signoff"]), ro["signoff"] != nil, rn["signoff"] != nil, func(string) bool { return false })...)
 	for _, k := range []string{"laser", "eyewear", "cloud"} {
 		affects := func(key string) bool { return k != "cloud" && !(k == "laser" && driveLaserKeys[key]) }
 		for _, p := range pairNamed(tables(ro[k]), tables(rn[k])) {
@@ -302,9 +305,9 @@ func tableChanges(kind, what string, old, new map[string]any, hadOld, hasNew boo
 	case !hadOld && !hasNew:
 		return nil
 	case !hadOld:
-		return []Change{{Change: "added", Kind: kind, What: what, New: summary(new), AffectsSafety: kind != "cloud" && !(kind == "setup" && !anyKey(new, affects))}}
+		return []Change{{Change: "added", Kind: kind, What: what, New: summary(new), AffectsSafety: kind != "cloud" && !((kind == "setup" || kind == "signoff" || kind == "controls") && !anyKey(new, affects))}}
 	case !hasNew:
-		return []Change{{Change: "removed", Kind: kind, What: what, Old: summary(old), AffectsSafety: kind != "cloud" && !(kind == "setup" && !anyKey(old, affects))}}
+		return []Change{{Change: "removed", Kind: kind, What: what, Old: summary(old), AffectsSafety: kind != "cloud" && !((kind == "setup" || kind == "signoff" || kind == "controls") && !anyKey(old, affects))}}
 	}
 	var out []Change
 	for _, k := range unionKeys(old, new) {

@@ -51,6 +51,9 @@ func Build(a *safety.Assessment) *Doc {
 	setup.F(Str(dFile, s.File)).F(Str(dTitle, s.Meta.Title)).F(Str(dSite, s.Meta.Site)).
 		F(Str(dPreparedBy, s.Meta.PreparedBy)).F(Str(dRevision, s.Meta.Revision))
 	d.JSON.O("setup", setup, false)
+	so := &Record{}
+	so.F(StrList(dSignoffConditions, s.SignOff.Conditions)).F(Str(dSignoffReview, s.SignOff.Review))
+	d.JSON.O("signoff", so, false)
 	d.JSON.F(Str(dPowerBasis, "operating_power"))
 	title := s.Meta.Title
 	if title == "" {
@@ -83,7 +86,14 @@ func Build(a *safety.Assessment) *Doc {
 	paths, atomsL, balances = b.pathsList(a), b.atomsList(a), b.balancesList(a)
 	wg.Wait()
 	d.JSON.L(paths)
-	d.Sections = append(d.Sections, Section{Blocks: []Block{{Line: title}, {Line: "setup file: " + s.File}, {List: paths}}})
+	head := []Block{{Line: title}, {Line: "setup file: " + s.File}}
+	if s.SignOff.Review != "" {
+		head = append(head, Block{Line: "review by: " + s.SignOff.Review})
+	}
+	for _, c := range s.SignOff.Conditions {
+		head = append(head, Block{Line: "officer's condition: " + c})
+	}
+	d.Sections = append(d.Sections, Section{Blocks: append(head, Block{List: paths})})
 
 	d.JSON.L(atomsL)
 	if len(atomsL.Records) > 0 {

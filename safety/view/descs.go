@@ -5,6 +5,14 @@ package view
 // with its descriptor (Num(dLaserPowerW, …)), so that every field of a kind
 // shares these strings. A new field gets its descriptor here.
 var (
+	dSignoffConditions                  = &Desc{"conditions", "conditions", "SignOff.Conditions"}
+	dSignoffReview                      = &Desc{"review", "review by", "SignOff.Review"}
+	dLaserMaker                         = &Desc{"maker", "maker", "Laser.Maker"}
+	dLaserModel                         = &Desc{"model", "model", "Laser.Model"}
+	dLaserSerial                        = &Desc{"serial", "serial", "Laser.Serial"}
+	dLaserLabelClass                    = &Desc{"label_class", "label", "Laser.LabelClass"}
+	dLaserLocation                      = &Desc{"location", "location", "Laser.Location"}
+	dInventory                          = &Desc{"inventory", "inventory", ""}
 	dExposureEnclosed                   = &Desc{"enclosed", "enclosed", "Exposure.Enclosed"}
 	dAlignmentPowerW                    = &Desc{"alignment_power_w", "alignment power", "LaserLimits.AlignmentPower"}
 	dAlignmentAttenuatorOd              = &Desc{"alignment_attenuator_od", "alignment attenuator OD", "LaserLimits.AlignmentOD"}

@@ -100,7 +100,7 @@ func (b *builder) hazards(a *safety.Assessment) hazardView {
 	v.json.F(Str(dStandard, safety.Standard)).
 		F(StrList(dAssumptions, Assumptions(a.Setup))).
 		F(StrList(dCautions, Cautions))
-	v.lasers = &List{Key: "lasers", Heading: "Sources", Columns: []string{"name", "wavelength_m", "power_w", "emission", "class_text", "eye_mpe_irradiance_w_m2", "skin_mpe_irradiance_w_m2", "duration_s", "eye_aperture_diameter_m"}, Records: make([]Record, 0, len(h.Lasers))}
+	v.lasers = &List{Key: "lasers", Heading: "Sources", Columns: []string{"name", "wavelength_m", "power_w", "emission", "class_text", "label_class", "eye_mpe_irradiance_w_m2", "skin_mpe_irradiance_w_m2", "duration_s", "eye_aperture_diameter_m"}, Records: make([]Record, 0, len(h.Lasers))}
 	for _, ll := range h.Lasers {
 		v.lasers.Records = append(v.lasers.Records, b.laserRecord(ll))
 	}
@@ -198,6 +198,12 @@ func (b *builder) laserRecord(ll *safety.LaserLimits) Record {
 	skinProv := provenanceRecord(ll.Skin.Provenance)
 	r.O("skin_mpe_provenance", &skinProv, false)
 	r.F(Pow(dAlignmentPowerW, ll.AlignmentPower)).F(Plain(dAlignmentAttenuatorOd, ll.AlignmentOD))
+	r.F(Str(dLaserMaker, las.Maker)).F(Str(dLaserModel, las.Model)).F(Str(dLaserSerial, las.Serial)).
+		F(Str(dLaserLabelClass, las.LabelClass)).F(Str(dLaserLocation, las.Location))
+	if inv := inventory(las); inv != "" {
+		r.F(Field{d: dInventory, Kind: String, Text: inv, People: true})
+		r.Line(las.Name + ": {inventory}")
+	}
 	r.Line(las.Name + ": eye limit {eye_mpe_rule} ({eye_mpe_effect}; {eye_mpe_provenance.status}); class {class_note}")
 	r.Line(las.Name + ": for alignment at most {alignment_power_w}, every segment within the MPE with every enclosure opened; from the operating power an attenuator of OD {alignment_attenuator_od}")
 	if p := ll.Pulsed; p != nil {
@@ -496,4 +502,23 @@ func (b *builder) controls(a *safety.Assessment) (*Record, *List) {
 		l.Records = append(l.Records, r)
 	}
 	return declared, l
+}
+
+// inventory writes a laser's inventory keys for people: "maker model,
+// serial S, labelled Class X, at L" ("" when none is stated).
+func inventory(las *setup.Laser) string {
+	var parts []string
+	if mm := strings.TrimSpace(las.Maker + " " + las.Model); mm != "" {
+		parts = append(parts, mm)
+	}
+	if las.Serial != "" {
+		parts = append(parts, "serial "+las.Serial)
+	}
+	if las.LabelClass != "" {
+		parts = append(parts, "labelled Class "+las.LabelClass)
+	}
+	if las.Location != "" {
+		parts = append(parts, "at "+las.Location)
+	}
+	return strings.Join(parts, ", ")
 }
