@@ -142,8 +142,8 @@ func TestPDFValidAndComplete(t *testing.T) {
 	}
 	flat := strings.Join(strings.Fields(text), " ")
 	for _, want := range []string{
-		"Elongated cloud, table C", "Summary", "1 Sources", "2 Drawing of the beam paths", "3 Beam paths", "4 At the atoms", "5 At each cloud", "6 Hazards", "7 Eyewear",
-		"8 Control measures", "9 Where the limits come from", "10 Assumptions", "11 Cautions", "12 Sign-off", "Control measures by class", "entry control (interlock or warning light)", "officer's check", "approved with the conditions below", "Review by:", "Key", "Laser \"probe-amp\", 780.24 nm, Class 4", "×2700", "4 pick", "from memory", "Directive 2006/25/EC", "Reviewed by (laser safety officer)", "Approved by (responsible person)",
+		"Elongated cloud, table C", "Summary", "1 At a glance", "For the laser safety officer", "No defect and no uncontrolled hazard", "For the physicist", "2 Sources", "3 Drawing of the beam paths", "4 Beam paths", "5 At the atoms", "6 At each cloud", "7 Hazards", "8 Eyewear",
+		"9 Control measures", "10 Where the limits come from", "11 Assumptions", "12 Cautions", "13 Sign-off", "Control measures by class", "entry control (interlock or warning light)", "officer's check", "approved with the conditions below", "Review by:", "Key", "Laser \"probe-amp\", 780.24 nm, Class 4", "×2700", "4 pick", "from memory", "Directive 2006/25/EC", "Reviewed by (laser safety officer)", "Approved by (responsible person)",
 		doc.SetupSHA256, "page 1 of", "2694", "25.7", "19.49 MHz", "µm", "W/cm²", "Ω/2π", "Δ/2π", "λ", "≤", "IEC 60825-1:2014",
 		"laser safety officer",
 	} {

@@ -43,6 +43,11 @@ func Build(a *safety.Assessment, m Meta) *Document {
 			lists[m.List.Key] = m.List
 		}
 	}
+	dg := view.BuildDigest(a)
+	d.Sections = append(d.Sections, Section{Heading: "At a glance", Blocks: []Block{
+		{Subheading: "For the laser safety officer"}, {Bullets: dg.Officer},
+		{Subheading: "For the physicist (at the operating powers)"}, {Bullets: dg.Physicist},
+	}})
 	if m.Since != nil {
 		d.Sections = append(d.Sections, since(m.Since))
 	}

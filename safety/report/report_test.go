@@ -41,7 +41,7 @@ func TestModelOrderAndWording(t *testing.T) {
 	for _, s := range doc.Sections {
 		heads = append(heads, s.Heading)
 	}
-	want := "Sources|Drawing of the beam paths|Beam paths|At the atoms|At each cloud, every beam counted together|Hazards|Eyewear|Control measures|Where the limits come from|Assumptions|Cautions|Sign-off"
+	want := "At a glance|Sources|Drawing of the beam paths|Beam paths|At the atoms|At each cloud, every beam counted together|Hazards|Eyewear|Control measures|Where the limits come from|Assumptions|Cautions|Sign-off"
 	if got := strings.Join(heads, "|"); got != want {
 		t.Errorf("sections %s, want %s", got, want)
 	}
@@ -78,8 +78,8 @@ func TestModelSince(t *testing.T) {
 		t.Fatal(err)
 	}
 	doc := Build(a, Meta{Date: "2026-01-02", ToolVersion: "test", SetupBytes: data, Since: r})
-	if doc.Sections[0].Heading != "Changes since the previous revision" {
-		t.Fatalf("first section %q", doc.Sections[0].Heading)
+	if doc.Sections[1].Heading != "Changes since the previous revision" {
+		t.Fatalf("second section %q, want the changes right after the digest", doc.Sections[1].Heading)
 	}
 	var b bytes.Buffer
 	if err := doc.WriteText(&b); err != nil {
