@@ -537,7 +537,7 @@ func (t *table) integer(key string, def, lo, hi int) int {
 // controls reads [controls].
 func (l *loader) controls(m map[string]any) Controls {
 	t := l.table("[controls]", "controls", m).of(TableNamed("controls"))
-	c := Controls{Line: l.lines.line("", "controls")}
+	var c Controls
 	c.Eyewear = t.enum("eyewear", ControlNone, EyewearWorn, ControlNone)
 	c.Entry = t.enum("entry", ControlNone, EntryInterlock, EntryWarning, EntrySign, ControlNone)
 	c.KeyControl = t.enum("key_control", ControlNone, KeyInPlace, ControlNone)

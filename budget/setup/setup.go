@@ -368,8 +368,6 @@ type Controls struct {
 	// Procedure and AlignmentProcedure are the written procedures'
 	// references; Officer the laser safety officer's name; Notes free text.
 	Procedure, AlignmentProcedure, Officer, Notes string
-	// Line is the line of [controls], 0 when the table is absent.
-	Line int
 }
 
 // Control values.

@@ -141,3 +141,29 @@ func TestElementMatching(t *testing.T) {
 		}
 	}
 }
+
+// Taking the eyewear off (a control removed) is a safety change, and the
+// hazards it controlled become uncontrolled; the officer's own conditions
+// and review date are not.
+func TestControlChanges(t *testing.T) {
+	data, err := os.ReadFile("../../testdata/examples/table-c.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	noEyewear := strings.Replace(string(data), `eyewear = "worn"`, `eyewear = "none"`, 1)
+	r := compare(t, revisionOf(t, "table-c.toml", data), revisionOf(t, "table-c.toml", []byte(noEyewear)))
+	if !r.AffectsSafety || len(r.Setup) != 1 || r.Setup[0].Kind != "controls" || r.Setup[0].Key != "eyewear" || !r.Setup[0].AffectsSafety {
+		t.Errorf("eyewear taken off: %+v", r.Setup)
+	}
+	var text bytes.Buffer
+	if err := Text(&text, r); err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(text.String(), "not controlled") {
+		t.Errorf("the hazards' controls do not show as changed:\n%s", text.String())
+	}
+	review := strings.Replace(string(data), `review = "2027-06-01"`, `review = "2027-12-01"`, 1)
+	if r := compare(t, revisionOf(t, "table-c.toml", data), revisionOf(t, "table-c.toml", []byte(review))); r.AffectsSafety || len(r.Setup) != 1 || r.Setup[0].Kind != "signoff" {
+		t.Errorf("a new review date: %+v", r)
+	}
+}

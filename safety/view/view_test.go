@@ -75,7 +75,7 @@ func TestFieldCoverage(t *testing.T) {
 	}
 	types := []any{budget.Row{}, budget.FiberCoupling{}, budget.PathBudget{}, budget.LaserBalance{}, budget.Segment{},
 		drive.AtomsResult{}, drive.DipoleResult{}, drive.GoalResult{}, atoms.Collective{},
-		safety.LaserLimits{}, safety.Exposure{}, safety.Reflection{}, safety.EyewearNeed{}, budget.Finding{}, limits.PulsedLimit{}, drive.CloudResult{}, drive.Trap{}, drive.CloudGoal{}, drive.CloudBeam{}, drive.GoalTolerance{}, drive.Contributor{}, setup.Toleranced{}}
+		safety.LaserLimits{}, safety.Exposure{}, safety.Reflection{}, safety.EyewearNeed{}, budget.Finding{}, limits.PulsedLimit{}, drive.CloudResult{}, drive.Trap{}, drive.CloudGoal{}, drive.CloudBeam{}, drive.GoalTolerance{}, drive.Contributor{}, setup.Toleranced{}, setup.Controls{}, setup.SignOff{}}
 	for _, v := range types {
 		typ := reflect.TypeOf(v)
 		for i := 0; i < typ.NumField(); i++ {
