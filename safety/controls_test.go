@@ -227,3 +227,32 @@ func TestLabelClassNote(t *testing.T) {
 		}
 	}
 }
+
+// A diffuse reflection is a hazard where its nominal hazard zone reaches
+// past the 100 mm from which an eye is taken to view it (IEC 60825-1:2014,
+// from memory): table-c's trap dump, 19.6 W on an assumed white surface,
+// r = √(ρP/(π MPE)) = 354 mm (DiffuseHazardRadius), controlled by the
+// eyewear worn; weak-probe's dump, 163 µW at ρ = 0.05, r = 0.42 mm, is
+// listed with the reflections only.
+func TestDiffuseZoneHazard(t *testing.T) {
+	a := load(t, example(t, "table-c.toml"))
+	fs := findingAt(a, FindingDiffuseZone, "trap", 7)
+	if len(fs) != 1 || !slices.Contains(fs[0].ControlledBy, "goggles-780-1064") || !strings.Contains(fs[0].Message, "354 mm") {
+		t.Errorf("trap dump: %+v", fs)
+	}
+	a = load(t, example(t, "weak-probe.toml"))
+	for _, f := range a.Findings {
+		if f.Kind == FindingDiffuseZone {
+			t.Errorf("a zone under 100 mm made a finding: %+v", f)
+		}
+	}
+	n := 0
+	for _, r := range a.Hazards.Reflections {
+		if r.Kind == ReflectionDiffuse && r.Radius > 0 && r.Radius < NearestViewing {
+			n++
+		}
+	}
+	if n == 0 {
+		t.Error("weak-probe's small diffuse zone is not listed")
+	}
+}

@@ -208,6 +208,7 @@ const (
 const (
 	FindingClassNotAssessed budget.FindingKind = "class_not_assessed"
 	FindingLabelClass       budget.FindingKind = "label_class_differs"
+	FindingDiffuseZone      budget.FindingKind = "diffuse_zone"
 	FindingExposure         budget.FindingKind = "exposure_above_mpe"
 	FindingStray            budget.FindingKind = "stray_reflection"
 	FindingEscaping         budget.FindingKind = "escaping_beam"
@@ -389,7 +390,7 @@ func pathHazards(own *budget.PathBudget, byLaser map[*setup.Laser]*LaserLimits) 
 				last = pb.Rows[n-1].Element
 			}
 			res.diffuseDefault[last] = true
-			res.reflections = append(res.reflections, diffuse(pb, last, ll, pb.EndFraction*pb.Laser.Power, DefaultDiffuseReflectance, true))
+			res.diffuseZone(pb, ll, diffuse(pb, last, ll, pb.EndFraction*pb.Laser.Power, DefaultDiffuseReflectance, true))
 		}
 	}
 	res.findings = append(res.findings, damage(own)...)
@@ -562,8 +563,38 @@ func (res *pathHazardResult) element(pb *budget.PathBudget, ll *LaserLimits, i i
 		if assumed {
 			res.diffuseDefault[el] = true
 		}
-		res.reflections = append(res.reflections, diffuse(pb, el, ll, p, ρ, assumed))
+		res.diffuseZone(pb, ll, diffuse(pb, el, ll, p, ρ, assumed))
 	}
+}
+
+// NearestViewing is the closest an eye is taken to view a diffuse
+// reflection from, m: 100 mm, the closest distance at which the eye
+// accommodates and at which the standard measures extended sources
+// (IEC 60825-1:2014, from memory). A nominal hazard zone no larger is listed
+// with the reflections but is not a hazard finding.
+const NearestViewing = 0.1
+
+// diffuseZone records a diffuse reflection and, when its nominal hazard
+// zone reaches past NearestViewing, the hazard of standing within it (an
+// eye exposure above the MPE that the eyewear worn can control).
+func (res *pathHazardResult) diffuseZone(pb *budget.PathBudget, ll *LaserLimits, rf *Reflection) {
+	res.reflections = append(res.reflections, rf)
+	if !(rf.Radius > NearestViewing) {
+		return
+	}
+	where, at := "what the beam leaving the path's end meets", 0.0
+	index := 0
+	if rf.Element != nil {
+		where, at, index = fmt.Sprintf("element %d (%s%s)", rf.Element.Index, rf.Element.Label(), beamNote(pb)), rf.Element.At, rf.Element.Index
+	}
+	if rf.Element != nil && rf.Element.Type != setup.TypeDump {
+		where = fmt.Sprintf("what the beam leaving the path after element %d (%s%s) meets", rf.Element.Index, rf.Element.Label(), beamNote(pb))
+		index = 0
+	}
+	res.hazards = append(res.hazards, hazardRef{index: len(res.findings), lasers: []*LaserLimits{ll}, eye: true})
+	res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityHazard, Kind: FindingDiffuseZone, Path: pb.Path.Name, Element: index, At: at,
+		Message: fmt.Sprintf("%s: its diffuse reflection of %s (ρ = %g%s) stays above the eye MPE within %s of it (nominal hazard zone, small-source MPE, viewed along the normal: conservative)",
+			where, units.FormatPower(rf.Power), rf.Reflectance, assumedNote(rf.Assumed), units.FormatDistance(rf.Radius, MaxHazardDistance))})
 }
 
 // stray evaluates the reflection of each of an element's surfaces, at the
