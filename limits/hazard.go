@@ -38,9 +38,10 @@ func OpticalDensity(ratio float64) float64 {
 	return math.Ceil(math.Log10(ratio) - 1e-12)
 }
 
-// EN 207 test conditions (emission types): D continuous (0.25 s and
-// longer), I long pulses (1 µs to 0.25 s), R Q-switched (1 ns to 1 µs), M
-// mode-locked (below 1 ns).
+// EN 207 test conditions (emission types): D continuous (pulses longer
+// than 0.25 s), I long pulses (longer than 1 µs, to 0.25 s), R Q-switched
+// (longer than 1 ns, to 1 µs), M mode-locked (1 ns and shorter), the
+// boundaries as EN 207 publishes them (from memory).
 const (
 	EN207D = "D"
 	EN207I = "I"
@@ -49,27 +50,33 @@ const (
 )
 
 // EN207Mode is the test condition of a source: D for continuous emission
-// (pulsed false) or pulses of 0.25 s and longer, else I, R or M by the pulse
-// duration τ (s).
+// (pulsed false) or pulses longer than 0.25 s, else I, R or M by the pulse
+// duration τ (s): I above 1 µs, R above 1 ns, M at 1 ns and below.
 func EN207Mode(pulsed bool, τ float64) string {
 	switch {
-	case !pulsed || τ >= 0.25:
+	case !pulsed || τ > 0.25:
 		return EN207D
-	case τ >= 1e-6:
+	case τ > 1e-6:
 		return EN207I
-	case τ >= 1e-9:
+	case τ > 1e-9:
 		return EN207R
 	}
 	return EN207M
 }
+
+// MaxEN207Scale is the highest scale number EN 207 rates a filter for: a
+// need beyond it has no rated filter.
+const MaxEN207Scale = 10
 
 // EN207Scale is the EN 207 scale number LB n in 315–1400 nm for the test
 // condition mode: the filter attenuates by 10^n (n ≥ od) and withstands, in
 // its column of the scale table, an irradiance of 10^(n+1) W/m² (D) or a
 // radiant exposure per pulse of 0.05·10^(n−1) J/m² (I, R) or
 // 1.5e-3·10^(n−1) J/m² (M). exposure is the irradiance for D and the radiant
-// exposure per pulse otherwise. n is at least 1 and at most 10; ok is false
-// outside 315–1400 nm, where this package gives no scale number.
+// exposure per pulse otherwise, of the beam itself (its power or energy
+// over the area of its 63 % diameter, which EN 207 rates against; from
+// memory). n is at least 1; above MaxEN207Scale no rated filter exists. ok
+// is false outside 315–1400 nm, where this package gives no scale number.
 func EN207Scale(λ float64, mode string, od, exposure float64) (n int, ok bool) {
 	if λ < 315e-9 || λ > 1400e-9 {
 		return 0, false
@@ -87,7 +94,7 @@ func EN207Scale(λ float64, mode string, od, exposure float64) (n int, ok bool) 
 		}
 		need = math.Max(need, math.Ceil(math.Log10(exposure/first)-1e-12)+1)
 	}
-	return int(math.Min(10, math.Max(1, need))), true
+	return int(math.Max(1, need)), true
 }
 
 // EN207Row is where the scale table comes from.

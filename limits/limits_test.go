@@ -462,6 +462,20 @@ func TestEN207(t *testing.T) {
 		{"R, 7 ns: 5 J/m² per pulse needs LB3", EN207R, 1, 5, 3, true, 7e-9, EN207R},
 		{"I, 1 ms: 0.05 J/m² is LB1", EN207I, 0, 0.05, 1, true, 1e-3, EN207I},
 		{"M, 100 fs: 1.5 J/m² needs LB4", EN207M, 2, 1.5, 4, true, 100e-15, EN207M},
+		// The beam's own power density, over the area of its 63 % diameter d
+		// (EN 207, from memory): 1 W in d = 1 mm at 1064 nm is
+		// 1/(π (0.5 mm)²) = 1.27e6 W/m², above LB5's 1e6: LB6; 0.1 W in
+		// 0.5 mm is 5.09e5 W/m²: LB5.
+		{"D, 1 W in 1 mm needs LB6", EN207D, 0, 1 / (math.Pi * 0.5e-3 * 0.5e-3), 6, false, 0, EN207D},
+		{"D, 0.1 W in 0.5 mm needs LB5", EN207D, 0, 0.1 / (math.Pi * 0.25e-3 * 0.25e-3), 5, false, 0, EN207D},
+		// Past the table: 1e12 W/m² would need LB11, which no filter has.
+		{"D, 1e12 W/m² is past LB10", EN207D, 0, 1e12, 11, false, 0, EN207D},
+		// The boundaries as published: D above 0.25 s, I above 1 µs, R
+		// above 1 ns (EN 207, from memory).
+		{"0.25 s is I", EN207I, 0, 0.05, 1, true, 0.25, EN207I},
+		{"just above 0.25 s is D", EN207D, 0, 1e2, 1, true, 0.2500001, EN207D},
+		{"1 µs is R", EN207R, 0, 0.05, 1, true, 1e-6, EN207R},
+		{"1 ns is M", EN207M, 0, 1.5e-3, 1, true, 1e-9, EN207M},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			if m := EN207Mode(c.pulsed, c.τ); m != c.wantMode {

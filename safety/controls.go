@@ -124,21 +124,13 @@ func controlHazards(s *setup.Setup, h *Hazards, findings []budget.Finding, refs 
 }
 
 // EndPeakIrradiance is the highest peak irradiance of a beam beyond the end
-// of its path, W/m², at the laser's maximum power: at the end, or at a waist
-// beyond it (I₀ = 2P/(π Wx Wy), optics.Beam.PeakIrradiance).
+// of its path, W/m², at the laser's maximum power (PeakAlong).
 func EndPeakIrradiance(pb *budget.PathBudget) float64 {
 	if len(pb.Segments) == 0 {
 		return 0
 	}
 	last := pb.Segments[len(pb.Segments)-1] // from the last element on (To is +Inf past an open end)
-	p := pb.EndFraction * pb.Laser.Power
-	beam := last.Beam
-	peak := beam.PeakIrradiance(p)
-	for _, pl := range []float64{beam.X.WaistDistance(), beam.Y.WaistDistance()} {
-		if pl > 0 {
-			peak = math.Max(peak, beam.Propagate(pl).PeakIrradiance(p))
-		}
-	}
+	peak, _ := PeakAlong(last.Beam, pb.EndFraction*pb.Laser.Power, math.Inf(1))
 	return peak
 }
 

@@ -38,7 +38,7 @@ func findingAt(a *Assessment, kind budget.FindingKind, path string, element int)
 	return out
 }
 
-const tableDEyewear = `bands = [{ from = "740 nm", to = "1100 nm", od = 5, en207 = "D LB5" }, { from = "520 nm", to = "540 nm", od = 5, en207 = "D LB3" }]`
+const tableDEyewear = `bands = [{ from = "740 nm", to = "1100 nm", od = 7, en207 = "D LB7" }, { from = "520 nm", to = "540 nm", od = 5, en207 = "D LB5" }]`
 
 // On table-d's shared segment (path "probe" after element 2) the probe's
 // 780.241 nm and the trap's 1064 nm beams add (TestSharedSegmentAddsByHand);
@@ -52,8 +52,8 @@ func TestSharedSegmentNeedsEveryWavelengthCovered(t *testing.T) {
 		name, bands string
 		want        []string
 	}{
-		{"780 nm only", `bands = [{ from = "740 nm", to = "800 nm", od = 5, en207 = "D LB5" }, { from = "520 nm", to = "540 nm", od = 5, en207 = "D LB4" }]`, []string{}},
-		{"780 and 1064 nm", `bands = [{ from = "740 nm", to = "1100 nm", od = 5, en207 = "D LB5" }, { from = "520 nm", to = "540 nm", od = 5, en207 = "D LB4" }]`, []string{"NIR and green", ControlAdministrative}},
+		{"780 nm only", `bands = [{ from = "740 nm", to = "800 nm", od = 7, en207 = "D LB7" }, { from = "520 nm", to = "540 nm", od = 5, en207 = "D LB6" }]`, []string{}},
+		{"780 and 1064 nm", `bands = [{ from = "740 nm", to = "1100 nm", od = 7, en207 = "D LB7" }, { from = "520 nm", to = "540 nm", od = 5, en207 = "D LB6" }]`, []string{"NIR and green", ControlAdministrative}},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			a := load(t, example(t, "table-d.toml", tableDEyewear, c.bands))
@@ -66,11 +66,14 @@ func TestSharedSegmentNeedsEveryWavelengthCovered(t *testing.T) {
 }
 
 // The 2 W, 532 nm sheet of table-d reaches 5.145 W/cm² over the eye
-// aperture, 2030 × the MPE: OD ⌈log10 2030⌉ = 4, and EN 207 condition D
-// asks LB n with 10^(n+1) W/m² ≥ 5.145e4 W/m² and n ≥ OD, so LB4 (EN 207
-// scale table, from memory). A band with OD 5 marked D LB3 has the OD and
-// not the scale number: the sheet's hazards are uncontrolled and the
-// eyewear falls short; marked D LB4, it covers them.
+// aperture, 2030 × the MPE: OD ⌈log10 2030⌉ = 4. Its scale number comes
+// from the beam's own power density where the sheet is narrowest,
+// 2P/(π Wx Wy) = 223.4 W/cm² (PeakAlong): condition D asks LB n with
+// 10^(n+1) W/m² ≥ 2.234e6 W/m², so LB6 (EN 207 scale table, from memory),
+// two above what the aperture-averaged irradiance would give. A band with
+// OD 5 marked D LB5 has the OD and not the scale number: the sheet's
+// hazards are uncontrolled and the eyewear falls short; marked D LB6, it
+// covers them.
 func TestEN207ScaleNumberTooLow(t *testing.T) {
 	a := load(t, example(t, "table-d.toml"))
 	fs := findingAt(a, FindingExposure, "sheet", 1)
@@ -83,17 +86,75 @@ func TestEN207ScaleNumberTooLow(t *testing.T) {
 			gap = append(gap, f.Message)
 		}
 	}
-	if len(gap) != 1 || !strings.Contains(gap[0], "532 nm") || !strings.Contains(gap[0], "marked D LB3, D LB4 needed") {
+	if len(gap) != 1 || !strings.Contains(gap[0], "532 nm") || !strings.Contains(gap[0], "marked D LB5, D LB6 needed") {
 		t.Errorf("eyewear findings %q, want the 532 nm scale number named", gap)
 	}
-	for _, n := range a.Hazards.Eyewear {
-		if n.Wavelength == 532e-9 && (n.OD != 4 || n.LB != 4 || !n.LBValid) {
-			t.Errorf("532 nm need: OD %g, LB%d; want OD 4, LB4", n.OD, n.LB)
+	beam := 0.0
+	for _, e := range a.Hazards.Exposures {
+		if e.Laser.Laser.Name == "sheet" {
+			beam = max(beam, e.BeamIrradiance)
 		}
 	}
-	a = load(t, example(t, "table-d.toml", `en207 = "D LB3"`, `en207 = "D LB4"`))
+	for _, n := range a.Hazards.Eyewear {
+		if n.Wavelength == 532e-9 && (n.OD != 4 || n.LB != 6 || !n.LBValid || n.BeamIrradiance != beam || math.Abs(beam-2.234e6) > 0.001e6) {
+			t.Errorf("532 nm need: OD %g, LB%d from %g W/m²; want OD 4, LB6 from the beam's %g W/m² (about 2.234e6)", n.OD, n.LB, n.BeamIrradiance, beam)
+		}
+	}
+	a = load(t, example(t, "table-d.toml", `en207 = "D LB5" }]`, `en207 = "D LB6" }]`))
 	if fs := findingAt(a, FindingExposure, "sheet", 1); len(fs) != 1 || !slices.Contains(fs[0].ControlledBy, "NIR and green") {
-		t.Errorf("marked D LB4: %+v, want the sheet's hazard controlled by the eyewear", fs)
+		t.Errorf("marked D LB6: %+v, want the sheet's hazard controlled by the eyewear", fs)
+	}
+}
+
+// A beam focused so tight that no EN 207 filter withstands it: 20 W at
+// 1064 nm with a 2 mm waist, focused by a 4 mm lens in the open, reaches a
+// power density past the 1e11 W/m² of LB10 (EN 207 scale table, from
+// memory): a defect that says to enclose the beam, and the scale number is
+// printed as beyond LB10.
+func TestNoEN207FilterIsADefect(t *testing.T) {
+	src := `[[laser]]
+name = "l"
+wavelength = "1064 nm"
+power = "20 W"
+waist = "2 mm"
+
+[[path]]
+name = "p"
+from = "l"
+  [[path.element]]
+  type = "lens"
+  at = "100 mm"
+  focal_length = "4 mm"
+  [[path.element]]
+  type = "dump"
+  at = "200 mm"
+  rating = "50 W"
+`
+	a := load(t, src)
+	var need *EyewearNeed
+	for _, n := range a.Hazards.Eyewear {
+		need = n
+	}
+	if need == nil {
+		t.Fatal("no eyewear need")
+	}
+	// At the focus W0 = λ f/(π W) = 1064e-9 · 4e-3/(π · 2e-3) = 0.677 µm,
+	// so 2P/(π W0²) = 2.8e13 W/m² (Siegman (1986) §17.1): LB13.
+	w0 := 1064e-9 * 4e-3 / (math.Pi * 2e-3)
+	e := 2 * 20 / (math.Pi * w0 * w0)
+	seg := a.HazardBudget.Path("p").Segments[1] // from the lens to the dump
+	if peak, at := PeakAlong(seg.Beam, seg.Fraction*20, seg.To-seg.From); !(math.Abs(peak-e) <= 0.02*e) || math.Abs(at-4e-3) > 0.1e-3 {
+		t.Errorf("PeakAlong %g W/m² at %g m after the lens; by hand %g W/m² at the focus, 4 mm", peak, at, e)
+	}
+	if !(math.Abs(need.BeamIrradiance-e) <= 0.02*e) || need.LB <= 10 {
+		t.Errorf("beam density %g W/m² (by hand %g), LB%d", need.BeamIrradiance, e, need.LB)
+	}
+	found := false
+	for _, f := range a.Findings {
+		found = found || (f.Kind == FindingNoEN207Filter && f.Severity == budget.SeverityDefect && strings.Contains(f.Message, "enclose the beam"))
+	}
+	if !found || !strings.Contains(need.EN207Label(), "beyond LB10") {
+		t.Errorf("no defect for a need past LB10 (%s)", need.EN207Label())
 	}
 }
 

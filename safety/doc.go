@@ -20,4 +20,6 @@
 //	| hazard distance | propagated until below the MPE | IEC closed form for a diverging beam | hazardDistance | TestHazardDistanceMatchesClosedForm |
 //	| diffuse hazard zone | r = √(ρP cos θ/(π MPE)) | Lambertian reflector, by hand | DiffuseHazardRadius | ExampleDiffuseHazardRadius |
 //	| linear power density on an optic | P/(2 min(Wx, Wy)), summed over the beams meeting there | common practice for cw damage ratings; by hand | LinearPowerDensity | TestDamageAddsOverSharedBeams |
+//	| a beam's own power density (EN 207's basis) | max over the segment of 2P/(π Wx Wy), P over the 63 % area | Siegman (1986) §17.1; EN 207 (from memory); by hand at a focus | PeakAlong | TestNoEN207FilterIsADefect |
+//	| alignment power | P / ratio, the ratio rounded up to three figures | the ratio scales with the power; by hand for one Gaussian beam | AlignmentPower | TestAlignmentPowerByHand |
 package safety

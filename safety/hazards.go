@@ -171,6 +171,11 @@ type Exposure struct {
 	SkinRatio  float64
 	OD         float64
 	PeakIrr    float64 // peak irradiance at the worst point, of the average power, W/m²
+	// BeamIrradiance is the beam's own highest power density on the
+	// segment, W/m²: its peak irradiance where it is narrowest (PeakAlong),
+	// at the average power; BeamPulseExposure its energy density per pulse,
+	// J/m² (pulsed). EN 207 scale numbers are rated against these.
+	BeamIrradiance, BeamPulseExposure float64
 	// For a pulsed source: the radiant exposure of one pulse averaged over
 	// the eye aperture (J/m²) and the peak irradiance during a pulse at the
 	// worst point (W/m²).
@@ -209,6 +214,7 @@ const (
 	FindingClassNotAssessed budget.FindingKind = "class_not_assessed"
 	FindingLabelClass       budget.FindingKind = "label_class_differs"
 	FindingDiffuseZone      budget.FindingKind = "diffuse_zone"
+	FindingNoEN207Filter    budget.FindingKind = "no_en207_filter"
 	FindingExposure         budget.FindingKind = "exposure_above_mpe"
 	FindingStray            budget.FindingKind = "stray_reflection"
 	FindingEscaping         budget.FindingKind = "escaping_beam"
@@ -247,10 +253,14 @@ type EyewearNeed struct {
 	// exposure of one pulse on an open segment, J/m² (pulsed modes).
 	PulseRadiantExposure float64
 	// Irradiance is the largest eye-aperture-averaged irradiance on an open
-	// segment at this wavelength, W/m²; the EN 207 scale number must
-	// withstand it.
+	// segment at this wavelength, W/m² (the basis of the OD).
 	Irradiance float64
-	CoveredBy  []string
+	// BeamIrradiance and BeamPulseExposure are the largest power density
+	// (W/m²) and energy density per pulse (J/m²) of a beam itself on an
+	// open segment at this wavelength: the EN 207 scale number must
+	// withstand them.
+	BeamIrradiance, BeamPulseExposure float64
+	CoveredBy                         []string
 }
 
 // Hazards is the safety half of the assessment.
@@ -423,7 +433,9 @@ func (res *pathHazardResult) segment(pb *budget.PathBudget, ll *LaserLimits, seg
 	e.Wavelengths = []float64{pb.Laser.Wavelength}
 	e.Lasers = []*setup.Laser{pb.Laser}
 	e.CombinedEyeRatio, e.CombinedSkinRatio, e.Additive = e.Ratio, e.SkinRatio, 1
+	e.BeamIrradiance, _ = PeakAlong(seg.Beam, p, seg.To-seg.From)
 	if las := pb.Laser; las.Emission == setup.EmissionPulsed {
+		e.BeamPulseExposure = optics.PulseEnergy(e.BeamIrradiance, las.RepetitionRate)
 		e.PulseRadiantExposure = optics.PulseEnergy(irr, las.RepetitionRate)
 		e.PulsePeakIrr = optics.PulsePeakPower(optics.PulseEnergy(e.PeakIrr, las.RepetitionRate), las.PulseDuration)
 	}
@@ -835,6 +847,8 @@ func eyewearNeeds(h *Hazards) []*EyewearNeed {
 		n.OD = math.Max(n.OD, e.OD)
 		n.Irradiance = math.Max(n.Irradiance, e.Irradiance)
 		n.PulseRadiantExposure = math.Max(n.PulseRadiantExposure, e.PulseRadiantExposure)
+		n.BeamIrradiance = math.Max(n.BeamIrradiance, e.BeamIrradiance)
+		n.BeamPulseExposure = math.Max(n.BeamPulseExposure, e.BeamPulseExposure)
 	}
 	for _, r := range h.Reflections {
 		if r.Kind != ReflectionDiffuse {
@@ -844,9 +858,9 @@ func eyewearNeeds(h *Hazards) []*EyewearNeed {
 	}
 	var out []*EyewearNeed
 	for _, n := range by {
-		exposure := n.Irradiance
+		exposure := n.BeamIrradiance
 		if n.Mode != limits.EN207D {
-			exposure = n.PulseRadiantExposure
+			exposure = n.BeamPulseExposure
 		}
 		n.LB, n.LBValid = limits.EN207Scale(n.Wavelength, n.Mode, n.OD, exposure)
 		out = append(out, n)
@@ -871,11 +885,14 @@ func (n *EyewearNeed) Coverage() string {
 	return "covered by " + strings.Join(n.CoveredBy, ", ")
 }
 
-// EN207Label is the EN 207 scale number for continuous emission, "—" where
+// EN207Label is the EN 207 scale number with its test condition, "—" where
 // none is given.
 func (n *EyewearNeed) EN207Label() string {
-	if !n.LBValid {
+	switch {
+	case !n.LBValid:
 		return "—"
+	case n.LB > limits.MaxEN207Scale:
+		return fmt.Sprintf("%s beyond LB%d", n.Mode, limits.MaxEN207Scale)
 	}
 	return fmt.Sprintf("%s LB%d", n.Mode, n.LB)
 }
@@ -885,6 +902,14 @@ func checkEyewear(s *setup.Setup, needs []*EyewearNeed) []budget.Finding {
 	for _, n := range needs {
 		if n.OD <= 0 {
 			continue
+		}
+		if n.LBValid && n.LB > limits.MaxEN207Scale {
+			density := units.FormatIrradiance(n.BeamIrradiance)
+			if n.Mode != limits.EN207D {
+				density = units.FormatSI(n.BeamPulseExposure, "J/m²") + " per pulse"
+			}
+			out = append(out, budget.Finding{Severity: budget.SeverityDefect, Kind: FindingNoEN207Filter,
+				Message: fmt.Sprintf("at %s a beam reaches %s itself, past what EN 207's LB%d withstands (condition %s): no EN 207-rated filter protects against it; enclose the beam", units.FormatNanometres(n.Wavelength), density, limits.MaxEN207Scale, n.Mode)})
 		}
 		var short []string
 		for _, ew := range s.Eyewear {

@@ -498,11 +498,15 @@ access = "enclosed"
 }
 
 // The invented Q-switched source (7 ns, 10 Hz, 50 mW average, a 1 mm waist)
-// is rated for condition R of EN 207, its scale number set by the radiant
-// exposure of one pulse over the 7 mm aperture: nearly all of 5 mJ in
-// π(3.5 mm)², 129.9 J/m², needs LB5 (0.05·10^(n−1) J/m² ≥ 129.9; EN 207
-// Scale table, from memory); the pulse energy is 50 mW / 10 Hz = 5 mJ and
-// the peak power 5 mJ / 7 ns = 714 kW (common practice).
+// is rated for condition R of EN 207. The radiant exposure of one pulse over
+// the 7 mm aperture, nearly all of 5 mJ in π(3.5 mm)², is 129.9 J/m² (the
+// OD's basis); the scale number comes from the beam's own energy density
+// per pulse where it is narrowest, at the window 150 mm after the f = 250 mm
+// lens: by the q parameter (Siegman (1986) §20.2), W = 0.4026 mm there, so
+// 2 · 0.99 · 5 mJ/(π W²) = 19441 J/m², which needs LB7 (0.05·10^(n−1) J/m²
+// ≥ 19441; EN 207 scale table, from memory). The pulse energy is
+// 50 mW / 10 Hz = 5 mJ and the peak power 5 mJ / 7 ns = 714 kW (common
+// practice).
 func TestPulsedSourceFigures(t *testing.T) {
 	s, err := setup.Load("../testdata/examples/ablation-pulse.toml")
 	if err != nil {
@@ -523,8 +527,8 @@ func TestPulsedSourceFigures(t *testing.T) {
 	if len(a.Hazards.Eyewear) != 1 {
 		t.Fatalf("%d eyewear needs", len(a.Hazards.Eyewear))
 	}
-	if n := a.Hazards.Eyewear[0]; n.Mode != limits.EN207R || !n.LBValid || n.LB != 5 || n.EN207Label() != "R LB5" {
-		t.Errorf("eyewear %s LB%d (%v)", n.Mode, n.LB, n.LBValid)
+	if n := a.Hazards.Eyewear[0]; n.Mode != limits.EN207R || !n.LBValid || n.LB != 7 || n.EN207Label() != "R LB7" || math.Abs(n.BeamPulseExposure-19441.4) > 0.1 {
+		t.Errorf("eyewear %s LB%d (%v) from %g J/m²", n.Mode, n.LB, n.LBValid, n.BeamPulseExposure)
 	}
 }
 

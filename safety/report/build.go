@@ -376,7 +376,7 @@ func eyewear(l *view.List) Section {
 	if len(l.Records) == 0 {
 		sec.Blocks = []Block{{Paragraph: "No open exposure was found to set an optical density."}}
 	} else {
-		sec.Blocks = []Block{{Bullets: listLines(l)}, {Paragraph: "OD is log10 of the largest exposure ratio at the wavelength, rounded up; the EN 207 scale number is given in 315–1400 nm with its test condition (D continuous, I long pulses, R Q-switched, M mode-locked), from the irradiance for D and the radiant exposure per pulse otherwise (scale table from memory)."}}
+		sec.Blocks = []Block{{Bullets: listLines(l)}, {Paragraph: "OD is log10 of the largest exposure ratio at the wavelength (aperture-averaged), rounded up; the EN 207 scale number is given in 315–1400 nm with its test condition (D continuous, I long pulses, R Q-switched, M mode-locked), from the beam's own largest power density (D) or energy density per pulse (I, R, M), its power over the area of its 63 % diameter (definition and scale table from memory); past LB10 no rated filter exists and the beam must be enclosed."}}
 	}
 	return sec
 }

@@ -5,6 +5,10 @@ package view
 // with its descriptor (Num(dLaserPowerW, …)), so that every field of a kind
 // shares these strings. A new field gets its descriptor here.
 var (
+	dEyewearNeedBeamIrradianceWM2       = &Desc{"beam_irradiance_w_m2", "beam power density", "EyewearNeed.BeamIrradiance"}
+	dEyewearNeedBeamPulseExposureJM2    = &Desc{"beam_pulse_exposure_j_m2", "beam energy density per pulse", "EyewearNeed.BeamPulseExposure"}
+	dExposureBeamIrradianceWM2          = &Desc{"beam_irradiance_w_m2", "beam power density", "Exposure.BeamIrradiance"}
+	dExposureBeamPulseExposureJM2       = &Desc{"beam_pulse_exposure_j_m2", "beam energy density per pulse", "Exposure.BeamPulseExposure"}
 	dSignoffConditions                  = &Desc{"conditions", "conditions", "SignOff.Conditions"}
 	dSignoffReview                      = &Desc{"review", "review by", "SignOff.Review"}
 	dLaserMaker                         = &Desc{"maker", "maker", "Laser.Maker"}

@@ -270,7 +270,13 @@ func (b *builder) exposureRecord(e *safety.Exposure) Record {
 		F(Irr(dSkinApertureIrradianceWM2, e.SkinIrr)).
 		F(Ratio(dSkinRatio, e.SkinRatio)).
 		F(Flag(dExposureOpenEnd, e.OpenEnd, yesNo(e.OpenEnd))).
-		F(Flag(dExposureEnclosed, e.Enclosed, yesNo(e.Enclosed)))
+		F(Flag(dExposureEnclosed, e.Enclosed, yesNo(e.Enclosed))).
+		F(Irr(dExposureBeamIrradianceWM2, e.BeamIrradiance))
+	if e.Laser.Laser.Emission == setup.EmissionPulsed {
+		r.F(Num(dExposureBeamPulseExposureJM2, e.BeamPulseExposure, withUnit(e.BeamPulseExposure, "J/m²")))
+	} else {
+		r.F(Absent(dExposureBeamPulseExposureJM2, true))
+	}
 	nohd := ""
 	switch {
 	case !e.OpenEnd:
@@ -409,13 +415,15 @@ func (b *builder) eyewearRecord(n *safety.EyewearNeed) Record {
 	r.F(StrList(dCoveredBy, n.CoveredBy))
 	r.F(Str(dEn207Mode, n.Mode))
 	r.F(Irr(dIrradianceWM2, n.Irradiance))
+	r.F(Irr(dEyewearNeedBeamIrradianceWM2, n.BeamIrradiance))
 	r.F(Field{d: dCoverage, Kind: String, Text: n.Coverage(), People: true})
 	if n.Mode == limits.EN207D {
-		r.F(Absent(dEyewearNeedPulseRadiantExposureJM2, true))
-		r.Line("{wavelength_m}: OD {od_required}, {en207_scale} (continuous; largest aperture-averaged irradiance {irradiance_w_m2}); {coverage}")
+		r.F(Absent(dEyewearNeedPulseRadiantExposureJM2, true)).F(Absent(dEyewearNeedBeamPulseExposureJM2, true))
+		r.Line("{wavelength_m}: OD {od_required} (from the largest aperture-averaged irradiance, {irradiance_w_m2}), {en207_scale} (continuous; from the beam's own largest power density, {beam_irradiance_w_m2}); {coverage}")
 	} else {
-		r.F(Num(dEyewearNeedPulseRadiantExposureJM2, n.PulseRadiantExposure, withUnit(n.PulseRadiantExposure, "J/m²")))
-		r.Line("{wavelength_m}: OD {od_required}, {en207_scale} (pulsed, condition {en207_mode}; largest radiant exposure per pulse over the eye aperture {pulse_radiant_exposure_j_m2}); {coverage}")
+		r.F(Num(dEyewearNeedPulseRadiantExposureJM2, n.PulseRadiantExposure, withUnit(n.PulseRadiantExposure, "J/m²"))).
+			F(Num(dEyewearNeedBeamPulseExposureJM2, n.BeamPulseExposure, withUnit(n.BeamPulseExposure, "J/m²")))
+		r.Line("{wavelength_m}: OD {od_required} (from the largest radiant exposure per pulse over the eye aperture, {pulse_radiant_exposure_j_m2}), {en207_scale} (pulsed, condition {en207_mode}; from the beam's own largest energy density per pulse, {beam_pulse_exposure_j_m2}); {coverage}")
 	}
 	return r
 }
