@@ -85,9 +85,12 @@ func ContinuousAEL(λ, α float64) (AEL, error) {
 	return a, nil
 }
 
-// TimeBaseRow is where the classification time bases come from.
+// TimeBaseRow is where the classification time bases come from: from
+// memory of the standard. The user's guide of the same family gives the
+// same durations, but as worst-case exposure durations for the MPE, not as
+// classification time bases, so it is not cited as their check.
 func TimeBaseRow() Provenance {
-	return checked(TableTimeBases, "100 s above 400 nm, 3e4 s at and below 400 nm, 0.25 s for Class 2", SourceUsersGuide)
+	return memory(TableTimeBases, "100 s above 400 nm, 3e4 s at and below 400 nm, 0.25 s for Class 2")
 }
 
 // apertureLimit is the MPE irradiance at duration t times the area of the
@@ -155,10 +158,14 @@ func Tmin(λ float64) (float64, bool) {
 }
 
 // TminRow is where Tmin comes from: the directive prints 315–1800 nm; the
-// two bands beyond are from memory.
+// two bands beyond are from memory; below 315 nm no T_min applies (the
+// table starts at 315 nm) and the row says so.
 func TminRow(λ float64) Provenance {
-	if λ <= 1800e-9 {
-		return checked(TableRepetitive, "T_min by band", SourceDirectiveRepetitive)
+	switch {
+	case λ <= 315e-9:
+		return memory(TableRepetitive, "no T_min below 315 nm: rule 3 does not apply")
+	case λ <= 1800e-9:
+		return checked(TableRepetitive, "T_min by band, 315–1800 nm", SourceDirectiveRepetitive)
 	}
 	return memory(TableRepetitive, "T_min, 1800 nm–1 mm")
 }
@@ -262,7 +269,13 @@ func PulsedEyeMPE(λ, τ, f, T, α float64) (PulsedLimit, error) {
 			perPulse /= p.PerGroup
 		}
 		p.Train = p.C5 * perPulse
-		p.TrainNote = "C5 = N^−0.25 as the directive prints it; Edition 3's relaxation for small sources is not applied, as no published source confirmed it"
+		p.TrainNote = "C5 = N^−0.25 as the directive prints it, N counted over the whole exposure; Edition 3's relaxation for small sources is not applied, as no published source confirmed it"
+		if p.CountedOver < T {
+			// The directive counts every pulse of the exposure; counting
+			// over at most T2 is our reading of the IEC rule.
+			p.TrainNote = "C5 = N^−0.25 with N counted over at most T2 (the IEC rule, from memory; the directive counts every pulse of the exposure); Edition 3's relaxation for small sources is not applied, as no published source confirmed it"
+			p.Provenance = memory(TableRepetitive, "rules 1–3 as the directive prints them, N counted over at most T2")
+		}
 	}
 	p.PerPulse, p.Rule = p.SinglePulse, RuleSingle
 	if p.Average < p.PerPulse {

@@ -146,6 +146,18 @@ func FactorProvenance(name string) Provenance {
 	return Provenance{}
 }
 
+// FactorProvenanceAt is FactorProvenance for a limit at duration t (s) and
+// angular subtense α (rad): C6 is checked against the directive's C_E only
+// where the two agree, at α ≤ α_min (both 1) or at α ≤ 100 mrad from
+// 0.25 s (where Edition 3's α_max is the directive's 100 mrad); elsewhere
+// Edition 3's time-dependent α_max makes it differ, and it is from memory.
+func FactorProvenanceAt(name string, t, α float64) Provenance {
+	if name == "C6" && α > AlphaMin && (α > 0.1 || t < 0.25) {
+		return memory(TableFactors, "C6 with Edition 3's time-dependent α_max (or α > 100 mrad)")
+	}
+	return FactorProvenance(name)
+}
+
 // C5 is the repetitive-pulse factor N^−0.25 applied to the single-pulse limit
 // in the retinal thermal region. Edition 3 relaxes it (to 1 for small sources,
 // as we recall); this package keeps the more restrictive Edition 2 rule.

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strings"
 	"testing"
 )
 
@@ -542,5 +543,43 @@ func TestEffectsAdd(t *testing.T) {
 	}
 	if SharedOD(500, 2) != 3 || SharedOD(500, 1) != 3 || SharedOD(600, 2) != 4 {
 		t.Error("shared OD: ⌈log10(n·ratio)⌉")
+	}
+}
+
+// Provenance says "checked" only where the cited source prints the value:
+// the directive's C_E equals C6 at α ≤ α_min and, from 0.25 s, up to
+// 100 mrad (Directive 2006/25/EC Annex II Table 2.5); its T_min table runs
+// from 315 nm to 1800 nm and its rule 3 counts every pulse of the exposure
+// (Table 2.6), so N counted over at most T2 is ours; the classification
+// time bases are from memory (the user's guide gives those durations as
+// worst-case exposures, not as time bases).
+func TestProvenanceCheckedOnlyWhereTheSourcePrintsIt(t *testing.T) {
+	for _, c := range []struct {
+		name    string
+		t, α    float64
+		checked bool
+	}{{"small source", 0.1, 0, true}, {"20 mrad from 0.25 s", 10, 20e-3, true}, {"20 mrad below 0.25 s", 0.1, 20e-3, false}, {"200 mrad", 10, 0.2, false}} {
+		if got := FactorProvenanceAt("C6", c.t, c.α).Checked(); got != c.checked {
+			t.Errorf("C6, %s: checked %v, want %v", c.name, got, c.checked)
+		}
+	}
+	if TminRow(300e-9).Checked() || !TminRow(532e-9).Checked() || TminRow(2000e-9).Checked() {
+		t.Error("T_min rows: checked only in 315–1800 nm")
+	}
+	if TimeBaseRow().Checked() {
+		t.Error("the classification time bases are not printed by the source cited for them")
+	}
+	// 1064 nm, 100 µs pulses at 100 Hz for 100 s: N over T2 = 10 s, not the
+	// whole exposure.
+	p, err := PulsedEyeMPE(1064e-9, 100e-6, 100, 100, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if p.Provenance.Checked() || p.CountedOver >= 100 || !strings.Contains(p.TrainNote, "at most T2") {
+		t.Errorf("counted over %g s: provenance %v, note %q", p.CountedOver, p.Provenance, p.TrainNote)
+	}
+	// 532 nm, 10 ns at 1 kHz for 0.25 s: every pulse of the exposure.
+	if p, err = PulsedEyeMPE(532e-9, 10e-9, 1000, 0.25, 0); err != nil || !p.Provenance.Checked() {
+		t.Errorf("whole exposure: %v, %v", p.Provenance, err)
 	}
 }

@@ -85,7 +85,7 @@ func Limits(l *safety.LimitsLookup) *Doc {
 		var from []string
 		for _, k := range factorOrder {
 			if _, ok := l.Eye.Factors[k]; ok {
-				pr := provenanceRecord(limits.FactorProvenance(k))
+				pr := provenanceRecord(limits.FactorProvenanceAt(k, l.Duration, q.AngularSubtense))
 				from = append(from, k+" "+pr.Field("status_text").Text)
 			}
 		}
@@ -95,10 +95,15 @@ func Limits(l *safety.LimitsLookup) *Doc {
 	var pulsed *Record
 	if p := l.Pulsed; p != nil {
 		pulsed = b.pulsedRecord(p, q.PulseDuration, q.RepetitionRate, l.Duration)
+		train := provenanceRecord(p.Provenance)
+		pulsed.O("provenance", &train, false)
+		tmin := provenanceRecord(limits.TminRow(q.Wavelength))
+		pulsed.O("tmin_provenance", &tmin, false)
 		r.Line("  pulse train of {pulsed.pulse_duration_s} pulses at {pulsed.repetition_rate_hz} over {duration_s}:")
 		for _, line := range prefixKeys(pulsed.Lines, "pulsed.") {
 			r.Line(line)
 		}
+		r.Line("       rules from: {pulsed.provenance.row}: {pulsed.provenance.status_text}; T_min from: {pulsed.tmin_provenance.row}: {pulsed.tmin_provenance.status_text}")
 	}
 	r.O("pulsed", pulsed, true)
 	r.Line("  AEL for continuous emission (Class 1 time base {ael_time_base_s}): Class 1/1M {ael_w.class_1}, Class 2/2M {ael_w.class_2}, Class 3R {ael_w.class_3r}, Class 3B {ael_w.class_3b}")
