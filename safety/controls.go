@@ -193,7 +193,7 @@ var controlRules = []controlRule{
 	{"key control", limits.Class3B, nil, func(c setup.Controls) (bool, string) { return c.KeyControl == setup.KeyInPlace, c.KeyControl }, "key control, Class 3B and 4"},
 	{"warning signs at the entrances", limits.Class3B, nil, func(c setup.Controls) (bool, string) { return c.WarningSigns == setup.SignsPosted, c.WarningSigns }, "warning signs, Class 3B and 4"},
 	{"written alignment procedure", limits.Class3B, nil, func(c setup.Controls) (bool, string) { return c.AlignmentProcedure != "", orDash(c.AlignmentProcedure) }, "alignment procedures, Class 3B and 4"},
-	{"eyewear worn where the MPE is exceeded", limits.Class3R, func(h *Hazards) bool { return len(h.Exposures) > 0 && anyEye(h) }, func(c setup.Controls) (bool, string) { return c.Eyewear == setup.EyewearWorn, c.Eyewear }, "eye protection, Class 3R to 4 where the MPE can be exceeded"},
+	{"eyewear worn where the MPE is exceeded", limits.Class3R, anyEye, func(c setup.Controls) (bool, string) { return c.Eyewear == setup.EyewearWorn, c.Eyewear }, "eye protection, Class 3R to 4 where the MPE can be exceeded"},
 	{"entry control (interlock or warning light)", limits.Class4, nil, func(c setup.Controls) (bool, string) {
 		return c.Entry == setup.EntryInterlock || c.Entry == setup.EntryWarning, c.Entry
 	}, "entry controls, Class 4"},
@@ -207,9 +207,17 @@ func orDash(s string) string {
 	return s
 }
 
+// anyEye reports whether the eye MPE is exceeded anywhere in the open: on
+// a segment, in a stray reflection or a beam leaving a path, or in a
+// diffuse zone reaching past NearestViewing.
 func anyEye(h *Hazards) bool {
 	for _, e := range h.Exposures {
 		if e.CombinedEyeRatio > 1 {
+			return true
+		}
+	}
+	for _, r := range h.Reflections {
+		if (r.Kind != ReflectionDiffuse && r.Ratio > 1) || (r.Kind == ReflectionDiffuse && r.Radius > NearestViewing) {
 			return true
 		}
 	}
@@ -219,8 +227,9 @@ func anyEye(h *Hazards) bool {
 // ControlsStandard names where the control measures come from.
 const ControlsStandard = "IEC 60825-14 and ANSI Z136.1, control measures by class"
 
-// classRank orders the classes; an unassessed class ranks as Class 4.
-func classRank(class string) int {
+// ClassRank orders the classes, 1 to 5; an unassessed class ("") ranks
+// as Class 4 (the conservative reading for the controls it needs).
+func ClassRank(class string) int {
 	switch class {
 	case limits.Class1:
 		return 1
@@ -245,7 +254,7 @@ func CheckControls(s *setup.Setup, h *Hazards) ([]ControlCheck, []budget.Finding
 		cc.InPlace, cc.Declared = r.declared(s.Controls)
 		if r.when == nil || r.when(h) {
 			for _, ll := range h.Lasers {
-				if classRank(ll.Class) >= classRank(r.from) {
+				if ClassRank(ll.Class) >= ClassRank(r.from) {
 					class := "Class " + ll.Class
 					if ll.Class == "" {
 						class = "an unassessed class (taken as Class 4)"

@@ -317,3 +317,47 @@ func TestDiffuseZoneHazard(t *testing.T) {
 		t.Error("weak-probe's small diffuse zone is not listed")
 	}
 }
+
+// Eyewear is needed wherever the eye MPE is exceeded in the open, not only
+// on a segment: 3 mW at 780 nm (Class 3B: above the 2.82 mW of Class 3R,
+// as the example lasers print) in an enclosure up to an AOM whose unused
+// orders take 99 % into the open. The segment after it carries 30 µW,
+// below the MPE; the 2.97 mW leaving it reach about 2.97 mW/(π (3.5 mm)²)
+// = 77 W/m², 5.3 × the 14.45 W/m² eye MPE (IEC 60825-1:2014 Annex A, from
+// memory). The eyewear the classes need is then a missing control.
+func TestEyewearNeededForABeamLeavingAPath(t *testing.T) {
+	a := load(t, `[[laser]]
+name = "l"
+wavelength = "780 nm"
+power = "3 mW"
+waist = "1 mm"
+
+[[path]]
+name = "p"
+from = "l"
+access = "enclosed"
+  [[path.element]]
+  type = "aom"
+  at = "100 mm"
+  efficiency = 0.01
+  access = "open"
+  [[path.element]]
+  type = "dump"
+  at = "300 mm"
+  rating = "1 W"
+`)
+	for _, e := range a.Hazards.Exposures {
+		if e.CombinedEyeRatio > 1 {
+			t.Fatalf("an open segment above the MPE: %+v", e)
+		}
+	}
+	escaping := findingAt(a, FindingEscaping, "p", 1)
+	if len(escaping) != 1 || math.Abs(escaping[0].Ratio()-5.3) > 0.2 {
+		t.Fatalf("escaping beam: %+v", escaping)
+	}
+	for _, cc := range a.Hazards.Controls {
+		if strings.HasPrefix(cc.Name, "eyewear worn") && (cc.NeededBy == "" || cc.InPlace) {
+			t.Errorf("eyewear check %+v, want needed and missing", cc)
+		}
+	}
+}

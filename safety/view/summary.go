@@ -3,7 +3,6 @@ package view
 import (
 	"beamledger/budget"
 	"beamledger/budget/units"
-	"beamledger/limits"
 	"beamledger/safety"
 	"fmt"
 	"strings"
@@ -78,9 +77,9 @@ func Summary(a *safety.Assessment) string {
 		b.WriteString(". ")
 	}
 	highest, who := "", ""
-	order := map[string]int{limits.Class1: 1, limits.Class2: 2, limits.Class3R: 3, limits.Class3B: 4, limits.Class4: 5}
 	for _, ll := range a.Hazards.Lasers {
-		if order[ll.Class] > order[highest] {
+		// A class not assessed is not a class present.
+		if ll.Class != "" && (highest == "" || safety.ClassRank(ll.Class) > safety.ClassRank(highest)) {
 			highest, who = ll.Class, ll.Laser.Name
 		}
 	}
