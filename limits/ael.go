@@ -209,24 +209,60 @@ type PulsedLimit struct {
 	// the train may have.
 	Irradiance float64
 	Provenance Provenance
+	// Set is the limit set whose rules and limits gave the train's limit.
+	Set LimitSet
 }
 
 // PulsedEyeMPE applies the repetitive-pulse rules at the eye for pulses of
-// duration τ (s) at rate f (Hz) over an exposure of T (s).
+// duration τ (s) at rate f (Hz) over an exposure of T (s), as IEC
+// 60825-1:2014 applies them (from memory): in 400–1400 nm N is counted over
+// at most T2, and rule 3 applies only to pulses shorter than 0.25 s.
 func PulsedEyeMPE(λ, τ, f, T, α float64) (PulsedLimit, error) {
+	return pulseRules(λ, τ, f, T, α, iecTrain)
+}
+
+// trainRules is how a limit set applies the repetitive-pulse rules.
+type trainRules struct {
+	set LimitSet
+	// eye is the set's single-exposure eye MPE.
+	eye func(λ, t, α float64) (Limit, error)
+	// countOverT2: in 400–1400 nm N is counted over at most T2 (IEC);
+	// otherwise over the whole exposure (the directive).
+	countOverT2 bool
+	// shortOnly: rule 3 applies only to pulses shorter than 0.25 s (IEC).
+	shortOnly bool
+	// rules is where the rules come from; counted the provenance when N is
+	// counted over less than the exposure or a long pulse skips rule 3.
+	rules, counted func() Provenance
+	// note says how C5 was applied; countedNote when N is counted over less
+	// than the exposure.
+	note, countedNote string
+}
+
+var iecTrain = trainRules{
+	set: SetIEC, eye: EyeMPE, countOverT2: true, shortOnly: true,
+	rules: func() Provenance { return checked(TableRepetitive, "rules 1–3", SourceDirectiveRepetitive) },
+	counted: func() Provenance {
+		return memory(TableRepetitive, "rules 1–3 as the IEC applies them: N counted over at most T2, rule 3 only below 0.25 s")
+	},
+	note:        "C5 = N^−0.25 as the directive prints it, N counted over the whole exposure; Edition 3's relaxation for small sources is not applied, as no published source confirmed it",
+	countedNote: "C5 = N^−0.25 with N counted over at most T2 (the IEC rule, from memory; the directive counts every pulse of the exposure); Edition 3's relaxation for small sources is not applied, as no published source confirmed it",
+}
+
+// pulseRules applies the three rules of a limit set.
+func pulseRules(λ, τ, f, T, α float64, r trainRules) (PulsedLimit, error) {
 	if !(f > 0) || τ*f > 1 {
 		return PulsedLimit{}, &RangeError{"repetition rate", fmt.Sprintf("%g Hz", f), "0 < f ≤ 1/τ"}
 	}
-	single, err := EyeMPE(λ, τ, α)
+	single, err := r.eye(λ, τ, α)
 	if err != nil {
 		return PulsedLimit{}, err
 	}
-	avg, err := EyeMPE(λ, T, α)
+	avg, err := r.eye(λ, T, α)
 	if err != nil {
 		return PulsedLimit{}, err
 	}
-	p := PulsedLimit{Single: single, AvgLimit: avg, C5: 1, Train: math.NaN(),
-		Provenance: checked(TableRepetitive, "rules 1–3", SourceDirectiveRepetitive)}
+	p := PulsedLimit{Single: single, AvgLimit: avg, C5: 1, Train: math.NaN(), Set: r.set, Provenance: r.rules()}
 	// Rule 1.
 	p.SinglePulse = single.RadiantExposure
 	tmin, hasTmin := Tmin(λ)
@@ -234,7 +270,7 @@ func PulsedEyeMPE(λ, τ, f, T, α float64) (PulsedLimit, error) {
 	if hasTmin && 1/f < tmin {
 		// Pulses within Tmin are one pulse of duration Tmin.
 		p.Grouped, p.PerGroup = true, f*tmin
-		g, err := EyeMPE(λ, math.Min(tmin, T), α)
+		g, err := r.eye(λ, math.Min(tmin, T), α)
 		if err != nil {
 			return PulsedLimit{}, err
 		}
@@ -246,14 +282,15 @@ func PulsedEyeMPE(λ, τ, f, T, α float64) (PulsedLimit, error) {
 	// Rule 3.
 	p.CountedOver = T
 	nm := λ * 1e9
-	if nm >= 400 && nm < 1400 {
+	if r.countOverT2 && nm >= 400 && nm < 1400 {
 		p.CountedOver = math.Min(T, T2(α))
 	}
 	switch {
 	case !hasTmin:
 		p.TrainNote = "rule 3 does not apply below 315 nm (no thermal limit there)"
-	case τ >= 0.25:
-		p.TrainNote = "rule 3 applies only to pulses shorter than 0.25 s"
+	case r.shortOnly && τ >= 0.25:
+		p.TrainNote = "rule 3 applies only to pulses shorter than 0.25 s (the IEC rule, from memory; the directive applies it to every thermal train)"
+		p.Provenance = r.counted()
 	case !p.Single.Thermal:
 		p.TrainNote = "rule 3 applies only to thermal limits; the single-pulse limit here is " + p.Single.Effect
 	default:
@@ -269,12 +306,10 @@ func PulsedEyeMPE(λ, τ, f, T, α float64) (PulsedLimit, error) {
 			perPulse /= p.PerGroup
 		}
 		p.Train = p.C5 * perPulse
-		p.TrainNote = "C5 = N^−0.25 as the directive prints it, N counted over the whole exposure; Edition 3's relaxation for small sources is not applied, as no published source confirmed it"
+		p.TrainNote = r.note
 		if p.CountedOver < T {
-			// The directive counts every pulse of the exposure; counting
-			// over at most T2 is our reading of the IEC rule.
-			p.TrainNote = "C5 = N^−0.25 with N counted over at most T2 (the IEC rule, from memory; the directive counts every pulse of the exposure); Edition 3's relaxation for small sources is not applied, as no published source confirmed it"
-			p.Provenance = memory(TableRepetitive, "rules 1–3 as the directive prints them, N counted over at most T2")
+			p.TrainNote = r.countedNote
+			p.Provenance = r.counted()
 		}
 	}
 	p.PerPulse, p.Rule = p.SinglePulse, RuleSingle

@@ -1,5 +1,7 @@
 // Package limits holds the exposure limits of IEC 60825-1:2014 (Edition 3,
-// Annex A) as pure functions of wavelength, exposure duration and angular
+// Annex A) and of the EU directive 2006/25/EC (Annex II), and the choice
+// between them (EyeMPEIn, SkinMPEIn, PulsedEyeMPEIn: one set, or the lower
+// of the two), as pure functions of wavelength, exposure duration and angular
 // subtense: the maximum permissible exposure (MPE) at the cornea and for the
 // skin, the correction factors C1…C7, T1 and T2, the limiting apertures, and
 // the accessible emission limits (AEL) of the classes for continuous
@@ -14,9 +16,9 @@
 // project. Every value carries a Provenance: the standard and edition, the
 // table and row, the public sources it was compared with, and a status:
 // checked (against a named public source: the EU directive's tables of
-// coefficients and of corrections for repetitive exposure, the laser
-// user's guide's time bases), edition 3 from memory (most MPE and AEL
-// rows), or a conservative substitute (C7 = 8 above 1250 nm in place of
+// coefficients and of corrections for repetitive exposure), checked against
+// an earlier edition's values as reprinted in public guidance (a few rows),
+// from memory (most MPE and AEL rows), or a conservative substitute (C7 = 8 above 1250 nm in place of
 // Edition 3's larger value, C5 without the small-source relaxation, and
 // MPE × aperture area where no Class 1 row was transcribed). The outputs
 // print it beside each value and list the values that were not checked.
@@ -45,6 +47,12 @@
 //	| photochemical field of view | γ = 11 mrad, 1.1 t^0.5 mrad, 110 mrad | Directive 2006/25/EC Annex II Table 2.5 | Gamma | TestPhotochemicalBeyond100s |
 //	| pulses counted as one | T_min by band | Directive 2006/25/EC Annex II Table 2.6 | Tmin | TestPulsedRules |
 //	| repetitive pulses | single pulse, average, C5 over at most T2 | Directive 2006/25/EC Annex II Table 2.6; IEC 60825-1:2014 (from memory) | PulsedEyeMPE | TestPulsedRules |
+//	| directive eye MPE | Tables 2.2 and 2.3 by band and duration | Directive 2006/25/EC Annex II Tables 2.2, 2.3 (from memory; 532 nm short pulses as read by an audit) | DirectiveEyeMPE | TestDirectiveEyeRows |
+//	| directive skin MPE | Table 2.4 (Edition 3's skin rows) | Directive 2006/25/EC Annex II Table 2.4 (from memory) | DirectiveSkinMPE | TestDirectiveSkinRows |
+//	| C_E | 1, α/α_min, α²/(α_min α_max), α_max = 100 mrad | Directive 2006/25/EC Annex II Table 2.5 | CE | TestCE |
+//	| directive repetitive pulses | rules 1–3, C_P = N^−0.25 over every pulse | Directive 2006/25/EC Annex II Table 2.6 | DirectivePulsedEyeMPE | TestPulseTrainsCountedTheDirectivesWay |
+//	| strictest limit | the lower of the two sets' values | our rule (the stricter of the limits the workplace may have to apply) | EyeMPEIn | TestStrictestNeverAboveEitherSet |
+//	| strictest pulse-train limit | the lower of the two sets' limits per pulse | our rule | PulsedEyeMPEIn | TestPulseTrainsCountedTheDirectivesWay |
 //	| NOHD | (√(4P/(π MPE)) − a)/φ | IEC 60825-1:2014 NOHD expression (from memory); worked example | NOHD | ExampleNOHD |
 //	| 1/e diameter | d/√2 | Gaussian profile, common practice | OneOverEDiameter | ExampleOneOverEDiameter |
 //	| aperture-averaged irradiance | P(1 − exp(−2(D/2)²/W²))/(πD²/4) | Gaussian profile | ApertureAverage | TestRoundingIsUpward |

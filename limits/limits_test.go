@@ -566,6 +566,19 @@ func TestProvenanceCheckedOnlyWhereTheSourcePrintsIt(t *testing.T) {
 	if TminRow(300e-9).Checked() || !TminRow(532e-9).Checked() || TminRow(2000e-9).Checked() {
 		t.Error("T_min rows: checked only in 315–1800 nm")
 	}
+	// The rows the reprinted simplified table of earlier-edition values
+	// prints (DGUV Vorschrift 11, Tab. 3 of the Haufe reprint: 30 J/m² in
+	// 180–315 nm from 1 ns, 1e11 W/m² below 1 ns and 100 J/m² from 1 ns in
+	// the far infrared) say so; the rows it does not print stay from memory.
+	for _, c := range []struct {
+		nm, t float64
+		st    Status
+	}{{250, 1, StatusEarlierEdition}, {10600, 1e-10, StatusEarlierEdition}, {10600, 1e-8, StatusEarlierEdition}, {10600, 1e-3, StatusFromMemory}, {355, 1, StatusFromMemory}} {
+		l, err := EyeMPE(c.nm*1e-9, c.t, 0)
+		if err != nil || l.Provenance.Status != c.st || (c.st == StatusEarlierEdition && len(l.Provenance.CheckedAgainst) == 0) {
+			t.Errorf("%g nm, %g s: %v, want %s", c.nm, c.t, l.Provenance, c.st)
+		}
+	}
 	if TimeBaseRow().Checked() {
 		t.Error("the classification time bases are not printed by the source cited for them")
 	}

@@ -20,6 +20,9 @@ type Limit struct {
 	Thermal    bool
 	Factors    map[string]float64
 	Provenance Provenance
+	// Set is the limit set the value comes from (SetIEC or SetDirective;
+	// SetBoth where a strictest choice found the two equal).
+	Set LimitSet
 }
 
 func fromH(h, t float64, rule, effect string, thermal bool, f map[string]float64, p Provenance) Limit {
@@ -39,8 +42,10 @@ func uv(nm, t float64) Limit {
 	}
 	switch {
 	case nm < 302.5:
+		// The reprint prints 30 J/m² for 180–315 nm from 1 ns to 0.3 ms
+		// and 1e-3 W/m² (30 J/m² over 3e4 s) for a day.
 		return fromH(30, t, "180–302.5 nm, 1e-9 s ≤ t ≤ 3e4 s: H = 30 J/m²", "corneal (UV photochemical)", false, nil,
-			memory(TableEyeShort, "180–302.5 nm, 1e-9 s to 3e4 s"))
+			earlier(TableEyeShort, "180–302.5 nm, 1e-9 s to 3e4 s", SourceSimplifiedMPE))
 	case nm < 315:
 		c1, c2, t1 := C1(t), C2(nm), T1(nm)
 		f := map[string]float64{"C1": c1, "C2": c2, "T1_s": t1}
@@ -93,9 +98,11 @@ func infrared(nm, t float64) Limit {
 	}
 	switch {
 	case t < 1e-9:
-		return fromE(1e11, t, "2600 nm–1 mm, 1e-13 s ≤ t < 1e-9 s: E = 1e11 W/m²", eff, true, nil, memory(TableEyeShort, "2600 nm–1 mm, 1e-13 s to 1e-9 s"))
+		// The reprint's 1400 nm – 1 mm values below 1 ns (1e11 W/m²) and
+		// from 1 ns (100 J/m²) are this band's rows.
+		return fromE(1e11, t, "2600 nm–1 mm, 1e-13 s ≤ t < 1e-9 s: E = 1e11 W/m²", eff, true, nil, earlier(TableEyeShort, "2600 nm–1 mm, 1e-13 s to 1e-9 s", SourceSimplifiedMPE))
 	case t < 1e-7:
-		return fromH(100, t, "2600 nm–1 mm, 1e-9 s ≤ t < 1e-7 s: H = 100 J/m²", eff, true, nil, memory(TableEyeShort, "2600 nm–1 mm, 1e-9 s to 1e-7 s"))
+		return fromH(100, t, "2600 nm–1 mm, 1e-9 s ≤ t < 1e-7 s: H = 100 J/m²", eff, true, nil, earlier(TableEyeShort, "2600 nm–1 mm, 1e-9 s to 1e-7 s", SourceSimplifiedMPE))
 	case t < 10:
 		return fromH(5.6e3*math.Pow(t, 0.25), t, "2600 nm–1 mm, 1e-7 s ≤ t < 10 s: H = 5.6e3 t^0.25 J/m²", eff, true, nil, memory(TableEyeShort, "2600 nm–1 mm, 1e-7 s to 10 s"))
 	}
@@ -133,14 +140,24 @@ func retinalThermal(nm, t, α float64) Limit {
 	case t < 10:
 		return fromH(law*math.Pow(t, 0.75)*k, t, fmt.Sprintf("%s, %g s ≤ t < 10 s: H = %g t^0.75 %s J/m²", band, knee, law, expr), eff, true, f, row(fmt.Sprintf("%g s to 10 s", knee)))
 	}
-	long := func(span string) Provenance { return memory(TableEyeLong, "400–1400 nm, "+span) }
+	return retinalFrom10s(t, α, f, "C4 C7", "C4 C6 C7", func(span string) Provenance { return memory(TableEyeLong, "400–1400 nm, "+span) })
+}
+
+// retinalFrom10s is the 400–1400 nm thermal limit from 10 s with the
+// factors f holds (C6 is Edition 3's C6 or the directive's C_E; the two
+// agree from 0.25 s up to 100 mrad): 10 C4 C7 W/m² for a small source,
+// 18 t^0.75 C4 C6 C7 J/m² up to T2 and 18 C4 C6 C7 T2^−0.25 W/m² beyond
+// for an extended one. small and extended name the factors in the rules.
+func retinalFrom10s(t, α float64, f map[string]float64, small, extended string, row func(string) Provenance) Limit {
+	const eff = "retinal thermal"
+	c4, c6, c7, t2 := f["C4"], f["C6"], f["C7"], f["T2_s"]
 	if α <= AlphaMin {
-		return fromE(10*c4*c7, t, "400–1400 nm, 10 s ≤ t ≤ 3e4 s, α ≤ 1.5 mrad: E = 10 C4 C7 W/m²", eff, true, f, long("10 s to 3e4 s, α ≤ 1.5 mrad"))
+		return fromE(10*c4*c7, t, "400–1400 nm, 10 s ≤ t ≤ 3e4 s, α ≤ 1.5 mrad: E = 10 "+small+" W/m²", eff, true, f, row("10 s to 3e4 s, α ≤ 1.5 mrad"))
 	}
 	if t < t2 {
-		return fromH(18*math.Pow(t, 0.75)*c4*c6*c7, t, "400–1400 nm, 10 s ≤ t < T2, α > 1.5 mrad: H = 18 t^0.75 C4 C6 C7 J/m²", eff, true, f, long("10 s to T2, α > 1.5 mrad"))
+		return fromH(18*math.Pow(t, 0.75)*c4*c6*c7, t, "400–1400 nm, 10 s ≤ t < T2, α > 1.5 mrad: H = 18 t^0.75 "+extended+" J/m²", eff, true, f, row("10 s to T2, α > 1.5 mrad"))
 	}
-	return fromE(18*c4*c6*c7*math.Pow(t2, -0.25), t, "400–1400 nm, T2 ≤ t ≤ 3e4 s, α > 1.5 mrad: E = 18 C4 C6 C7 T2^−0.25 W/m²", eff, true, f, long("T2 to 3e4 s, α > 1.5 mrad"))
+	return fromE(18*c4*c6*c7*math.Pow(t2, -0.25), t, "400–1400 nm, T2 ≤ t ≤ 3e4 s, α > 1.5 mrad: E = 18 "+extended+" T2^−0.25 W/m²", eff, true, f, row("T2 to 3e4 s, α > 1.5 mrad"))
 }
 
 // retinalPhotochemical is the 400–600 nm limit from 10 s for a small source:
@@ -180,22 +197,31 @@ func EyeMPE(λ, t, α float64) (Limit, error) {
 		return Limit{}, &RangeError{"angular subtense", fmt.Sprint(α), "α ≥ 0"}
 	}
 	nm := λ * 1e9
+	var l Limit
 	switch {
 	case nm < 400:
-		return uv(nm, t), nil
+		l = uv(nm, t)
 	case nm < 1400:
-		th := retinalThermal(nm, t, α)
-		if ph, ok := retinalPhotochemical(nm, t); ok && ph.RadiantExposure < th.RadiantExposure {
-			return ph, nil
+		l = retinalThermal(nm, t, α)
+		if ph, ok := retinalPhotochemical(nm, t); ok && ph.RadiantExposure < l.RadiantExposure {
+			l = ph
 		}
-		return th, nil
+	default:
+		l = infrared(nm, t)
 	}
-	return infrared(nm, t), nil
+	l.Set = SetIEC
+	return l, nil
 }
 
 // SkinMPE is the MPE for the skin (IEC 60825-1:2014, Annex A, skin table;
 // from memory).
 func SkinMPE(λ, t float64) (Limit, error) {
+	l, err := skinMPE(λ, t)
+	l.Set = SetIEC
+	return l, err
+}
+
+func skinMPE(λ, t float64) (Limit, error) {
 	if err := checkRange(λ, t); err != nil {
 		return Limit{}, err
 	}

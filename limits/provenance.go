@@ -12,6 +12,10 @@ const (
 	// standard the provenance names (IEC 60825-1:2014, EN 207); no public
 	// source was at hand to compare it with.
 	StatusFromMemory Status = "from memory"
+	// StatusEarlierEdition: the value equals the row an earlier edition's
+	// values print, as reprinted in public guidance (CheckedAgainst names
+	// it); the 2014 text itself was not compared.
+	StatusEarlierEdition Status = "checked against an earlier edition"
 	// StatusSubstitute: a value of our own that stands in for one we could
 	// not confirm, chosen to be at least as restrictive (Replaces says what
 	// it stands in for).
@@ -52,6 +56,12 @@ const (
 	// standards, §5.1: 100 s above 400 nm and 30 000 s below as the
 	// worst-case exposure for the MPE.
 	SourceUsersGuide = "IEC 60825-14 (AS/NZS IEC 60825.14:2011) §5.1, worst-case exposure durations"
+	// SourceSimplifiedMPE is the simplified table of MPE at the cornea of
+	// the German accident-prevention regulation on laser radiation (values
+	// of the earlier editions of IEC/EN 60825-1), as reprinted in public
+	// guidance: per band, a continuous, a mode-locked (below 1 ns) and a
+	// pulsed (1 ns onward) value.
+	SourceSimplifiedMPE = "DGUV Vorschrift 11 simplified MPE at the cornea (earlier-edition values), as reprinted in Haufe Arbeitsschutz Office, Laser: Gefährdungen und Schutzmaßnahmen, Tab. 3"
 )
 
 // Provenance is where a value comes from: the standard, its table and row,
@@ -96,6 +106,11 @@ func memory(table, row string) Provenance {
 // checked is a row compared with public sources.
 func checked(table, row string, sources ...string) Provenance {
 	return Provenance{Standard: Standard, Table: table, Row: row, Status: StatusChecked, CheckedAgainst: sources}
+}
+
+// earlier is a row whose value an earlier edition's reprinted table prints.
+func earlier(table, row string, sources ...string) Provenance {
+	return Provenance{Standard: Standard, Table: table, Row: row, Status: StatusEarlierEdition, CheckedAgainst: sources}
 }
 
 // substitute is a value of our own in place of a row we could not confirm.

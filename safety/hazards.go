@@ -22,6 +22,30 @@ import (
 // Standard names the standard and edition the limits come from.
 const Standard = "IEC 60825-1:2014 (Edition 3)"
 
+// ClassBasis says which standard the classes follow, whatever the limit set.
+const ClassBasis = "classes by IEC 60825-1:2014 (the directive has no classes)"
+
+// LimitsBasis says in words which exposure limits a choice of limit set
+// applies.
+func LimitsBasis(set limits.LimitSet) string {
+	return set.Describe()
+}
+
+// GoverningSet says in words which set a limit came from, given the set
+// chosen.
+func GoverningSet(chosen, gov limits.LimitSet) string {
+	if chosen != limits.SetStrictest {
+		return "from " + gov.Governs() + " (the set chosen)"
+	}
+	switch gov {
+	case limits.SetBoth:
+		return "both sets give this value"
+	case limits.SetDirective:
+		return "2006/25/EC governs (stricter than IEC 60825-1:2014 here)"
+	}
+	return "IEC 60825-1:2014 governs (stricter than 2006/25/EC here)"
+}
+
 // Default viewing durations for unintended exposure, s: the aversion response
 // in the visible, 10 s elsewhere.
 const (
@@ -45,7 +69,12 @@ const FiberFaceLimit = 1e10
 type LaserLimits struct {
 	Laser    *setup.Laser
 	Duration float64 // s
-	Eye      limits.Limit
+	// LimitSet is the set of limits chosen ([setup] limits); EyeSet and
+	// SkinSet the set each governing limit (EyeIrradiance, SkinIrradiance)
+	// comes from (limits.SetBoth where the two sets agree).
+	LimitSet        limits.LimitSet
+	EyeSet, SkinSet limits.LimitSet
+	Eye             limits.Limit
 	// EyeIrradiance is the irradiance limit against which average
 	// irradiances are compared, W/m² (pulsed: per-pulse limit × rate).
 	EyeIrradiance  float64
@@ -112,26 +141,33 @@ func DurationAssumption(s *setup.Setup) string {
 
 func laserLimits(s *setup.Setup, las *setup.Laser) (*LaserLimits, error) {
 	t := ViewingDuration(s, las.Wavelength)
-	ll := &LaserLimits{Laser: las, Duration: t}
+	set := s.Meta.Limits
+	ll := &LaserLimits{Laser: las, Duration: t, LimitSet: set}
 	var err error
-	if ll.Eye, err = limits.EyeMPE(las.Wavelength, t, 0); err != nil {
+	if ll.Eye, err = limits.EyeMPEIn(set, las.Wavelength, t, 0); err != nil {
 		return nil, fmt.Errorf("laser %q: %w", las.Name, err)
 	}
-	if ll.Skin, err = limits.SkinMPE(las.Wavelength, t); err != nil {
+	if ll.Skin, err = limits.SkinMPEIn(set, las.Wavelength, t); err != nil {
 		return nil, fmt.Errorf("laser %q: %w", las.Name, err)
 	}
 	ll.EyeIrradiance, ll.EyeRule, ll.SkinIrradiance = ll.Eye.Irradiance, ll.Eye.Rule, ll.Skin.Irradiance
+	ll.EyeSet, ll.SkinSet = ll.Eye.Set, ll.Skin.Set
 	if las.Emission == setup.EmissionPulsed {
-		p, err := limits.PulsedEyeMPE(las.Wavelength, las.PulseDuration, las.RepetitionRate, t, 0)
+		p, err := limits.PulsedEyeMPEIn(set, las.Wavelength, las.PulseDuration, las.RepetitionRate, t, 0)
 		if err != nil {
 			return nil, fmt.Errorf("laser %q: %w", las.Name, err)
 		}
 		ll.Pulsed = &p
-		ll.EyeIrradiance = p.Irradiance
+		ll.EyeIrradiance, ll.EyeSet = p.Irradiance, p.Set
 		ll.EyeRule = fmt.Sprintf("repetitive pulses, the %s rule governs: %s J/m² per pulse × %s", p.Rule, units.FormatNumber(p.PerPulse), units.FormatFrequency(las.RepetitionRate))
-		sp, err := limits.SkinMPE(las.Wavelength, las.PulseDuration)
+		sp, err := limits.SkinMPEIn(set, las.Wavelength, las.PulseDuration)
 		if err == nil {
-			ll.SkinIrradiance = math.Min(ll.SkinIrradiance, math.Min(sp.RadiantExposure, ll.Skin.RadiantExposure/math.Max(1, las.RepetitionRate*t))*las.RepetitionRate)
+			if e := math.Min(sp.RadiantExposure, ll.Skin.RadiantExposure/math.Max(1, las.RepetitionRate*t)) * las.RepetitionRate; e < ll.SkinIrradiance {
+				ll.SkinIrradiance = e
+				if sp.RadiantExposure*las.RepetitionRate == e {
+					ll.SkinSet = sp.Set
+				}
+			}
 		}
 	}
 	if ll.EyeAperture, ll.EyeApertureRow, err = limits.EyeAperture(las.Wavelength, t); err != nil {

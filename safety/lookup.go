@@ -16,14 +16,29 @@ type LimitsQuery struct {
 	Wavelength, Duration, AngularSubtense float64
 	PulseDuration, RepetitionRate         float64
 	Power, BeamDiameter, Divergence       float64
+	// Set is the limit set the governing values come from ("": strictest).
+	Set limits.LimitSet
+}
+
+// SetLimits are one limit set's values for a lookup.
+type SetLimits struct {
+	Set        limits.LimitSet
+	Eye, Skin  limits.Limit
+	Pulsed     *limits.PulsedLimit // set for a pulse train
+	EyeLimitIr float64             // the eye irradiance limit of this set, W/m²
 }
 
 // LimitsLookup is what the limits lookup found.
 type LimitsLookup struct {
 	Query    LimitsQuery
 	Duration float64 // the duration used, s
-	Eye      limits.Limit
-	Skin     limits.Limit
+	// Set is the limit set chosen; IEC and Directive each set's own values,
+	// side by side. Eye, Skin, Pulsed and EyeIrradiance are the governing
+	// ones (the lower of the two under strictest; their Set says whose).
+	Set            limits.LimitSet
+	IEC, Directive SetLimits
+	Eye            limits.Limit
+	Skin           limits.Limit
 	// EyeAperture and SkinAperture are the limiting aperture diameters, m.
 	EyeAperture, SkinAperture float64
 	// EyeApertureRow and SkinApertureRow are where the apertures come from.
@@ -69,11 +84,19 @@ func LookUpLimits(q LimitsQuery) (*LimitsLookup, error) {
 	if beam && !(q.Power > 0 && q.BeamDiameter > 0 && q.Divergence > 0) {
 		return nil, fmt.Errorf("a beam needs its power, 1/e² diameter and divergence together")
 	}
-	var err error
-	if r.Eye, err = limits.EyeMPE(λ, t, α); err != nil {
+	r.Set = q.Set
+	if r.Set == "" {
+		r.Set = limits.SetStrictest
+	}
+	gov, err := lookUpSet(r.Set, q, t)
+	if err != nil {
 		return nil, err
 	}
-	if r.Skin, err = limits.SkinMPE(λ, t); err != nil {
+	r.Eye, r.Skin, r.Pulsed, r.EyeIrradiance = gov.Eye, gov.Skin, gov.Pulsed, gov.EyeLimitIr
+	if r.IEC, err = lookUpSet(limits.SetIEC, q, t); err != nil {
+		return nil, err
+	}
+	if r.Directive, err = lookUpSet(limits.SetDirective, q, t); err != nil {
 		return nil, err
 	}
 	if r.EyeAperture, r.EyeApertureRow, err = limits.EyeAperture(λ, t); err != nil {
@@ -85,15 +108,6 @@ func LookUpLimits(q LimitsQuery) (*LimitsLookup, error) {
 	if r.AEL, err = limits.ContinuousAEL(λ, α); err != nil {
 		return nil, err
 	}
-	r.EyeIrradiance = r.Eye.Irradiance
-	if pulsed {
-		p, err := limits.PulsedEyeMPE(λ, q.PulseDuration, q.RepetitionRate, t, α)
-		if err != nil {
-			return nil, err
-		}
-		r.Pulsed = &p
-		r.EyeIrradiance = p.Irradiance
-	}
 	if beam {
 		r.HasBeam = true
 		if !pulsed {
@@ -104,4 +118,27 @@ func LookUpLimits(q LimitsQuery) (*LimitsLookup, error) {
 		r.ODRequired = limits.OpticalDensity(r.ExitIrr / r.EyeIrradiance)
 	}
 	return r, nil
+}
+
+// lookUpSet is one limit set's eye and skin MPE and, for a pulse train, its
+// repetitive-pulse limit, at duration t.
+func lookUpSet(set limits.LimitSet, q LimitsQuery, t float64) (SetLimits, error) {
+	λ, α := q.Wavelength, q.AngularSubtense
+	sl := SetLimits{Set: set}
+	var err error
+	if sl.Eye, err = limits.EyeMPEIn(set, λ, t, α); err != nil {
+		return sl, err
+	}
+	if sl.Skin, err = limits.SkinMPEIn(set, λ, t); err != nil {
+		return sl, err
+	}
+	sl.EyeLimitIr = sl.Eye.Irradiance
+	if q.PulseDuration > 0 {
+		p, err := limits.PulsedEyeMPEIn(set, λ, q.PulseDuration, q.RepetitionRate, t, α)
+		if err != nil {
+			return sl, err
+		}
+		sl.Pulsed, sl.EyeLimitIr = &p, p.Irradiance
+	}
+	return sl, nil
 }

@@ -592,3 +592,52 @@ func TestSharedSegmentAddsByHand(t *testing.T) {
 		t.Errorf("%d findings for the shared segment, want 1", n)
 	}
 }
+
+// [setup] limits chooses the set the hazards use. A 532 nm source of 10 ps
+// pulses at 1 kHz: Directive 2006/25/EC Annex II Table 2.2 prints 2.7e4
+// t^0.75 C_E J/m² from 10 ps (1.52e-4 J/m² per pulse), Edition 3 a plateau
+// of 2e-3 J/m² (from memory); the default takes the directive's value and
+// names it, IEC 60825-1:2014 alone keeps Edition 3's. Classes follow IEC
+// 60825-1:2014 either way.
+func TestLimitSetChoice(t *testing.T) {
+	const src = `
+[setup]
+exposure = "0.25 s"
+%s
+[[laser]]
+name = "ps"
+wavelength = "532 nm"
+power = "10 mW"
+waist = "1 mm"
+emission = "pulsed"
+pulse_duration = "10 ps"
+repetition_rate = "1 kHz"
+
+[[path]]
+name = "p"
+from = "ps"
+element = [{ type = "dump", at = "100 mm" }]
+`
+	for _, c := range []struct {
+		line     string
+		set      limits.LimitSet
+		perPulse float64
+	}{
+		{"", limits.SetDirective, 2.7e4 * math.Pow(1e-11, 0.75)},
+		{`limits = "strictest"`, limits.SetDirective, 2.7e4 * math.Pow(1e-11, 0.75)},
+		{`limits = "2006/25/EC"`, limits.SetDirective, 2.7e4 * math.Pow(1e-11, 0.75)},
+		{`limits = "IEC 60825-1:2014"`, limits.SetIEC, 2e-3},
+	} {
+		a := load(t, fmt.Sprintf(src, c.line))
+		ll := a.Hazards.Lasers[0]
+		p := ll.Pulsed
+		// Rule 3 over the 250 pulses of 0.25 s: C5 = 250^−0.25.
+		want := c.perPulse * math.Pow(250, -0.25)
+		if math.Abs(p.PerPulse-want) > 1e-9*want || ll.EyeSet != c.set || p.Set != c.set {
+			t.Errorf("%q: %g J/m² per pulse from %q (eye set %q), want %g from %q", c.line, p.PerPulse, p.Set, ll.EyeSet, want, c.set)
+		}
+	}
+	if _, err := setup.Parse("t.toml", []byte(fmt.Sprintf(src, `limits = "ANSI Z136.1"`))); err == nil || !strings.Contains(err.Error(), "limits") {
+		t.Errorf("an unknown limit set: %v", err)
+	}
+}

@@ -6,6 +6,7 @@ import (
 
 	"beamledger/budget/atoms"
 	"beamledger/budget/units"
+	"beamledger/limits"
 )
 
 // ValueKind is the kind of value a key takes, as the setup file writes it.
@@ -159,6 +160,7 @@ var SetupTables = []*TableSpec{
 		text("revision", false, "the setup's revision", `"draft 3"`),
 		quantity("exposure", units.Time, false, "the viewing duration for every wavelength (default: 0.25 s in 400–700 nm, 10 s elsewhere)", `"10 s"`),
 		with(text("exposure_reason", false, "why a viewing duration shorter than the default is accepted (required for one)", `"shutter interlock closes within 0.1 s"`), "exposure"),
+		choice("limits", limits.LimitSets, false, `the exposure limits the workplace must apply: "strictest" (default: IEC 60825-1:2014 and the EU directive 2006/25/EC, the lower value governing), "IEC 60825-1:2014" or "2006/25/EC"; classes always follow IEC 60825-1:2014`, `"strictest"`),
 	}},
 	{Name: "laser", Path: "[[laser]]", Doc: "a source", Keys: []KeySpec{
 		nameKey,

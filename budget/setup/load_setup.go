@@ -45,6 +45,7 @@ func (l *loader) setup(raw map[string]any) *Setup {
 		s.Meta.Revision = t.str("revision", false)
 		s.Meta.Exposure = t.positive("exposure", units.Time, false)
 		s.Meta.ExposureReason = t.str("exposure_reason", false)
+		s.Meta.Limits = limits.LimitSet(t.enum("limits", string(limits.SetStrictest), limits.LimitSets...))
 		switch e := s.Meta.Exposure; {
 		case e > 0 && (e < MinExposure || e > limits.MaxDuration):
 			t.fail("exposure", "%s is outside %g s to 3e4 s: no viewing of a beam is shorter than %g s here, and the limits end at 3e4 s", show(m["exposure"]), MinExposure, MinExposure)
@@ -67,6 +68,9 @@ func (l *loader) setup(raw map[string]any) *Setup {
 			}
 		}
 		t.done()
+	}
+	if s.Meta.Limits == "" {
+		s.Meta.Limits = limits.SetStrictest
 	}
 	if !top.has("laser") {
 		l.addf(0, "", "the setup describes no laser ([[laser]] with name, wavelength, power and waist); there is nothing to evaluate")

@@ -1,6 +1,9 @@
 package setup
 
-import "beamledger/budget/atoms"
+import (
+	"beamledger/budget/atoms"
+	"beamledger/limits"
+)
 
 // Setup is a whole setup file: lasers, beam paths, atom clouds and eyewear.
 // Every quantity is in SI base units.
@@ -29,6 +32,9 @@ type Meta struct {
 	// ExposureReason says why a viewing duration shorter than the aversion
 	// response is accepted; required for one.
 	ExposureReason string
+	// Limits is the set of exposure limits the hazards are evaluated
+	// against (default limits.SetStrictest).
+	Limits limits.LimitSet
 }
 
 // Bounds on a stated viewing duration, s: AversionExposure is the shortest a

@@ -134,6 +134,47 @@ func TestLimitsJSONKeys(t *testing.T) {
 	}
 }
 
+// limits prints both sets side by side and which governs: 532 nm pulses of
+// 10 ps, where Directive 2006/25/EC Annex II Table 2.2 prints 2.7e4 t^0.75
+// C_E J/m² (1.52e-4 J/m² at 10 ps) below Edition 3's 2e-3 J/m² plateau
+// (from memory).
+func TestLimitsBothSets(t *testing.T) {
+	args := []string{"limits", "--wavelength", "532 nm", "--pulse-duration", "10 ps", "--repetition-rate", "1 Hz", "--duration", "1 s", "--json"}
+	for _, c := range []struct {
+		flag, set string
+		perPulse  float64
+	}{{"", "2006/25/EC", 2.7e4 * math.Pow(1e-11, 0.75)}, {"IEC 60825-1:2014", "IEC 60825-1:2014", 2e-3}} {
+		a := args
+		if c.flag != "" {
+			a = append(append([]string{}, args...), "--limits", c.flag)
+		}
+		out, errOut, code := runCLI(t, a...)
+		if code != 0 {
+			t.Fatalf("exit %d: %s", code, errOut)
+		}
+		var doc map[string]any
+		if err := json.Unmarshal([]byte(out), &doc); err != nil {
+			t.Fatal(err)
+		}
+		p := doc["pulsed"].(map[string]any)
+		if got := p["mpe_per_pulse_j_m2"].(float64); math.Abs(got-c.perPulse) > 1e-9*c.perPulse || p["set"] != c.set {
+			t.Errorf("--limits %q: %g J/m² per pulse from %v, want %g from %s", c.flag, got, p["set"], c.perPulse, c.set)
+		}
+		sets := doc["sets"].(map[string]any)
+		iec := sets["iec_60825_1_2014"].(map[string]any)
+		dir := sets["directive_2006_25_ec"].(map[string]any)
+		if iec["mpe_per_pulse_j_m2"].(float64) != 2e-3 || math.Abs(dir["mpe_per_pulse_j_m2"].(float64)-2.7e4*math.Pow(1e-11, 0.75)) > 1e-12 {
+			t.Errorf("side by side: IEC %v, directive %v", iec["mpe_per_pulse_j_m2"], dir["mpe_per_pulse_j_m2"])
+		}
+	}
+	text, _, _ := runCLI(t, args[:len(args)-1]...)
+	for _, want := range []string{"IEC 60825-1:2014:", "2006/25/EC:", "the single pulse rule of 2006/25/EC governs"} {
+		if !strings.Contains(text, want) {
+			t.Errorf("text lacks %q:\n%s", want, text)
+		}
+	}
+}
+
 func TestLimitsErrors(t *testing.T) {
 	for _, args := range [][]string{
 		{"limits"},

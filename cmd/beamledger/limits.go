@@ -15,6 +15,7 @@ import (
 type limitsOptions struct {
 	wavelength, duration, pulseDuration, repetitionRate, angularSubtense string
 	power, beamDiameter, divergence                                      string
+	set                                                                  string
 	json                                                                 bool
 }
 
@@ -23,10 +24,13 @@ func (e *env) newLimits() *cobra.Command {
 	cmd := &cobra.Command{
 		Use:   "limits --wavelength λ [flags]",
 		Short: "Look up exposure limits, AELs, and with a beam its NOHD, OD and class",
-		Long: `limits looks up the maximum permissible exposure (MPE) of IEC 60825-1:2014
-(Edition 3) for the eye and the skin at one wavelength and exposure duration,
-with the limiting aperture, the correction factors used and the accessible
-emission limits (AEL) of the classes for continuous emission.
+		Long: `limits looks up the maximum permissible exposure (MPE) for the eye and the
+skin at one wavelength and exposure duration in both limit sets, IEC
+60825-1:2014 (Edition 3) and the EU directive 2006/25/EC (Annex II), side by
+side, and which governs (--limits: the stricter by default), with the
+limiting aperture, the correction factors used and the accessible emission
+limits (AEL) of the classes for continuous emission (IEC 60825-1:2014; the
+directive has no classes).
 
 The duration defaults to 0.25 s in 400–700 nm and 10 s elsewhere (unintended
 viewing). With --pulse-duration and --repetition-rate the repetitive-pulse
@@ -51,6 +55,7 @@ and never replace, your laser safety officer's evaluation.`,
 	f.StringVar(&o.power, "power", "", `beam power (pulsed: average), e.g. "50 mW"`)
 	f.StringVar(&o.beamDiameter, "beam-diameter", "", `1/e² beam diameter at the exit, e.g. "2 mm"`)
 	f.StringVar(&o.divergence, "divergence", "", `full divergence angle, 1/e², e.g. "1 mrad"`)
+	f.StringVar(&o.set, "limits", string(limits.SetStrictest), `the limit set that governs: "strictest", "IEC 60825-1:2014" or "2006/25/EC"`)
 	f.BoolVar(&o.json, "json", false, "write JSON (SI units, unit-suffixed keys)")
 	return cmd
 }
@@ -114,6 +119,9 @@ func limitsQuery(o *limitsOptions) (safety.LimitsQuery, error) {
 		return q, fmt.Errorf("--wavelength is required")
 	}
 	q.Wavelength = λ
+	if q.Set, err = limits.ParseLimitSet(o.set); err != nil {
+		return q, fmt.Errorf("--limits: %w", err)
+	}
 	for _, f := range []struct {
 		name, value string
 		dim         units.Dimension

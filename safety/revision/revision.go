@@ -195,9 +195,11 @@ func setupChanges(ro, rn map[string]any, ids *idMap) []Change {
 // hazards take every laser at its maximum power.
 var driveLaserKeys = map[string]bool{"operating_power": true, "detuning": true}
 
-// metaAffects: of [setup], the viewing duration and its reason change the
-// limits; the title, site, author and revision do not.
-func metaAffects(key string) bool { return key == "exposure" || key == "exposure_reason" }
+// metaAffects: of [setup], the viewing duration, its reason and the limit
+// set change the limits; the title, site, author and revision do not.
+func metaAffects(key string) bool {
+	return key == "exposure" || key == "exposure_reason" || key == "limits"
+}
 
 // elementAffects: the keys of an atoms element that say what the light
 // does to the atoms (the cloud, the goal, the detuning, the beam's

@@ -167,3 +167,16 @@ func TestControlChanges(t *testing.T) {
 		t.Errorf("a new review date: %+v", r)
 	}
 }
+
+// Choosing another limit set is a safety change, even where no value moves.
+func TestLimitSetChange(t *testing.T) {
+	data, err := os.ReadFile("../../testdata/examples/table-c.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	iec := strings.Replace(string(data), "[setup]\n", "[setup]\nlimits = \"IEC 60825-1:2014\"\n", 1)
+	r := compare(t, revisionOf(t, "table-c.toml", data), revisionOf(t, "table-c.toml", []byte(iec)))
+	if !r.AffectsSafety || len(r.Setup) != 1 || r.Setup[0].Key != "limits" || !r.Setup[0].AffectsSafety {
+		t.Errorf("limit set chosen: %+v", r.Setup)
+	}
+}

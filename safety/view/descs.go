@@ -5,6 +5,14 @@ package view
 // with its descriptor (Num(dLaserPowerW, …)), so that every field of a kind
 // shares these strings. A new field gets its descriptor here.
 var (
+	dEyeMpeSet                          = &Desc{"eye_mpe_set", "eye limit set", "LaserLimits.EyeSet"}
+	dSkinMpeSet                         = &Desc{"skin_mpe_set", "skin limit set", "LaserLimits.SkinSet"}
+	dEyeMpeSetText                      = &Desc{"eye_mpe_set_text", "eye limit set", "LaserLimits.EyeSet"}
+	dSkinMpeSetText                     = &Desc{"skin_mpe_set_text", "skin limit set", "LaserLimits.SkinSet"}
+	dLimitSet                           = &Desc{"limit_set", "limit set", "Meta.Limits"}
+	dLimitSetText                       = &Desc{"limit_set_text", "limits applied", "Meta.Limits"}
+	dPulsedSet                          = &Desc{"set", "limit set", "PulsedLimit.Set"}
+	dPulsedSetText                      = &Desc{"set_text", "limit set", "PulsedLimit.Set"}
 	dEyewearNeedBeamIrradianceWM2       = &Desc{"beam_irradiance_w_m2", "beam power density", "EyewearNeed.BeamIrradiance"}
 	dEyewearNeedBeamPulseExposureJM2    = &Desc{"beam_pulse_exposure_j_m2", "beam energy density per pulse", "EyewearNeed.BeamPulseExposure"}
 	dExposureBeamIrradianceWM2          = &Desc{"beam_irradiance_w_m2", "beam power density", "Exposure.BeamIrradiance"}

@@ -47,7 +47,7 @@ type hazardView struct {
 // provenanceList is the list of the distinct rows of the standard (and of
 // the other sources) the limits used come from, unchecked ones first.
 func provenanceList(rows []limits.Provenance) *List {
-	l := &List{Key: "limits_used", Heading: "Where the limits come from (status: checked against a named public source, from memory of the standard, or a conservative substitute)"}
+	l := &List{Key: "limits_used", Heading: "Where the limits come from (status: checked against a named public source, checked against an earlier edition, from memory of the standard, or a conservative substitute)"}
 	seen := map[string]bool{}
 	var unchecked, checked []Record
 	for _, p := range rows {
@@ -85,6 +85,8 @@ func provenanceRecord(p limits.Provenance) Record {
 		text += " (in place of " + p.Replaces + ")"
 	}
 	switch {
+	case p.Status == limits.StatusEarlierEdition:
+		text = "checked against an earlier edition's values (" + strings.Join(p.CheckedAgainst, ", ") + "), not against the cited edition"
 	case len(p.CheckedAgainst) > 0 && p.Checked():
 		text = "checked against " + strings.Join(p.CheckedAgainst, ", ")
 	case len(p.CheckedAgainst) > 0:
@@ -98,6 +100,8 @@ func (b *builder) hazards(a *safety.Assessment) hazardView {
 	h := a.Hazards
 	v := hazardView{json: &Record{}}
 	v.json.F(Str(dStandard, safety.Standard)).
+		F(Str(dLimitSet, string(a.Setup.Meta.Limits))).
+		F(Field{d: dLimitSetText, Kind: String, Text: safety.LimitsBasis(a.Setup.Meta.Limits), People: true}).
 		F(StrList(dAssumptions, Assumptions(a.Setup))).
 		F(StrList(dCautions, Cautions))
 	v.lasers = &List{Key: "lasers", Heading: "Sources", Columns: []string{"name", "wavelength_m", "power_w", "emission", "class_text", "label_class", "eye_mpe_irradiance_w_m2", "skin_mpe_irradiance_w_m2", "duration_s", "eye_aperture_diameter_m"}, Records: make([]Record, 0, len(h.Lasers))}
@@ -149,7 +153,7 @@ func (b *builder) hazards(a *safety.Assessment) hazardView {
 	v.json.O("controls", declared, false)
 	v.json.L(checks)
 
-	blocks := []Block{{Indent: 1, Line: "assumptions:"}}
+	blocks := []Block{{Indent: 1, Line: "limits applied: " + safety.LimitsBasis(a.Setup.Meta.Limits) + "; " + safety.ClassBasis}, {Indent: 1, Line: "assumptions:"}}
 	for _, as := range Assumptions(a.Setup) {
 		blocks = append(blocks, Block{Indent: 2, Line: "- " + as})
 	}
@@ -160,7 +164,7 @@ func (b *builder) hazards(a *safety.Assessment) hazardView {
 		Block{Indent: 1, List: v.stray}, Block{Indent: 1, List: v.escaping}, Block{Indent: 1, List: v.diffuse},
 		Block{Indent: 1, List: v.eyewear}, Block{Indent: 1, Line: "controls declared: " + safety.ControlSummary(a.Setup.Controls)}, Block{Indent: 1, List: checks},
 		Block{Indent: 1, List: v.provenance}, Block{Indent: 1, Line: "Cautions"}, Block{Indent: 2, Bullets: Cautions})
-	v.section = Section{Heading: fmt.Sprintf("Hazards (%s)", safety.Standard), Blocks: blocks}
+	v.section = Section{Heading: "Hazards", Blocks: blocks}
 	return v
 }
 
@@ -186,7 +190,11 @@ func (b *builder) laserRecord(ll *safety.LaserLimits) Record {
 		F(Irr(dEyeMpeIrradianceWM2, ll.EyeIrradiance)).
 		F(Str(dEyeMpeRule, ll.EyeRule)).
 		F(Str(dEyeMpeEffect, ll.Eye.Effect)).
+		F(Str(dEyeMpeSet, string(ll.EyeSet))).
+		F(Field{d: dEyeMpeSetText, Kind: String, Text: safety.GoverningSet(ll.LimitSet, ll.EyeSet), People: true}).
 		F(Irr(dSkinMpeIrradianceWM2, ll.SkinIrradiance)).
+		F(Str(dSkinMpeSet, string(ll.SkinSet))).
+		F(Field{d: dSkinMpeSetText, Kind: String, Text: safety.GoverningSet(ll.LimitSet, ll.SkinSet), People: true}).
 		F(Len(dEyeApertureDiameterM, ll.EyeAperture)).
 		F(Len(dSkinApertureDiameterM, ll.SkinAperture)).
 		F(Pow(dAelClass1W, ll.AEL.Class1)).
@@ -204,7 +212,7 @@ func (b *builder) laserRecord(ll *safety.LaserLimits) Record {
 		r.F(Field{d: dInventory, Kind: String, Text: inv, People: true})
 		r.Line(las.Name + ": {inventory}")
 	}
-	r.Line(las.Name + ": eye limit {eye_mpe_rule} ({eye_mpe_effect}; {eye_mpe_provenance.status}); class {class_note}")
+	r.Line(las.Name + ": eye limit {eye_mpe_rule} ({eye_mpe_effect}; {eye_mpe_provenance.status}; {eye_mpe_set_text}); skin limit: {skin_mpe_set_text}; class {class_note}")
 	r.Line(las.Name + ": for alignment at most {alignment_power_w}, every segment within the MPE with every enclosure opened; from the operating power an attenuator of OD {alignment_attenuator_od}")
 	if p := ll.Pulsed; p != nil {
 		r.F(Num(dPulseEnergyJ, ll.PulseEnergy, units.FormatSI(ll.PulseEnergy, "J"))).
@@ -470,8 +478,9 @@ func (b *builder) pulsedRecord(p *limits.PulsedLimit, τ, f, T float64) *Record 
 	} else {
 		r.Line("  rule 3, pulse train: not applied ({train_note})")
 	}
-	r.Line("  the {governing_rule} rule governs: {mpe_per_pulse_j_m2} per pulse, an average irradiance of {mpe_average_irradiance_w_m2}")
+	r.Line("  the {governing_rule} rule of {set_text} governs: {mpe_per_pulse_j_m2} per pulse, an average irradiance of {mpe_average_irradiance_w_m2}")
 	r.F(Sec(dExposureDurationS, T))
+	r.F(Str(dPulsedSet, string(p.Set))).F(Field{d: dPulsedSetText, Kind: String, Text: p.Set.Governs(), People: true})
 	return r
 }
 

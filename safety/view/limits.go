@@ -25,8 +25,15 @@ func Limits(l *safety.LimitsLookup) *Doc {
 	r.F(Num(dLimitsQueryWavelengthM, q.Wavelength, units.FormatNumber(q.Wavelength*1e9)+" nm")).
 		F(Sec(dLimitsLookupDurationS, l.Duration)).
 		F(Num(dAngularSubtenseRad, q.AngularSubtense, units.FormatSI(q.AngularSubtense, "rad"))).
-		F(Str(dStandard, safety.Standard))
-	r.Line("{standard} limits at {wavelength_m}, exposure {duration_s}, " + src)
+		F(Str(dStandard, safety.Standard)).
+		F(Str(dLimitSet, string(l.Set))).
+		F(Field{d: dLimitSetText, Kind: String, Text: safety.LimitsBasis(l.Set), People: true}).
+		F(Str(dEyeMpeSet, string(l.Eye.Set))).
+		F(Field{d: dEyeMpeSetText, Kind: String, Text: safety.GoverningSet(l.Set, l.Eye.Set), People: true}).
+		F(Str(dSkinMpeSet, string(l.Skin.Set))).
+		F(Field{d: dSkinMpeSetText, Kind: String, Text: safety.GoverningSet(l.Set, l.Skin.Set), People: true})
+	r.Line("limits at {wavelength_m}, exposure {duration_s}, " + src)
+	r.Line("  limits applied: {limit_set_text}; " + safety.ClassBasis)
 	var b builder
 	side := func(key, name string, m limits.Limit, ap float64, apRow limits.Provenance) {
 		s := &Record{}
@@ -43,7 +50,48 @@ func Limits(l *safety.LimitsLookup) *Doc {
 		r.Line(fmt.Sprintf("       aperture from: {%s.aperture_provenance.row}: {%s.aperture_provenance.status_text}", key, key))
 	}
 	side("eye", "eye ", l.Eye, l.EyeAperture, l.EyeApertureRow)
+	r.Line("       {eye_mpe_set_text}")
 	side("skin", "skin", l.Skin, l.SkinAperture, l.SkinApertureRow)
+	r.Line("       {skin_mpe_set_text}")
+	sets := &Record{}
+	r.Line("  side by side (the lower governs under \"strictest\"):")
+	for _, sl := range []struct {
+		key string
+		v   safety.SetLimits
+	}{{"iec_60825_1_2014", l.IEC}, {"directive_2006_25_ec", l.Directive}} {
+		one := &Record{}
+		one.F(Str(dLimitSet, string(sl.v.Set))).
+			F(Num(dEyeMpeIrradianceWM2, sl.v.Eye.Irradiance, units.FormatIrradiance(sl.v.Eye.Irradiance))).
+			F(Num(dMpeRadiantExposureJM2, sl.v.Eye.RadiantExposure, units.FormatSI(sl.v.Eye.RadiantExposure, "J/m²"))).
+			F(Str(dRule, sl.v.Eye.Rule)).
+			F(Num(dSkinMpeIrradianceWM2, sl.v.Skin.Irradiance, units.FormatIrradiance(sl.v.Skin.Irradiance)))
+		ep, sp := provenanceRecord(sl.v.Eye.Provenance), provenanceRecord(sl.v.Skin.Provenance)
+		one.O("eye_provenance", &ep, false).O("skin_provenance", &sp, false)
+		pre := "sets." + sl.key + "."
+		one.Line(fmt.Sprintf("    %-17s eye {%seye_mpe_irradiance_w_m2} (H = {%smpe_radiant_exposure_j_m2}), {%srule}: {%seye_provenance.status_text}", sl.v.Set.Governs()+":", pre, pre, pre, pre))
+		one.Line(fmt.Sprintf("    %-17s skin {%sskin_mpe_irradiance_w_m2}: {%sskin_provenance.status_text}", "", pre, pre))
+		if p := sl.v.Pulsed; p != nil {
+			one.F(Num(dMpePerPulseJM2, p.PerPulse, withUnit(p.PerPulse, "J/m²"))).F(Str(dGoverningRule, p.Rule))
+			if p.TrainApplies {
+				one.F(Plain(dPulses, p.N)).F(Sec(dCountedOverS, p.CountedOver))
+			} else {
+				one.F(Absent(dPulses, false)).F(Absent(dCountedOverS, false))
+			}
+			tp := provenanceRecord(p.Provenance)
+			one.O("train_provenance", &tp, false)
+			if p.TrainApplies {
+				one.Line(fmt.Sprintf("    %-17s pulse train: {%smpe_per_pulse_j_m2} per pulse, the {%sgoverning_rule} rule (N = {%spulses} over {%scounted_over_s}): {%strain_provenance.status_text}", "", pre, pre, pre, pre, pre))
+			} else {
+				one.Line(fmt.Sprintf("    %-17s pulse train: {%smpe_per_pulse_j_m2} per pulse, the {%sgoverning_rule} rule: {%strain_provenance.status_text}", "", pre, pre, pre))
+			}
+		}
+		sets.O(sl.key, one, false)
+		for _, line := range one.Lines {
+			r.Line(line)
+		}
+		one.Lines = nil
+	}
+	r.O("sets", sets, false)
 	ael := &Record{}
 	ael.F(Pow(dAELClass1, l.AEL.Class1)).
 		F(orNone(Pow(dAELClass2, l.AEL.Class2))).

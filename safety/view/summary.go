@@ -21,7 +21,7 @@ func Summary(a *safety.Assessment) string {
 		}
 	}
 	var b strings.Builder
-	fmt.Fprintf(&b, "This document evaluates the setup described in %s against %s and the drive goals it states. ", a.Setup.File, safety.Standard)
+	fmt.Fprintf(&b, "This document evaluates the setup described in %s against %s, with %s, and the drive goals it states. ", a.Setup.File, safety.LimitsBasis(a.Setup.Meta.Limits), safety.ClassBasis)
 	defects, hazards := count[budget.SeverityDefect], count[budget.SeverityHazard]
 	switch {
 	case defects == 0 && uncontrolled == 0:
