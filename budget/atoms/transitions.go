@@ -147,7 +147,8 @@ func init() {
 	// effective far-detuned I_sat for π light 4.4876 mW/cm², from memory).
 	rb87 := alkali("Rb87", 780.241209686e-9, 6.0666e6, 794.978851156e-9, 5.7500e6)
 	// Rb-85: D. A. Steck, "Rubidium 85 D Line Data" (revision 2.2.1, 2019),
-	// tables 2, 3 (D2 I_sat 1.66933 mW/cm² cycling, 2.50399 mW/cm² isotropic)
+	// tables 2, 3 (D2 I_sat 1.66933 mW/cm² cycling, 3.89512 mW/cm² isotropic;
+	// 2.50399 mW/cm² is the far-detuned π value, not the isotropic one)
 	// and 5 (D1: effective far-detuned I_sat for π light 4.4876 mW/cm², from
 	// memory).
 	rb85 := alkali("Rb85", 780.241368271e-9, 6.0666e6, 794.979014933e-9, 5.7500e6)
@@ -203,7 +204,7 @@ func init() {
 	add(
 		&Transition{"Rb87 D2", rb87[0].Wavelength, rb87[0].Gamma, 1.66933 * mWcm, cyclingAlkali, 3.57713 * mWcm, mRb87, rb87, steck87},
 		&Transition{"Rb87 D1", rb87[1].Wavelength, rb87[1].Gamma, 4.4876 * mWcm, d1Note, 0, mRb87, rb87, steck87},
-		&Transition{"Rb85 D2", rb85[0].Wavelength, rb85[0].Gamma, 1.66933 * mWcm, cyclingAlkali, 2.50399 * mWcm, mRb85, rb85, steck85},
+		&Transition{"Rb85 D2", rb85[0].Wavelength, rb85[0].Gamma, 1.66933 * mWcm, cyclingAlkali, 3.89512 * mWcm, mRb85, rb85, steck85},
 		&Transition{"Rb85 D1", rb85[1].Wavelength, rb85[1].Gamma, 4.4876 * mWcm, d1Note, 0, mRb85, rb85, steck85},
 		&Transition{"Cs133 D2", cs[0].Wavelength, cs[0].Gamma, 1.1023 * mWcm, cyclingAlkali, 2.7059 * mWcm, mCs, cs, steckCs},
 		&Transition{"Cs133 D1", cs[1].Wavelength, cs[1].Gamma, 2.4981 * mWcm, d1Note, 0, mCs, cs, steckCs},
