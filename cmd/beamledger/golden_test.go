@@ -63,7 +63,12 @@ func TestCheckGolden(t *testing.T) {
 				if got != code {
 					t.Errorf("%v: exit %d, want %d (stderr %q)", args, got, code, errOut)
 				}
-				safetytest.Golden(t, filepath.Join("safety", "view", "testdata", "golden", base+c.ext), out, false)
+				golden := filepath.Join("safety", "view", "testdata", "golden", base+c.ext)
+				if c.ext == ".json" {
+					safetytest.GoldenJSON(t, golden, out, false)
+				} else {
+					safetytest.Golden(t, golden, out, false)
+				}
 			}
 		})
 	}

@@ -5,7 +5,11 @@
 package safetytest
 
 import (
+	"encoding/json"
+	"fmt"
+	"math"
 	"os"
+	"sort"
 	"path/filepath"
 	"strconv"
 	"strings"
@@ -64,6 +68,103 @@ func Golden(t testing.TB, path, got string, update bool) {
 		return
 	}
 	t.Fatalf("%s differs:\n%s", path, Diff(string(want), got))
+}
+
+// GoldenRelTol is the relative tolerance GoldenJSON allows on numbers: a
+// change in the last digits of a float (a reordered sum, another platform's
+// math library) does not move a golden file; a change in a printed figure
+// does.
+const GoldenRelTol = 1e-9
+
+// GoldenJSON compares a JSON document with the golden file at path like
+// Golden, but numbers need only agree to GoldenRelTol (relative; absolute
+// below 1e-300); keys, strings, nulls and the order of lists must match
+// exactly. The first difference is reported by its place in the document.
+func GoldenJSON(t testing.TB, path, got string, update bool) {
+	t.Helper()
+	if update {
+		Golden(t, path, got, true)
+		return
+	}
+	want, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatalf("golden file: %v (run the test with -update to write it)", err)
+	}
+	if got == string(want) {
+		return
+	}
+	var w, g any
+	if err := json.Unmarshal(want, &w); err != nil {
+		t.Fatalf("%s: %v", path, err)
+	}
+	if err := json.Unmarshal([]byte(got), &g); err != nil {
+		t.Fatalf("%s: the output is not JSON: %v", path, err)
+	}
+	if where := JSONDiff("$", w, g, GoldenRelTol); where != "" {
+		t.Fatalf("%s differs at %s", path, where)
+	}
+}
+
+// JSONDiff is the place of the first difference between two decoded JSON
+// values (with both values), numbers compared to a relative tolerance rel;
+// "" when they agree.
+func JSONDiff(at string, want, got any, rel float64) string {
+	switch w := want.(type) {
+	case map[string]any:
+		g, ok := got.(map[string]any)
+		if !ok {
+			return fmt.Sprintf("%s: want an object, got %v", at, got)
+		}
+		keys := make([]string, 0, len(w)+len(g))
+		for k := range w {
+			keys = append(keys, k)
+		}
+		for k := range g {
+			if _, ok := w[k]; !ok {
+				keys = append(keys, k)
+			}
+		}
+		sort.Strings(keys)
+		for _, k := range keys {
+			wv, wok := w[k]
+			gv, gok := g[k]
+			if !wok || !gok {
+				return fmt.Sprintf("%s.%s: present in want %v, in got %v", at, k, wok, gok)
+			}
+			if d := JSONDiff(at+"."+k, wv, gv, rel); d != "" {
+				return d
+			}
+		}
+		return ""
+	case []any:
+		g, ok := got.([]any)
+		if !ok || len(g) != len(w) {
+			return fmt.Sprintf("%s: want a list of %d, got %v", at, len(w), describe(got))
+		}
+		for i := range w {
+			if d := JSONDiff(fmt.Sprintf("%s[%d]", at, i), w[i], g[i], rel); d != "" {
+				return d
+			}
+		}
+		return ""
+	case float64:
+		g, ok := got.(float64)
+		if !ok || math.Abs(g-w) > rel*math.Max(math.Abs(w), math.Abs(g)) && math.Abs(g-w) > 1e-300 {
+			return fmt.Sprintf("%s: want %v, got %v", at, w, got)
+		}
+		return ""
+	}
+	if want != got {
+		return fmt.Sprintf("%s: want %v, got %v", at, want, got)
+	}
+	return ""
+}
+
+func describe(v any) string {
+	if l, ok := v.([]any); ok {
+		return fmt.Sprintf("a list of %d", len(l))
+	}
+	return fmt.Sprint(v)
 }
 
 // Diff shows where two texts first differ: the differing line of each, with

@@ -68,6 +68,6 @@ func TestGolden(t *testing.T) {
 			t.Fatal(err)
 		}
 		safetytest.Golden(t, filepath.Join("testdata", "golden", base+".txt"), text.String(), *update)
-		safetytest.Golden(t, filepath.Join("testdata", "golden", base+".json"), js.String(), *update)
+		safetytest.GoldenJSON(t, filepath.Join("testdata", "golden", base+".json"), js.String(), *update)
 	})
 }
