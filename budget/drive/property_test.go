@@ -63,7 +63,7 @@ func TestCloudsFiniteOnGeneratedLabs(t *testing.T) {
 }
 
 // The tolerance analysis of a generated 200-element lab with 62
-// tolerances and 28 goals, 10 000 samples on all cores (README's figure).
+// tolerances and 28 goals, 10 000 samples on all cores (docs/speed.md's figure).
 func BenchmarkTolerances200(b *testing.B) {
 	s, bu := computed(b, 5, synth.Options{Lasers: 10, ElementsPerPath: 19, Tolerances: true})
 	d := drive.Evaluate(bu)

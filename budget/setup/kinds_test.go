@@ -9,15 +9,15 @@ import (
 )
 
 // Every element kind is whole: it says what it does, it reads its keys,
-// the generator makes it (so the property tests exercise it), README lists
-// it, and the loader accepts each of its keys (an unknown key would be an
+// the generator makes it (so the property tests exercise it), the setup
+// guide (docs/setup.md) lists it, and the loader accepts each of its keys (an unknown key would be an
 // error).
 func TestElementKindsComplete(t *testing.T) {
 	var gen strings.Builder
 	for seed := uint64(1); seed <= 20; seed++ {
 		gen.WriteString(synth.Lab(seed, synth.Options{Lasers: 2, ElementsPerPath: 12, Splits: 1, Fibers: true, Merges: true}))
 	}
-	readme, err := os.ReadFile("../../README.md")
+	readme, err := os.ReadFile("../../docs/setup.md")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -30,11 +30,11 @@ func TestElementKindsComplete(t *testing.T) {
 				t.Errorf("the generator never makes a %s", k.Type)
 			}
 			if !strings.Contains(string(readme), "`"+string(k.Type)+"`") {
-				t.Errorf("README does not list the element type %s", k.Type)
+				t.Errorf("docs/setup.md does not list the element type %s", k.Type)
 			}
 			for _, key := range k.KeyNames() {
 				if !strings.Contains(string(readme), "`"+key+"`") {
-					t.Errorf("README does not name the key %s of a %s", key, k.Type)
+					t.Errorf("docs/setup.md does not name the key %s of a %s", key, k.Type)
 				}
 			}
 		})

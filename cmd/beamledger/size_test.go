@@ -89,7 +89,7 @@ func TestLargestAcceptedSetup(t *testing.T) {
 }
 
 // BenchmarkLargestAcceptedSetup times check and report on the largest
-// setup the loader accepts (README's size limits give the figures):
+// setup the loader accepts (docs/speed.md's size limits give the figures):
 // go test -run '^$' -bench LargestAcceptedSetup -benchtime 1x ./cmd/beamledger
 func BenchmarkLargestAcceptedSetup(b *testing.B) {
 	dir := b.TempDir()
