@@ -78,7 +78,14 @@ const (
 	FindingLosslessGuess FindingKind = "assumed_lossless"
 	FindingNotParaxial   FindingKind = "not_paraxial"
 	FindingClippedPower  FindingKind = "clipped_power"
+	FindingHugePower     FindingKind = "power_in_megawatts"
 )
+
+// HugeContinuousPower is the continuous power above which a laser's power
+// is noted as possibly a unit slip ("2 MW" written for 2 mW), W: 10 kW,
+// beyond any laboratory continuous source on an optical table (our
+// threshold). The power is used as written.
+const HugeContinuousPower = 10e3
 
 // ClearApertureFactor: a clear aperture diameter under π·W (W the larger
 // 1/e² radius) clips about 1 % or more of a round Gaussian beam; common
@@ -179,6 +186,11 @@ func (b *Budget) Findings() []Finding {
 	for _, las := range b.Setup.Lasers {
 		if !used[las] {
 			out = append(out, Finding{Severity: SeverityDefect, Kind: FindingUnusedLaser, Path: "", Element: 0, At: 0, Message: fmt.Sprintf("laser %q feeds no path, so its beam is not evaluated at all; describe where its beam goes", las.Name)})
+		}
+	}
+	for _, las := range b.Setup.Lasers {
+		if las.Emission == setup.EmissionCW && las.Power > HugeContinuousPower {
+			out = append(out, Finding{Severity: SeverityNote, Kind: FindingHugePower, Message: fmt.Sprintf("laser %q: a continuous power of %s is used as written; \"MW\" means megawatt, write \"mW\" for milliwatt", las.Name, units.FormatPower(las.Power))})
 		}
 	}
 	if b.AssumedLossless > 0 {

@@ -273,3 +273,25 @@ func TestNearestLine(t *testing.T) {
 		t.Errorf("nearest to 1064 nm: %s", l.Name)
 	}
 }
+
+// Steck, Rubidium 87 D Line Data, table 3: Γ = 2π × 6.0666 MHz = 38.117e6
+// s⁻¹ (the table prints both).
+func TestLinewidthHz(t *testing.T) {
+	if got := LinewidthHz(38.117e6); !close(got, 6.0666e6, 1e-4) {
+		t.Errorf("Γ/2π = %g Hz, want 6.0666 MHz", got)
+	}
+}
+
+// k_B/h = 2.083661912e10 Hz/K (CODATA 2018, exact): a depth of U/h =
+// 20.83661912 GHz is U/k_B = 1 K, and 20 MHz is 0.9598 mK.
+func TestDepthTemperature(t *testing.T) {
+	if got := DepthTemperature(2.083661912e10); !close(got, 1, 1e-9) {
+		t.Errorf("U/k_B = %g K, want 1", got)
+	}
+	if got := DepthTemperature(20e6); !close(got, 20e6/2.083661912e10, 1e-9) {
+		t.Errorf("20 MHz: %g K", got)
+	}
+	if got := DepthFrequency(1e-3); !close(got, 2.083661912e7, 1e-9) {
+		t.Errorf("1 mK: U/h = %g Hz, want 20.84 MHz", got)
+	}
+}

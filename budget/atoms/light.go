@@ -74,3 +74,15 @@ func AxialTrapFrequency(u0, κ, m float64) float64 {
 	}
 	return math.Sqrt(-u0 * κ / m)
 }
+
+// LinewidthHz is the natural linewidth Γ (rad/s) in hertz, Γ/2π: the
+// figure data sheets print, and the unit of a detuning written in Γ.
+func LinewidthHz(Γ float64) float64 { return Γ / (2 * math.Pi) }
+
+// DepthTemperature is a trap depth given as U/h (Hz) expressed as U/k_B
+// (K): h f / k_B.
+func DepthTemperature(uOverH float64) float64 { return H * uOverH / KB }
+
+// DepthFrequency is a trap depth U/k_B (K) expressed as U/h (Hz): k_B T / h,
+// the inverse of DepthTemperature.
+func DepthFrequency(uOverKB float64) float64 { return KB * uOverKB / H }

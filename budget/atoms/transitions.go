@@ -18,6 +18,9 @@
 //	| --- | --- | --- | --- | --- |
 //	| two-level I_sat | π h c Γ/(3λ³) | Steck D-line data sheets | TwoLevelIsat | TestTwoLevelIsatReproducesDataSheets |
 //	| resonant cross-section | σ0 = ħωΓ/(2 I_sat) | Steck D-line data sheets | CrossSection | TestTwoLevelIsatReproducesDataSheets |
+//	| trap depth from U/h | h f / k_B | CODATA 2018 (k_B/h exact) | DepthTemperature | TestDepthTemperature |
+//	| trap depth as U/h | k_B T / h | CODATA 2018 (k_B/h exact) | DepthFrequency | TestDepthTemperature |
+//	| linewidth in hertz | Γ/2π | Steck D-line data sheets | LinewidthHz | TestLinewidthHz |
 //	| saturation parameter | s = I/I_sat | Steck D-line data sheets | Saturation | TestRabiAndScattering |
 //	| Rabi frequency | Ω = Γ√(s/2) | Steck D-line data sheets | Rabi | TestRabiAndScattering |
 //	| saturation for a Rabi frequency | s = 2(Ω/Γ)² | Steck D-line data sheets | SaturationForRabi | TestRabiAndScattering |

@@ -1,6 +1,7 @@
 package setup
 
 import (
+	"maps"
 	"slices"
 	"sync"
 
@@ -173,7 +174,7 @@ var SetupTables = []*TableSpec{
 		choice("emission", EmissionValues, false, "continuous or pulsed (default cw)", `"cw"`),
 		with(quantity("pulse_duration", units.Time, false, "pulsed: the pulse duration", `"7 ns"`), "emission="+EmissionPulsed, "repetition_rate"),
 		with(quantity("repetition_rate", units.Frequency, false, "pulsed: the repetition rate", `"10 Hz"`), "emission="+EmissionPulsed, "pulse_duration"),
-		quantity("detuning", units.Frequency, false, "the laser frequency minus the driven transition's", `"80 MHz"`),
+		quantity("detuning", units.Frequency, false, "the laser frequency minus the driven transition's; or in linewidths of the transition of the clouds it reaches, \"-2.5 Γ\" or \"-2.5 Gamma\"", `"80 MHz"`),
 		text("maker", false, "inventory: the maker", `"Example Photonics"`),
 		text("model", false, "inventory: the model", `"TA-780"`),
 		text("serial", false, "inventory: the serial number", `"SN 0042"`),
@@ -281,6 +282,9 @@ func init() {
 	el := TableNamed("element")
 	for _, k := range Kinds {
 		el.Key("type").Enum = append(el.Key("type").Enum, string(k.Type))
+	}
+	for _, alias := range slices.Sorted(maps.Keys(typeAliases)) {
+		el.Key("type").Enum = append(el.Key("type").Enum, string(alias))
 	}
 	TableNamed("cloud").Key("transition").Enum = append(atoms.Names(), "custom")
 }

@@ -1,6 +1,7 @@
 package setup
 
 import (
+	"beamledger/budget/atoms"
 	"beamledger/budget/units"
 	"slices"
 )
@@ -68,7 +69,7 @@ var atomsKeys = append([]KeySpec{
 }, append(slices.Clone(goalKeys),
 	with(choice("goal_at", GoalAtValues, false, "where the goal must hold: the cloud's centre (default), its exit, or all (a fraction of the atoms)", `"exit"`), "goal"),
 	with(fractionKey("goal_fraction", "with goal_at = \"all\": the fraction of the atoms that must reach the goal (default 0.9)", "0.9"), "goal", "goal_at=all"),
-	quantity("detuning", units.Frequency, false, "the detuning here, overriding the laser's plus the modulators' shifts", `"-12 MHz"`),
+	quantity("detuning", units.Frequency, false, "the detuning here, overriding the laser's plus the modulators' shifts; or in linewidths of the cloud's transition, \"-2.5 Γ\" or \"-2.5 Gamma\"", `"-12 MHz"`),
 	choice("axis", AxisValues, false, "the cloud axis the beam runs along (default z)", `"y"`),
 	KeySpec{Key: "direction", Kind: ValVector, Doc: "the beam's direction in the cloud's frame, instead of axis", Example: `[0, -1, 0]`},
 	choice("interference", InterferenceValues, false, "standing_wave: this return pass interferes with the forward one", `"standing_wave"`),
@@ -204,8 +205,8 @@ func readAtoms(t *table, e *Element, m map[string]any) {
 	if (t.has("goal_at") || t.has("goal_fraction")) && e.Goal == "" {
 		t.fail("goal_at", "given without goal")
 	}
-	if d, ok := t.quantity("detuning", units.Frequency, false); ok {
-		e.Detuning = &d
+	if d, n, ok := t.detuning("detuning"); ok {
+		e.Detuning, e.DetuningLinewidths = &d, n
 	}
 }
 
@@ -220,7 +221,17 @@ func readGoal(t *table, goal *string, value **float64, factor *float64, m map[st
 	case GoalRabi:
 		*value = t.positivePtr("goal_value", units.Frequency, "a Rabi frequency Ω/2π")
 	case GoalTrapDepth:
-		*value = t.positivePtr("goal_value", units.Temperature, "a trap depth U/k_B")
+		// A depth may be given as U/h, in Hz: converted to U/k_B.
+		if v, ok := m["goal_value"].(string); ok {
+			if _, d, err := units.ParseQuantity(v); err == nil && d == units.Frequency {
+				if f := t.positivePtr("goal_value", units.Frequency, "a trap depth U/h"); f != nil {
+					k := atoms.DepthTemperature(*f)
+					*value = &k
+				}
+				break
+			}
+		}
+		*value = t.positivePtr("goal_value", units.Temperature, "a trap depth U/k_B (or U/h in Hz)")
 	case GoalCollective:
 		if t.has("goal_value") {
 			t.get("goal_value")

@@ -1,10 +1,12 @@
 package setup
 
 import (
+	"beamledger/budget/atoms"
 	"beamledger/budget/numeric"
 	"beamledger/budget/units"
 	"fmt"
 	"maps"
+	"math"
 	"slices"
 	"strings"
 )
@@ -23,6 +25,7 @@ func (l *loader) link(s *Setup) {
 		func() { l.linkLasers(s, locs) },
 		func() { l.linkInto(s, paths, locs) },
 		func() { l.checkPerLaser(s, lasers, locs); l.checkClouds(s, lasers, locs) },
+		func() { l.linewidthDetunings(s, clouds, locs) },
 		func() { l.checkDetunings(s, clouds, locs) },
 	}
 	for _, step := range steps {
@@ -60,7 +63,7 @@ func (l *loader) checkPaths(s *Setup, clouds map[string]*Cloud, locs map[*Path]i
 					units.FormatLength(e.At), units.FormatLength(prevAt))
 			}
 			if k := e.Index - 2; k >= 0 {
-				if w := p.Elements[k]; w.Type == TypeWindow && w.Thickness > e.At-w.At {
+				if w := p.Elements[k]; w.Type == TypeWindow && w.Thickness > 0 && e.At >= w.At && w.Thickness > e.At-w.At {
 					l.addf(w.Line, fmt.Sprintf("%s, element %d (window)", ctx, w.Index),
 						"thickness: %s is more than the %s to the next element; the window would hold it", units.FormatLength(w.Thickness), units.FormatLength(e.At-w.At))
 				}
@@ -69,7 +72,7 @@ func (l *loader) checkPaths(s *Setup, clouds map[string]*Cloud, locs map[*Path]i
 			if e.Type == TypeAtoms && e.Cloud != "" {
 				if _, ok := clouds[e.Cloud]; !ok {
 					l.addf(l.lines.line(fmt.Sprintf("%s.element[%d]", pathLoc(locs, p), e.Index-1), "cloud"), ectx,
-						"cloud: no cloud named %q (clouds: %s)", e.Cloud, listNames(len(s.Clouds), func(i int) string { return s.Clouds[i].Name }))
+						"cloud: no cloud named %q (clouds: %s)%s", e.Cloud, listNames(len(s.Clouds), func(i int) string { return s.Clouds[i].Name }), nameHint(e.Cloud, len(s.Clouds), func(i int) string { return s.Clouds[i].Name }))
 				}
 			}
 		}
@@ -100,8 +103,8 @@ func (l *loader) linkSources(s *Setup, lasers map[string]*Laser, paths map[strin
 		}
 		pathName, elemName, isPort := strings.Cut(p.From, ":")
 		if !isPort {
-			l.addf(line, ctx, "from: no laser named %q (lasers: %s; a splitter port is written \"<path>:<splitter name>\")",
-				p.From, listNames(len(s.Lasers), func(i int) string { return s.Lasers[i].Name }))
+			l.addf(line, ctx, "from: no laser named %q (lasers: %s; a splitter port is written \"<path>:<splitter name>\")%s",
+				p.From, listNames(len(s.Lasers), func(i int) string { return s.Lasers[i].Name }), nameHint(p.From, len(s.Lasers), func(i int) string { return s.Lasers[i].Name }))
 			continue
 		}
 		parent, port, problem := portOf(paths, pathName, elemName, TypeSplitter)
@@ -158,6 +161,47 @@ func (l *loader) linkLasers(s *Setup, locs map[*Path]int) {
 		for _, w := range walk {
 			state[w] = finished
 			w.Laser = las
+		}
+	}
+}
+
+// linewidthDetunings converts detunings written in linewidths: an atoms
+// element's with its cloud's transition, a laser's with the transition of
+// the clouds its own beams reach (they must agree on Γ).
+func (l *loader) linewidthDetunings(s *Setup, clouds map[string]*Cloud, locs map[*Path]int) {
+	gammaOf := map[*Laser][]float64{}
+	for _, p := range s.Paths {
+		for _, e := range p.Elements {
+			c := clouds[e.Cloud]
+			if e.Type != TypeAtoms || c == nil || c.Data == nil {
+				continue
+			}
+			gammaOf[p.Laser] = append(gammaOf[p.Laser], c.Data.Gamma)
+			if e.DetuningLinewidths != nil {
+				hz := *e.DetuningLinewidths * atoms.LinewidthHz(c.Data.Gamma)
+				e.Detuning = &hz
+			}
+		}
+	}
+	for i, las := range s.Lasers {
+		if las.DetuningLinewidths == nil {
+			continue
+		}
+		line, ctx := l.lines.line(fmt.Sprintf("laser[%d]", i), "detuning"), fmt.Sprintf("laser %q", las.Name)
+		g := gammaOf[las]
+		if len(g) == 0 {
+			l.addf(line, ctx, "detuning: %g Γ needs a transition, but the laser's beams reach no cloud; give it in Hz", *las.DetuningLinewidths)
+			continue
+		}
+		for _, x := range g[1:] {
+			if math.Abs(x-g[0]) > 1e-9*g[0] {
+				l.addf(line, ctx, "detuning: %g Γ is ambiguous: the clouds the laser reaches have transitions of different linewidths; give it in Hz", *las.DetuningLinewidths)
+				g = nil
+				break
+			}
+		}
+		if g != nil {
+			las.Detuning = *las.DetuningLinewidths * atoms.LinewidthHz(g[0])
 		}
 	}
 }
@@ -230,6 +274,18 @@ func pathLocs(s *Setup) map[*Path]int {
 
 // pathLoc is the line-index key of a path, e.g. "path[3]".
 func pathLoc(locs map[*Path]int, p *Path) string { return fmt.Sprintf("path[%d]", locs[p]) }
+
+// nameHint is "; did you mean X?" when one of the n names is near word.
+func nameHint(word string, n int, name func(int) string) string {
+	names := make([]string, n)
+	for i := range names {
+		names[i] = name(i)
+	}
+	if c, ok := closest(word, names); ok {
+		return fmt.Sprintf("; did you mean %q?", c)
+	}
+	return ""
+}
 
 func listNames(n int, name func(int) string) string {
 	if n == 0 {
@@ -378,7 +434,7 @@ func (l *loader) checkPerLaser(s *Setup, lasers map[string]*Laser, locs map[*Pat
 				ctx := fmt.Sprintf("path %q, element %d (%s)", p.Name, e.Index, e.Type)
 				for _, name := range slices.Sorted(maps.Keys(by)) {
 					if _, ok := lasers[name]; !ok {
-						l.addf(line, ctx, "%s: no laser named %q (lasers: %s)", key, name, listNames(len(s.Lasers), func(i int) string { return s.Lasers[i].Name }))
+						l.addf(line, ctx, "%s: no laser named %q (lasers: %s)%s", key, name, listNames(len(s.Lasers), func(i int) string { return s.Lasers[i].Name }), nameHint(name, len(s.Lasers), func(i int) string { return s.Lasers[i].Name }))
 					}
 				}
 				for _, a := range reach[e] {
@@ -462,12 +518,12 @@ func (l *loader) checkClouds(s *Setup, lasers map[string]*Laser, locs map[*Path]
 		ctx := fmt.Sprintf("cloud %q", c.Name)
 		for _, name := range c.GoalLasers {
 			if _, ok := lasers[name]; !ok {
-				l.addf(l.lines.line(loc, "goal_lasers"), ctx, "goal_lasers: no laser named %q (lasers: %s)", name, laserNames)
+				l.addf(l.lines.line(loc, "goal_lasers"), ctx, "goal_lasers: no laser named %q (lasers: %s)%s", name, laserNames, nameHint(name, len(s.Lasers), func(i int) string { return s.Lasers[i].Name }))
 			}
 		}
 		for _, name := range slices.Sorted(maps.Keys(c.ExcitedPolarizability)) {
 			if _, ok := lasers[name]; !ok {
-				l.addf(l.lines.line(loc, "excited_polarizability"), ctx, "excited_polarizability: no laser named %q (lasers: %s)", name, laserNames)
+				l.addf(l.lines.line(loc, "excited_polarizability"), ctx, "excited_polarizability: no laser named %q (lasers: %s)%s", name, laserNames, nameHint(name, len(s.Lasers), func(i int) string { return s.Lasers[i].Name }))
 			}
 		}
 	}

@@ -9,6 +9,7 @@ import (
 	"os"
 	"slices"
 	"sort"
+	"strconv"
 	"strings"
 	"unicode"
 	"unicode/utf8"
@@ -144,6 +145,48 @@ type table struct {
 	// are names, such as a per-laser table); the loader reads no key the
 	// spec does not list.
 	spec *TableSpec
+	// failed lists the keys an error was reported for; typo maps a key of
+	// the spec to the unknown key of the table that misspells it (built on
+	// first use). Errors that would only follow from those (a misspelled
+	// key then "missing", a refused goal then "goal_value given without
+	// goal") are not reported: the first error says what to fix.
+	failed map[string]bool
+	typo   map[string]string
+}
+
+// typos maps each key of the spec that an unknown key of the table is
+// within a few edits of (and that the table does not give) to that
+// unknown key.
+func (t *table) typos() map[string]string {
+	if t.typo != nil || t.spec == nil {
+		return t.typo
+	}
+	t.typo = map[string]string{}
+	known := keyNames(t.spec.Keys)
+	for k := range t.m {
+		if t.spec.Key(k) != nil {
+			continue
+		}
+		if c, ok := closest(k, known); ok && !t.has(c) {
+			t.typo[c] = k
+		}
+	}
+	return t.typo
+}
+
+// consequence reports whether an error about key would only follow from
+// one already reported: key is missing because it was misspelled, or it is
+// "given without" a key whose value was refused.
+func (t *table) consequence(key, format string) bool {
+	if strings.HasPrefix(format, "missing") {
+		_, misspelled := t.typos()[key]
+		return misspelled
+	}
+	if rest, ok := strings.CutPrefix(format, "given without "); ok {
+		need := strings.FieldsFunc(rest, func(r rune) bool { return !(r == '_' || r >= 'a' && r <= 'z') })
+		return len(need) > 0 && t.failed[need[0]]
+	}
+	return false
 }
 
 // of sets the table's spec.
@@ -167,6 +210,13 @@ func (t *table) where() string {
 func (t *table) line(key string) int { return t.l.lines.line(t.loc, key) }
 
 func (t *table) fail(key, format string, args ...any) {
+	if key != "" && t.consequence(key, format) {
+		return
+	}
+	if t.failed == nil {
+		t.failed = map[string]bool{}
+	}
+	t.failed[key] = true
 	msg := fmt.Sprintf(format, args...)
 	if key != "" {
 		msg = key + ": " + msg
@@ -206,7 +256,15 @@ func (t *table) done() {
 	if len(unknown) > 0 && t.hint != nil {
 		hint = t.hint()
 	}
+	meant := map[string]string{}
+	for known, typed := range t.typos() {
+		meant[typed] = known
+	}
 	for _, k := range unknown {
+		if c, ok := meant[k]; ok {
+			t.fail(k, "unknown key; did you mean %s?", c)
+			continue
+		}
 		t.fail(k, "unknown key%s", hint)
 	}
 }
@@ -320,7 +378,7 @@ func (t *table) enum(key, def string, allowed ...string) string {
 		}
 	}
 	if s != "" || t.has(key) {
-		t.fail(key, "%q is not one of %s", s, strings.Join(allowed, ", "))
+		t.fail(key, "%q is not one of %s%s", s, strings.Join(allowed, ", "), didYouMean(s, allowed))
 	}
 	return def
 }
@@ -366,6 +424,35 @@ const MinFraction = 1e-20
 var percentKeys = map[string]bool{
 	"transmission": true, "reflectivity": true, "efficiency": true, "alignment": true,
 	"coupling": true, "surface_reflectance": true, "diffuse_reflectance": true,
+}
+
+// linewidthUnits are the ways a detuning may be written in linewidths of
+// the driven transition.
+var linewidthUnits = []string{"Γ", "Gamma", "gamma"}
+
+// detuning reads a detuning: a frequency ("-12 MHz"), or a number of the
+// driven transition's natural linewidths Γ ("-2.5 Γ", "-2.5 Gamma"), which
+// the linker converts once it knows the transition (linewidths set, hz 0).
+func (t *table) detuning(key string) (hz float64, linewidths *float64, ok bool) {
+	v, given := t.get(key)
+	if !given {
+		return 0, nil, false
+	}
+	if str, isStr := v.(string); isStr {
+		s := strings.TrimSpace(str)
+		for _, u := range linewidthUnits {
+			if num, found := strings.CutSuffix(s, u); found {
+				n, err := strconv.ParseFloat(strings.TrimSpace(num), 64)
+				if err != nil || math.IsNaN(n) || math.IsInf(n, 0) || math.Abs(n) > 1e12 {
+					t.fail(key, "%q: want a number of linewidths, such as \"-2.5 Γ\"", str)
+					return 0, nil, false
+				}
+				return 0, &n, true
+			}
+		}
+	}
+	q, ok := t.quantityValue(key, v, units.Frequency)
+	return q, nil, ok
 }
 
 func (t *table) quantityValue(key string, v any, dim units.Dimension) (float64, bool) {

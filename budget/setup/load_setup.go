@@ -204,7 +204,7 @@ func (l *loader) laser(i int, m map[string]any) *Laser {
 			}
 		}
 	}
-	las.Detuning, las.DetuningSet = t.quantity("detuning", units.Frequency, false)
+	las.Detuning, las.DetuningLinewidths, las.DetuningSet = t.detuning("detuning")
 	t.done()
 	return las
 }
@@ -223,7 +223,7 @@ func (l *loader) cloud(i int, m map[string]any) *Cloud {
 	if v, ok := t.get("rms_size"); ok {
 		arr, isArr := v.([]any)
 		if !isArr || len(arr) != 3 {
-			t.fail("rms_size", "want [x, y, along the beam], three lengths")
+			t.fail("rms_size", "want [x, y, z], three lengths along the cloud's own axes (its frame)")
 		} else {
 			for k, e := range arr {
 				q, ok := t.quantityValue("rms_size", e, units.Length)
@@ -234,7 +234,7 @@ func (l *loader) cloud(i int, m map[string]any) *Cloud {
 			}
 		}
 	} else {
-		t.fail("rms_size", "missing (want [x, y, along the beam], three lengths)")
+		t.fail("rms_size", "missing (want [x, y, z], three lengths along the cloud's own axes (its frame))")
 	}
 	c.Saturation = t.enum("saturation", SaturationCycling, SaturationValues...)
 	c.CollectiveRate = t.positive("collective_rate", units.Frequency, false)
@@ -299,7 +299,7 @@ func (l *loader) cloud(i int, m map[string]any) *Cloud {
 		}
 	} else if c.Transition != "" {
 		if tr, ok := atoms.Lookup(c.Transition); !ok {
-			t.fail("transition", "unknown transition %q (built-in: %s; or \"custom\" with wavelength, linewidth)", c.Transition, strings.Join(atoms.Names(), ", "))
+			t.fail("transition", "unknown transition %q (built-in: %s; or \"custom\" with wavelength, linewidth)%s", c.Transition, strings.Join(atoms.Names(), ", "), didYouMean(c.Transition, atoms.Names()))
 		} else {
 			c.Data = tr
 			if c.Saturation == SaturationIsotropic && tr.IsatIsotropic == 0 {
@@ -423,23 +423,31 @@ func keyNames(keys []KeySpec) []string {
 }
 
 // typeNames lists the element types for messages.
-func typeNames() string {
+func typeNames() string { return strings.Join(typeList(), ", ") }
+
+func typeList() []string {
 	names := make([]string, len(Kinds))
 	for i, k := range Kinds {
 		names[i] = string(k.Type)
 	}
-	return strings.Join(names, ", ")
+	return names
 }
+
+// typeAliases are other spellings of element types that mean the same.
+var typeAliases = map[ElementType]ElementType{"fibre": TypeFiber}
 
 func (l *loader) element(p *Path, pathContext, loc string, k int, m map[string]any) *Element {
 	t := l.table("", loc, m)
 	t.describe = func() string { return fmt.Sprintf("%s, element %d", pathContext, k+1) }
 	e := &Element{Index: k + 1, Line: l.lines[loc]}
 	e.Type = ElementType(t.str("type", true))
+	if a, ok := typeAliases[e.Type]; ok {
+		e.Type = a
+	}
 	kind, ok := KindOf(e.Type)
 	if !ok {
 		if e.Type != "" {
-			t.fail("type", "unknown element type %q (want one of %s)", e.Type, typeNames())
+			t.fail("type", "unknown element type %q (want one of %s)%s", e.Type, typeNames(), didYouMean(string(e.Type), typeList()))
 		}
 		for key := range m {
 			t.get(key) // the type is wrong; do not also list its keys as unknown

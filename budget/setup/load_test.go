@@ -114,7 +114,7 @@ func TestLoadErrors(t *testing.T) {
 		{"mirror transmission", okLaser + "\n[[path]]\nname = \"p\"\nfrom = \"l\"\n  [[path.element]]\n  type = \"mirror\"\n  at = \"1 m\"\n  transmission = 0.5\n",
 			`path "p", element 1 (mirror): transmission: a mirror's throughput is its reflectivity`},
 		{"cloud rms", okLaser + okPath + "[[cloud]]\nname = \"c\"\ntransition = \"Rb87 D2\"\natoms = 1e4\nrms_size = [\"1 um\", \"2 um\"]\n",
-			`bad.toml:18: cloud "c": rms_size: want [x, y, along the beam], three lengths`},
+			`bad.toml:18: cloud "c": rms_size: want [x, y, z], three lengths along the cloud's own axes (its frame)`},
 		{"eyewear band", okLaser + okPath + "[[eyewear]]\nname = \"g\"\nbands = [{ from = \"900 nm\", to = \"800 nm\", od = 5 }]\n",
 			`eyewear "g", band 1: to: "800 nm" is not above from "900 nm"`},
 		{"pulse keys on cw", okLaser + "pulse_duration = \"10 ns\"\n" + okPath, `laser "l": pulse_duration: only for emission = "pulsed"`},

@@ -37,6 +37,12 @@ func Schema(version string) ([]byte, error) {
 			"then": map[string]any{"$ref": "#/$defs/" + name},
 		})
 	}
+	for alias, k := range typeAliases {
+		branches = append(branches, map[string]any{
+			"if":   map[string]any{"properties": map[string]any{"type": map[string]any{"const": string(alias)}}, "required": []string{"type"}},
+			"then": map[string]any{"$ref": "#/$defs/element_" + string(k)},
+		})
+	}
 	defs["element"] = map[string]any{
 		"type":        "object",
 		"description": TableNamed("element").Doc,
@@ -130,6 +136,10 @@ func (b *schemaBuilder) keySchema(k *KeySpec) map[string]any {
 		s = map[string]any{"enum": k.Enum}
 	case ValQuantity:
 		s = b.quantitySchema(k)
+		if k.Key == "detuning" {
+			// Or a number of linewidths of the driven transition.
+			s = map[string]any{"anyOf": []any{s, map[string]any{"type": "string", "pattern": `^\s*[+-]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)(?:[eE][+-]?[0-9]+)?\s*(?:Γ|Gamma|gamma)\s*$`}}}
+		}
 		if k.ByLaser() {
 			s = map[string]any{"anyOf": []any{s, map[string]any{"type": "object", "minProperties": 1, "additionalProperties": b.quantitySchema(k),
 				"description": "per laser: laser name = value"}}}

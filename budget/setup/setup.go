@@ -89,6 +89,9 @@ type Laser struct {
 	RepetitionRate float64
 	// Detuning is the laser frequency minus the driven transition's, Hz.
 	Detuning float64
+	// DetuningLinewidths is the detuning as written in linewidths Γ of the
+	// driven transition ("-2.5 Γ"); the linker sets Detuning from it.
+	DetuningLinewidths *float64
 	// DetuningSet is set when the setup states the detuning.
 	DetuningSet bool
 	// Inventory: maker, model, serial number, the class on the label ("" when
@@ -179,6 +182,9 @@ type Element struct {
 	GoalAt       string
 	GoalFraction float64
 	Detuning     *float64 // Hz, overrides the laser's plus AOM shifts
+	// DetuningLinewidths is the detuning as written in linewidths of the
+	// cloud's transition; the linker sets Detuning from it.
+	DetuningLinewidths *float64
 	// Direction is the unit vector the beam runs along in the cloud's frame
 	// (axis = "z" by default: [0, 0, 1]).
 	Direction [3]float64

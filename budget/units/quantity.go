@@ -102,22 +102,25 @@ type UnitDef struct {
 
 // Unit symbols the parser knows, with their value in SI base units.
 var Units = map[string]UnitDef{
-	"m":   {1, Length, true},
-	"g":   {1e-3, Mass, true},
-	"u":   {1.66053906660e-27, Mass, false}, // unified atomic mass unit, CODATA 2018
-	"Da":  {1.66053906660e-27, Mass, false},
-	"amu": {1.66053906660e-27, Mass, false},
-	"s":   {1, Time, true},
-	"min": {60, Time, false},
-	"h":   {3600, Time, false},
-	"Hz":  {1, Frequency, true},
-	"K":   {1, Temperature, true},
-	"W":   {1, Power, true},
-	"J":   {1, Energy, true},
-	"rad": {1, Angle, true},
-	"deg": {math.Pi / 180, Angle, false},
-	"°":   {math.Pi / 180, Angle, false},
-	"%":   {0.01, Dimensionless, false},
+	"m": {1, Length, true},
+	// micron: the µm as lab notes write it.
+	"micron":  {1e-6, Length, false},
+	"microns": {1e-6, Length, false},
+	"g":       {1e-3, Mass, true},
+	"u":       {1.66053906660e-27, Mass, false}, // unified atomic mass unit, CODATA 2018
+	"Da":      {1.66053906660e-27, Mass, false},
+	"amu":     {1.66053906660e-27, Mass, false},
+	"s":       {1, Time, true},
+	"min":     {60, Time, false},
+	"h":       {3600, Time, false},
+	"Hz":      {1, Frequency, true},
+	"K":       {1, Temperature, true},
+	"W":       {1, Power, true},
+	"J":       {1, Energy, true},
+	"rad":     {1, Angle, true},
+	"deg":     {math.Pi / 180, Angle, false},
+	"°":       {math.Pi / 180, Angle, false},
+	"%":       {0.01, Dimensionless, false},
 }
 
 // Prefixes are the SI prefixes from f to G with their factors.

@@ -18,6 +18,8 @@ func TestParseQuantity(t *testing.T) {
 		{"1.5 W", 1.5, Power},
 		{"250 mW", 0.25, Power},
 		{"0.8 mm", 0.8e-3, Length},
+		{"50 micron", 50e-6, Length},   // the micrometre as lab notes write it (common practice)
+		{"1000 microns", 1e-3, Length}, // common practice
 		{"6 um", 6e-6, Length},
 		{"6 µm", 6e-6, Length},
 		{"6µm", 6e-6, Length},

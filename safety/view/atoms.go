@@ -1,6 +1,7 @@
 package view
 
 import (
+	"beamledger/budget/atoms"
 	"fmt"
 	"math"
 	"strconv"
@@ -43,6 +44,7 @@ func (b *builder) atomsRecord(a *drive.AtomsResult) Record {
 	r.F(Field{d: dFocusX, Kind: Number, SI: a.FocusOffset[0], Text: units.FormatLength(a.FocusOffset[0]), People: true}).
 		F(Field{d: dFocusY, Kind: Number, SI: a.FocusOffset[1], Text: units.FormatLength(a.FocusOffset[1]), People: true})
 	r.F(hzField(dAtomsResultDetuningHz, a.Detuning)).
+		F(Num(dDetuningLinewidths, a.Detuning/tr.Gamma, units.FormatNumber(a.Detuning/tr.Gamma)+" Γ")).
 		F(Str(dDetuningSource, a.DetuningSource)).
 		F(Irr(dSaturationIntensityWM2, a.Isat)).
 		F(Str(dSaturationIntensityKind, a.IsatNote)).
@@ -91,7 +93,7 @@ func (b *builder) atomsRecord(a *drive.AtomsResult) Record {
 	r.Line("  beam: Wx {radius_x_m}, Wy {radius_y_m}; waist {focus_x} (x), {focus_y} (y) from the cloud (+ downstream)")
 	r.Line("  power {power_w}, peak irradiance {peak_irradiance_w_m2}")
 	r.Line(fmt.Sprintf("  across the cloud: I at ±1 rms is {irradiance_at_rms_x_relative} (x), {irradiance_at_rms_y_relative} (y) of the centre; W at ±1 rms along the beam (%s): {radius_at_cloud_ends_m}", units.FormatLength(a.Cloud.RMSAlong(a.Row.Element.Direction))))
-	r.Line("  detuning Δ/2π = {detuning_hz} ({detuning_source})")
+	r.Line("  detuning Δ/2π = {detuning_hz} = {detuning_linewidths} ({detuning_source})")
 	r.Line("  I_sat = {saturation_intensity_w_m2} ({saturation_intensity_kind})")
 	switch {
 	case a.NearLine != "":
@@ -195,7 +197,9 @@ func (b *builder) goalRecord(a *drive.AtomsResult, g *drive.GoalResult) *Record 
 	case setup.GoalRabi:
 		r.Line("  goal: Rabi frequency Ω/2π = {target_si}, {goal_where}")
 	case setup.GoalTrapDepth:
-		r.Line("  goal: trap depth U/k_B = {target_si}")
+		uh := atoms.DepthFrequency(g.Target)
+		r.F(Field{d: dGoalDepthHz, Kind: Number, SI: uh, Text: units.FormatFrequency(uh), People: true})
+		r.Line("  goal: trap depth U/k_B = {target_si} (U/h = {goal_depth_hz})")
 	case setup.GoalCollective:
 		c := g.Collective
 		r.F(num(dGoalResultGoalFactor, g.Factor)).

@@ -83,6 +83,8 @@ var (
 	dAtomsResultPowerW                  = &Desc{"power_w", "power", "AtomsResult.Power"}
 	dDirection                          = &Desc{"direction", "direction", "CloudBeam.Direction"}
 	dAtomsResultDetuningHz              = &Desc{"detuning_hz", "detuning Δ/2π", "AtomsResult.Detuning"}
+	dGoalDepthHz                        = &Desc{"goal_depth_hz", "U/h", "GoalResult.Target"}
+	dDetuningLinewidths                 = &Desc{"detuning_linewidths", "detuning Δ/Γ", "AtomsResult.Detuning"}
 	dRole                               = &Desc{"role", "counts as", ""}
 	dDipoleAtCloudK                     = &Desc{"dipole_potential_at_cloud_k", "U/k_B at the cloud", "CloudResult.PotentialAtCloud"}
 	dTrapMinimumOffsetM                 = &Desc{"trap_minimum_offset_m", "minimum offset", "Trap.Minimum"}
