@@ -116,6 +116,10 @@ type CloudGoal struct {
 	// BeyondMaximum is set when a laser would need more than its maximum
 	// power: no setting of the lasers meets the goal.
 	BeyondMaximum bool
+	// Upper marks an upper bound (goal_max): k is then the most the
+	// operating powers may be scaled by, Met says k ≥ 1, and MarginDB is
+	// +10 log10 k.
+	Upper bool
 }
 
 // field is the combined potential of far-detuned beams with gravity.
@@ -677,7 +681,7 @@ func (cr *CloudResult) metric(lasers []*setup.Laser, k float64) float64 {
 func (cr *CloudResult) goal() *CloudGoal {
 	c := cr.Cloud
 	tr := c.Data
-	g := &CloudGoal{Kind: c.Goal, Factor: c.GoalFactor, Lasers: cr.goalLasers()}
+	g := &CloudGoal{Kind: c.Goal, Factor: c.GoalFactor, Lasers: cr.goalLasers(), Upper: c.GoalMax}
 	switch c.Goal {
 	case setup.GoalTrapDepth, setup.GoalSaturation:
 		g.Target = *c.GoalValue
@@ -723,6 +727,12 @@ func (cr *CloudResult) goal() *CloudGoal {
 		g.Needed = append(g.Needed, hi*las.OperatingPower)
 		g.BeyondMaximum = g.BeyondMaximum || hi*las.OperatingPower > las.Power
 	}
+	if g.Upper {
+		g.BeyondMaximum = false
+		g.MarginDB = units.Decibels(hi)
+		g.Met = hi >= 1
+		return g
+	}
 	g.MarginDB = -units.Decibels(hi)
 	g.Met = hi <= 1
 	return g
@@ -744,6 +754,7 @@ const (
 	FindingNoHold              budget.FindingKind = "trap_does_not_hold"
 	FindingTrapOffset          budget.FindingKind = "trap_offset"
 	FindingCloudGoalShort      budget.FindingKind = "cloud_goal_short"
+	FindingCloudGoalExceeded   budget.FindingKind = "cloud_goal_exceeded"
 	FindingCloudGoalImpossible budget.FindingKind = "cloud_goal_impossible"
 )
 
@@ -772,6 +783,8 @@ func CloudFindings(clouds []*CloudResult) []budget.Finding {
 			switch {
 			case g.Impossible != "":
 				out = append(out, budget.Finding{Severity: budget.SeverityDrive, Kind: FindingCloudGoalImpossible, Message: fmt.Sprintf("%s: goal %s cannot be met: %s", where, g.Kind, g.Impossible)})
+			case !g.Met && g.Upper:
+				out = append(out, budget.Finding{Severity: budget.SeverityDrive, Kind: FindingCloudGoalExceeded, Message: fmt.Sprintf("%s: goal %s at most its goal_max is exceeded by %.1f dB: the operating powers of %s may be at most %.3g × what they are", where, g.Kind, -g.MarginDB, laserNames(g.Lasers), g.Scale)}.Figure(1, g.Scale, "1"))
 			case !g.Met:
 				msg := fmt.Sprintf("%s: goal %s is short by %.1f dB: it needs %.3g × the operating powers of %s", where, g.Kind, -g.MarginDB, g.Scale, laserNames(g.Lasers))
 				if g.BeyondMaximum {

@@ -91,6 +91,11 @@ type GoalResult struct {
 	Available    float64 // W, the laser's operating power
 	MarginDB     float64
 	Met          bool
+	// Upper marks an upper bound (goal_max): SourcePower is then the most
+	// the laser may give before the figure passes Target, Met says the
+	// operating power stays at or under it, and MarginDB is
+	// 10 log10(SourcePower/Available) (positive: under the bound).
+	Upper bool
 	// BeyondMaximum is set when the source power needed exceeds the laser's
 	// maximum power, Maximum (W): no setting of the laser meets the goal.
 	BeyondMaximum bool
@@ -223,7 +228,7 @@ func axialCurvature(beam optics.Beam) float64 {
 // goal works out the power a goal needs at the atoms and at the laser.
 func goalOf(b *budget.Budget, a *AtomsResult, e *setup.Element, full bool) *GoalResult {
 	tr := a.Transition
-	g := &GoalResult{Kind: e.Goal, Available: a.Path.Laser.OperatingPower, Factor: 1}
+	g := &GoalResult{Kind: e.Goal, Available: a.Path.Laser.OperatingPower, Factor: 1, Upper: e.GoalMax}
 	if a.NearLine != "" {
 		g.Impossible = fmt.Sprintf("the light is %s from the line %s, within %d of its linewidths; neither the far-detuned dipole formula nor the two-level figures of %s apply there",
 			units.FormatFrequency(a.NearLineDetuning/(2*math.Pi)), a.NearLine, setup.FarDetuningFactor, tr.Name)
@@ -296,9 +301,14 @@ func goalOf(b *budget.Budget, a *AtomsResult, e *setup.Element, full bool) *Goal
 	}
 	g.PowerAtAtoms = a.Row.BeamIn.PowerForPeakIrradiance(g.Intensity)
 	g.SourcePower = g.PowerAtAtoms / a.Row.FractionIn
+	g.Maximum = a.Path.Laser.Power
+	if g.Upper {
+		g.MarginDB = units.Decibels(g.SourcePower / g.Available)
+		g.Met = g.Available <= g.SourcePower
+		return g
+	}
 	g.MarginDB = units.Decibels(g.Available / g.SourcePower)
 	g.Met = g.Available >= g.SourcePower
-	g.Maximum = a.Path.Laser.Power
 	g.BeyondMaximum = g.SourcePower > g.Maximum
 	return g
 }
@@ -306,6 +316,7 @@ func goalOf(b *budget.Budget, a *AtomsResult, e *setup.Element, full bool) *Goal
 // Finding kinds of the drive.
 const (
 	FindingGoalShort        budget.FindingKind = "goal_short"
+	FindingGoalExceeded     budget.FindingKind = "goal_exceeded"
 	FindingGoalImpossible   budget.FindingKind = "goal_impossible"
 	FindingDetuningGuess    budget.FindingKind = "detuning_from_wavelengths"
 	FindingCollectiveDetune budget.FindingKind = "collective_detuned"
@@ -324,6 +335,9 @@ func DriveFindings(results []*AtomsResult) []budget.Finding {
 			switch {
 			case g.Impossible != "":
 				out = append(out, budget.Finding{Severity: budget.SeverityDrive, Kind: FindingGoalImpossible, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: goal %s cannot be met: %s", where, g.Kind, g.Impossible)})
+			case !g.Met && g.Upper:
+				out = append(out, budget.Finding{Severity: budget.SeverityDrive, Kind: FindingGoalExceeded, Path: p, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: goal %s at most its goal_max is exceeded by %.1f dB at the laser: laser %q may give at most %s here, and its operating power is %s",
+					where, g.Kind, -g.MarginDB, a.Path.Laser.Name, units.FormatPower(g.SourcePower), units.FormatPower(g.Available))}.Figure(g.Available, g.SourcePower, "W"))
 			case !g.Met:
 				msg := fmt.Sprintf("%s: goal %s is short by %.1f dB at the laser: it needs %s from laser %q, whose operating power is %s",
 					where, g.Kind, -g.MarginDB, units.FormatPower(g.SourcePower), a.Path.Laser.Name, units.FormatPower(g.Available))

@@ -423,3 +423,53 @@ func TestGoalBeyondMaximumPower(t *testing.T) {
 		}
 	}
 }
+
+// An upper bound (goal_max) is the same figure read the other way: the
+// source power at which s reaches the value is the same as for goal_value,
+// the margin has the opposite sign, and the verdict flips (the power at
+// which s = 1 is reached, found by hand from I = s·I_sat over the beam's
+// peak irradiance, is the same number both ways).
+func TestUpperBoundGoal(t *testing.T) {
+	src := `
+[[laser]]
+name = "probe"
+wavelength = "780.241 nm"
+power = "20 mW"
+waist = "1 mm"
+detuning = "0 MHz"
+
+[[path]]
+name = "p"
+from = "probe"
+element = [{ type = "atoms", at = "100 mm", cloud = "c", goal = "saturation", %s = %s }, { type = "dump", at = "300 mm" }]
+
+[[cloud]]
+name = "c"
+transition = "Rb87 D2"
+atoms = 1
+rms_size = ["10 um", "10 um", "10 um"]
+`
+	run := func(key, v string) *GoalResult {
+		s, err := setup.Parse("goal.toml", []byte(fmt.Sprintf(src, key, v)))
+		if err != nil {
+			t.Fatal(err)
+		}
+		b, err := budget.Compute(s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return Evaluate(b)[0].Goal
+	}
+	for _, v := range []string{"0.1", "1000"} {
+		lo, hi := run("goal_value", v), run("goal_max", v)
+		if !hi.Upper || lo.Upper || !near(hi.SourcePower, lo.SourcePower, 1e-12) || !near(hi.MarginDB, -lo.MarginDB, 1e-12) || hi.Met == lo.Met {
+			t.Errorf("s %s: at least %+v, at most %+v", v, lo, hi)
+		}
+	}
+	// One atom leaves the beam unabsorbed: s = 1 takes I_sat = 1.66933
+	// mW/cm² (Steck, Rubidium 87 D Line Data, table 3) at the peak, 2P/(πW²)
+	// with W = 1 mm: P = I_sat π W²/2 = 26.22 µW.
+	if g := run("goal_max", "1"); !near(g.SourcePower, 16.6933*math.Pi*1e-6/2, 1e-3) || g.Met {
+		t.Errorf("s at most 1: %g W the most, met %v", g.SourcePower, g.Met)
+	}
+}

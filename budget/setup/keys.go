@@ -133,15 +133,16 @@ var nameKey = KeySpec{Key: "name", Kind: ValName, Required: true, Doc: "the name
 // goalKeys are the keys of a drive goal, on an atoms element or a cloud.
 var goalKeys = []KeySpec{
 	choice("goal", GoalKinds, false, "the drive goal: the collective-emission threshold, a saturation parameter, a Rabi frequency or a trap depth", `"trap_depth"`),
-	{Key: "goal_value", Kind: ValQuantity, Dims: []units.Dimension{units.Dimensionless, units.Frequency, units.Temperature}, With: []string{"goal"}, Doc: "the goal's value: s for saturation, Ω/2π for rabi, U/k_B for trap_depth (none for collective)", Example: `"0.5 mK"`},
+	{Key: "goal_value", Kind: ValQuantity, Dims: []units.Dimension{units.Dimensionless, units.Frequency, units.Temperature}, With: []string{"goal"}, Doc: "the goal's value, to reach at least: s for saturation, Ω/2π for rabi, U/k_B (or U/h in Hz) for trap_depth (none for collective)", Example: `"0.5 mK"`},
+	{Key: "goal_max", Kind: ValQuantity, Dims: []units.Dimension{units.Dimensionless, units.Frequency, units.Temperature}, With: []string{"goal"}, Doc: "instead of goal_value, a value to stay at or below (imaging light that must not saturate: goal = \"saturation\", goal_max = 0.1); not for collective", Example: `"1 mK"`},
 	with(number("goal_factor", 0, 0, false, "collective: the multiple of the threshold drive to reach", "1.5"), "goal="+GoalCollective),
 }
 
 // goalNeeds: every goal but the collective one needs its value.
 var goalNeeds = []Requirement{
-	{If: "goal", Is: GoalSaturation, AnyOf: []string{"goal_value"}, Why: "a saturation goal needs its saturation parameter"},
-	{If: "goal", Is: GoalRabi, AnyOf: []string{"goal_value"}, Why: "a Rabi-frequency goal needs its Ω/2π"},
-	{If: "goal", Is: GoalTrapDepth, AnyOf: []string{"goal_value"}, Why: "a trap-depth goal needs its depth"},
+	{If: "goal", Is: GoalSaturation, AnyOf: []string{"goal_value", "goal_max"}, Why: "a saturation goal needs its saturation parameter"},
+	{If: "goal", Is: GoalRabi, AnyOf: []string{"goal_value", "goal_max"}, Why: "a Rabi-frequency goal needs its Ω/2π"},
+	{If: "goal", Is: GoalTrapDepth, AnyOf: []string{"goal_value", "goal_max"}, Why: "a trap-depth goal needs its depth"},
 }
 
 // SetupTables lists the tables of the format; the element table holds the

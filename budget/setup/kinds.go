@@ -190,7 +190,7 @@ func readAtoms(t *table, e *Element, m map[string]any) {
 	if e.Interference == "none" {
 		e.Interference = ""
 	}
-	readGoal(t, &e.Goal, &e.GoalValue, &e.GoalFactor, m)
+	readGoal(t, &e.Goal, &e.GoalValue, &e.GoalFactor, &e.GoalMax, m)
 	e.GoalAt = t.enum("goal_at", GoalAtCentre, GoalAtValues...)
 	e.GoalFraction = 0.9
 	if f := t.fraction("goal_fraction", 0, 1); f != nil {
@@ -205,6 +205,9 @@ func readAtoms(t *table, e *Element, m map[string]any) {
 	if (t.has("goal_at") || t.has("goal_fraction")) && e.Goal == "" {
 		t.fail("goal_at", "given without goal")
 	}
+	if e.GoalMax && e.GoalAt == GoalAtAll {
+		t.fail("goal_at", "\"all\" is for a value to reach; an upper bound (goal_max) is judged at the \"centre\" or the \"exit\"")
+	}
 	if d, n, ok := t.detuning("detuning"); ok {
 		e.Detuning, e.DetuningLinewidths = &d, n
 	}
@@ -212,35 +215,44 @@ func readAtoms(t *table, e *Element, m map[string]any) {
 
 // readGoal reads goal, goal_value and goal_factor (of an atoms element or a
 // cloud).
-func readGoal(t *table, goal *string, value **float64, factor *float64, m map[string]any) {
+func readGoal(t *table, goal *string, value **float64, factor *float64, upper *bool, m map[string]any) {
 	*goal = t.enum("goal", "", GoalKinds...)
 	*factor = 1
+	// The value to reach (goal_value) or to stay under (goal_max).
+	key := "goal_value"
+	if t.has("goal_max") {
+		if t.has("goal_value") {
+			t.get("goal_value")
+			t.fail("goal_max", "give goal_value (a value to reach) or goal_max (a value to stay under), not both")
+		}
+		key, *upper = "goal_max", true
+	}
 	switch *goal {
 	case GoalSaturation:
-		*value = t.positivePtr("goal_value", units.Dimensionless, "a saturation parameter s")
+		*value = t.positivePtr(key, units.Dimensionless, "a saturation parameter s")
 	case GoalRabi:
-		*value = t.positivePtr("goal_value", units.Frequency, "a Rabi frequency Ω/2π")
+		*value = t.positivePtr(key, units.Frequency, "a Rabi frequency Ω/2π")
 	case GoalTrapDepth:
 		// A depth may be given as U/h, in Hz: converted to U/k_B.
-		if v, ok := m["goal_value"].(string); ok {
+		if v, ok := m[key].(string); ok {
 			if _, d, err := units.ParseQuantity(v); err == nil && d == units.Frequency {
-				if f := t.positivePtr("goal_value", units.Frequency, "a trap depth U/h"); f != nil {
+				if f := t.positivePtr(key, units.Frequency, "a trap depth U/h"); f != nil {
 					k := atoms.DepthTemperature(*f)
 					*value = &k
 				}
 				break
 			}
 		}
-		*value = t.positivePtr("goal_value", units.Temperature, "a trap depth U/k_B (or U/h in Hz)")
+		*value = t.positivePtr(key, units.Temperature, "a trap depth U/k_B (or U/h in Hz)")
 	case GoalCollective:
-		if t.has("goal_value") {
-			t.get("goal_value")
-			t.fail("goal_value", "a collective goal has no value; use goal_factor for a multiple of the threshold")
+		if t.has(key) {
+			t.get(key)
+			t.fail(key, "a collective goal has no value; use goal_factor for a multiple of the threshold")
 		}
 	default:
-		if t.has("goal_value") {
-			t.get("goal_value")
-			t.fail("goal_value", "given without goal")
+		if t.has(key) {
+			t.get(key)
+			t.fail(key, "given without goal")
 		}
 	}
 	if t.has("goal_factor") {

@@ -409,7 +409,7 @@ var fieldRange = map[string][2]float64{
 	"mode_field_diameter": {1e-7, 1e-3}, "output_waist": {1e-7, 10}, "output_focal_length": {1e-6, 100},
 	"frequency": {1e3, 1e11}, "detuning": {0, 1e15}, "linewidth": {1e-3, 1e10}, "collective_rate": {1e-3, 1e15},
 	"saturation_intensity": {1e-12, 1e12}, "mass": {1e-30, 1e-20}, "atoms": {1, 1e15}, "rms_size": {1e-7, 1},
-	"m2": {0, 1e4}, "goal_factor": {1e-3, 1e3}, "goal_value": {1e-12, 1e12},
+	"m2": {0, 1e4}, "goal_factor": {1e-3, 1e3}, "goal_value": {1e-12, 1e12}, "goal_max": {1e-12, 1e12},
 	"repetition_rate":  {1e-4, 1e12},
 	"damage_threshold": {1e-6, 1e20}, "damage_pulse_duration": {1e-15, limits.MaxDuration},
 	"from": {MinWavelength, MaxWavelength}, "to": {MinWavelength, MaxWavelength}, "od": {0, 20},

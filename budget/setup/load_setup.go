@@ -258,7 +258,7 @@ func (l *loader) cloud(i int, m map[string]any) *Cloud {
 			}
 		}
 	}
-	readGoal(t, &c.Goal, &c.GoalValue, &c.GoalFactor, m)
+	readGoal(t, &c.Goal, &c.GoalValue, &c.GoalFactor, &c.GoalMax, m)
 	if v, ok := t.get("goal_lasers"); ok {
 		arr, isArr := v.([]any)
 		if !isArr || len(arr) == 0 {

@@ -177,6 +177,9 @@ type Element struct {
 	Goal       string
 	GoalValue  *float64 // SI: saturation (bare), rabi (Hz), trap_depth (K)
 	GoalFactor float64  // collective: multiple of the threshold
+	// GoalMax marks GoalValue as an upper bound (goal_max): the figure
+	// must stay at or below it.
+	GoalMax bool
 	// GoalAt is where the goal must hold ("centre", "exit", "all");
 	// GoalFraction the share of the atoms for "all".
 	GoalAt       string
@@ -306,6 +309,7 @@ type Cloud struct {
 	Goal       string
 	GoalValue  *float64
 	GoalFactor float64
+	GoalMax    bool // GoalValue is an upper bound
 	GoalLasers []string
 
 	// Data is the resolved transition (built-in or custom).

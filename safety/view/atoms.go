@@ -145,7 +145,12 @@ func (b *builder) atomsRecord(a *drive.AtomsResult) Record {
 
 func (b *builder) goalRecord(a *drive.AtomsResult, g *drive.GoalResult) *Record {
 	r := &Record{Members: b.members(20)}
-	r.F(Str(dGoalResultKind, g.Kind))
+	r.F(Str(dGoalResultKind, g.Kind)).F(Flag(dGoalUpperBound, g.Upper, yesNo(g.Upper)))
+	bound := "="
+	if g.Upper {
+		bound = "at most"
+	}
+	r.F(Field{d: dGoalBound, Kind: String, Text: bound, People: true})
 	switch g.Kind {
 	case setup.GoalRabi, setup.GoalCollective:
 		r.F(Num(dTargetSi, g.Target, hz(g.Target))) // Ω in rad/s
@@ -193,13 +198,13 @@ func (b *builder) goalRecord(a *drive.AtomsResult, g *drive.GoalResult) *Record 
 	}
 	switch g.Kind {
 	case setup.GoalSaturation:
-		r.Line("  goal: saturation s = {target_si}, {goal_where}")
+		r.Line("  goal: saturation s {goal_bound} {target_si}, {goal_where}")
 	case setup.GoalRabi:
-		r.Line("  goal: Rabi frequency Ω/2π = {target_si}, {goal_where}")
+		r.Line("  goal: Rabi frequency Ω/2π {goal_bound} {target_si}, {goal_where}")
 	case setup.GoalTrapDepth:
 		uh := atoms.DepthFrequency(g.Target)
 		r.F(Field{d: dGoalDepthHz, Kind: Number, SI: uh, Text: units.FormatFrequency(uh), People: true})
-		r.Line("  goal: trap depth U/k_B = {target_si} (U/h = {goal_depth_hz})")
+		r.Line("  goal: trap depth U/k_B {goal_bound} {target_si} (U/h = {goal_depth_hz})")
 	case setup.GoalCollective:
 		c := g.Collective
 		r.F(num(dGoalResultGoalFactor, g.Factor)).
@@ -223,9 +228,12 @@ func (b *builder) goalRecord(a *drive.AtomsResult, g *drive.GoalResult) *Record 
 		r.Line("    photon-budget scale s = D = {photon_budget_saturation}; regime: " + regime)
 		r.Line("    model: driven Dicke model with one collective decay channel, N Γ_c = D Γ / 4 (a planning estimate, uncertain by a factor of about 2)")
 	}
-	if g.Impossible != "" {
+	switch {
+	case g.Impossible != "":
 		r.Line("    cannot be met: {impossible}")
-	} else {
+	case g.Upper:
+		r.Line(fmt.Sprintf("    reached by a peak of {irradiance_needed_w_m2} arriving at the cloud → {power_at_atoms_w} at the atoms → {source_power_w} at laser %q, the most it may give; operating power {available_source_power_w}; margin {margin_db}: {met}", a.Path.Laser.Name))
+	default:
 		r.Line(fmt.Sprintf("    needs a peak of {irradiance_needed_w_m2} arriving at the cloud → {power_at_atoms_w} at the atoms → {source_power_w} at laser %q; operating power {available_source_power_w}; margin {margin_db}: {met}", a.Path.Laser.Name))
 	}
 	return r

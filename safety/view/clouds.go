@@ -153,7 +153,10 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 		case setup.GoalSaturation:
 			target = "s = " + fmtG(g.Target)
 		}
-		goal.F(Num(dTargetSI, g.Target, target))
+		if g.Upper {
+			target = "at most " + target
+		}
+		goal.F(Num(dTargetSI, g.Target, target)).F(Flag(dCloudGoalUpperBound, g.Upper, yesNo(g.Upper)))
 		if g.Impossible != "" {
 			goal.F(Absent(dScaleFactor, false)).F(Absent(dCloudGoalMarginDb, false)).F(Flag(dCloudGoalMet, false, "no")).F(Str(dCloudGoalImpossible, g.Impossible)).
 				F(Flag(dCloudGoalBeyondMaximum, false, "no"))
@@ -169,7 +172,11 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 				F(NumList(dNeededW, g.Needed, strings.Join(needed, ", "))).
 				F(Absent(dCloudGoalImpossible, true)).
 				F(Flag(dCloudGoalBeyondMaximum, g.BeyondMaximum, yesNo(g.BeyondMaximum)))
-			r.After = append(r.After, "  goal for the whole cloud: {goal.kind} {goal.target_si} scaling {goal.lasers}: factor {goal.scale_factor} on their operating powers ({goal.needed_w}); margin {goal.margin_db}: {goal.met}")
+			if g.Upper {
+				r.After = append(r.After, "  goal for the whole cloud: {goal.kind} {goal.target_si} scaling {goal.lasers}: reached at factor {goal.scale_factor} on their operating powers ({goal.needed_w}), the most they may give; margin {goal.margin_db}: {goal.met}")
+			} else {
+				r.After = append(r.After, "  goal for the whole cloud: {goal.kind} {goal.target_si} scaling {goal.lasers}: factor {goal.scale_factor} on their operating powers ({goal.needed_w}); margin {goal.margin_db}: {goal.met}")
+			}
 		}
 	}
 	if goal != nil {

@@ -83,6 +83,9 @@ var (
 	dAtomsResultPowerW                  = &Desc{"power_w", "power", "AtomsResult.Power"}
 	dDirection                          = &Desc{"direction", "direction", "CloudBeam.Direction"}
 	dAtomsResultDetuningHz              = &Desc{"detuning_hz", "detuning Δ/2π", "AtomsResult.Detuning"}
+	dGoalUpperBound                     = &Desc{"upper_bound", "upper bound", "GoalResult.Upper"}
+	dGoalBound                          = &Desc{"goal_bound", "bound", "GoalResult.Upper"}
+	dCloudGoalUpperBound                = &Desc{"upper_bound", "upper bound", "CloudGoal.Upper"}
 	dGoalDepthHz                        = &Desc{"goal_depth_hz", "U/h", "GoalResult.Target"}
 	dDetuningLinewidths                 = &Desc{"detuning_linewidths", "detuning Δ/Γ", "AtomsResult.Detuning"}
 	dRole                               = &Desc{"role", "counts as", ""}
