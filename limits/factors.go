@@ -129,15 +129,19 @@ func Gamma(t float64) float64 {
 // FactorProvenance is where a correction factor or breakpoint comes from
 // (names as in Limit.Factors; "" for a name it does not know).
 func FactorProvenance(name string) Provenance {
+	row := map[string]string{"T2_s": "T2", "T1_s": "T1", "gamma_rad": "γ (photochemical field of view)"}[name]
+	if row == "" {
+		row = name
+	}
 	switch name {
 	case "C3", "C4", "C6", "T2_s", "gamma_rad":
-		return checked(TableFactors, name, SourceDirectiveFactors)
+		return checked(TableFactors, row, SourceDirectiveFactors)
 	case "C7":
 		p := substitute(TableFactors, "C7 = 8 from 1200 nm", "Edition 3's larger C7 above 1250 nm (8 + 10^(0.04(λ−1250)), from memory)")
 		p.CheckedAgainst = []string{SourceDirectiveFactors}
 		return p
 	case "C1", "C2", "T1_s":
-		return memory(TableFactors, name)
+		return memory(TableFactors, row)
 	case "C5":
 		p := substitute(TableRepetitive, "C5 = N^−0.25", "Edition 3's relaxation of C5 for small sources (from memory, not confirmed)")
 		p.CheckedAgainst = []string{SourceDirectiveRepetitive}

@@ -34,6 +34,9 @@ type Options struct {
 	Samples int
 	Seed    uint64
 	Workers int
+	// Progress, when set, is told the samples done of the total while
+	// the analysis runs (drive.TolerancesWithProgress).
+	Progress func(done, total int)
 }
 
 // DefaultOptions are the analysis's defaults.
@@ -59,7 +62,11 @@ func EvaluateWith(s *setup.Setup, o Options) (*Assessment, error) {
 		if a.HazardBudget, err = budget.Compute(hs); err != nil {
 			return nil, err
 		}
-		a.Tolerances = drive.Tolerances(s, a.Atoms, o.Samples, o.Seed, o.Workers)
+		var progress func(int)
+		if o.Progress != nil {
+			progress = func(done int) { o.Progress(done, o.Samples) }
+		}
+		a.Tolerances = drive.TolerancesWithProgress(s, a.Atoms, o.Samples, o.Seed, o.Workers, progress)
 	}
 	a.Findings = append(a.Findings, a.HazardBudget.Findings()...)
 	a.Findings = append(a.Findings, drive.DriveFindings(a.Atoms)...)

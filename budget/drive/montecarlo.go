@@ -9,6 +9,8 @@ import (
 	"runtime"
 	"slices"
 	"sync"
+	"sync/atomic"
+	"time"
 
 	"gonum.org/v1/gonum/mat"
 )
@@ -101,6 +103,18 @@ func margins(s *setup.Setup, refs []goalRef) []float64 {
 // every beam and re-solves every goal, so the result is the same on any
 // number of cores.
 func Tolerances(s *setup.Setup, drive []*AtomsResult, samples int, seed uint64, workers int) map[any]*GoalTolerance {
+	return TolerancesWithProgress(s, drive, samples, seed, workers, nil)
+}
+
+// ProgressEvery is how often TolerancesWithProgress reports the samples
+// done.
+const ProgressEvery = 250 * time.Millisecond
+
+// TolerancesWithProgress is Tolerances that calls progress (when not nil)
+// with the number of samples done every ProgressEvery while the samples
+// run, and once with all of them at the end; progress runs on its own
+// goroutine, never two calls at once.
+func TolerancesWithProgress(s *setup.Setup, drive []*AtomsResult, samples int, seed uint64, workers int, progress func(done int)) map[any]*GoalTolerance {
 	if len(s.Tolerances) == 0 || samples <= 0 {
 		return nil
 	}
@@ -129,6 +143,26 @@ func Tolerances(s *setup.Setup, drive []*AtomsResult, samples int, seed uint64, 
 		workers = runtime.GOMAXPROCS(0)
 	}
 	workers = max(1, min(workers, samples))
+	var done atomic.Int64
+	stop := make(chan struct{})
+	reported := make(chan struct{})
+	go func() {
+		defer close(reported)
+		if progress == nil {
+			return
+		}
+		tick := time.NewTicker(ProgressEvery)
+		defer tick.Stop()
+		for {
+			select {
+			case <-tick.C:
+				progress(int(done.Load()))
+			case <-stop:
+				progress(samples)
+				return
+			}
+		}
+	}()
 	var wg sync.WaitGroup
 	for w := range workers {
 		wg.Add(1)
@@ -143,10 +177,13 @@ func Tolerances(s *setup.Setup, drive []*AtomsResult, samples int, seed uint64, 
 					t.Apply(c, x[j])
 				}
 				copy(results[i*len(refs):], margins(c, refs))
+				done.Add(1)
 			}
 		}()
 	}
 	wg.Wait()
+	close(stop)
+	<-reported
 
 	// The nominal and worst cases, one input at a time for its bad end.
 	c := s.Clone()

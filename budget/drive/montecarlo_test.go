@@ -174,3 +174,20 @@ func TestToleranceCloudGoal(t *testing.T) {
 		t.Errorf("P(met) = %g, want %g ± %g (P* = %g W)", gt.ProbabilityMet, want, 3*se, ps)
 	}
 }
+
+// The progress callback ends with every sample done, and never reports
+// more than there are; the result is the one Tolerances gives.
+func TestTolerancesProgress(t *testing.T) {
+	s, d := tolSetup(t, `"0.5 .. 0.9"`, "1", "250")
+	var last, calls int
+	got := TolerancesWithProgress(s, d, 3000, DefaultSeed, 0, func(n int) {
+		if n > 3000 || n < last {
+			t.Errorf("progress %d after %d", n, last)
+		}
+		last, calls = n, calls+1
+	})
+	want := Tolerances(s, d, 3000, DefaultSeed, 0)
+	if last != 3000 || calls < 1 || got[d[0]].P50 != want[d[0]].P50 {
+		t.Errorf("last %d after %d calls; P50 %g, want %g", last, calls, got[d[0]].P50, want[d[0]].P50)
+	}
+}

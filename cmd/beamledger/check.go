@@ -80,6 +80,7 @@ func (e *env) runCheck(o *checkOptions) error {
 	if err != nil {
 		return err
 	}
+	opts.Progress = e.progress()
 	a, err := safety.EvaluateWith(s, opts)
 	if err != nil {
 		return err

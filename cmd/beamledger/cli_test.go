@@ -73,9 +73,26 @@ func TestInitWritesLoadableStarterAndNeverOverwrites(t *testing.T) {
 }
 
 func TestVersion(t *testing.T) {
-	out, _, code := runCLI(t, "version")
-	if code != exitOK || out != "beamledger "+version+"\n" {
-		t.Errorf("version: %d %q", code, out)
+	for _, args := range [][]string{{"version"}, {"--version"}} {
+		out, _, code := runCLI(t, args...)
+		if code != exitOK || out != "beamledger "+version+"\n" {
+			t.Errorf("%v: %d %q", args, code, out)
+		}
+	}
+}
+
+// completion writes a script for a shell it knows and refuses any other
+// with exit 2, not a help page and exit 0.
+func TestCompletion(t *testing.T) {
+	for _, sh := range shells {
+		if out, errOut, code := runCLI(t, "completion", sh); code != exitOK || !strings.Contains(out, "beamledger") {
+			t.Errorf("completion %s: exit %d, %q", sh, code, errOut)
+		}
+	}
+	for _, args := range [][]string{{"completion", "tcsh"}, {"completion"}} {
+		if out, errOut, code := runCLI(t, args...); code != exitBadInput || out != "" || !strings.Contains(errOut, "bash, zsh, fish, powershell") {
+			t.Errorf("%v: exit %d, stdout %q, stderr %q", args, code, out, errOut)
+		}
 	}
 }
 

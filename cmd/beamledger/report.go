@@ -123,6 +123,7 @@ func (e *env) runReport(o *reportOptions) error {
 	if err != nil {
 		return err
 	}
+	opts.Progress = e.progress()
 	a, err := safety.EvaluateWith(s, opts)
 	if err != nil {
 		return err

@@ -80,6 +80,9 @@ officer under local regulations.`,
 	}
 	root.SetOut(e.stdout)
 	root.SetErr(e.stderr)
-	root.AddCommand(e.newCheck(), e.newReport(), e.newLimits(), e.newInit(), e.newTransitions(), e.newVerify(), e.newDiff(), e.newSchema(), e.newVersion())
+	root.Version = version
+	root.SetVersionTemplate("beamledger {{.Version}}\n")
+	root.CompletionOptions.DisableDefaultCmd = true
+	root.AddCommand(e.newCheck(), e.newReport(), e.newLimits(), e.newInit(), e.newTransitions(), e.newVerify(), e.newDiff(), e.newSchema(), e.newVersion(), e.newCompletion(root))
 	return root
 }

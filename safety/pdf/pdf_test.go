@@ -158,7 +158,7 @@ func TestPDFValidAndComplete(t *testing.T) {
 	// Findings of one kind on one path share a line, with how they are
 	// controlled: the demo's four stray reflections on path "drive", all
 	// handled by the eyewear worn; page 1 gives the verdict.
-	if !strings.Contains(flat, "4 findings of kind stray_reflection") || !strings.Contains(flat, "Controlled by goggles-780-1064") ||
+	if !strings.Contains(flat, "4 findings (stray reflection)") || !strings.Contains(flat, "Controlled by goggles-780-1064") ||
 		!strings.Contains(flat, "no defect and no hazard that a declared control does not handle") {
 		t.Errorf("the PDF does not group the demo's findings with their controls, or lacks the verdict")
 	}

@@ -423,12 +423,22 @@ func (b *builder) findingsList(a *safety.Assessment) *List {
 		case n > 1:
 			// The group's line stands at its worst member; JSON keeps
 			// every finding.
-			r.F(Field{d: dGroup, Kind: String, Text: strconv.Itoa(n) + " findings of kind " + string(f.Kind) + ", each one in the JSON output; the worst: ", People: true})
+			r.F(Field{d: dGroup, Kind: String, Text: strconv.Itoa(n) + " findings (" + KindWords(f.Kind) + "), each one in the JSON output; the worst: ", People: true})
 			r.Lines = groupedFindingLines
 		}
 		l.Records = append(l.Records, r)
 	}
 	return l
+}
+
+// KindWords is a finding kind in words for people ("exposure above the
+// MPE" for exposure_above_mpe); JSON keeps the kind itself.
+func KindWords(k budget.FindingKind) string {
+	w := strings.ReplaceAll(string(k), "_", " ")
+	for _, r := range [][2]string{{"above mpe", "above the MPE"}, {"en207", "EN 207"}, {"in megawatts", "in megawatts (MW)"}} {
+		w = strings.ReplaceAll(w, r[0], r[1])
+	}
+	return w
 }
 
 // appendItem appends an item to a list written "a, b, c".

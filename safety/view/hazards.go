@@ -26,7 +26,7 @@ func Assumptions(s *setup.Setup) []string {
 	out := []string{
 		"intrabeam viewing of a small source (angular subtense at most 1.5 mrad)",
 		"each laser at its maximum power",
-		"exposure duration (duration_s of each source): " + safety.DurationAssumption(s),
+		"exposure duration (the duration column of the sources): " + safety.DurationAssumption(s),
 		"irradiance averaged over the limiting aperture of the eye or skin",
 		"reflections evaluated where the beam arrives through an open segment",
 	}

@@ -13,6 +13,29 @@ import (
 // factorOrder is the order people read the correction factors in.
 var factorOrder = []string{"C1", "C2", "T1_s", "C3", "C4", "C6", "C7", "T2_s"}
 
+// factorName is a factor's name for people: the JSON key without its unit
+// suffix ("T2" for T2_s, "γ" for gamma_rad).
+func factorName(k string) string {
+	switch {
+	case k == "gamma_rad":
+		return "γ"
+	case strings.HasSuffix(k, "_s"):
+		return strings.TrimSuffix(k, "_s")
+	}
+	return k
+}
+
+// factorText is a factor's value for people, with its unit.
+func factorText(k string, v float64) string {
+	switch {
+	case k == "gamma_rad":
+		return units.FormatSI(v, "rad")
+	case strings.HasSuffix(k, "_s"):
+		return units.FormatSI(v, "s")
+	}
+	return units.FormatNumber(v)
+}
+
 // Limits is the view of a limits lookup: one record for JSON, its lines for
 // people.
 func Limits(l *safety.LimitsLookup) *Doc {
@@ -119,14 +142,14 @@ func Limits(l *safety.LimitsLookup) *Doc {
 	}
 	sort.Strings(keys) // as JSON objects list their keys
 	for _, k := range keys {
-		factors.F(Num(&Desc{k, k, "Limit.Factors"}, l.Eye.Factors[k], units.FormatNumber(l.Eye.Factors[k])))
+		factors.F(Num(&Desc{k, k, "Limit.Factors"}, l.Eye.Factors[k], factorText(k, l.Eye.Factors[k])))
 	}
 	r.O("factors", factors, false)
 	if len(keys) > 0 {
 		var parts []string
 		for _, k := range factorOrder {
 			if _, ok := l.Eye.Factors[k]; ok {
-				parts = append(parts, fmt.Sprintf("%s = {factors.%s}", k, k))
+				parts = append(parts, fmt.Sprintf("%s = {factors.%s}", factorName(k), k))
 			}
 		}
 		r.Line("  correction factors: " + strings.Join(parts, " "))
@@ -134,7 +157,7 @@ func Limits(l *safety.LimitsLookup) *Doc {
 		for _, k := range factorOrder {
 			if _, ok := l.Eye.Factors[k]; ok {
 				pr := provenanceRecord(limits.FactorProvenanceAt(k, l.Duration, q.AngularSubtense))
-				from = append(from, k+" "+pr.Field("status_text").Text)
+				from = append(from, factorName(k)+" "+pr.Field("status_text").Text)
 			}
 		}
 		r.F(StrList(dFactorsFrom, from))

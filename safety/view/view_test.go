@@ -136,3 +136,12 @@ func TestFindingGroups(t *testing.T) {
 		t.Errorf("groups %v, want %v", got, want)
 	}
 }
+
+// Text and sign-off name finding kinds in words; JSON keeps the kind.
+func TestKindWords(t *testing.T) {
+	for k, want := range map[budget.FindingKind]string{"exposure_above_mpe": "exposure above the MPE", "stray_reflection": "stray reflection", "no_en207_filter": "no EN 207 filter"} {
+		if got := KindWords(k); got != want {
+			t.Errorf("%s: %q, want %q", k, got, want)
+		}
+	}
+}
