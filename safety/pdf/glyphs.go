@@ -52,8 +52,13 @@ func (c glyphCache) drawable(r rune) bool {
 }
 
 // drawableText returns s with every character the font cannot draw replaced
-// by Missing, and how many were replaced.
+// by Missing, and how many were replaced. A leading report.Nested marker is
+// layout, not text: it is kept.
 func (c glyphCache) drawableText(s string) (string, int) {
+	if rest, nested := strings.CutPrefix(s, report.Nested); nested {
+		t, n := c.drawableText(rest)
+		return report.Nested + t, n
+	}
 	n := 0
 	for _, r := range s {
 		if !c.drawable(r) {

@@ -46,6 +46,14 @@ type writer struct {
 	textW float64
 	// replaced is the number of characters printed as Missing.
 	replaced int
+	// headingLast is set while the last thing drawn on the page is a
+	// heading; pageEndsWithHeading records it for every finished page
+	// (a layout rule the tests hold: no page ends with a heading).
+	headingLast         bool
+	headingEnd          float64 // where the last heading ends on its page, mm
+	pageEndsWithHeading []bool
+	// minDrawingText is the smallest font size used in a drawing, pt.
+	minDrawingText float64
 }
 
 // pageCount stands in every footer for the number of pages until the
@@ -63,14 +71,14 @@ func AttachmentName(file string) string { return filepath.Base(file) }
 // reads "page N of M".
 func Write(w io.Writer, doc *report.Document, o Options) error {
 	doc, replaced := drawableCopy(doc)
-	f, err := draw(doc, o, replaced)
+	f, _, err := draw(doc, o, replaced)
 	if err != nil {
 		return err
 	}
 	return f.Output(w)
 }
 
-func draw(doc *report.Document, o Options, replaced int) (*fpdf.Fpdf, error) {
+func draw(doc *report.Document, o Options, replaced int) (*fpdf.Fpdf, *writer, error) {
 	f := fpdf.New("P", "mm", "A4", "")
 	f.SetCompression(o.Compress)
 	f.SetCatalogSort(true)
@@ -102,13 +110,17 @@ func draw(doc *report.Document, o Options, replaced int) (*fpdf.Fpdf, error) {
 		wr.section(i+1, s)
 	}
 	if err := f.Error(); err != nil {
-		return nil, fmt.Errorf("drawing the PDF: %w", err)
+		return nil, nil, fmt.Errorf("drawing the PDF: %w", err)
 	}
-	return f, nil
+	return f, wr, nil
 }
 
 func (w *writer) footer() {
 	f := w.f
+	// The page ends with a heading when nothing was drawn below it: the
+	// page is left where the heading ended.
+	w.pageEndsWithHeading = append(w.pageEndsWithHeading, w.headingLast && f.GetY() <= w.headingEnd+3)
+	w.headingLast = false
 	f.SetY(-12)
 	f.SetFont(font, "", 7)
 	f.SetTextColor(60, 60, 60)
@@ -160,18 +172,26 @@ func (w *writer) titleBlock() {
 
 func (w *writer) section(n int, s report.Section) {
 	f := w.f
-	w.need(20)
+	// A heading stays with the start of what follows it.
+	lead := 0.0
+	if len(s.Blocks) > 0 {
+		lead = w.leadHeight(s.Blocks, 0)
+	}
+	w.need(13 + lead)
 	f.SetFont(font, "B", 13)
 	f.Ln(2)
 	f.MultiCell(w.textW, 7, fmt.Sprintf("%d  %s", n, s.Heading), "B", "L", false)
 	f.Ln(2)
-	for _, b := range s.Blocks {
+	w.headingLast, w.headingEnd = len(s.Blocks) > 0, f.GetY()
+	for i, b := range s.Blocks {
 		switch {
 		case b.Subheading != "":
-			w.need(14)
+			w.need(7 + w.leadHeight(s.Blocks, i+1))
 			f.Ln(1)
 			f.SetFont(font, "B", 10)
 			f.MultiCell(w.textW, 5, b.Subheading, "", "L", false)
+			w.headingLast, w.headingEnd = true, f.GetY()
+			continue
 		case b.Paragraph != "":
 			f.SetFont(font, "", 9)
 			f.MultiCell(w.textW, lineH, b.Paragraph, "", "L", false)
@@ -180,6 +200,12 @@ func (w *writer) section(n int, s report.Section) {
 			f.SetFont(font, "", 9)
 			for _, x := range b.Bullets {
 				w.need(lineH)
+				if n, nested := strings.CutPrefix(x, report.Nested); nested {
+					f.SetX(marginLeft + 5)
+					f.CellFormat(4, lineH, "–", "", 0, "L", false, 0, "")
+					f.MultiCell(w.textW-9, lineH, n, "", "L", false)
+					continue
+				}
 				f.CellFormat(4, lineH, "•", "", 0, "L", false, 0, "")
 				f.MultiCell(w.textW-4, lineH, x, "", "L", false)
 			}
@@ -193,28 +219,111 @@ func (w *writer) section(n int, s report.Section) {
 		case b.SignOff != nil:
 			w.signOff(b.SignOff)
 		}
+		// Something was drawn after the heading (a page break before it
+		// finished the heading's page, and the footer recorded that).
+		w.headingLast = false
 	}
 }
 
-func (w *writer) table(t *report.Table) {
-	f := w.f
-	const size, cellLine, pad = 7.5, 3.4, 0.8
-	widths := w.columnWidths(t, size, pad)
-	row := func(cells []string, bold bool) {
-		f.SetFont(font, map[bool]string{true: "B", false: ""}[bold], size)
-		lines := make([][]string, len(cells))
-		maxLines := 1
-		for i, c := range cells {
-			lines[i] = wrap(f, c, widths[i]-2*pad)
-			if len(lines[i]) == 0 {
-				lines[i] = []string{""}
-			}
-			if len(lines[i]) > maxLines {
-				maxLines = len(lines[i])
+// leadHeight is the height of the start of blocks[i] that a heading above
+// it must stay with (mm): a paragraph's first three lines, the first
+// bullet, a table's header and first row, a whole plot or drawing.
+func (w *writer) leadHeight(blocks []report.Block, i int) float64 {
+	if i >= len(blocks) {
+		return 0
+	}
+	f, b := w.f, blocks[i]
+	switch {
+	case b.Subheading != "":
+		return 7 + w.leadHeight(blocks, i+1)
+	case b.Paragraph != "":
+		f.SetFont(font, "", 9)
+		return float64(min(3, len(wrap(f, b.Paragraph, w.textW)))) * lineH
+	case len(b.Bullets) > 0:
+		f.SetFont(font, "", 9)
+		return float64(len(wrap(f, strings.TrimPrefix(b.Bullets[0], report.Nested), w.textW-9))) * lineH
+	case b.Table != nil:
+		t := dropEmptyColumns(b.Table)
+		widths := w.columnWidths(t, tableSize, tablePad)
+		h, _ := w.rowHeight(t.Header, widths, true)
+		if len(t.Rows) > 0 {
+			r, _ := w.rowHeight(t.Rows[0], widths, false)
+			h += r
+		}
+		return h
+	case b.Plot != nil:
+		return plotHeight + 6
+	case b.Drawing != nil:
+		return b.Drawing.Height + 9
+	case b.SignOff != nil:
+		return 30
+	}
+	return 0
+}
+
+// Table text: font size (pt), line height and cell padding (mm).
+const tableSize, tableLine, tablePad = 7.5, 3.4, 0.8
+
+// dropEmptyColumns leaves out the columns whose cells are empty in every
+// row: a column with nothing to show is not printed.
+func dropEmptyColumns(t *report.Table) *report.Table {
+	keep := make([]bool, len(t.Header))
+	for i := range t.Header {
+		for _, r := range t.Rows {
+			if i < len(r) && strings.TrimSpace(r[i]) != "" {
+				keep[i] = true
+				break
 			}
 		}
-		h := float64(maxLines)*cellLine + 2*pad
-		w.need(h)
+	}
+	out := &report.Table{}
+	for i, k := range keep {
+		if !k {
+			continue
+		}
+		out.Header = append(out.Header, t.Header[i])
+		if i < len(t.Right) {
+			out.Right = append(out.Right, t.Right[i])
+		}
+	}
+	for _, r := range t.Rows {
+		var row []string
+		for i, k := range keep {
+			if k && i < len(r) {
+				row = append(row, r[i])
+			}
+		}
+		out.Rows = append(out.Rows, row)
+	}
+	return out
+}
+
+// rowHeight is a row's height (mm) and its cells' lines.
+func (w *writer) rowHeight(cells []string, widths []float64, bold bool) (float64, [][]string) {
+	f := w.f
+	f.SetFont(font, map[bool]string{true: "B", false: ""}[bold], tableSize)
+	lines := make([][]string, len(cells))
+	maxLines := 1
+	for i, c := range cells {
+		lines[i] = wrap(f, c, widths[i]-2*tablePad)
+		if len(lines[i]) == 0 {
+			lines[i] = []string{""}
+		}
+		maxLines = max(maxLines, len(lines[i]))
+	}
+	return float64(maxLines)*tableLine + 2*tablePad, lines
+}
+
+// table draws a table; its header is repeated at the top of every page it
+// continues on, and never stands alone at the foot of a page.
+func (w *writer) table(t *report.Table) {
+	f := w.f
+	t = dropEmptyColumns(t)
+	widths := w.columnWidths(t, tableSize, tablePad)
+	_, ph := f.GetPageSize()
+	draw := func(cells []string, bold bool) {
+		h, lines := w.rowHeight(cells, widths, bold)
+		f.SetFont(font, map[bool]string{true: "B", false: ""}[bold], tableSize)
 		x, y := marginLeft, f.GetY()
 		if bold {
 			f.SetFillColor(225, 225, 225)
@@ -225,19 +334,29 @@ func (w *writer) table(t *report.Table) {
 		f.Line(x, y+h, x+w.textW, y+h)
 		for i := range cells {
 			for k, ln := range lines[i] {
-				tx := x + pad
+				tx := x + tablePad
 				if i < len(t.Right) && t.Right[i] && !bold {
-					tx = x + widths[i] - pad - f.GetStringWidth(ln)
+					tx = x + widths[i] - tablePad - f.GetStringWidth(ln)
 				}
-				f.Text(tx, y+pad+cellLine*float64(k+1)-0.8, ln)
+				f.Text(tx, y+tablePad+tableLine*float64(k+1)-0.8, ln)
 			}
 			x += widths[i]
 		}
 		f.SetY(y + h)
 	}
-	row(t.Header, true)
+	hh, _ := w.rowHeight(t.Header, widths, true)
+	first := 0.0
+	if len(t.Rows) > 0 {
+		first, _ = w.rowHeight(t.Rows[0], widths, false)
+	}
+	w.need(hh + first)
+	draw(t.Header, true)
 	for _, r := range t.Rows {
-		row(r, false)
+		if h, _ := w.rowHeight(r, widths, false); f.GetY()+h > ph-bottomSpace {
+			f.AddPage()
+			draw(t.Header, true)
+		}
+		draw(r, false)
 	}
 	f.SetDrawColor(0, 0, 0)
 	f.Ln(2)

@@ -238,3 +238,33 @@ func TestPlotLeavesOutNonFinite(t *testing.T) {
 	}
 	pdfText(t, b.Bytes()) // validates
 }
+
+// The sign-off's layout rules, held over every shipped example: no page
+// ends with a heading (a heading moves to the next page with the start of
+// what follows it), and a table that runs onto another page repeats its
+// header there (the header of a long table appears once per page it is
+// on).
+func TestLayoutKeepsHeadingsWithTheirContent(t *testing.T) {
+	safetytest.ForEachExample(t, "../..", func(t *testing.T, base, f string) {
+		a, data := safetytest.EvaluateFile(t, f)
+		doc := report.Build(a, report.Meta{Date: "2026-01-02", ToolVersion: "test", SetupBytes: data})
+		d, replaced := drawableCopy(doc)
+		_, w, err := draw(d, Options{Date: time.Date(2026, 1, 2, 0, 0, 0, 0, time.UTC)}, replaced)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for p, heading := range w.pageEndsWithHeading {
+			if heading {
+				t.Errorf("page %d ends with a heading", p+1)
+			}
+		}
+	})
+}
+
+// Columns empty on every row are left out of a table.
+func TestDropEmptyColumns(t *testing.T) {
+	got := dropEmptyColumns(&report.Table{Header: []string{"a", "b", "c"}, Right: []bool{false, true, true}, Rows: [][]string{{"1", "", "3"}, {"4", " ", ""}}})
+	if strings.Join(got.Header, ",") != "a,c" || len(got.Right) != 2 || !got.Right[1] || strings.Join(got.Rows[1], ",") != "4," {
+		t.Errorf("%+v", got)
+	}
+}

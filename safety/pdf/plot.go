@@ -1,6 +1,8 @@
 package pdf
 
 import (
+	"codeberg.org/go-pdf/fpdf"
+
 	"math"
 	"sort"
 	"strconv"
@@ -208,7 +210,7 @@ func (w *writer) plot(p *view.Plot) {
 		} else {
 			f.SetDashPattern(nil, 0)
 		}
-		f.SetLineWidth(0.35)
+		seriesPen(f, s)
 		first := true
 		for i := range s.X {
 			if !plottable(s.X[i], p.LogX) || !plottable(s.Y[i], p.LogY) {
@@ -226,6 +228,7 @@ func (w *writer) plot(p *view.Plot) {
 		f.DrawPath("D")
 	}
 	f.SetDashPattern(nil, 0)
+	f.SetDrawColor(0, 0, 0)
 	f.ClipEnd()
 	// Legend under the axis label.
 	legendX := x0
@@ -235,9 +238,10 @@ func (w *writer) plot(p *view.Plot) {
 		if s.Dashed {
 			f.SetDashPattern([]float64{1.6, 1}, 0)
 		}
-		f.SetLineWidth(0.35)
+		seriesPen(f, s)
 		f.Line(legendX, ly-1, legendX+8, ly-1)
 		f.SetDashPattern(nil, 0)
+		f.SetDrawColor(0, 0, 0)
 		f.Text(legendX+10, ly, s.Name)
 		legendX += 14 + f.GetStringWidth(s.Name)
 	}
@@ -345,4 +349,16 @@ func spread(want []float64, pitch, lo, hi float64) []float64 {
 		next = out[i]
 	}
 	return out
+}
+
+// seriesPen sets the line of a series: black 0.35 mm, or grey 0.7 mm for
+// another laser's beam.
+func seriesPen(f *fpdf.Fpdf, s view.Series) {
+	if s.Grey {
+		f.SetDrawColor(140, 140, 140)
+		f.SetLineWidth(0.7)
+		return
+	}
+	f.SetDrawColor(0, 0, 0)
+	f.SetLineWidth(0.35)
 }

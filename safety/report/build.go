@@ -153,7 +153,7 @@ func table(l *view.List) *Table {
 func lines(r *view.Record) []string {
 	var out []string
 	for _, l := range r.Lines {
-		out = append(out, strings.TrimSpace(r.Expand(l)))
+		out = append(out, nestedLine(l, r.Expand(l)))
 	}
 	for i := range r.Members {
 		m := &r.Members[i]
@@ -164,9 +164,22 @@ func lines(r *view.Record) []string {
 		}
 	}
 	for _, l := range r.After {
-		out = append(out, strings.TrimSpace(r.Expand(l)))
+		out = append(out, nestedLine(l, r.Expand(l)))
 	}
 	return out
+}
+
+// Nested marks a bullet that belongs under the one before it (a laser's
+// pulse figures under the laser).
+const Nested = "\t"
+
+// nestedLine is a record's sentence as a bullet: nested when the view
+// indents it under the record's first line.
+func nestedLine(template, text string) string {
+	if strings.HasPrefix(template, "  ") {
+		return Nested + strings.TrimSpace(text)
+	}
+	return strings.TrimSpace(text)
 }
 
 // ownLines are a record's own sentences, joined.

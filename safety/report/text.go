@@ -24,6 +24,10 @@ func (d *Document) WriteText(w io.Writer) error {
 				fmt.Fprintf(&b, "%s\n", bl.Paragraph)
 			case bl.Bullets != nil:
 				for _, x := range bl.Bullets {
+					if n, ok := strings.CutPrefix(x, Nested); ok {
+						fmt.Fprintf(&b, "    - %s\n", n)
+						continue
+					}
 					fmt.Fprintf(&b, "  * %s\n", x)
 				}
 			case bl.Table != nil:

@@ -83,6 +83,7 @@ var (
 	dAtomsResultPowerW                  = &Desc{"power_w", "power", "AtomsResult.Power"}
 	dDirection                          = &Desc{"direction", "direction", "CloudBeam.Direction"}
 	dAtomsResultDetuningHz              = &Desc{"detuning_hz", "detuning Δ/2π", "AtomsResult.Detuning"}
+	dCombinedText                       = &Desc{"combined_text", "summed eye ratio (shared)", "Exposure.CombinedEyeRatio"}
 	dGoalUpperBound                     = &Desc{"upper_bound", "upper bound", "GoalResult.Upper"}
 	dGoalBound                          = &Desc{"goal_bound", "bound", "GoalResult.Upper"}
 	dCloudGoalUpperBound                = &Desc{"upper_bound", "upper bound", "CloudGoal.Upper"}

@@ -131,6 +131,9 @@ type Series struct {
 	Name   string
 	X, Y   []float64
 	Dashed bool
+	// Grey draws the series in grey with a heavier line (another laser's
+	// beam on the path), to tell it from the path's own in print.
+	Grey bool
 }
 
 // Marker is a labelled vertical line, e.g. an element's position.
@@ -179,6 +182,23 @@ func beamPlot(pb *budget.PathBudget) *Plot {
 		xs, wx, wy = append(xs, z*1e3), append(wx, x*1e3), append(wy, y*1e3)
 	}
 	pl.Series = []Series{{Name: "x plane", X: xs, Y: wx}, {Name: "y plane", X: xs, Y: wy, Dashed: true}}
+	// The other lasers' beams on the path, from where they join it.
+	for _, q := range pb.Joined {
+		if len(q.Segments) == 0 {
+			continue
+		}
+		from := q.Segments[0].From
+		var qx, qwx, qwy []float64
+		for _, z := range zs {
+			if z < from {
+				continue
+			}
+			x, y := beamAt(q, z).Radii()
+			qx, qwx, qwy = append(qx, z*1e3), append(qwx, x*1e3), append(qwy, y*1e3)
+		}
+		name := fmt.Sprintf("laser %q", q.Laser.Name)
+		pl.Series = append(pl.Series, Series{Name: name + ", x plane", X: qx, Y: qwx, Grey: true}, Series{Name: name + ", y plane", X: qx, Y: qwy, Dashed: true, Grey: true})
+	}
 	for _, r := range pb.Rows {
 		pl.Markers = append(pl.Markers, Marker{X: r.Element.At * 1e3, Label: fmt.Sprintf("%d %s", r.Element.Index, r.Element.Label())})
 	}

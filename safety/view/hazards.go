@@ -109,7 +109,7 @@ func (b *builder) hazards(a *safety.Assessment) hazardView {
 		v.lasers.Records = append(v.lasers.Records, b.laserRecord(ll))
 	}
 	v.exposures = &List{Key: "exposures", Heading: "Open segments (worst point; ratio = aperture-averaged irradiance ÷ MPE)", Empty: "no open segment carries light",
-		Columns: []string{"segment", "power_w", "aperture_irradiance_w_m2", "ratio", "od_required", "skin_ratio", "worst_at_m", "nohd"}, Records: make([]Record, 0, len(h.Exposures))}
+		Columns: []string{"segment", "power_w", "aperture_irradiance_w_m2", "ratio", "combined_text", "od_required", "skin_ratio", "worst_at_m", "nohd"}, Records: make([]Record, 0, len(h.Exposures))}
 	for _, e := range slices.Concat(h.Exposures, h.Enclosed) {
 		v.exposures.Records = append(v.exposures.Records, b.exposureRecord(e))
 	}
@@ -315,6 +315,11 @@ func (b *builder) exposureRecord(e *safety.Exposure) Record {
 		F(Ratio(dCombinedEyeRatio, e.CombinedEyeRatio)).
 		F(Ratio(dCombinedSkinRatio, e.CombinedSkinRatio)).
 		F(Whole(dAdditive, e.Additive))
+	combined := ""
+	if len(e.Wavelengths) > 1 {
+		combined = units.FormatRatio(e.CombinedEyeRatio)
+	}
+	r.F(Field{d: dCombinedText, Kind: String, Text: combined, People: true})
 	if len(e.Wavelengths) > 1 {
 		r.Line("      {segment}: lasers {lasers} share this segment; with the beams whose effects add ({additive_beams} on the eye) the ratios sum to {combined_eye_ratio} (eye) and {combined_skin_ratio} (skin); OD {od_required} holds this wavelength to an equal share")
 	}
