@@ -143,7 +143,7 @@ func (e *env) runReport(o *reportOptions) error {
 	// leaves no file behind.
 	var svg bytes.Buffer
 	if o.diagram != "" {
-		if err := report.WriteSVG(&svg, doc.Drawings()); err != nil {
+		if err := report.WriteSVG(&svg, "Beam paths of "+doc.Title+" (setup SHA-256 "+doc.SetupSHA256+")", doc.Drawings()); err != nil {
 			return err
 		}
 	}

@@ -6,6 +6,8 @@ import (
 	"io"
 	"math"
 	"os"
+	"os/exec"
+	"path/filepath"
 	"regexp"
 	"strings"
 	"testing"
@@ -266,5 +268,42 @@ func TestDropEmptyColumns(t *testing.T) {
 	got := dropEmptyColumns(&report.Table{Header: []string{"a", "b", "c"}, Right: []bool{false, true, true}, Rows: [][]string{{"1", "", "3"}, {"4", " ", ""}}})
 	if strings.Join(got.Header, ",") != "a,c" || len(got.Right) != 2 || !got.Right[1] || strings.Join(got.Rows[1], ",") != "4," {
 		t.Errorf("%+v", got)
+	}
+}
+
+// The sign-offs of table C and table D render page by page in poppler's
+// pdftoppm (a renderer other than the library that wrote them), every page
+// to an image of its own. .ci/run installs poppler-utils; where pdftoppm is
+// missing the test says so and skips.
+func TestPagesRender(t *testing.T) {
+	bin, err := exec.LookPath("pdftoppm")
+	if err != nil {
+		t.Skip("pdftoppm (poppler-utils) is not installed")
+	}
+	for _, name := range []string{"table-c", "table-d"} {
+		a, data := safetytest.EvaluateFile(t, "../../testdata/examples/"+name+".toml")
+		doc := report.Build(a, report.Meta{Date: "2026-01-02", ToolVersion: "test", SetupBytes: data})
+		var b bytes.Buffer
+		if err := Write(&b, doc, Options{Date: time.Date(2026, 1, 2, 0, 0, 0, 0, time.UTC)}); err != nil {
+			t.Fatal(err)
+		}
+		dir := t.TempDir()
+		pdf := filepath.Join(dir, name+".pdf")
+		if err := os.WriteFile(pdf, b.Bytes(), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		if out, err := exec.Command(bin, "-r", "20", "-png", pdf, filepath.Join(dir, "p")).CombinedOutput(); err != nil {
+			t.Fatalf("%s: pdftoppm: %v %s", name, err, out)
+		}
+		_, pages := pdfText(t, b.Bytes())
+		pngs, _ := filepath.Glob(filepath.Join(dir, "p-*.png"))
+		if len(pngs) != pages {
+			t.Errorf("%s: %d pages rendered of %d", name, len(pngs), pages)
+		}
+		for _, p := range pngs {
+			if fi, err := os.Stat(p); err != nil || fi.Size() < 200 {
+				t.Errorf("%s: page image %s is empty", name, p)
+			}
+		}
 	}
 }

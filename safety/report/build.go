@@ -52,7 +52,11 @@ func Build(a *safety.Assessment, m Meta) *Document {
 		d.Sections = append(d.Sections, since(m.Since))
 	}
 	f := view.BuildFigures(a)
-	d.Sections = append(d.Sections, sources(lists["lasers"]), drawings(view.BuildDrawn(a)), paths(f, lists["paths"]))
+	dr := view.BuildDrawn(a)
+	if m.Since != nil {
+		dr.Changed = m.Since.ChangedElements()
+	}
+	d.Sections = append(d.Sections, sources(lists["lasers"]), drawings(dr), paths(f, lists["paths"]))
 	if len(f.Atoms) > 0 {
 		d.Sections = append(d.Sections, atomsSection(f, lists["atoms"]))
 	}

@@ -62,13 +62,14 @@ type Shape struct {
 // Layout of the schematic, mm.
 const (
 	diagramWidth   = 174.0 // the PDF's text width
-	slotPitch      = 14.0  // from one element to the next
-	slotLeft       = 8.0   // the first slot's centre
-	bandHeight     = 17.0  // one line of elements with its labels
+	slotPitch      = 19.0  // from one element to the next
+	slotLeft       = 10.0  // the first slot's centre (room for a continuation chevron before it)
+	bandHeight     = 25.0  // one line of elements with its labels
 	headerHeight   = 6.0   // a path's heading line
 	glyphHalf      = 2.5   // half the width of a glyph
-	labelSize      = 5.0   // pt, element labels
-	noteSize       = 4.2   // pt, ratios and stub labels
+	labelSize      = 6.5   // pt, element labels
+	noteSize       = 6.0   // pt, ratios, positions and stub labels (6 pt at least: print stays legible)
+	labelLine      = 2.6   // mm between label lines
 	maxDrawingTall = 225.0 // the most one drawing takes on a page
 )
 
@@ -127,7 +128,7 @@ func Diagrams(dr *view.Drawn) []*Drawing {
 		for _, own := range hb.Paths {
 			for _, pb := range own.Beams() {
 				if pb.Laser == dl.Laser {
-					bands = append(bands, pathBands(pb, own, dr.SegmentRatio[pb], dr.EscapingRatio[pb], hb)...)
+					bands = append(bands, pathBands(pb, own, dr, hb)...)
 				}
 			}
 		}
@@ -166,7 +167,8 @@ func stack(title string, bands []band) []*Drawing {
 
 // pathBands lays out one beam on one path: a heading band, then lines of
 // stops.
-func pathBands(pb, own *budget.PathBudget, ratio map[int]float64, escaping map[*setup.Element]float64, hb *budget.Budget) []band {
+func pathBands(pb, own *budget.PathBudget, dr *view.Drawn, hb *budget.Budget) []band {
+	ratio, escaping := dr.SegmentRatio[pb], dr.EscapingRatio[pb]
 	p := pb.Path
 	stops := pathStops(pb, hb)
 	head := fmt.Sprintf("path %q: %s, %s", p.Name, units.FormatWavelength(pb.Laser.Wavelength), stops[0].label)
@@ -191,7 +193,9 @@ func pathBands(pb, own *budget.PathBudget, ratio map[int]float64, escaping map[*
 		if stops[i-1].fold {
 			// Only a beam going right folds back: a second retro mirror
 			// on the return is drawn as a plain mirror.
-			if dir == 1 {
+			// A mirror at the start of a line has no room to the left for
+			// the return: it too is drawn plain.
+			if dir == 1 && col > 0 {
 				line, dir = line+1, -1
 			} else {
 				stops[i-1].fold = false
@@ -268,15 +272,37 @@ func pathBands(pb, own *budget.PathBudget, ratio map[int]float64, escaping map[*
 		}
 		add(l, glyph(s.glyph, s.el, cx, yc, lower)...)
 		if s.label != "" {
-			lx, ly, anchor, room := cx, yc+6.2, "middle", slotPitch-1
+			lx, ly, anchor, room := cx, yc+6.4, "middle", slotPitch-1
 			switch {
 			case s.fold:
-				lx, ly, anchor = cx+2.2, yc+bandHeight/2+1, "start"
+				lx, ly, anchor = cx+2.2, yc+bandHeight/2-1, "start"
 			case s.el == nil && !goingLeft[i]:
 				// A path's end has the room after it.
 				lx, anchor, room = cx-glyphHalf, "start", 2*slotPitch-2
 			}
-			add(l, text(lx, ly, labelSize, anchor, fit(s.label, room, labelSize)))
+			// The label on up to two lines, then the position along the
+			// path and the hazard figure the element carries.
+			lines := fitLines(s.label, room, labelSize, 2)
+			var notes []string
+			if s.el != nil {
+				notes = append(notes, "at "+units.FormatLength(s.el.At))
+				if z := dr.DumpZone[pb][s.el]; z != "" {
+					notes = append(notes, z)
+				}
+			} else if s.glyph == "open_end" && dr.OpenEnd[pb] != "" {
+				notes = append(notes, dr.OpenEnd[pb])
+			}
+			for k, ln := range lines {
+				add(l, text(lx, ly+float64(k)*labelLine, labelSize, anchor, ln))
+			}
+			for k, n := range notes {
+				add(l, text(lx, ly+float64(len(lines)+k)*labelLine, noteSize, anchor, fit(n, room, noteSize)))
+			}
+			if s.el != nil && dr.Changed[p.Name][s.el.Index] {
+				// Changed since the previous revision: a dashed box round
+				// the element and its labels.
+				add(l, Shape{Kind: ShapeRect, P: []float64{cx - 6, yc - 4.8, 12, bandHeight - yc + 4.4}, Stroke: 0.25, Dash: Dashed, Fill: -1})
+			}
 		}
 		if s.row != nil {
 			add(l, stubs(pb, s, own, cx, yc, escaping, hb)...)
@@ -408,7 +434,7 @@ func stubs(pb *budget.PathBudget, s stop, own *budget.PathBudget, cx, cy float64
 				// path's heading).
 				out = append(out, Shape{Kind: ShapeLine, P: []float64{cx - 1.2, cy - 6.4, cx - 1.2, cy - 2.2}, Stroke: bandStroke[0], Fill: -1},
 					arrowHead(cx-1.2, cy-6.4, cx-1.2, cy-2.2),
-					text(cx-0.6, cy-7.4, noteSize, "start", fit("+ "+q.Laser.Name, slotPitch-0.5, noteSize)))
+					text(cx-1.2, cy-7.4, noteSize, "middle", fit("+ "+q.Laser.Name, slotPitch-4, noteSize)))
 			}
 		}
 	}
@@ -437,6 +463,31 @@ func text(x, y, size float64, anchor, s string) Shape {
 
 // fit shortens a label to the width it has, mm, at size pt, ending it with
 // "…": a character of the Go font is at most about 0.6 em wide.
+// fitLines breaks s at spaces into at most n lines of width (mm) at size
+// (pt); the last line is cut with "…" only when the text still does not
+// fit.
+func fitLines(s string, width, size float64, n int) []string {
+	max := int(width / (0.6 * size * 0.3528))
+	var lines []string
+	words := strings.Fields(s)
+	for len(words) > 0 && len(lines) < n {
+		line := words[0]
+		words = words[1:]
+		for len(words) > 0 && utf8.RuneCountInString(line)+1+utf8.RuneCountInString(words[0]) <= max {
+			line += " " + words[0]
+			words = words[1:]
+		}
+		lines = append(lines, line)
+	}
+	if len(words) > 0 {
+		lines[len(lines)-1] = fit(lines[len(lines)-1]+" "+strings.Join(words, " "), width, size)
+	}
+	for i, ln := range lines {
+		lines[i] = fit(ln, width, size)
+	}
+	return lines
+}
+
 func fit(s string, width, size float64) string {
 	max := int(width / (0.6 * size * 0.3528))
 	if utf8.RuneCountInString(s) <= max {
@@ -531,8 +582,10 @@ func Legend() *Drawing {
 			text(xs[b]+14, y+1.2, labelSize+0.5, "start", bandNames[b]))
 	}
 	y += 5
-	d.Shapes = append(d.Shapes, text(0, y+1, labelSize, "start", "open segments above the eye MPE carry their ratio (×N, the combined ratio where beams share a segment); arrows above an element are light leaving the path"))
-	y += 8
+	d.Shapes = append(d.Shapes, text(0, y+1, labelSize, "start", "open segments above the eye MPE carry their ratio (×N, summed where beams share a segment); arrows above an element are light leaving"),
+		text(0, y+1+labelLine+0.4, labelSize, "start", "the path; under each element: its number, type or name, position along the path, and the hazard zone at a dump (NOHD at an open end);"),
+		text(0, y+1+2*labelLine+0.8, labelSize, "start", "a dashed box marks an element added or changed since the previous revision (report --since)"))
+	y += 14
 	kinds := []string{"source", "port", "join", "into", "open_end"}
 	for _, k := range setup.Kinds {
 		kinds = append(kinds, string(k.Type))

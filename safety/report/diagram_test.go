@@ -140,6 +140,10 @@ func TestDiagramsFitAndStayLegible(t *testing.T) {
 			if x0 < -0.5 || y0 < -0.5 || x1 > d.Width+0.5 || y1 > d.Height+0.5 {
 				t.Errorf("%s: %s %q at %.1f,%.1f–%.1f,%.1f is outside %.0f × %.1f mm", d.Title, s.Kind, s.Text, x0, y0, x1, y1, d.Width, d.Height)
 			}
+			if s.Kind == ShapeText && s.Size < 6 {
+				// Print stays legible: no drawing text under 6 pt.
+				t.Errorf("%s: text %q at %.1f pt", d.Title, s.Text, s.Size)
+			}
 			if s.Kind == ShapeText {
 				for _, o := range boxes {
 					if x0 < o[2] && o[0] < x1 && y0 < o[3] && o[1] < y1 {
@@ -189,13 +193,14 @@ func titles(ds []*Drawing) []string {
 }
 
 // The SVG is well-formed XML with one element per shape and a title per
-// drawing, and carries the labels.
+// drawing, a <title>, a white background and the labels (positions
+// included).
 func TestSVG(t *testing.T) {
 	a, _ := safetytest.EvaluateFile(t, "../../testdata/examples/table-d.toml")
 	ds := append([]*Drawing{Legend()}, Diagrams(view.BuildDrawn(a))...)
 	ds[1].Title += " <&> \"quoted\"" // escaped, not breaking the XML
 	var buf bytes.Buffer
-	if err := WriteSVG(&buf, ds); err != nil {
+	if err := WriteSVG(&buf, "test drawing", ds); err != nil {
 		t.Fatal(err)
 	}
 	dec := xml.NewDecoder(&buf)
@@ -223,7 +228,9 @@ func TestSVG(t *testing.T) {
 	if root != "http://www.w3.org/2000/svg svg" {
 		t.Errorf("root element %q", root)
 	}
-	want := map[string]int{"text": len(ds)}
+	// One heading per drawing and the document's, one background
+	// rectangle, one title.
+	want := map[string]int{"text": len(ds) + 1, "rect": 1, "title": 1}
 	for _, d := range ds {
 		for _, s := range d.Shapes {
 			want[map[ShapeKind]string{ShapeLine: "polyline", ShapePolygon: "polygon", ShapeRect: "rect", ShapeEllipse: "ellipse", ShapeText: "text"}[s.Kind]]++
@@ -235,7 +242,7 @@ func TestSVG(t *testing.T) {
 		}
 	}
 	joined := strings.Join(texts, "|")
-	for _, want := range []string{"1 aom", "+ repump", "<&> \"quoted\""} {
+	for _, want := range []string{"1 aom", "+ repump", "<&> \"quoted\"", "test drawing", "at 100 mm"} {
 		if !strings.Contains(joined, want) {
 			t.Errorf("the SVG's text lacks %q", want)
 		}
@@ -278,7 +285,7 @@ func FuzzDiagram(f *testing.F) {
 			}
 		}
 		var buf bytes.Buffer
-		if err := WriteSVG(&buf, ds); err != nil {
+		if err := WriteSVG(&buf, "test drawing", ds); err != nil {
 			t.Fatal(err)
 		}
 		dec := xml.NewDecoder(&buf)
@@ -291,4 +298,29 @@ func FuzzDiagram(f *testing.F) {
 			}
 		}
 	})
+}
+
+// Under report --since the elements added or changed are boxed (dashed),
+// and the others are not.
+func TestChangedElementsMarked(t *testing.T) {
+	a, _ := safetytest.EvaluateFile(t, "../../testdata/examples/table-c.toml")
+	dr := view.BuildDrawn(a)
+	boxes := func() int {
+		n := 0
+		for _, d := range Diagrams(dr) {
+			for _, s := range d.Shapes {
+				if s.Kind == ShapeRect && s.Dash == Dashed {
+					n++
+				}
+			}
+		}
+		return n
+	}
+	if n := boxes(); n != 0 {
+		t.Fatalf("%d boxes without --since", n)
+	}
+	dr.Changed = map[string]map[int]bool{"drive": {2: true, 4: true}}
+	if n := boxes(); n != 2 {
+		t.Errorf("%d boxes for two changed elements", n)
+	}
 }

@@ -24,27 +24,37 @@ func (d *Document) Drawings() []*Drawing {
 	return out
 }
 
-// svgTitleHeight is the room above each drawing for its title, mm.
-const svgTitleHeight = 7.0
+// svgTitleHeight is the room above each drawing for its title, mm;
+// svgMargin the white margin round the whole, mm.
+const (
+	svgTitleHeight = 7.0
+	svgMargin      = 8.0
+)
 
 // WriteSVG writes drawings one under another as one SVG document whose
 // user unit is the millimetre, each under its title: the same shapes the
-// PDF draws.
-func WriteSVG(w io.Writer, ds []*Drawing) error {
-	width, height := 0.0, 0.0
+// PDF draws, on a white background with a margin, the document titled
+// title (<title>, and a heading line above the drawings).
+func WriteSVG(w io.Writer, title string, ds []*Drawing) error {
+	width, height := 0.0, svgTitleHeight+2
 	for _, d := range ds {
 		width = max(width, d.Width)
 		height += svgTitleHeight + d.Height + 4
 	}
+	width += 2 * svgMargin
+	height += 2 * svgMargin
 	bw := bufio.NewWriter(w)
 	fmt.Fprintf(bw, `<?xml version="1.0" encoding="UTF-8"?>
 <svg xmlns="http://www.w3.org/2000/svg" width="%smm" height="%smm" viewBox="0 0 %s %s" font-family="Go, sans-serif">
-`, num(width), num(height), num(width), num(height))
-	y := 0.0
+<title>%s</title>
+<rect x="0" y="0" width="%s" height="%s" fill="white"/>
+<text x="%s" y="%s" font-size="%s" font-weight="bold">%s</text>
+`, num(width), num(height), num(width), num(height), esc(title), num(width), num(height), num(svgMargin), num(svgMargin+5), num(11*ptMM), esc(title))
+	y := svgMargin + svgTitleHeight + 2
 	for _, d := range ds {
-		fmt.Fprintf(bw, `<text x="0" y="%s" font-size="%s" font-weight="bold">%s</text>
-<g transform="translate(0 %s)">
-`, num(y+4.5), num(8.5*ptMM), esc(d.Title), num(y+svgTitleHeight))
+		fmt.Fprintf(bw, `<text x="%s" y="%s" font-size="%s" font-weight="bold">%s</text>
+<g transform="translate(%s %s)">
+`, num(svgMargin), num(y+4.5), num(8.5*ptMM), esc(d.Title), num(svgMargin), num(y+svgTitleHeight))
 		for _, s := range d.Shapes {
 			writeShapeSVG(bw, s)
 		}

@@ -66,6 +66,25 @@ type Change struct {
 	Figures []Figure `json:"figures,omitempty"`
 	// AffectsSafety marks a change that needs a new sign-off.
 	AffectsSafety bool `json:"affects_safety"`
+	// Path and Element name an element change's element in the new
+	// revision (Element 1-based; 0 when it was removed), for the drawing.
+	Path    string `json:"-"`
+	Element int    `json:"-"`
+}
+
+// ChangedElements are the elements of the new revision that were added or
+// changed, by path name and element number.
+func (r *Report) ChangedElements() map[string]map[int]bool {
+	out := map[string]map[int]bool{}
+	for _, c := range r.Setup {
+		if c.Kind == "element" && c.Element > 0 {
+			if out[c.Path] == nil {
+				out[c.Path] = map[int]bool{}
+			}
+			out[c.Path][c.Element] = true
+		}
+	}
+	return out
 }
 
 // Figure is one number before and after; nil where it does not exist.
@@ -185,7 +204,11 @@ func setupChanges(ro, rn map[string]any, ids *idMap) []Change {
 				b = en[e.ni]
 			}
 			typ := fmt.Sprint(cmp.Or(mapGet(b, "type"), mapGet(a, "type")))
-			out = append(out, tableChanges("element", fmt.Sprintf("path %q, element %s", p.name, id), a, b, a != nil, b != nil, elementAffects(typ))...)
+			cs := tableChanges("element", fmt.Sprintf("path %q, element %s", p.name, id), a, b, a != nil, b != nil, elementAffects(typ))
+			for i := range cs {
+				cs[i].Path, cs[i].Element = p.name, e.ni+1
+			}
+			out = append(out, cs...)
 		}
 	}
 	return out

@@ -323,6 +323,14 @@ type Drawn struct {
 	// EscapingRatio is, for each beam on a path, the largest eye-exposure
 	// ratio of a beam leaving at an element.
 	EscapingRatio map[*budget.PathBudget]map[*setup.Element]float64
+	// OpenEnd is, for each beam whose path ends open, the NOHD beyond the
+	// end as printed ("NOHD 12 m"); DumpZone, for each beam, the nominal
+	// hazard zone of the diffuse reflection at a dump ("zone r 47 mm").
+	OpenEnd  map[*budget.PathBudget]string
+	DumpZone map[*budget.PathBudget]map[*setup.Element]string
+	// Changed marks, by path name and element number, the elements added
+	// or changed since the previous revision (report --since); nil without.
+	Changed map[string]map[int]bool
 }
 
 // DrawnLaser is one laser's drawing: the laser and its title (name,
@@ -334,12 +342,24 @@ type DrawnLaser struct {
 
 // BuildDrawn gathers what the drawings print from an assessment.
 func BuildDrawn(a *safety.Assessment) *Drawn {
-	d := &Drawn{Budget: a.HazardBudget, SegmentRatio: map[*budget.PathBudget]map[int]float64{}, EscapingRatio: map[*budget.PathBudget]map[*setup.Element]float64{}}
+	d := &Drawn{Budget: a.HazardBudget, SegmentRatio: map[*budget.PathBudget]map[int]float64{}, EscapingRatio: map[*budget.PathBudget]map[*setup.Element]float64{},
+		OpenEnd: map[*budget.PathBudget]string{}, DumpZone: map[*budget.PathBudget]map[*setup.Element]string{}}
 	for _, e := range a.Hazards.Exposures {
 		if d.SegmentRatio[e.Path] == nil {
 			d.SegmentRatio[e.Path] = map[int]float64{}
 		}
 		d.SegmentRatio[e.Path][e.Segment.After] = e.CombinedEyeRatio
+		if e.OpenEnd {
+			d.OpenEnd[e.Path] = "NOHD " + units.FormatDistance(e.NOHD, safety.MaxHazardDistance)
+		}
+	}
+	for _, rf := range a.Hazards.Reflections {
+		if rf.Kind == safety.ReflectionDiffuse && rf.Element != nil && rf.Element.Type == setup.TypeDump {
+			if d.DumpZone[rf.Path] == nil {
+				d.DumpZone[rf.Path] = map[*setup.Element]string{}
+			}
+			d.DumpZone[rf.Path][rf.Element] = "zone r " + units.FormatDistance(rf.Radius, safety.MaxHazardDistance)
+		}
 	}
 	for _, rf := range a.Hazards.Reflections {
 		if rf.Kind == safety.ReflectionEscaping {
