@@ -52,8 +52,6 @@ type writer struct {
 	headingLast         bool
 	headingEnd          float64 // where the last heading ends on its page, mm
 	pageEndsWithHeading []bool
-	// minDrawingText is the smallest font size used in a drawing, pt.
-	minDrawingText float64
 }
 
 // pageCount stands in every footer for the number of pages until the
