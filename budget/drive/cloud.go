@@ -174,8 +174,16 @@ func StandingWavePotential(u1, u2 float64) float64 {
 
 // LatticeFrequency is the axial trap frequency in a standing wave of depth
 // U0 (J, > 0) at wavelength λ for mass m: ω = (2π/λ) √(2U0/m), rad/s
-// (Grimm et al. (2000), eq. (40)).
+// (Grimm et al. (2000), eq. (40)). U0 is the depth of the modulation along
+// the axis, antinode to node (LatticeModulation), not the antinode's depth.
 func LatticeFrequency(u0, λ, m float64) float64 { return 2 * math.Pi / λ * math.Sqrt(2*u0/m) }
+
+// LatticeModulation is the depth of a standing wave's modulation along its
+// axis for counter-propagating beams of potentials U₁ and U₂ (J): the
+// potential U₁ + U₂ + 2√(U₁U₂) cos 2kz runs from (√U₁ + √U₂)² at an
+// antinode to (√U₁ − √U₂)² at a node, 4√(|U₁U₂|) apart; for equal beams 4U₁,
+// the antinode's depth (Grimm et al. (2000), §4.1, the fields adding).
+func LatticeModulation(u1, u2 float64) float64 { return 4 * math.Sqrt(math.Abs(u1*u2)) }
 
 // V is the total potential at r, J: the beams' sum and gravity's −m g (r·down).
 func (f *field) V(r [3]float64) float64 {
@@ -557,7 +565,8 @@ func (cr *CloudResult) evaluate(scaled []*setup.Laser, k float64, full bool) {
 		}
 		for _, b := range f.beams {
 			if b.back != nil && t.Found {
-				t.Lattice = LatticeFrequency(math.Abs(b.potential(t.Minimum)), b.λ, tr.Mass) / (2 * math.Pi)
+				u1, u2 := b.perI*b.intensity(t.Minimum), b.back.perI*b.back.intensity(t.Minimum)
+				t.Lattice = LatticeFrequency(LatticeModulation(u1, u2), b.λ, tr.Mass) / (2 * math.Pi)
 			}
 		}
 		cr.Trap = &t

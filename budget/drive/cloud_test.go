@@ -322,3 +322,24 @@ func TestSignedAxis(t *testing.T) {
 		}
 	}
 }
+
+// Two counter-propagating beams of potentials U₁ and U₂ make U₁ + U₂ +
+// 2√(U₁U₂) cos 2kz (Grimm, Weidemüller and Ovchinnikov (2000), §4.1, the
+// fields adding): by hand, the antinode-to-node depth is (√U₁ + √U₂)² −
+// (√U₁ − √U₂)² = 4√(U₁U₂); for U₁ = 9, U₂ = 4 it is 24, not the antinode's
+// 25; for equal beams 4U₁. The lattice frequency follows from it: with U₂
+// = U₁/4, ω is √(4·½/4) = 1/√2 of the equal-beam value at the same U₁.
+func TestLatticeModulation(t *testing.T) {
+	if got := LatticeModulation(-9, -4); got != 24 {
+		t.Errorf("modulation %g, want 24", got)
+	}
+	if got := LatticeModulation(-3, -3); !near(got, 12, 1e-15) {
+		t.Errorf("equal beams: %g, want 12", got)
+	}
+	λ, m, u := 1064e-9, 1.443160648e-25, 1e-28
+	eq := LatticeFrequency(LatticeModulation(u, u), λ, m)
+	un := LatticeFrequency(LatticeModulation(u, u/4), λ, m)
+	if !near(un/eq, 1/math.Sqrt2, 1e-12) {
+		t.Errorf("unequal/equal = %g, want 1/√2", un/eq)
+	}
+}
