@@ -7,6 +7,7 @@ import (
 	"gonum.org/v1/gonum/integrate/quad"
 
 	"beamledger/budget/atoms"
+	"beamledger/budget/setup"
 )
 
 // A round beam far narrower than the cloud sees one optical depth b0: its
@@ -61,5 +62,70 @@ func TestAbsorbEllipticalSumMatchesRound(t *testing.T) {
 		if math.Abs(round-ell) > 2e-4 {
 			t.Errorf("P %g: round %.6f, 2D sum %.6f", p, round, ell)
 		}
+	}
+}
+
+// A saturable cloud scatters a different fraction at another power: the
+// budget people read (ComputeAtOperating) absorbs at each laser's operating
+// power, the hazards' (Compute) at its maximum, and each row's scattered
+// fraction is the column's absorption at that power (a narrow resonant
+// beam on a dense Rb-87 cloud; 5 mW against 50 mW, by the radial integral
+// of the test above: the weaker beam is less saturated and loses more).
+func TestScatteredAtTheBudgetsPower(t *testing.T) {
+	src := `
+[[laser]]
+name = "probe"
+wavelength = "780.241 nm"
+power = "50 mW"
+operating_power = "5 mW"
+waist = "50 um"
+detuning = "0 MHz"
+
+[[path]]
+name = "p"
+from = "probe"
+element = [{ type = "atoms", at = "10 mm", cloud = "c" }, { type = "dump", at = "100 mm" }]
+
+[[cloud]]
+name = "c"
+transition = "Rb87 D2"
+atoms = 1e9
+rms_size = ["1 mm", "1 mm", "1 mm"]
+`
+	s, err := setup.Parse("thick.toml", []byte(src))
+	if err != nil {
+		t.Fatal(err)
+	}
+	scattered := func(b *Budget) float64 {
+		for _, l := range b.Paths[0].Rows[0].Losses {
+			if l.Kind == LossScattered {
+				return l.Fraction
+			}
+		}
+		return 0
+	}
+	op, err := ComputeAtOperating(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	mx, err := Compute(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	pb := op.Paths[0]
+	col := ColumnFor(pb, 0, pb.Rows[0].Element, s.Clouds[0])
+	wx, wy := pb.Rows[0].BeamIn.Radii()
+	for _, c := range []struct {
+		name  string
+		b     *Budget
+		power float64
+	}{{"operating", op, 5e-3}, {"maximum", mx, 50e-3}} {
+		want := 1 - col.Absorb(c.power, wx, wy).Transmission
+		if got := scattered(c.b); math.Abs(got-want) > 1e-12 {
+			t.Errorf("%s power: scattered fraction %g, want %g", c.name, got, want)
+		}
+	}
+	if !(scattered(op) > scattered(mx)) {
+		t.Errorf("the weaker beam should lose more: %g at 5 mW, %g at 50 mW", scattered(op), scattered(mx))
 	}
 }

@@ -171,9 +171,14 @@ func (b LaserBalance) LossKinds() []string {
 
 // Budget is the power and beam budget of a whole setup.
 type Budget struct {
-	Setup    *setup.Setup
-	Paths    []*PathBudget
-	Balances []*LaserBalance
+	Setup *setup.Setup
+	// AtOperating marks a budget whose clouds absorb at each laser's
+	// operating power (ComputeAtOperating: the drive's figures and the
+	// tables people read); otherwise at its maximum power (Compute: the
+	// hazards, where the more saturated cloud lets more light on).
+	AtOperating bool
+	Paths       []*PathBudget
+	Balances    []*LaserBalance
 	// AssumedLossless counts the elements whose loss was not stated.
 	AssumedLossless int
 }
@@ -191,8 +196,16 @@ func (b *Budget) Path(name string) *PathBudget {
 // Compute propagates every beam and accounts for its power. Paths are
 // taken in an order where the paths feeding one (through a splitter or a
 // combiner) come first; every beam a feeding path carries goes on into it.
-func Compute(s *setup.Setup) (*Budget, error) {
-	out := &Budget{Setup: s}
+func Compute(s *setup.Setup) (*Budget, error) { return compute(s, false) }
+
+// ComputeAtOperating is Compute with the clouds absorbing at each laser's
+// operating power: a saturable cloud scatters a different fraction at
+// another power, so the power scattered and the power after a cloud are
+// figures of one power or the other, never a mix.
+func ComputeAtOperating(s *setup.Setup) (*Budget, error) { return compute(s, true) }
+
+func compute(s *setup.Setup, atOperating bool) (*Budget, error) {
+	out := &Budget{Setup: s, AtOperating: atOperating}
 	balances := map[*setup.Laser]*LaserBalance{}
 	for _, las := range s.Lasers {
 		bal := &LaserBalance{Laser: las, Lost: map[string]float64{}}
@@ -243,7 +256,7 @@ func Compute(s *setup.Setup) (*Budget, error) {
 			}
 		}
 		for _, pb := range beams {
-			if err := pb.propagate(s.File, followed, clouds); err != nil {
+			if err := pb.propagate(s.File, followed, clouds, atOperating); err != nil {
 				return nil, err
 			}
 			if pb.IsJoined() {
@@ -301,7 +314,11 @@ func (pb *PathBudget) row(e *setup.Element) *Row {
 }
 
 // propagate walks the beam through the path's elements from First.
-func (pb *PathBudget) propagate(file string, followed map[*setup.Element]*setup.Path, clouds map[string]*setup.Cloud) error {
+func (pb *PathBudget) propagate(file string, followed map[*setup.Element]*setup.Path, clouds map[string]*setup.Cloud, atOperating bool) error {
+	power := pb.Laser.Power
+	if atOperating {
+		power = pb.Laser.OperatingPower
+	}
 	p := pb.Path
 	beam := pb.Start
 	frac := pb.StartFraction
@@ -332,7 +349,7 @@ func (pb *PathBudget) propagate(file string, followed map[*setup.Element]*setup.
 			}
 			frac *= row.ClipFraction
 		}
-		st := &stage{pb: pb, followed: followed, clouds: clouds, index: len(pb.Rows), lastLens: lastLens, beam: beam, frac: frac, row: &row, joining: joining}
+		st := &stage{pb: pb, followed: followed, clouds: clouds, index: len(pb.Rows), lastLens: lastLens, beam: beam, frac: frac, row: &row, joining: joining, power: power}
 		effects[e.Type](st, el)
 		beam, frac, lastLens = st.beam, st.frac, st.lastLens
 		if !beam.Valid() {

@@ -38,6 +38,8 @@ type stage struct {
 	row      *Row
 	// joining is set at the combiner where the beam joins the path.
 	joining bool
+	// power is the laser's power the clouds absorb at, W.
+	power float64
 }
 
 // lose records a named loss of a fraction f of the source's power.
@@ -101,12 +103,13 @@ func applyAperture(s *stage, e *setup.Element) {
 
 func applyAtoms(s *stage, e *setup.Element) {
 	s.stated(LossAbsorption, e.Transmission)
-	// The cloud scatters what it absorbs, at the laser's maximum power
-	// (the most that saturation lets through: conservative downstream).
+	// The cloud scatters what it absorbs, at the budget's power: the
+	// maximum for the hazards (the most that saturation lets through:
+	// conservative downstream), the operating power for the drive.
 	if c := s.clouds[e.Cloud]; c != nil && c.Data != nil && s.frac > 0 {
 		col := ColumnFor(s.pb, s.pb.First+s.index, s.row.Element, c)
 		wx, wy := s.beam.Radii()
-		t := col.Absorb(s.frac*s.pb.Laser.Power, wx, wy).Transmission
+		t := col.Absorb(s.frac*s.power, wx, wy).Transmission
 		s.lose(LossScattered, s.frac*(1-t))
 		s.frac *= t
 	}

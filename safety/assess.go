@@ -48,20 +48,23 @@ func Evaluate(s *setup.Setup) (*Assessment, error) { return EvaluateWith(s, Defa
 
 // EvaluateWith is Evaluate with the tolerance analysis's options.
 func EvaluateWith(s *setup.Setup, o Options) (*Assessment, error) {
-	b, err := budget.Compute(s)
+	b, err := budget.ComputeAtOperating(s)
 	if err != nil {
 		return nil, err
 	}
-	a := &Assessment{Setup: s, Budget: b, Atoms: drive.Evaluate(b), HazardBudget: b}
+	a := &Assessment{Setup: s, Budget: b, Atoms: drive.Evaluate(b)}
 	a.Clouds = drive.Clouds(b, a.Atoms)
-	// Hazards at the conservative end of every tolerance: the highest
-	// transmission of each toleranced loss value.
+	// Hazards at each laser's maximum power (a saturable cloud passes
+	// more of it), and at the conservative end of every tolerance: the
+	// highest transmission of each toleranced loss value.
 	hs := s
 	if len(s.Tolerances) > 0 {
 		hs = ConservativeSetup(s)
-		if a.HazardBudget, err = budget.Compute(hs); err != nil {
-			return nil, err
-		}
+	}
+	if a.HazardBudget, err = budget.Compute(hs); err != nil {
+		return nil, err
+	}
+	if len(s.Tolerances) > 0 {
 		var progress func(int)
 		if o.Progress != nil {
 			progress = func(done int) { o.Progress(done, o.Samples) }

@@ -55,7 +55,7 @@ type goalRef struct {
 // margins computes every referenced goal's margin for setup s.
 func margins(s *setup.Setup, refs []goalRef) []float64 {
 	out := make([]float64, len(refs))
-	b, err := budget.Compute(s)
+	b, err := budget.ComputeAtOperating(s)
 	if err != nil {
 		for i := range out {
 			out[i] = math.Inf(-1)
