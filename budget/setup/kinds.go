@@ -235,6 +235,11 @@ func readGoal(t *table, goal *string, value **float64, factor *float64, upper *b
 	case GoalTrapDepth:
 		// A depth may be given as U/h, in Hz: converted to U/k_B.
 		if v, ok := m[key].(string); ok {
+			if _, d, err := units.ParseQuantity(v); err == nil && d != units.Frequency && d != units.Temperature {
+				t.get(key)
+				t.fail(key, "%q is %s; want a trap depth as U/k_B (a temperature, e.g. \"0.5 mK\") or U/h (a frequency, e.g. \"20 MHz\")", v, units.Describe(d))
+				break
+			}
 			if _, d, err := units.ParseQuantity(v); err == nil && d == units.Frequency {
 				if f := t.positivePtr(key, units.Frequency, "a trap depth U/h"); f != nil {
 					k := atoms.DepthTemperature(*f)

@@ -192,6 +192,12 @@ func (w *writer) section(n int, s report.Section) {
 			continue
 		case b.Paragraph != "":
 			f.SetFont(font, "", 9)
+			// A short paragraph (a path's opening line) stays with the
+			// start of what it introduces.
+			if h := float64(len(wrap(f, b.Paragraph, w.textW))) * lineH; h < 40 {
+				w.need(h + w.leadHeight(s.Blocks, i+1))
+				f.SetFont(font, "", 9)
+			}
 			f.MultiCell(w.textW, lineH, b.Paragraph, "", "L", false)
 			f.Ln(1)
 		case b.Bullets != nil:
@@ -236,7 +242,11 @@ func (w *writer) leadHeight(blocks []report.Block, i int) float64 {
 		return 7 + w.leadHeight(blocks, i+1)
 	case b.Paragraph != "":
 		f.SetFont(font, "", 9)
-		return float64(min(3, len(wrap(f, b.Paragraph, w.textW)))) * lineH
+		n := len(wrap(f, b.Paragraph, w.textW))
+		if h := float64(n) * lineH; h < 40 {
+			return h + w.leadHeight(blocks, i+1) // a short one keeps with what follows
+		}
+		return 3 * lineH
 	case len(b.Bullets) > 0:
 		f.SetFont(font, "", 9)
 		return float64(len(wrap(f, strings.TrimPrefix(b.Bullets[0], report.Nested), w.textW-9))) * lineH
