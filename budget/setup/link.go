@@ -182,6 +182,18 @@ func (l *loader) linewidthDetunings(s *Setup, clouds map[string]*Cloud, locs map
 				e.Detuning = &hz
 			}
 		}
+		// A path that ends at a combiner takes its laser on along the
+		// other path's elements after it.
+		for q, seen := p, map[*Path]bool{}; q.IntoPath != nil && !seen[q]; q = q.IntoPath {
+			seen[q] = true
+			after := false
+			for _, e := range q.IntoPath.Elements {
+				if c := clouds[e.Cloud]; after && e.Type == TypeAtoms && c != nil && c.Data != nil {
+					gammaOf[p.Laser] = append(gammaOf[p.Laser], c.Data.Gamma)
+				}
+				after = after || e == q.IntoPort
+			}
+		}
 	}
 	for i, las := range s.Lasers {
 		if las.DetuningLinewidths == nil {

@@ -2,6 +2,7 @@ package setup
 
 import (
 	"errors"
+	"math"
 	"os"
 	"strings"
 	"testing"
@@ -54,5 +55,49 @@ func TestOneErrorPerSlip(t *testing.T) {
 		if !errors.As(err, &ie) || len(ie.Problems) != 1 || !strings.Contains(ie.Problems[0], c.want) {
 			t.Errorf("%s: %v, want one problem saying %q", c.file, err, c.want)
 		}
+	}
+}
+
+// A laser's detuning in linewidths takes Γ of the clouds its beam reaches,
+// also through a combiner on another path (Steck, Rubidium 87 D Line Data,
+// table 3: Γ/2π = 6.0666 MHz, so −2 Γ is −12.13 MHz).
+func TestLinewidthDetuningThroughACombiner(t *testing.T) {
+	src := `
+[[laser]]
+name = "main"
+wavelength = "1064 nm"
+power = "1 W"
+waist = "1 mm"
+
+[[laser]]
+name = "probe"
+wavelength = "780.241 nm"
+power = "1 mW"
+waist = "1 mm"
+detuning = "-2 Γ"
+
+[[path]]
+name = "main"
+from = "main"
+element = [{ type = "combiner", name = "dc", at = "100 mm", transmission = 0.9, join_transmission = 0.9 }, { type = "atoms", at = "300 mm", cloud = "c" }, { type = "dump", at = "500 mm" }]
+
+[[path]]
+name = "probe"
+from = "probe"
+into = "main:dc"
+into_at = "200 mm"
+
+[[cloud]]
+name = "c"
+transition = "Rb87 D2"
+atoms = 1e5
+rms_size = ["10 um", "10 um", "10 um"]
+`
+	s, err := Parse("t.toml", []byte(src))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := s.Lasers[1].Detuning; math.Abs(got+2*6.0666e6) > 1e3 {
+		t.Errorf("detuning %g Hz, want −12.13 MHz", got)
 	}
 }

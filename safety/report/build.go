@@ -44,6 +44,10 @@ func Build(a *safety.Assessment, m Meta) *Document {
 		}
 	}
 	dg := view.BuildDigest(a)
+	if len(dg.Physicist) == 0 {
+		// A heading never stands without content.
+		dg.Physicist = []string{"no atoms element: the setup describes no light at atoms"}
+	}
 	d.Sections = append(d.Sections, Section{Heading: "At a glance", Blocks: []Block{
 		{Subheading: "For the laser safety officer"}, {Bullets: dg.Officer},
 		{Subheading: "For the physicist (at the operating powers)"}, {Bullets: dg.Physicist},

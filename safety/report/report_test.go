@@ -92,3 +92,21 @@ func TestModelSince(t *testing.T) {
 	}
 	safetytest.Golden(t, filepath.Join("testdata", "golden", "table-c-rev4-since.txt"), b.String(), *update)
 }
+
+// A subheading always has content under it: it is neither the last block
+// of its section nor followed by an empty block (a digest with nothing for
+// the physicist says so in a line).
+func TestSubheadingsHaveContent(t *testing.T) {
+	empty := func(b Block) bool {
+		return b.Subheading == "" && b.Paragraph == "" && len(b.Bullets) == 0 && b.Table == nil && b.Plot == nil && b.Drawing == nil && b.SignOff == nil
+	}
+	safetytest.ForEachExample(t, "../..", func(t *testing.T, base, f string) {
+		for _, s := range buildFor(t, f).Sections {
+			for i, b := range s.Blocks {
+				if b.Subheading != "" && (i+1 == len(s.Blocks) || empty(s.Blocks[i+1]) || s.Blocks[i+1].Subheading != "") {
+					t.Errorf("section %q: subheading %q has no content under it", s.Heading, b.Subheading)
+				}
+			}
+		}
+	})
+}
