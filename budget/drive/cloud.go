@@ -58,8 +58,16 @@ type CloudResult struct {
 	SaturationTotal, ScatteringRate float64
 	Goal                            *CloudGoal
 
-	hint *[3]float64 // the trap minimum of the operating powers, to start a goal's trial searches from
+	// hint and saddle are the trap minimum and escape saddle of the
+	// operating powers (or, once the goal is solved, of the goal's powers),
+	// to start a goal's trial searches from.
+	hint, saddle *[3]float64
 }
+
+// trapHints are a trap's minimum and escape saddle, where a search of a
+// nearby field (the same beams at other powers) starts: a tolerance
+// sample's goal starts from the nominal goal's.
+type trapHints struct{ minimum, saddle *[3]float64 }
 
 // Trap is the trap the far-detuned beams make together, found numerically.
 type Trap struct {
@@ -71,9 +79,12 @@ type Trap struct {
 	// Minimum is the minimum's offset from the cloud position, m.
 	Minimum [3]float64
 	// Depth is the lowest barrier to escape from the minimum, J, and Escape
-	// the direction it lies in.
+	// the direction it lies in. Saddle is where the barrier is when it lies
+	// off every straight ray from the minimum (nil when a straight ray's
+	// barrier is the lowest found).
 	Depth  float64
 	Escape [3]float64
+	Saddle *[3]float64
 	// Frequencies are the harmonic trap frequencies at the minimum, Hz,
 	// ascending, along Axes (unit vectors in the cloud frame).
 	Frequencies [3]float64
@@ -120,6 +131,8 @@ type CloudGoal struct {
 	// operating powers may be scaled by, Met says k ≥ 1, and MarginDB is
 	// +10 log10 k.
 	Upper bool
+
+	hints trapHints // the trap's at the factor found, for the tolerance samples
 }
 
 // field is the combined potential of far-detuned beams with gravity.
@@ -133,6 +146,11 @@ type field struct {
 	// trial marks a goal's trial search: only the depth is wanted, not the
 	// profile for the plot.
 	trial bool
+	// saddle, when set, is where a search of a nearby field found the
+	// escape saddle: the search refines it from there alone. Otherwise
+	// flood asks for the grid search of saddle.go.
+	saddle *[3]float64
+	flood  bool
 }
 
 type fieldBeam struct {
@@ -330,9 +348,31 @@ func (f *field) findTrap() Trap {
 			}
 		}
 	}
+	// The straight rays bound the depth from above; the lowest saddle on
+	// a bent way out may lie lower (saddle.go). A lattice's sites are left
+	// to the straight rays: the barrier to the next site is no escape.
+	var fr *frame
+	if t.Depth > 0 && !f.lattice() && (f.saddle != nil || f.flood) {
+		fr = f.principalFrame(best, t.Axes, vmin, t.Depth, reach)
+		var s [3]float64
+		ok := false
+		if f.saddle != nil {
+			s, ok = f.refineSaddle(fr, *f.saddle, v0)
+		} else {
+			s, ok = f.floodSaddle(fr, vmin, t.Depth, reach, v0)
+		}
+		if d := f.V(s) - vmin; ok && d > 0 && d < t.Depth {
+			t.Depth, t.Saddle = d, &s
+			t.Escape = numeric.Normalize([3]float64{s[0] - best[0], s[1] - best[1], s[2] - best[2]})
+		}
+	}
 	t.Holds = t.Depth > 0
 	t.Depth = math.Max(t.Depth, 0)
 	if f.trial {
+		return t
+	}
+	if t.Saddle != nil {
+		t.Profile = f.escapeProfile(fr, best, *t.Saddle)
 		return t
 	}
 	// The potential along the escape direction, for the plot.
@@ -453,7 +493,7 @@ func (f *field) barrier(r [3]float64, vmin float64, d [3]float64, t0, tmax float
 func Clouds(b *budget.Budget, drive []*AtomsResult) []*CloudResult {
 	var out []*CloudResult
 	for _, c := range b.Setup.Clouds {
-		if cr := cloudResult(c, drive, true); cr != nil {
+		if cr := cloudResult(c, drive, true, nil); cr != nil {
 			out = append(out, cr)
 		}
 	}
@@ -463,11 +503,14 @@ func Clouds(b *budget.Budget, drive []*AtomsResult) []*CloudResult {
 // cloudResult counts the beams in drive that reach cloud c together (nil
 // when none does); full also asks the findings' questions (a tolerance
 // sample needs only the goal).
-func cloudResult(c *setup.Cloud, drive []*AtomsResult, full bool) *CloudResult {
+func cloudResult(c *setup.Cloud, drive []*AtomsResult, full bool, given *trapHints) *CloudResult {
 	if c.Data == nil {
 		return nil
 	}
 	cr := &CloudResult{Cloud: c, DifferentialShift: math.NaN()}
+	if given != nil {
+		cr.hint, cr.saddle = given.minimum, given.saddle
+	}
 	var prev []*CloudBeam
 	for _, a := range drive {
 		if a.Cloud != c {
@@ -495,7 +538,7 @@ func cloudResult(c *setup.Cloud, drive []*AtomsResult, full bool) *CloudResult {
 	}
 	cr.evaluate(nil, 1, full)
 	if c.Goal != "" {
-		cr.Goal = cr.goal()
+		cr.Goal = cr.goal(given == nil)
 	}
 	return cr
 }
@@ -539,8 +582,10 @@ func (cr *CloudResult) evaluate(scaled []*setup.Laser, k float64, full bool) {
 	c := cr.Cloud
 	tr := c.Data
 	f := cr.fieldOf(scaled, k, true)
-	if !full {
-		f.hint, f.trial = cr.hint, true
+	if full {
+		f.flood = true
+	} else {
+		f.hint, f.trial, f.saddle = cr.hint, true, cr.saddle
 	}
 	cr.PotentialAtCloud = f.V([3]float64{})
 	var at [3]float64
@@ -555,7 +600,7 @@ func (cr *CloudResult) evaluate(scaled []*setup.Laser, k float64, full bool) {
 			at = t.Minimum
 			if full {
 				m := t.Minimum
-				cr.hint = &m
+				cr.hint, cr.saddle = &m, t.Saddle
 			}
 		}
 		if full && !t.Holds && numeric.Dot(c.Down, c.Down) > 0 {
@@ -687,7 +732,7 @@ func (cr *CloudResult) metric(lasers []*setup.Laser, k float64) float64 {
 // that just meets the cloud's goal, by bisection on log k (every figure
 // grows with the power; the trap depth is not linear in it once gravity
 // counts).
-func (cr *CloudResult) goal() *CloudGoal {
+func (cr *CloudResult) goal(verify bool) *CloudGoal {
 	c := cr.Cloud
 	tr := c.Data
 	g := &CloudGoal{Kind: c.Goal, Factor: c.GoalFactor, Lasers: cr.goalLasers(), Upper: c.GoalMax}
@@ -727,6 +772,24 @@ func (cr *CloudResult) goal() *CloudGoal {
 		γ = 0.5
 	}
 	hi, ok := numeric.SolveScale(func(k float64) float64 { return cr.metric(g.Lasers, k) }, g.Target, γ)
+	// A trap's depth at the factor found is checked by a search of its
+	// own: where the way out crosses another saddle there, the factor is
+	// solved again from it (a tolerance sample keeps the nominal's).
+	for round := 0; ok && verify && c.Goal == setup.GoalTrapDepth && round < 3; round++ {
+		f := cr.fieldOf(g.Lasers, hi, true)
+		f.hint, f.trial, f.flood = cr.hint, true, true
+		t := f.findTrap()
+		if !t.Found || t.Saddle == nil {
+			break
+		}
+		m := t.Minimum
+		cr.hint, cr.saddle = &m, t.Saddle
+		if t.Depth/atoms.KB >= g.Target*(1-1e-4) {
+			break
+		}
+		hi, ok = numeric.SolveScale(func(k float64) float64 { return cr.metric(g.Lasers, k) }, g.Target, γ)
+	}
+	g.hints = trapHints{cr.hint, cr.saddle}
 	if !ok {
 		g.Impossible = fmt.Sprintf("even a million times the operating powers of %s does not reach it", laserNames(g.Lasers))
 		return g
@@ -817,22 +880,44 @@ func normalizeOr(a [3]float64) [3]float64 {
 // trapDepthScale is the factor k on a single far-detuned beam's power at
 // which its own trap, found at its real minimum with the cloud's gravity,
 // is depth deep (J), by bisection on log k; why says why there is none.
-func trapDepthScale(a *AtomsResult, depth float64) (k float64, why string) {
+// The trap's escape saddle is searched for at the operating power and
+// again at the factor found, which is solved again from a lower saddle
+// found there; given (a tolerance sample) starts from the nominal's and
+// is not searched again. hints are the trap's at the factor found.
+func trapDepthScale(a *AtomsResult, depth float64, given *trapHints) (k float64, hints trapHints, why string) {
 	c := a.Cloud
 	if c.Data.Mass == 0 {
-		return 0, "the transition's data give no mass"
+		return 0, hints, "the transition's data give no mass"
 	}
 	n := a.Row.Element.Direction
 	u, v := setup.BeamAxes(n)
 	beam := a.Row.BeamIn
-	var hint *[3]float64
-	at := func(k float64) float64 {
-		f := &field{mass: c.Data.Mass, down: c.Down, hint: hint, trial: true, beams: []fieldBeam{{x: beam.X, y: beam.Y, λ: beam.Wavelength, power: k * a.Power,
+	fieldAt := func(k float64) *field {
+		return &field{mass: c.Data.Mass, down: c.Down, hint: hints.minimum, saddle: hints.saddle, trial: true, beams: []fieldBeam{{x: beam.X, y: beam.Y, λ: beam.Wavelength, power: k * a.Power,
 			perI: a.Dipole.PerIntensity, n: n, u: u, v: v, laser: a.Path.Laser}}}
+	}
+	// search is a trap search at factor k that floods for the saddle.
+	search := func(k float64) Trap {
+		f := fieldAt(k)
+		f.saddle, f.flood = nil, true
 		t := f.findTrap()
-		if hint == nil && t.Found {
+		if t.Found {
 			m := t.Minimum
-			hint = &m
+			hints = trapHints{&m, t.Saddle}
+		}
+		return t
+	}
+	if given != nil {
+		hints = *given
+	} else {
+		search(1)
+	}
+	at := func(k float64) float64 {
+		f := fieldAt(k)
+		t := f.findTrap()
+		if hints.minimum == nil && t.Found {
+			m := t.Minimum
+			hints.minimum = &m
 		}
 		if !t.Holds {
 			return 0
@@ -840,10 +925,16 @@ func trapDepthScale(a *AtomsResult, depth float64) (k float64, why string) {
 		return t.Depth
 	}
 	k, ok := numeric.SolveScale(at, depth, 1)
-	if !ok {
-		return 0, "even a million times the power makes no trap that deep against gravity"
+	for round := 0; ok && given == nil && round < 3; round++ {
+		if t := search(k); !t.Found || t.Saddle == nil || t.Depth >= depth*(1-1e-4) {
+			break
+		}
+		k, ok = numeric.SolveScale(at, depth, 1)
 	}
-	return k, ""
+	if !ok {
+		return 0, hints, "even a million times the power makes no trap that deep against gravity"
+	}
+	return k, hints, ""
 }
 
 // beyondNames lists the lasers a cloud goal would take past their maximum

@@ -108,6 +108,8 @@ type GoalResult struct {
 	// "all" (then Fraction of the atoms, density-weighted, must reach it).
 	At       string
 	Fraction float64
+
+	hints trapHints // a trap-depth goal's trap at the factor found, for the tolerance samples
 }
 
 // Drive evaluates every atoms element of the budget.
@@ -131,7 +133,7 @@ func driveAll(b *budget.Budget, full bool) []*AtomsResult {
 				if c == nil || c.Data == nil {
 					continue
 				}
-				out = append(out, atomsAt(b, pb, r, c, full))
+				out = append(out, atomsAt(b, pb, r, c, full, nil))
 			}
 		}
 	}
@@ -140,8 +142,8 @@ func driveAll(b *budget.Budget, full bool) []*AtomsResult {
 
 // atomsAt evaluates the drive at one atoms element; full also integrates
 // the cloud's absorption over the beam (a tolerance sample needs only the
-// goal's margin).
-func atomsAt(b *budget.Budget, pb *budget.PathBudget, r *budget.Row, c *setup.Cloud, full bool) *AtomsResult {
+// goal's margin, and given are the nominal goal's trap hints).
+func atomsAt(b *budget.Budget, pb *budget.PathBudget, r *budget.Row, c *setup.Cloud, full bool, given *trapHints) *AtomsResult {
 	las := pb.Laser
 	tr := c.Data
 	a := &AtomsResult{Path: pb, Row: r, Cloud: c, Transition: tr}
@@ -206,7 +208,7 @@ func atomsAt(b *budget.Budget, pb *budget.PathBudget, r *budget.Row, c *setup.Cl
 	// A goal is the path's own laser's; another laser's beam on the path
 	// is shown beside it.
 	if e := r.Element; e.Goal != "" && !pb.IsJoined() {
-		a.Goal = goalOf(b, a, e, full)
+		a.Goal = goalOf(b, a, e, full, given)
 	}
 	return a
 }
@@ -226,7 +228,7 @@ func axialCurvature(beam optics.Beam) float64 {
 }
 
 // goal works out the power a goal needs at the atoms and at the laser.
-func goalOf(b *budget.Budget, a *AtomsResult, e *setup.Element, full bool) *GoalResult {
+func goalOf(b *budget.Budget, a *AtomsResult, e *setup.Element, full bool, given *trapHints) *GoalResult {
 	tr := a.Transition
 	g := &GoalResult{Kind: e.Goal, Available: a.Path.Laser.OperatingPower, Factor: 1, Upper: e.GoalMax}
 	if a.NearLine != "" {
@@ -253,7 +255,8 @@ func goalOf(b *budget.Budget, a *AtomsResult, e *setup.Element, full bool) *Goal
 		default:
 			// Judged at the beam's real trap minimum, with gravity: the
 			// factor on the power whose trap is just that deep.
-			k, why := trapDepthScale(a, g.Target*atoms.KB)
+			k, hints, why := trapDepthScale(a, g.Target*atoms.KB, given)
+			g.hints = hints
 			if why != "" {
 				g.Impossible = why
 			} else {

@@ -88,12 +88,12 @@ func TestDemoTrapDepth(t *testing.T) {
 	}
 	g := a.Goal
 	// The goal's power makes a trap whose depth, at its real minimum (here
-	// 180 µm from the cloud, at the beam's focus) and with gravity, is the
-	// target.
+	// 180 µm from the cloud, at the beam's focus) and with gravity, over
+	// the lowest saddle of a flooded search, is the target.
 	k := g.Intensity / a.PeakIrradiance
 	n := a.Row.Element.Direction
 	u, v := setup.BeamAxes(n)
-	f := &field{mass: a.Cloud.Data.Mass, down: a.Cloud.Down, beams: []fieldBeam{{x: a.Row.BeamIn.X, y: a.Row.BeamIn.Y, λ: a.Row.BeamIn.Wavelength, power: k * a.Power, perI: a.Dipole.PerIntensity, n: n, u: u, v: v}}}
+	f := &field{mass: a.Cloud.Data.Mass, down: a.Cloud.Down, flood: true, beams: []fieldBeam{{x: a.Row.BeamIn.X, y: a.Row.BeamIn.Y, λ: a.Row.BeamIn.Wavelength, power: k * a.Power, perI: a.Dipole.PerIntensity, n: n, u: u, v: v}}}
 	if tr := f.findTrap(); !tr.Holds || !near(tr.Depth/atoms.KB, 0.5e-3, 1e-3) { // the bisection stops at 1e-3
 		t.Errorf("the goal's power makes a trap %g K deep (holds %v), want 0.5 mK", tr.Depth/atoms.KB, tr.Holds)
 	}

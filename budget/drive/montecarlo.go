@@ -50,6 +50,7 @@ type Contributor struct {
 type goalRef struct {
 	path, element int
 	cloud         int
+	hints         *trapHints // the nominal goal's trap, where a sample's search starts
 }
 
 // margins computes every referenced goal's margin for setup s.
@@ -72,7 +73,7 @@ func margins(s *setup.Setup, refs []goalRef) []float64 {
 			if drive == nil {
 				drive = driveAll(b, false)
 			}
-			cr := cloudResult(s.Clouds[ref.cloud], drive, false)
+			cr := cloudResult(s.Clouds[ref.cloud], drive, false, ref.hints)
 			if cr != nil && cr.Goal != nil && cr.Goal.Impossible == "" {
 				out[i] = cr.Goal.MarginDB
 			} else {
@@ -82,7 +83,7 @@ func margins(s *setup.Setup, refs []goalRef) []float64 {
 		}
 		pb := b.Paths[ref.path]
 		r := &pb.Rows[ref.element]
-		a := atomsAt(b, pb, r, clouds[r.Element.Cloud], false)
+		a := atomsAt(b, pb, r, clouds[r.Element.Cloud], false, ref.hints)
 		if g := a.Goal; g != nil && g.Impossible == "" {
 			out[i] = g.MarginDB
 		} else {
@@ -124,12 +125,17 @@ func TolerancesWithProgress(s *setup.Setup, drive []*AtomsResult, samples int, s
 		if a.Goal == nil || a.Path.IsJoined() {
 			continue
 		}
-		refs = append(refs, goalRef{slices.Index(s.Paths, a.Path.Path), a.Path.RowIndex(a.Row), -1})
+		h := a.Goal.hints
+		refs = append(refs, goalRef{slices.Index(s.Paths, a.Path.Path), a.Path.RowIndex(a.Row), -1, &h})
 		owners = append(owners, a)
 	}
 	for i, c := range s.Clouds {
 		if c.Goal != "" {
-			refs = append(refs, goalRef{cloud: i})
+			ref := goalRef{cloud: i}
+			if cr := cloudResult(c, drive, true, nil); cr != nil && cr.Goal != nil {
+				ref.hints = &cr.Goal.hints
+			}
+			refs = append(refs, ref)
 			owners = append(owners, c)
 		}
 	}

@@ -103,14 +103,26 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 			F(Num(dForceAtCloudG, t.ForceAtCloud, fmtG(t.ForceAtCloud))).
 			F(NumList(dEscapeDirection, t.Escape[:], vec(t.Escape))).
 			F(Absent(dTrapNote, true))
+		if t.Saddle != nil {
+			r.F(NumList(dEscapeSaddleM, t.Saddle[:], lengths(*t.Saddle)))
+		} else {
+			r.F(Absent(dEscapeSaddleM, false))
+		}
 		if math.IsNaN(t.Lattice) {
 			r.F(Absent(dLatticeFrequencyHz, false))
 		} else {
 			r.F(Num(dLatticeFrequencyHz, t.Lattice, units.FormatFrequency(t.Lattice)))
 		}
+		depth := "  depth U/k_B = {trap_depth_k}: the lowest barrier from the minimum along straight lines (along each beam beyond the others, across the beams, along gravity and the principal axes), towards {escape_direction}; no lower saddle found on a bent way out; holds against gravity: {holds_against_gravity}"
+		switch {
+		case t.Saddle != nil:
+			depth = "  depth U/k_B = {trap_depth_k}: the lowest saddle on the way out, at {escape_saddle_m} from the cloud (towards {escape_direction} from the minimum), lower than along any straight line from the minimum; holds against gravity: {holds_against_gravity}"
+		case lattice(cr):
+			depth = "  depth U/k_B = {trap_depth_k}: the lowest barrier from the minimum along straight lines (along each beam beyond the others, across the beams, along gravity and the principal axes), towards {escape_direction}; a lattice's bent ways out are not searched; holds against gravity: {holds_against_gravity}"
+		}
 		r.After = append(r.After,
 			"  trap minimum {trap_minimum_offset_m} from the cloud (x, y, z); force at the cloud {force_at_cloud_g} g",
-			"  depth U/k_B = {trap_depth_k}: the lowest barrier from the minimum (along each beam beyond the others, across the beams, along gravity and the principal axes), towards {escape_direction}; holds against gravity: {holds_against_gravity}",
+			depth,
 			"  trap frequencies {trap_frequencies_hz} along the principal axes {trap_axes}; sag under gravity g/ω² = {gravity_sag_m}")
 		if !math.IsNaN(t.Lattice) {
 			r.After = append(r.After, "  standing wave: lattice spacing λ/2, axial lattice frequency {lattice_frequency_hz} (Grimm et al. 2000)")
@@ -189,4 +201,9 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 	}
 	r.O("goal", goal, true)
 	return r
+}
+
+// lattice says whether a standing wave's return pass reaches the cloud.
+func lattice(cr *drive.CloudResult) bool {
+	return slices.ContainsFunc(cr.Beams, func(cb *drive.CloudBeam) bool { return cb.Forward != nil && cb.Far })
 }

@@ -100,6 +100,7 @@ var (
 	dForceAtCloudG                      = &Desc{"force_at_cloud_g", "force at the cloud", "Trap.ForceAtCloud"}
 	dLatticeFrequencyHz                 = &Desc{"lattice_frequency_hz", "lattice frequency", "Trap.Lattice"}
 	dEscapeDirection                    = &Desc{"escape_direction", "escape", "Trap.Escape"}
+	dEscapeSaddleM                      = &Desc{"escape_saddle_m", "escape saddle", "Trap.Saddle"}
 	dTrapNote                           = &Desc{"trap_note", "trap", "Trap.Skipped"}
 	dGroundLightShiftHz                 = &Desc{"ground_light_shift_hz", "ground light shift", "CloudResult.GroundShift"}
 	dDifferentialLightShiftHz           = &Desc{"differential_light_shift_hz", "differential light shift", "CloudResult.DifferentialShift"}

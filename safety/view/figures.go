@@ -93,14 +93,29 @@ func BuildFigures(a *safety.Assessment) *Figures {
 }
 
 // potentialPlot is the combined potential along the weakest escape
-// direction through the trap minimum, gravity included, in mK.
+// direction through the trap minimum, or along the way out over the
+// lowest saddle where that lies off every straight line, gravity
+// included, in mK.
 func potentialPlot(t *drive.Trap) *Plot {
 	pl := &Plot{Title: "combined potential along the weakest escape direction, through the trap minimum", XLabel: "distance from the minimum (mm)", YLabel: "U/k_B (mK)"}
+	if t.Saddle != nil {
+		pl.Title, pl.XLabel = "combined potential along the way out from the trap minimum over its lowest saddle", "distance along the way out (mm)"
+	}
 	var xs, ys []float64
 	for _, p := range t.Profile {
 		xs, ys = append(xs, p[0]*1e3), append(ys, p[1]*1e3)
 	}
 	pl.Series = append(pl.Series, Series{Name: "U/k_B, gravity included", X: xs, Y: ys})
+	if t.Saddle != nil {
+		// The way out's highest point is the saddle.
+		top := 0
+		for i := range ys {
+			if ys[i] > ys[top] {
+				top = i
+			}
+		}
+		pl.Markers = append(pl.Markers, Marker{X: xs[top], Label: "saddle"})
+	}
 	return pl
 }
 
