@@ -179,20 +179,43 @@ func (col CloudColumn) FractionAbove(i0, wx, wy, sGoal float64) float64 {
 
 // ColumnFor is cloud c as the beam pb sees it at element k of its path
 // (element e): the peak resonant optical depth across the beam's planes,
-// the detuning factor at the light's detuning there and the cloud's I_sat.
-func ColumnFor(pb *PathBudget, k int, e *setup.Element, c *setup.Cloud) CloudColumn {
+// the detuning factor at the light's detuning there (DetuningAtAtoms, with
+// the trap's differential light shift δ on the cloud, Hz) and the cloud's
+// I_sat.
+func ColumnFor(pb *PathBudget, k int, e *setup.Element, c *setup.Cloud, δ float64) CloudColumn {
 	tr := c.Data
 	isat, _, _ := tr.Isat(c.Saturation)
 	u, v := setup.BeamAxes(e.Direction)
 	σx, σy := c.RMSAlong(u), c.RMSAlong(v)
 	σ0 := atoms.CrossSection(tr.Wavelength, tr.Gamma, isat)
+	Δ, _, _ := DetuningAtAtoms(pb, k, e, c, δ)
+	return CloudColumn{B0: atoms.OpticalDepth(σ0, c.Atoms, σx, σy), σx: σx, σy: σy, A: atoms.DetuningFactor(Δ, tr.Gamma), isat: isat}
+}
+
+// DetuningAtAtoms is the detuning from cloud c's transition of the light
+// pb carries to atoms element e (row k of its path), rad/s: the stated or
+// derived one (setup.DetuningAt; the element's own only for the path's
+// own laser) and, for near-resonant light (within setup.FarDetuningFactor
+// linewidths), the trap's differential light shift δ on the cloud (Hz,
+// excited minus ground, at the trap minimum) taken off (TrapShifted).
+// included is the shift taken off (0 for far-detuned light), source where
+// the detuning came from.
+func DetuningAtAtoms(pb *PathBudget, k int, e *setup.Element, c *setup.Cloud, δ float64) (Δ, included float64, source string) {
 	var own *setup.Element
 	if !pb.IsJoined() {
 		own = e
 	}
-	Δ, _ := setup.DetuningAt(pb.Laser, own, pb.ShiftBefore(k), tr)
-	return CloudColumn{B0: atoms.OpticalDepth(σ0, c.Atoms, σx, σy), σx: σx, σy: σy, A: atoms.DetuningFactor(Δ, tr.Gamma), isat: isat}
+	Δ, source = setup.DetuningAt(pb.Laser, own, pb.ShiftBefore(k), c.Data)
+	if δ != 0 && math.Abs(Δ) <= setup.FarDetuningFactor*c.Data.Gamma {
+		return TrapShifted(Δ, δ), δ, source
+	}
+	return Δ, 0, source
 }
+
+// TrapShifted is the detuning of light at Δ (rad/s) from a transition the
+// trap light shifts by δ (Hz, the excited state's shift less the ground
+// state's): Δ − 2π δ, since the resonance moves to ω0 + 2π δ.
+func TrapShifted(Δ, δ float64) float64 { return Δ - 2*math.Pi*δ }
 
 // IncidentForFraction is the peak incident s (units of I_sat) at which the
 // share frac of the atoms reaches sGoal, by bisection on log s (the share

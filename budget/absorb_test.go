@@ -113,7 +113,7 @@ rms_size = ["1 mm", "1 mm", "1 mm"]
 		t.Fatal(err)
 	}
 	pb := op.Paths[0]
-	col := ColumnFor(pb, 0, pb.Rows[0].Element, s.Clouds[0])
+	col := ColumnFor(pb, 0, pb.Rows[0].Element, s.Clouds[0], 0)
 	wx, wy := pb.Rows[0].BeamIn.Radii()
 	for _, c := range []struct {
 		name  string

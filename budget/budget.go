@@ -177,8 +177,11 @@ type Budget struct {
 	// tables people read); otherwise at its maximum power (Compute: the
 	// hazards, where the more saturated cloud lets more light on).
 	AtOperating bool
-	Paths       []*PathBudget
-	Balances    []*LaserBalance
+	// Shifts are the trap's differential light shifts on the clouds, Hz,
+	// in the near-resonant light's detuning (nil: none).
+	Shifts   map[*setup.Cloud]float64
+	Paths    []*PathBudget
+	Balances []*LaserBalance
 	// AssumedLossless counts the elements whose loss was not stated.
 	AssumedLossless int
 }
@@ -196,16 +199,25 @@ func (b *Budget) Path(name string) *PathBudget {
 // Compute propagates every beam and accounts for its power. Paths are
 // taken in an order where the paths feeding one (through a splitter or a
 // combiner) come first; every beam a feeding path carries goes on into it.
-func Compute(s *setup.Setup) (*Budget, error) { return compute(s, false) }
+func Compute(s *setup.Setup) (*Budget, error) { return compute(s, false, nil) }
 
 // ComputeAtOperating is Compute with the clouds absorbing at each laser's
 // operating power: a saturable cloud scatters a different fraction at
 // another power, so the power scattered and the power after a cloud are
 // figures of one power or the other, never a mix.
-func ComputeAtOperating(s *setup.Setup) (*Budget, error) { return compute(s, true) }
+func ComputeAtOperating(s *setup.Setup) (*Budget, error) { return compute(s, true, nil) }
 
-func compute(s *setup.Setup, atOperating bool) (*Budget, error) {
-	out := &Budget{Setup: s, AtOperating: atOperating}
+// ComputeShifted is Compute (atOperating false) or ComputeAtOperating with
+// the trap's differential light shift on each cloud (Hz) in the
+// near-resonant light's detuning there (DetuningAtAtoms); where a shift is
+// given, the hazards' budget lets through the more of with and without it
+// (the trap may be off).
+func ComputeShifted(s *setup.Setup, atOperating bool, shifts map[*setup.Cloud]float64) (*Budget, error) {
+	return compute(s, atOperating, shifts)
+}
+
+func compute(s *setup.Setup, atOperating bool, shifts map[*setup.Cloud]float64) (*Budget, error) {
+	out := &Budget{Setup: s, AtOperating: atOperating, Shifts: shifts}
 	balances := map[*setup.Laser]*LaserBalance{}
 	for _, las := range s.Lasers {
 		bal := &LaserBalance{Laser: las, Lost: map[string]float64{}}
@@ -256,7 +268,7 @@ func compute(s *setup.Setup, atOperating bool) (*Budget, error) {
 			}
 		}
 		for _, pb := range beams {
-			if err := pb.propagate(s.File, followed, clouds, atOperating); err != nil {
+			if err := pb.propagate(s.File, followed, clouds, atOperating, shifts); err != nil {
 				return nil, err
 			}
 			if pb.IsJoined() {
@@ -314,7 +326,7 @@ func (pb *PathBudget) row(e *setup.Element) *Row {
 }
 
 // propagate walks the beam through the path's elements from First.
-func (pb *PathBudget) propagate(file string, followed map[*setup.Element]*setup.Path, clouds map[string]*setup.Cloud, atOperating bool) error {
+func (pb *PathBudget) propagate(file string, followed map[*setup.Element]*setup.Path, clouds map[string]*setup.Cloud, atOperating bool, shifts map[*setup.Cloud]float64) error {
 	power := pb.Laser.Power
 	if atOperating {
 		power = pb.Laser.OperatingPower
@@ -349,7 +361,7 @@ func (pb *PathBudget) propagate(file string, followed map[*setup.Element]*setup.
 			}
 			frac *= row.ClipFraction
 		}
-		st := &stage{pb: pb, followed: followed, clouds: clouds, index: len(pb.Rows), lastLens: lastLens, beam: beam, frac: frac, row: &row, joining: joining, power: power}
+		st := &stage{pb: pb, followed: followed, clouds: clouds, index: len(pb.Rows), lastLens: lastLens, beam: beam, frac: frac, row: &row, joining: joining, power: power, atOperating: atOperating, shifts: shifts}
 		effects[e.Type](st, el)
 		beam, frac, lastLens = st.beam, st.frac, st.lastLens
 		if !beam.Valid() {

@@ -38,8 +38,12 @@ type stage struct {
 	row      *Row
 	// joining is set at the combiner where the beam joins the path.
 	joining bool
-	// power is the laser's power the clouds absorb at, W.
-	power float64
+	// power is the laser's power the clouds absorb at, W; atOperating says
+	// it is the operating power (the drive's budget), not the maximum.
+	power       float64
+	atOperating bool
+	// shifts are the trap's differential light shifts on the clouds, Hz.
+	shifts map[*setup.Cloud]float64
 }
 
 // lose records a named loss of a fraction f of the source's power.
@@ -105,11 +109,17 @@ func applyAtoms(s *stage, e *setup.Element) {
 	s.stated(LossAbsorption, e.Transmission)
 	// The cloud scatters what it absorbs, at the budget's power: the
 	// maximum for the hazards (the most that saturation lets through:
-	// conservative downstream), the operating power for the drive.
+	// conservative downstream), the operating power for the drive; near
+	// resonance at the detuning the trap's light shift leaves.
 	if c := s.clouds[e.Cloud]; c != nil && c.Data != nil && s.frac > 0 {
-		col := ColumnFor(s.pb, s.pb.First+s.index, s.row.Element, c)
+		δ := s.shifts[c]
 		wx, wy := s.beam.Radii()
-		t := col.Absorb(s.frac*s.power, wx, wy).Transmission
+		t := ColumnFor(s.pb, s.pb.First+s.index, s.row.Element, c, δ).Absorb(s.frac*s.power, wx, wy).Transmission
+		if δ != 0 && !s.atOperating {
+			// For the hazards the trap may be off while this light is on:
+			// the more that gets through of the two.
+			t = math.Max(t, ColumnFor(s.pb, s.pb.First+s.index, s.row.Element, c, 0).Absorb(s.frac*s.power, wx, wy).Transmission)
+		}
 		s.lose(LossScattered, s.frac*(1-t))
 		s.frac *= t
 	}

@@ -48,7 +48,7 @@ func Evaluate(s *setup.Setup) (*Assessment, error) { return EvaluateWith(s, Defa
 
 // EvaluateWith is Evaluate with the tolerance analysis's options.
 func EvaluateWith(s *setup.Setup, o Options) (*Assessment, error) {
-	b, err := budget.ComputeAtOperating(s)
+	b, err := drive.Budget(s, true)
 	if err != nil {
 		return nil, err
 	}
@@ -61,7 +61,7 @@ func EvaluateWith(s *setup.Setup, o Options) (*Assessment, error) {
 	if len(s.Tolerances) > 0 {
 		hs = ConservativeSetup(s)
 	}
-	if a.HazardBudget, err = budget.Compute(hs); err != nil {
+	if a.HazardBudget, err = drive.Budget(hs, false); err != nil {
 		return nil, err
 	}
 	if len(s.Tolerances) > 0 {

@@ -493,7 +493,7 @@ func (f *field) barrier(r [3]float64, vmin float64, d [3]float64, t0, tmax float
 func Clouds(b *budget.Budget, drive []*AtomsResult) []*CloudResult {
 	var out []*CloudResult
 	for _, c := range b.Setup.Clouds {
-		if cr := cloudResult(c, drive, true, nil); cr != nil {
+		if cr := cloudResult(c, drive, pass{full: true, goals: true}); cr != nil {
 			out = append(out, cr)
 		}
 	}
@@ -501,16 +501,29 @@ func Clouds(b *budget.Budget, drive []*AtomsResult) []*CloudResult {
 }
 
 // cloudResult counts the beams in drive that reach cloud c together (nil
-// when none does); full also asks the findings' questions (a tolerance
-// sample needs only the goal).
-func cloudResult(c *setup.Cloud, drive []*AtomsResult, full bool, given *trapHints) *CloudResult {
+// when none does), for the pass p.
+func cloudResult(c *setup.Cloud, drive []*AtomsResult, p pass) *CloudResult {
 	if c.Data == nil {
 		return nil
 	}
-	cr := &CloudResult{Cloud: c, DifferentialShift: math.NaN()}
-	if given != nil {
-		cr.hint, cr.saddle = given.minimum, given.saddle
+	cr := beamsAt(c, drive)
+	if cr == nil {
+		return nil
 	}
+	if p.given != nil {
+		cr.hint, cr.saddle = p.given.minimum, p.given.saddle
+	}
+	cr.evaluate(nil, 1, p.full)
+	if p.goals && c.Goal != "" {
+		cr.Goal = cr.goal(p.given == nil)
+	}
+	return cr
+}
+
+// beamsAt gathers the beams in drive that reach cloud c (nil when none
+// does), each with how it counts.
+func beamsAt(c *setup.Cloud, drive []*AtomsResult) *CloudResult {
+	cr := &CloudResult{Cloud: c, DifferentialShift: math.NaN()}
 	var prev []*CloudBeam
 	for _, a := range drive {
 		if a.Cloud != c {
@@ -536,10 +549,6 @@ func cloudResult(c *setup.Cloud, drive []*AtomsResult, full bool, given *trapHin
 	if len(cr.Beams) == 0 {
 		return nil
 	}
-	cr.evaluate(nil, 1, full)
-	if c.Goal != "" {
-		cr.Goal = cr.goal(given == nil)
-	}
 	return cr
 }
 
@@ -547,6 +556,12 @@ func cloudResult(c *setup.Cloud, drive []*AtomsResult, full bool, given *trapHin
 // lasers in scaled multiplied by k (all lasers when scaled is nil and k is
 // 1), with or without gravity.
 func (cr *CloudResult) fieldOf(scaled []*setup.Laser, k float64, gravity bool) *field {
+	return cr.fieldAt(scaled, k, gravity, false)
+}
+
+// fieldAt is fieldOf, with every laser at its maximum power instead of
+// its operating power where maximum is set.
+func (cr *CloudResult) fieldAt(scaled []*setup.Laser, k float64, gravity, maximum bool) *field {
 	f := &field{mass: cr.Cloud.Data.Mass, beams: make([]fieldBeam, 0, len(cr.Beams))}
 	if gravity {
 		f.down = cr.Cloud.Down
@@ -558,6 +573,9 @@ func (cr *CloudResult) fieldOf(scaled []*setup.Laser, k float64, gravity bool) *
 		}
 		a := cb.Atoms
 		p := a.Row.FractionIn * a.Path.Laser.OperatingPower
+		if maximum {
+			p = a.Row.FractionIn * a.Path.Laser.Power
+		}
 		if slices.Contains(scaled, a.Path.Laser) {
 			p *= k
 		}
@@ -617,27 +635,7 @@ func (cr *CloudResult) evaluate(scaled []*setup.Laser, k float64, full bool) {
 		cr.Trap = &t
 	}
 	// Light shifts at the trap minimum (or the cloud).
-	cr.GroundShift = 0
-	differential, known := 0.0, true
-	for _, b := range f.beams {
-		u := b.potential(at)
-		cr.GroundShift += u / atoms.H
-		i := b.intensity(at)
-		if b.back != nil {
-			i = u / b.perI
-		}
-		αe, ok := c.ExcitedPolarizability[b.laser.Name]
-		if !ok {
-			known = false
-			continue
-		}
-		ue := ExcitedShiftPerIntensity(αe) * i
-		differential += (ue - u) / atoms.H
-	}
-	cr.DifferentialShift = math.NaN()
-	if known && len(f.beams) > 0 {
-		cr.DifferentialShift = differential
-	}
+	cr.GroundShift, cr.DifferentialShift = f.lightShifts(at, c)
 	// Near-resonant beams at the cloud centre; a standing wave's return
 	// pass joins its forward pass coherently, (√s₁ + √s₂)².
 	var s, Δs []float64
@@ -656,9 +654,11 @@ func (cr *CloudResult) evaluate(scaled []*setup.Laser, k float64, full bool) {
 			s[j] = StandingWavePotential(s[j], si)
 			continue
 		}
-		Δ := a.Detuning
+		// The element's detuning holds the shift at the operating powers;
+		// here the one at these powers replaces it.
+		Δ := budget.TrapShifted(a.Detuning, -a.TrapShift)
 		if !math.IsNaN(cr.DifferentialShift) {
-			Δ -= 2 * math.Pi * cr.DifferentialShift
+			Δ = budget.TrapShifted(Δ, cr.DifferentialShift)
 		}
 		index[cb] = len(s)
 		s = append(s, si)
@@ -671,6 +671,33 @@ func (cr *CloudResult) evaluate(scaled []*setup.Laser, k float64, full bool) {
 	for i, si := range s {
 		cr.ScatteringRate += MultiBeamScattering(tr.Gamma, si, cr.SaturationTotal, Δs[i])
 	}
+}
+
+// lightShifts are the light shifts of the far-detuned beams at r: the
+// ground state's U/h and the transition's (U_e − U_g)/h, Hz (NaN when
+// excited_polarizability does not give U_e for every beam's laser, or no
+// beam is far detuned). A standing wave's intensity at r is its combined
+// potential over U/I.
+func (f *field) lightShifts(r [3]float64, c *setup.Cloud) (ground, differential float64) {
+	known := len(f.beams) > 0
+	for _, b := range f.beams {
+		u := b.potential(r)
+		ground += u / atoms.H
+		i := b.intensity(r)
+		if b.back != nil {
+			i = u / b.perI
+		}
+		αe, ok := c.ExcitedPolarizability[b.laser.Name]
+		if !ok {
+			known = false
+			continue
+		}
+		differential += (ExcitedShiftPerIntensity(αe)*i - u) / atoms.H
+	}
+	if !known {
+		differential = math.NaN()
+	}
+	return ground, differential
 }
 
 // ExcitedShiftPerIntensity is the light shift per unit intensity of a state

@@ -31,9 +31,13 @@ type AtomsResult struct {
 	// FocusOffset is the distance from the cloud to the x and y waists, m
 	// (positive: downstream).
 	FocusOffset [2]float64
-	// Detuning Δ = ω_laser − ω_atom, rad/s, and where it came from.
+	// Detuning Δ = ω_laser − ω_atom, rad/s, and where it came from; for
+	// near-resonant light the transition is the one the trap's light shift
+	// leaves at the trap minimum, and TrapShift is that differential shift
+	// (Hz, excited minus ground; 0 when none is included).
 	Detuning       float64
 	DetuningSource string
+	TrapShift      float64
 	Isat           float64 // W/m²
 	IsatNote       string
 	Saturation     float64
@@ -113,10 +117,21 @@ type GoalResult struct {
 }
 
 // Drive evaluates every atoms element of the budget.
-func Evaluate(b *budget.Budget) []*AtomsResult { return driveAll(b, true) }
+func Evaluate(b *budget.Budget) []*AtomsResult { return driveAll(b, pass{full: true, goals: true}) }
 
-// driveAll is Drive; full as for atomsAt.
-func driveAll(b *budget.Budget, full bool) []*AtomsResult {
+// pass is what one evaluation of the drive is for.
+type pass struct {
+	// full: the figures of the output, not just a goal's margin (the
+	// cloud's absorption integrated over the beam, the findings' questions).
+	full bool
+	// goals: solve the goals.
+	goals bool
+	// given: a tolerance sample's start, the nominal goal's trap.
+	given *trapHints
+}
+
+// driveAll is Evaluate for the pass p.
+func driveAll(b *budget.Budget, p pass) []*AtomsResult {
 	clouds := map[string]*setup.Cloud{}
 	for _, c := range b.Setup.Clouds {
 		clouds[c.Name] = c
@@ -133,17 +148,15 @@ func driveAll(b *budget.Budget, full bool) []*AtomsResult {
 				if c == nil || c.Data == nil {
 					continue
 				}
-				out = append(out, atomsAt(b, pb, r, c, full, nil))
+				out = append(out, atomsAt(b, pb, r, c, p))
 			}
 		}
 	}
 	return out
 }
 
-// atomsAt evaluates the drive at one atoms element; full also integrates
-// the cloud's absorption over the beam (a tolerance sample needs only the
-// goal's margin, and given are the nominal goal's trap hints).
-func atomsAt(b *budget.Budget, pb *budget.PathBudget, r *budget.Row, c *setup.Cloud, full bool, given *trapHints) *AtomsResult {
+// atomsAt evaluates the drive at one atoms element for the pass p.
+func atomsAt(b *budget.Budget, pb *budget.PathBudget, r *budget.Row, c *setup.Cloud, p pass) *AtomsResult {
 	las := pb.Laser
 	tr := c.Data
 	a := &AtomsResult{Path: pb, Row: r, Cloud: c, Transition: tr}
@@ -161,19 +174,15 @@ func atomsAt(b *budget.Budget, pb *budget.PathBudget, r *budget.Row, c *setup.Cl
 		a.EndRadii[k] = [2]float64{ex, ey}
 	}
 	a.FocusOffset = [2]float64{beam.X.WaistDistance(), beam.Y.WaistDistance()}
-	var own *setup.Element // the element's stated detuning is for the path's own laser
-	if !pb.IsJoined() {
-		own = r.Element
-	}
-	a.Detuning, a.DetuningSource = setup.DetuningAt(las, own, pb.ShiftBefore(pb.First+pb.RowIndex(r)), tr)
+	a.Detuning, a.TrapShift, a.DetuningSource = budget.DetuningAtAtoms(pb, pb.First+pb.RowIndex(r), r.Element, c, b.Shifts[c])
 	a.Isat, a.IsatNote, _ = tr.Isat(c.Saturation)
 	a.Saturation = atoms.Saturation(a.PeakIrradiance, a.Isat)
 	a.Rabi = atoms.Rabi(tr.Gamma, a.Saturation)
 	a.CrossSection = atoms.CrossSection(tr.Wavelength, tr.Gamma, a.Isat)
 	a.OpticalDepth = atoms.OpticalDepth(a.CrossSection, c.Atoms, σu, σv)
 	a.FractionAboveGoal = math.NaN()
-	if full {
-		col := budget.ColumnFor(pb, pb.First+pb.RowIndex(r), r.Element, c)
+	if p.full {
+		col := budget.ColumnFor(pb, pb.First+pb.RowIndex(r), r.Element, c, b.Shifts[c])
 		a.Absorption = col.Absorb(a.Power, wx, wy)
 		a.ScatteredPower = a.Power * (1 - a.Absorption.Transmission)
 	}
@@ -207,8 +216,8 @@ func atomsAt(b *budget.Budget, pb *budget.PathBudget, r *budget.Row, c *setup.Cl
 	}
 	// A goal is the path's own laser's; another laser's beam on the path
 	// is shown beside it.
-	if e := r.Element; e.Goal != "" && !pb.IsJoined() {
-		a.Goal = goalOf(b, a, e, full, given)
+	if e := r.Element; p.goals && e.Goal != "" && !pb.IsJoined() {
+		a.Goal = goalOf(b, a, e, p)
 	}
 	return a
 }
@@ -228,7 +237,7 @@ func axialCurvature(beam optics.Beam) float64 {
 }
 
 // goal works out the power a goal needs at the atoms and at the laser.
-func goalOf(b *budget.Budget, a *AtomsResult, e *setup.Element, full bool, given *trapHints) *GoalResult {
+func goalOf(b *budget.Budget, a *AtomsResult, e *setup.Element, p pass) *GoalResult {
 	tr := a.Transition
 	g := &GoalResult{Kind: e.Goal, Available: a.Path.Laser.OperatingPower, Factor: 1, Upper: e.GoalMax}
 	if a.NearLine != "" {
@@ -255,7 +264,7 @@ func goalOf(b *budget.Budget, a *AtomsResult, e *setup.Element, full bool, given
 		default:
 			// Judged at the beam's real trap minimum, with gravity: the
 			// factor on the power whose trap is just that deep.
-			k, hints, why := trapDepthScale(a, g.Target*atoms.KB, given)
+			k, hints, why := trapDepthScale(a, g.Target*atoms.KB, p.given)
 			g.hints = hints
 			if why != "" {
 				g.Impossible = why
@@ -283,7 +292,7 @@ func goalOf(b *budget.Budget, a *AtomsResult, e *setup.Element, full bool, given
 	g.At, g.Fraction = e.GoalAt, e.GoalFraction
 	if g.Impossible == "" && e.Goal != setup.GoalTrapDepth {
 		sGoal := g.Intensity / a.Isat
-		col := budget.ColumnFor(a.Path, a.Path.First+a.Path.RowIndex(a.Row), e, a.Cloud)
+		col := budget.ColumnFor(a.Path, a.Path.First+a.Path.RowIndex(a.Row), e, a.Cloud, b.Shifts[a.Cloud])
 		wx, wy := a.Row.BeamIn.Radii()
 		switch g.At {
 		case setup.GoalAtExit:
@@ -293,7 +302,7 @@ func goalOf(b *budget.Budget, a *AtomsResult, e *setup.Element, full bool, given
 		default:
 			g.Intensity = a.Isat * atoms.IncomingIntensity(sGoal, col.B0*atoms.ColumnFraction(0), col.A)
 		}
-		if full {
+		if p.full {
 			a.FractionAboveGoal = col.FractionAbove(a.PeakIrradiance/a.Isat, wx, wy, sGoal)
 		}
 	}

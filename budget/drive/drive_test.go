@@ -357,7 +357,7 @@ func TestScatteredByTheAtoms(t *testing.T) {
 		}
 	}
 	wx, wy := r.BeamIn.Radii()
-	col := budget.ColumnFor(a.Path, a.Path.First+a.Path.RowIndex(r), r.Element, a.Cloud)
+	col := budget.ColumnFor(a.Path, a.Path.First+a.Path.RowIndex(r), r.Element, a.Cloud, 0)
 	atMax := col.Absorb(r.FractionIn*a.Path.Laser.Power, wx, wy).Transmission
 	if want := r.FractionIn * (1 - atMax); math.Abs(scattered-want) > 1e-12 || scattered <= 0 {
 		t.Errorf("scattered %g of the source, want %g", scattered, want)
@@ -381,7 +381,7 @@ func TestGoalAtExitAndAll(t *testing.T) {
 		t.Errorf("exit: ln(s_in) + s_in − 1 = %g, want b0 Φ(2) = %g", rel, a.OpticalDepth*atoms.ColumnFraction(2))
 	}
 	a, _ = goalFor(t, "goal = \"saturation\"\n  goal_value = 1\n  goal_at = \"all\"\n  goal_fraction = 0.8", "")
-	col := budget.ColumnFor(a.Path, a.Path.First+a.Path.RowIndex(a.Row), a.Row.Element, a.Cloud)
+	col := budget.ColumnFor(a.Path, a.Path.First+a.Path.RowIndex(a.Row), a.Row.Element, a.Cloud, 0)
 	wx, wy := a.Row.BeamIn.Radii()
 	if f := col.FractionAbove(a.Goal.Intensity/20, wx, wy, 1); math.Abs(f-0.8) > 1e-3 || a.Goal.At != setup.GoalAtAll || a.Goal.Fraction != 0.8 {
 		t.Errorf("all: %g of the atoms above the goal at the goal's drive, want 0.8", f)

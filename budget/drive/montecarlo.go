@@ -1,7 +1,6 @@
 package drive
 
 import (
-	"beamledger/budget"
 	"beamledger/budget/numeric"
 	"beamledger/budget/setup"
 	"math"
@@ -56,7 +55,7 @@ type goalRef struct {
 // margins computes every referenced goal's margin for setup s.
 func margins(s *setup.Setup, refs []goalRef) []float64 {
 	out := make([]float64, len(refs))
-	b, err := budget.ComputeAtOperating(s)
+	b, err := Budget(s, true)
 	if err != nil {
 		for i := range out {
 			out[i] = math.Inf(-1)
@@ -71,9 +70,9 @@ func margins(s *setup.Setup, refs []goalRef) []float64 {
 	for i, ref := range refs {
 		if ref.cloud >= 0 {
 			if drive == nil {
-				drive = driveAll(b, false)
+				drive = driveAll(b, pass{goals: true})
 			}
-			cr := cloudResult(s.Clouds[ref.cloud], drive, false, ref.hints)
+			cr := cloudResult(s.Clouds[ref.cloud], drive, pass{goals: true, given: ref.hints})
 			if cr != nil && cr.Goal != nil && cr.Goal.Impossible == "" {
 				out[i] = cr.Goal.MarginDB
 			} else {
@@ -83,7 +82,7 @@ func margins(s *setup.Setup, refs []goalRef) []float64 {
 		}
 		pb := b.Paths[ref.path]
 		r := &pb.Rows[ref.element]
-		a := atomsAt(b, pb, r, clouds[r.Element.Cloud], false, ref.hints)
+		a := atomsAt(b, pb, r, clouds[r.Element.Cloud], pass{goals: true, given: ref.hints})
 		if g := a.Goal; g != nil && g.Impossible == "" {
 			out[i] = g.MarginDB
 		} else {
@@ -132,7 +131,7 @@ func TolerancesWithProgress(s *setup.Setup, drive []*AtomsResult, samples int, s
 	for i, c := range s.Clouds {
 		if c.Goal != "" {
 			ref := goalRef{cloud: i}
-			if cr := cloudResult(c, drive, true, nil); cr != nil && cr.Goal != nil {
+			if cr := cloudResult(c, drive, pass{full: true, goals: true}); cr != nil && cr.Goal != nil {
 				ref.hints = &cr.Goal.hints
 			}
 			refs = append(refs, ref)

@@ -46,6 +46,7 @@ func (b *builder) atomsRecord(a *drive.AtomsResult) Record {
 	r.F(hzField(dAtomsResultDetuningHz, a.Detuning)).
 		F(Num(dDetuningLinewidths, a.Detuning/tr.Gamma, units.FormatNumber(a.Detuning/tr.Gamma)+" Γ")).
 		F(Str(dDetuningSource, a.DetuningSource)).
+		F(Num(dTrapLightShiftHz, a.TrapShift, units.FormatFrequency(a.TrapShift))).
 		F(Irr(dSaturationIntensityWM2, a.Isat)).
 		F(Str(dSaturationIntensityKind, a.IsatNote)).
 		F(num(dSaturation, a.Saturation)).
@@ -93,7 +94,11 @@ func (b *builder) atomsRecord(a *drive.AtomsResult) Record {
 	r.Line("  beam: Wx {radius_x_m}, Wy {radius_y_m}; waist {focus_x} (x), {focus_y} (y) from the cloud (+ downstream)")
 	r.Line("  power {power_w}, peak irradiance {peak_irradiance_w_m2}")
 	r.Line(fmt.Sprintf("  across the cloud: I at ±1 rms is {irradiance_at_rms_x_relative} (x), {irradiance_at_rms_y_relative} (y) of the centre; W at ±1 rms along the beam (%s): {radius_at_cloud_ends_m}", units.FormatLength(a.Cloud.RMSAlong(a.Row.Element.Direction))))
-	r.Line("  detuning Δ/2π = {detuning_hz} = {detuning_linewidths} ({detuning_source})")
+	if a.TrapShift != 0 {
+		r.Line("  detuning Δ/2π = {detuning_hz} = {detuning_linewidths} ({detuning_source}), from the transition as the trap's light shifts it at the trap minimum: its differential light shift {trap_light_shift_hz} is taken off")
+	} else {
+		r.Line("  detuning Δ/2π = {detuning_hz} = {detuning_linewidths} ({detuning_source})")
+	}
 	r.Line("  I_sat = {saturation_intensity_w_m2} ({saturation_intensity_kind})")
 	switch {
 	case a.NearLine != "":

@@ -137,7 +137,7 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 		r.After = append(r.After, "  light shift of the ground state {ground_light_shift_hz} at the trap minimum (at the cloud when there is none); the excited state's shift is not included (give excited_polarizability for every trap laser)")
 	default:
 		r.F(Num(dDifferentialLightShiftHz, cr.DifferentialShift, units.FormatFrequency(cr.DifferentialShift)))
-		r.After = append(r.After, "  light shift of the ground state {ground_light_shift_hz}, of the transition (excited − ground) {differential_light_shift_hz} at the trap minimum, added to the near-resonant beams' detuning")
+		r.After = append(r.After, "  light shift of the ground state {ground_light_shift_hz}, of the transition (excited − ground) {differential_light_shift_hz} at the trap minimum, taken off the near-resonant beams' detunings here and at their atoms elements")
 	}
 	r.F(Plain(dSaturationTotal, cr.SaturationTotal)).F(Num(dCloudResultScatteringRatePerS, cr.ScatteringRate, fmtG(cr.ScatteringRate)+" photons/s"))
 	if slices.ContainsFunc(cr.Beams, func(cb *drive.CloudBeam) bool { return cb.Near }) {

@@ -196,6 +196,7 @@ var (
 	dD                                  = &Desc{"d", "", "Collective.D"}
 	dDefaultsAssumed                    = &Desc{"defaults_assumed", "defaults assumed", "Hazards.DefaultsAssumed"}
 	dDetuningSource                     = &Desc{"detuning_source", "detuning from", "AtomsResult.DetuningSource"}
+	dTrapLightShiftHz                   = &Desc{"trap_light_shift_hz", "trap's light shift taken off", "AtomsResult.TrapShift"}
 	dDipolePotentialHz                  = &Desc{"dipole_potential_hz", "U/h", "DipoleResult.Depth"}
 	dDipolePotentialK                   = &Desc{"dipole_potential_k", "U/k_B", "DipoleResult.Depth"}
 	dDumpedW                            = &Desc{"dumped_w", "dumps", "LaserBalance.Dumped"}
