@@ -2,6 +2,7 @@ package budget
 
 import (
 	"math"
+	"slices"
 	"sync"
 
 	"gonum.org/v1/gonum/integrate/quad"
@@ -147,35 +148,89 @@ func (col CloudColumn) Absorb(p, wx, wy float64) Absorption {
 // along each ray the atoms in front of the depth b* where s falls to
 // sGoal, b* = a ln(i_in/s_goal) + i_in − s_goal, are above it, so the ray
 // contributes min(b, b*) of its column b.
+//
+// The rays that reach sGoal at all fill the ellipse 2x²/wx² + 2y²/wy² < L,
+// L = ln(i0/sGoal). With x = wx √(t/2) cos θ, y = wy √(t/2) sin θ the
+// beam's s on a ray is i0 e^(−t), the column b = B0 e^(−q(θ) t) with
+// q = wx² cos²θ/(4σx²) + wy² sin²θ/(4σy²), dx dy = (wx wy/4) dt dθ, and the
+// share is (wx wy/(2π σx σy B0)) ∫_0^(π/2) ∫_0^L min(b, b*) dt dθ (the four
+// quadrants alike; the denominator ∬ b = 2π σx σy B0). Each ray's t
+// integral is split where b = b* (the kink) and every piece taken by
+// Gauss–Legendre, so the result is smooth in θ and the θ rule converges
+// fast: a share that barely moves with the drive is found to well within
+// 0.1 % (TestFractionAboveAgainstReferences).
 func (col CloudColumn) FractionAbove(i0, wx, wy, sGoal float64) float64 {
-	nodes := legendre()
 	if !(col.B0 > 0) {
 		if i0 >= sGoal {
 			return 1
 		}
 		return 0
 	}
-	X, Y := 6*col.σx, 6*col.σy
-	var ix, iy, bx, by [quadNodes]float64
-	for k, u := range nodes.x {
-		x, y := u*X, u*Y
-		ix[k], iy[k] = math.Exp(-2*x*x/(wx*wx)), math.Exp(-2*y*y/(wy*wy))
-		bx[k], by[k] = math.Exp(-x*x/(2*col.σx*col.σx)), math.Exp(-y*y/(2*col.σy*col.σy))
+	L := math.Log(i0 / sGoal)
+	if !(L > 0) {
+		return 0
 	}
-	num, den := 0.0, 0.0
-	for i := range nodes.x {
-		for j := range nodes.x {
-			in := i0 * ix[i] * iy[j]
-			b := col.B0 * bx[i] * by[j]
-			w := nodes.w[i] * nodes.w[j]
-			den += w * b
-			if in > sGoal {
-				num += w * math.Min(b, col.A*math.Log(in/sGoal)+in-sGoal)
-			}
+	nodes := legendre16()
+	bStar := func(t float64) float64 { return col.A*(L-t) + i0*(math.Exp(-t)-math.Exp(-L)) }
+	// pieceSum is ∫ min(b, b*) dt over [t0, t1] for the column's rate q.
+	piece := func(q, t0, t1 float64) float64 {
+		sum := 0.0
+		for k, u := range nodes.x {
+			t := t0 + (u+1)/2*(t1-t0)
+			sum += nodes.w[k] * math.Min(col.B0*math.Exp(-q*t), bStar(t))
 		}
+		return sum * (t1 - t0) / 2
 	}
-	return num / den
+	const samples = 12
+	total := 0.0
+	var ts []float64
+	for k, u := range nodes.x {
+		θ := (u + 1) / 2 * math.Pi / 2
+		c, s := math.Cos(θ), math.Sin(θ)
+		q := wx*wx*c*c/(4*col.σx*col.σx) + wy*wy*s*s/(4*col.σy*col.σy)
+		g := func(t float64) float64 { return col.B0*math.Exp(-q*t) - bStar(t) }
+		// The break points: even steps in t, the column's own scale
+		// 1/q (a beam much wider than the cloud sees the column fall
+		// within a small t), and the kinks between them.
+		ts = ts[:0]
+		for j := 0; j <= samples; j++ {
+			ts = append(ts, L*float64(j)/samples)
+		}
+		for m := 1.0; m/q < L && m <= 256; m *= 4 {
+			ts = append(ts, m/q)
+		}
+		slices.Sort(ts)
+		ray := 0.0
+		for j := 1; j < len(ts); j++ {
+			t0, t1 := ts[j-1], ts[j]
+			if g0, g1 := g(t0), g(t1); (g0 < 0) != (g1 < 0) {
+				// The kink, by bisection to the float's precision.
+				lo, hi := t0, t1
+				for hi-lo > 1e-13*L {
+					mid := (lo + hi) / 2
+					if (g(mid) < 0) == (g0 < 0) {
+						lo = mid
+					} else {
+						hi = mid
+					}
+				}
+				ray += piece(q, t0, lo) + piece(q, lo, t1)
+				continue
+			}
+			ray += piece(q, t0, t1)
+		}
+		total += nodes.w[k] * ray
+	}
+	total *= math.Pi / 4 // the θ nodes' scale
+	return math.Min(1, wx*wy*total/(2*math.Pi*col.σx*col.σy*col.B0))
 }
+
+// legendre16 holds 16 Gauss–Legendre nodes and weights on [−1, 1].
+var legendre16 = sync.OnceValue(func() (n struct{ x, w []float64 }) {
+	n.x, n.w = make([]float64, 16), make([]float64, 16)
+	quad.Legendre{}.FixedLocations(n.x, n.w, -1, 1)
+	return n
+})
 
 // ColumnFor is cloud c as the beam pb sees it at element k of its path
 // (element e): the peak resonant optical depth across the beam's planes,
