@@ -295,3 +295,43 @@ func TestDepthTemperature(t *testing.T) {
 		t.Errorf("1 mK: U/h = %g Hz, want 20.84 MHz", got)
 	}
 }
+
+// The recoil temperature of the ⁸⁷Rb D2 line: T_r = 361.96 nK (Steck,
+// "Rubidium 87 D Line Data", rev. 2.2.1 (2019), Table 5, with
+// λ = 780.241 209 686 nm and m = 1.443 160 648 × 10⁻²⁵ kg), and of the Cs D2
+// line: 198.34 nK (Steck, "Cesium D Line Data", rev. 2.2.1, Table 5: λ =
+// 852.347 275 82 nm, m = 2.206 946 94 × 10⁻²⁵ kg). Both tables from memory.
+func TestRecoilTemperatureAgainstSteck(t *testing.T) {
+	for _, c := range []struct{ λ, m, want float64 }{
+		{780.241209686e-9, 1.443160648e-25, 361.96e-9},
+		{852.34727582e-9, 2.20694694e-25, 198.34e-9},
+	} {
+		if got := RecoilTemperature(c.λ, c.m); math.Abs(got-c.want) > 1e-4*c.want {
+			t.Errorf("T_r(%g m) = %g K, want %g K", c.λ, got, c.want)
+		}
+	}
+}
+
+// Heating by hand: a trap scattering 1 photon/s at 1064 nm on ⁸⁷Rb
+// (T_r = 194.64 nK there, ħ²k²/(m k_B) by hand) warms by T_r/3 per
+// second; a 100 µK trap is climbed by U/(k_B T_r) = 513.8 random photons,
+// or by N = (√(1 + 8U/(k_B T_r)) − 1)/2 = 31.56 photons pushed along one
+// beam.
+func TestRecoilHeatingByHand(t *testing.T) {
+	tr := RecoilTemperature(1064e-9, 1.443160648e-25)
+	k := 2 * math.Pi / 1064e-9
+	if want := Hbar * Hbar * k * k / (1.443160648e-25 * KB); math.Abs(tr-want) > 1e-12*want || math.Abs(tr-194.64e-9) > 0.01e-9 {
+		t.Fatalf("T_r = %g K, want %g K (194.64 nK)", tr, want)
+	}
+	if got := RecoilHeatingRate(tr, 1); math.Abs(got-tr/3) > 1e-15 {
+		t.Errorf("heating %g K/s, want T_r/3", got)
+	}
+	U := 100e-6 * KB
+	if got := PhotonsToHeatOut(U, tr); math.Abs(got-100e-6/tr) > 1e-9*got || math.Abs(got-513.77) > 0.01 {
+		t.Errorf("photons to heat out %g, want 100 µK/T_r = %g", got, 100e-6/tr)
+	}
+	n := PhotonsToPushOut(U, tr)
+	if erec := KB * tr / 2; math.Abs((n*n+n)*erec-U) > 1e-9*U || math.Abs(n-31.56) > 0.01 {
+		t.Errorf("photons to push out %g: (N² + N) E_rec = %g J, want U = %g J", n, (n*n+n)*erec, U)
+	}
+}

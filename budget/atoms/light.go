@@ -86,3 +86,39 @@ func DepthTemperature(uOverH float64) float64 { return H * uOverH / KB }
 // DepthFrequency is a trap depth U/k_B (K) expressed as U/h (Hz): k_B T / h,
 // the inverse of DepthTemperature.
 func DepthFrequency(uOverKB float64) float64 { return KB * uOverKB / H }
+
+// RecoilTemperature is T_r = ħ²k²/(m k_B) with k = 2π/λ: twice the
+// kinetic energy of an atom of mass m (kg) that has absorbed one photon of
+// wavelength λ (m), as a temperature, K (the recoil temperature of Steck's
+// alkali D-line data; Grimm, Weidemüller and Ovchinnikov (2000) write the
+// same k_B T_rec = ħ²k²/m).
+func RecoilTemperature(λ, m float64) float64 {
+	k := 2 * math.Pi / λ
+	return Hbar * Hbar * k * k / (m * KB)
+}
+
+// RecoilHeatingRate is the heating of atoms in a far-detuned trap by the
+// trap light's spontaneous scattering, K/s: every scattered photon gives
+// on average 2 E_rec = k_B T_r (one recoil absorbing, one emitting), and
+// in a three-dimensional harmonic trap the energy goes equally into motion
+// and potential, E = 3 k_B T, so dT/dt = T_r Γ_sc/3 (Grimm et al. (2000),
+// §2.3; with the recoil temperature taken as E_rec/k_B instead, the same
+// rate reads (2/3) T_rec Γ_sc). tr is T_r (K), Γsc the photons each atom
+// scatters per second.
+func RecoilHeatingRate(tr, Γsc float64) float64 { return tr * Γsc / 3 }
+
+// PhotonsToHeatOut is how many photons an atom at the bottom of a trap of
+// depth U (J) scatters before the average 2 E_rec = k_B T_r each gives
+// (random kicks, a pulse long against the trap period) lifts it to the
+// depth: U/(k_B T_r), for T_r in K.
+func PhotonsToHeatOut(U, tr float64) float64 { return U / (KB * tr) }
+
+// PhotonsToPushOut is how many photons an atom at the bottom of a trap of
+// depth U (J) scatters from one beam, in a pulse short against the trap
+// period, before it leaves: the N absorption kicks add along the beam,
+// N² E_rec, and the N emissions at random, N E_rec, so N² + N = U/E_rec with
+// E_rec = k_B T_r/2 (by hand from momentum conservation; common practice).
+func PhotonsToPushOut(U, tr float64) float64 {
+	r := U / (KB * tr / 2)
+	return (math.Sqrt(1+4*r) - 1) / 2
+}

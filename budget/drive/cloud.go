@@ -35,6 +35,14 @@ type CloudBeam struct {
 	// detuned) or in the saturation and scattering (near resonance). A beam
 	// near another line is in neither.
 	Far, Near bool
+	// For a near-resonant beam with a pulse on a trap that holds: Photons
+	// each atom scatters from it in the pulse (its share of the cloud's
+	// scattering rate, at the cloud centre), and how many heat an atom out
+	// from the trap's bottom by random kicks (HeatOut,
+	// atoms.PhotonsToHeatOut) or push it out along the beam in a pulse short
+	// against the trap period (PushOut, atoms.PhotonsToPushOut); NaN
+	// otherwise.
+	Photons, HeatOut, PushOut float64
 }
 
 // CloudResult is everything at one cloud, all beams counted together.
@@ -97,6 +105,11 @@ type Trap struct {
 	// Lattice is the axial frequency of a standing wave's lattice, Hz (NaN
 	// without one).
 	Lattice float64
+	// HeatingRate is the far-detuned light's recoil heating at the minimum,
+	// K/s (each beam's atoms.RecoilHeatingRate, summed), and HeatTime the
+	// time it takes to heat the atoms by the depth, s (Inf with no
+	// scattering; both NaN when the trap does not hold).
+	HeatingRate, HeatTime float64
 	// Profile is the combined potential along the escape direction from the
 	// minimum: distances (m) and U/k_B (K), for the plot.
 	Profile [][2]float64
@@ -157,6 +170,7 @@ type fieldBeam struct {
 	x, y     optics.Plane // at the cloud
 	λ, power float64
 	perI     float64 // U/I, J per W/m²
+	scatI    float64 // the scattering rate per unit intensity, photons/s per W/m²
 	n, u, v  [3]float64
 	laser    *setup.Laser
 	// back is the return pass of a standing wave, added coherently.
@@ -531,7 +545,7 @@ func beamsAt(c *setup.Cloud, drive []*AtomsResult) *CloudResult {
 		}
 		n := a.Row.Element.Direction
 		u, v := setup.BeamAxes(n)
-		cb := &CloudBeam{Atoms: a, Direction: n, U: u, V: v,
+		cb := &CloudBeam{Atoms: a, Direction: n, U: u, V: v, Photons: math.NaN(), HeatOut: math.NaN(), PushOut: math.NaN(),
 			Far:  a.FarDetuned && a.Dipole != nil && a.Row.FractionIn > 0,
 			Near: !a.FarDetuned && a.NearLine == "" && a.Row.FractionIn > 0}
 		if a.Row.Element.Interference == "standing_wave" {
@@ -580,7 +594,7 @@ func (cr *CloudResult) fieldAt(scaled []*setup.Laser, k float64, gravity, maximu
 			p *= k
 		}
 		beam := a.Row.BeamIn
-		x := fieldBeam{x: beam.X, y: beam.Y, λ: beam.Wavelength, power: p, perI: a.Dipole.PerIntensity, n: cb.Direction, u: cb.U, v: cb.V, laser: a.Path.Laser}
+		x := fieldBeam{x: beam.X, y: beam.Y, λ: beam.Wavelength, power: p, perI: a.Dipole.PerIntensity, scatI: a.Dipole.scatI, n: cb.Direction, u: cb.U, v: cb.V, laser: a.Path.Laser}
 		if fwd := fb[cb.Forward]; cb.Forward != nil && fwd != nil {
 			// The return pass joins its forward pass coherently.
 			back := x
@@ -632,6 +646,11 @@ func (cr *CloudResult) evaluate(scaled []*setup.Laser, k float64, full bool) {
 				t.Lattice = LatticeFrequency(LatticeModulation(u1, u2), b.λ, tr.Mass) / (2 * math.Pi)
 			}
 		}
+		t.HeatingRate, t.HeatTime = math.NaN(), math.NaN()
+		if t.Holds {
+			t.HeatingRate = f.heating(t.Minimum)
+			t.HeatTime = t.Depth / atoms.KB / t.HeatingRate
+		}
 		cr.Trap = &t
 	}
 	// Light shifts at the trap minimum (or the cloud).
@@ -671,6 +690,35 @@ func (cr *CloudResult) evaluate(scaled []*setup.Laser, k float64, full bool) {
 	for i, si := range s {
 		cr.ScatteringRate += MultiBeamScattering(tr.Gamma, si, cr.SaturationTotal, Δs[i])
 	}
+	// The photons of each pulse against the trap's depth (for the output
+	// only: the beams are shared with a goal's trial copies).
+	for cb, i := range index {
+		if !full {
+			break
+		}
+		pulse := cb.Atoms.Row.Element.Pulse
+		if t := cr.Trap; pulse > 0 && t != nil && t.Holds {
+			trec := atoms.RecoilTemperature(cb.Atoms.Row.BeamIn.Wavelength, tr.Mass)
+			cb.Photons = MultiBeamScattering(tr.Gamma, s[i], cr.SaturationTotal, Δs[i]) * pulse
+			cb.HeatOut, cb.PushOut = atoms.PhotonsToHeatOut(t.Depth, trec), atoms.PhotonsToPushOut(t.Depth, trec)
+		}
+	}
+}
+
+// heating is the far-detuned beams' recoil heating at r, K/s: each beam's
+// scattering (its rate per intensity times its intensity there; a standing
+// wave's from its combined potential over U/I) heats by
+// atoms.RecoilHeatingRate with the recoil of its own wavelength.
+func (f *field) heating(r [3]float64) float64 {
+	rate := 0.0
+	for _, b := range f.beams {
+		i := b.intensity(r)
+		if b.back != nil {
+			i = b.potential(r) / b.perI
+		}
+		rate += atoms.RecoilHeatingRate(atoms.RecoilTemperature(b.λ, f.mass), b.scatI*i)
+	}
+	return rate
 }
 
 // lightShifts are the light shifts of the far-detuned beams at r: the
@@ -855,12 +903,14 @@ const (
 	FindingCloudGoalShort      budget.FindingKind = "cloud_goal_short"
 	FindingCloudGoalExceeded   budget.FindingKind = "cloud_goal_exceeded"
 	FindingCloudGoalImpossible budget.FindingKind = "cloud_goal_impossible"
+	FindingPulseHeatsOut       budget.FindingKind = "pulse_heats_out"
 )
 
 // CloudFindings lists what the clouds' combined figures found: a trap that
 // would hold but for gravity (action), a trap whose minimum lies more than
-// one rms size from the cloud (advice), and a cloud goal short or
-// impossible (action).
+// one rms size from the cloud (advice), a pulse whose photons heat the
+// atoms out of the trap (advice: right for destructive imaging), and a
+// cloud goal short or impossible (action).
 func CloudFindings(clouds []*CloudResult) []budget.Finding {
 	var out []budget.Finding
 	for _, cr := range clouds {
@@ -876,6 +926,13 @@ func CloudFindings(clouds []*CloudResult) []budget.Finding {
 					out = append(out, budget.Finding{Severity: budget.SeverityNote, Kind: FindingTrapOffset, Message: fmt.Sprintf("%s: the trap minimum lies %s from the cloud's position (more than its rms size there, %s); the force at the cloud is %.3g g",
 						where, units.FormatLength(off), units.FormatLength(rms), t.ForceAtCloud)}.Figure(off, rms, "m"))
 				}
+			}
+		}
+		for _, cb := range cr.Beams {
+			if cb.Photons > cb.HeatOut {
+				e := cb.Atoms.Row.Element
+				out = append(out, budget.Finding{Severity: budget.SeverityNote, Kind: FindingPulseHeatsOut, Message: fmt.Sprintf("%s: each atom scatters %s photons in the %s pulse of path %q (element %d), more than the %s that heat an atom out of the trap from its bottom: expect the atoms to leave the trap (as destructive imaging does)",
+					where, units.FormatNumber(cb.Photons), units.FormatSI(e.Pulse, "s"), cb.Atoms.Path.Path.Name, e.Index, units.FormatNumber(cb.HeatOut))}.Figure(cb.Photons, cb.HeatOut, "1"))
 			}
 		}
 		if g := cr.Goal; g != nil {

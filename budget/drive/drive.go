@@ -82,6 +82,13 @@ type DipoleResult struct {
 	// where the beam does not confine (blue detuning, unknown mass, or off
 	// the focus along the beam).
 	TrapX, TrapY, TrapAxial float64
+	// HeatingRate is the trap light's recoil heating at the cloud centre,
+	// K/s (atoms.RecoilHeatingRate), and HeatTime the time it takes to
+	// heat the atoms by this beam's depth, s; NaN where the beam makes no
+	// trap.
+	HeatingRate, HeatTime float64
+
+	scatI float64 // the scattering rate per unit intensity, photons/s per W/m²
 }
 
 // GoalResult is what a goal needs against what the laser gives.
@@ -202,13 +209,15 @@ func atomsAt(b *budget.Budget, pb *budget.PathBudget, r *budget.Row, c *setup.Cl
 	case a.FarDetuned:
 		d := atoms.FarDetuned(tr.Lines, ω)
 		dr := &DipoleResult{PerIntensity: d.PotentialPerIntensity, Depth: d.PotentialPerIntensity * a.PeakIrradiance, RWARatio: d.PotentialPerIntensity / d.RWAPotentialPerIntensity,
-			TrapX: math.NaN(), TrapY: math.NaN(), TrapAxial: math.NaN()}
+			TrapX: math.NaN(), TrapY: math.NaN(), TrapAxial: math.NaN(), HeatingRate: math.NaN(), HeatTime: math.NaN(), scatI: d.ScatteringPerIntensity}
 		a.ScatteringRate = d.ScatteringPerIntensity * a.PeakIrradiance
 		if dr.Depth < 0 && tr.Mass > 0 {
 			u0 := -dr.Depth
 			dr.TrapX = atoms.RadialTrapFrequency(u0, wx, tr.Mass)
 			dr.TrapY = atoms.RadialTrapFrequency(u0, wy, tr.Mass)
 			dr.TrapAxial = atoms.AxialTrapFrequency(u0, axialCurvature(beam), tr.Mass)
+			dr.HeatingRate = atoms.RecoilHeatingRate(atoms.RecoilTemperature(beam.Wavelength, tr.Mass), a.ScatteringRate)
+			dr.HeatTime = u0 / atoms.KB / dr.HeatingRate
 		}
 		a.Dipole = dr
 	default:

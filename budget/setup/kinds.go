@@ -73,6 +73,7 @@ var atomsKeys = append([]KeySpec{
 	choice("axis", AxisValues, false, "the cloud axis the beam runs along (default z)", `"y"`),
 	KeySpec{Key: "direction", Kind: ValVector, Doc: "the beam's direction in the cloud's frame, instead of axis", Example: `[0, -1, 0]`},
 	choice("interference", InterferenceValues, false, "standing_wave: this return pass interferes with the forward one", `"standing_wave"`),
+	quantity("pulse", units.Time, false, "how long this near-resonant beam shines on trapped atoms at a time (an imaging or push pulse): the photons each atom scatters in it are set against the number that heats it out of the trap", `"50 us"`),
 )...)
 
 // Has reports whether the kind takes key as its own.
@@ -211,6 +212,7 @@ func readAtoms(t *table, e *Element, m map[string]any) {
 	if d, n, ok := t.detuning("detuning"); ok {
 		e.Detuning, e.DetuningLinewidths = &d, n
 	}
+	e.Pulse = t.positive("pulse", units.Time, false)
 }
 
 // readGoal reads goal, goal_value and goal_factor (of an atoms element or a

@@ -194,6 +194,9 @@ type Element struct {
 	// Interference is "standing_wave" on the return pass of a retro-reflected
 	// beam whose fields add coherently with the forward pass ("": none).
 	Interference string
+	// Pulse is how long the beam shines on the atoms at a time, s (0: not
+	// given).
+	Pulse float64
 
 	// dump
 	Rating float64 // W

@@ -46,6 +46,7 @@ func (b *builder) atomsRecord(a *drive.AtomsResult) Record {
 	r.F(hzField(dAtomsResultDetuningHz, a.Detuning)).
 		F(Num(dDetuningLinewidths, a.Detuning/tr.Gamma, units.FormatNumber(a.Detuning/tr.Gamma)+" Γ")).
 		F(Str(dDetuningSource, a.DetuningSource)).
+		F(Num(dPulseS, pulseOrNaN(e.Pulse), units.FormatSI(e.Pulse, "s"))).
 		F(Num(dTrapLightShiftHz, a.TrapShift, units.FormatFrequency(a.TrapShift))).
 		F(Irr(dSaturationIntensityWM2, a.Isat)).
 		F(Str(dSaturationIntensityKind, a.IsatNote)).
@@ -69,9 +70,11 @@ func (b *builder) atomsRecord(a *drive.AtomsResult) Record {
 			F(hzField(dTrapFrequencyXHz, d.TrapX)).
 			F(hzField(dTrapFrequencyYHz, d.TrapY)).
 			F(hzField(dTrapFrequencyAxialHz, d.TrapAxial)).
-			F(Field{d: dRwaRatio, Kind: Number, SI: d.RWARatio, Text: fmt.Sprintf("%.3f", d.RWARatio), People: true})
+			F(Field{d: dRwaRatio, Kind: Number, SI: d.RWARatio, Text: fmt.Sprintf("%.3f", d.RWARatio), People: true}).
+			F(Num(dDipoleHeatingRateKPerS, d.HeatingRate, units.FormatSI(d.HeatingRate, "K/s"))).
+			F(Num(dDipoleTimeToHeatS, d.HeatTime, units.FormatSI(d.HeatTime, "s")))
 	} else {
-		for _, k := range []string{"dipole_potential_k", "dipole_potential_hz", "trap_depth_k", "trap_frequency_radial_hz", "trap_frequency_x_hz", "trap_frequency_y_hz", "trap_frequency_axial_hz"} {
+		for _, k := range []string{"dipole_potential_k", "dipole_potential_hz", "trap_depth_k", "trap_frequency_radial_hz", "trap_frequency_x_hz", "trap_frequency_y_hz", "trap_frequency_axial_hz", "heating_rate_k_per_s", "time_to_heat_by_depth_s"} {
 			r.F(Absent(&Desc{k, k, ""}, false))
 		}
 	}
@@ -117,6 +120,7 @@ func (b *builder) atomsRecord(a *drive.AtomsResult) Record {
 				ax = "none (the cloud is not at an intensity maximum along the beam)"
 			}
 			r.Line("  trap frequencies (harmonic, this beam alone): x {trap_frequency_x_hz}, y {trap_frequency_y_hz}, axial " + ax)
+			r.Line("  recoil heating by this beam's scattering at the centre {heating_rate_k_per_s} (T_r Γ_sc/3, Grimm et al. 2000): it heats the atoms by its depth in {time_to_heat_by_depth_s}")
 		}
 		r.Line(fmt.Sprintf("  for reference: s = I/I_sat = {saturation}, Ω/2π = {rabi_frequency_hz} on %s", tr.Name))
 	default:
@@ -284,4 +288,12 @@ func toleranceRecord(gt *drive.GoalTolerance) *Record {
 		r.Line("    largest shares of the spread (standardized regression coefficients, SRC²/ΣSRC²): {top_contributors}")
 	}
 	return r
+}
+
+// pulseOrNaN is a pulse's duration, NaN (absent) when none is given.
+func pulseOrNaN(p float64) float64 {
+	if p > 0 {
+		return p
+	}
+	return math.NaN()
 }

@@ -65,7 +65,11 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 			F(Pow(dAtomsResultPowerW, at.Power)).
 			F(NumList(dDirection, cb.Direction[:], vec(cb.Direction))).
 			F(Num(dAtomsResultDetuningHz, at.Detuning/(2*math.Pi), units.FormatFrequency(at.Detuning/(2*math.Pi)))).
-			F(Field{d: dRole, Kind: String, Text: role, People: true})
+			F(Field{d: dRole, Kind: String, Text: role, People: true}).
+			F(Num(dPulseS, pulseOrNaN(at.Row.Element.Pulse), units.FormatSI(at.Row.Element.Pulse, "s"))).
+			F(Num(dPhotonsPerAtom, cb.Photons, fmtG(cb.Photons))).
+			F(Num(dPhotonsToHeatOut, cb.HeatOut, fmtG(cb.HeatOut))).
+			F(Num(dPhotonsToPushOut, cb.PushOut, fmtG(cb.PushOut)))
 		beams.Records = append(beams.Records, br)
 	}
 	r.L(beams)
@@ -78,15 +82,18 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 	switch {
 	case t == nil:
 		r.F(Absent(dTrapMinimumOffsetM, false)).F(Absent(dTrapTrapDepthK, false)).F(Absent(dTrapFrequenciesHz, false)).F(Absent(dTrapAxes, false)).
-			F(Absent(dGravitySagM, false)).F(Absent(dHoldsAgainstGravity, false)).F(Absent(dForceAtCloudG, false)).F(Absent(dLatticeFrequencyHz, false)).F(Absent(dEscapeDirection, false)).F(Absent(dTrapNote, true))
+			F(Absent(dGravitySagM, false)).F(Absent(dHoldsAgainstGravity, false)).F(Absent(dForceAtCloudG, false)).F(Absent(dLatticeFrequencyHz, false)).F(Absent(dEscapeDirection, false)).F(Absent(dTrapNote, true)).
+			F(Absent(dTrapHeatingRateKPerS, false)).F(Absent(dTrapTimeToHeatS, false))
 		r.After = append(r.After, "  no far-detuned beam: no dipole trap")
 	case t.Skipped != "":
 		r.F(Absent(dTrapMinimumOffsetM, false)).F(Absent(dTrapTrapDepthK, false)).F(Absent(dTrapFrequenciesHz, false)).F(Absent(dTrapAxes, false)).
-			F(Absent(dGravitySagM, false)).F(Absent(dHoldsAgainstGravity, false)).F(Absent(dForceAtCloudG, false)).F(Absent(dLatticeFrequencyHz, false)).F(Absent(dEscapeDirection, false)).F(Str(dTrapNote, t.Skipped))
+			F(Absent(dGravitySagM, false)).F(Absent(dHoldsAgainstGravity, false)).F(Absent(dForceAtCloudG, false)).F(Absent(dLatticeFrequencyHz, false)).F(Absent(dEscapeDirection, false)).F(Str(dTrapNote, t.Skipped)).
+			F(Absent(dTrapHeatingRateKPerS, false)).F(Absent(dTrapTimeToHeatS, false))
 		r.After = append(r.After, "  trap: not searched for: {trap_note}")
 	case !t.Found:
 		r.F(Absent(dTrapMinimumOffsetM, false)).F(Absent(dTrapTrapDepthK, false)).F(Absent(dTrapFrequenciesHz, false)).F(Absent(dTrapAxes, false)).
-			F(Absent(dGravitySagM, false)).F(Flag(dHoldsAgainstGravity, false, "no")).F(Absent(dForceAtCloudG, false)).F(Absent(dLatticeFrequencyHz, false)).F(Absent(dEscapeDirection, false)).F(Absent(dTrapNote, true))
+			F(Absent(dGravitySagM, false)).F(Flag(dHoldsAgainstGravity, false, "no")).F(Absent(dForceAtCloudG, false)).F(Absent(dLatticeFrequencyHz, false)).F(Absent(dEscapeDirection, false)).F(Absent(dTrapNote, true)).
+			F(Absent(dTrapHeatingRateKPerS, false)).F(Absent(dTrapTimeToHeatS, false))
 		r.After = append(r.After, "  trap: the combined potential has no minimum near the cloud (with gravity): the beams do not trap the atoms")
 	default:
 		var freqs []string
@@ -102,7 +109,9 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 			F(Flag(dHoldsAgainstGravity, t.Holds, yesNo(t.Holds))).
 			F(Num(dForceAtCloudG, t.ForceAtCloud, fmtG(t.ForceAtCloud))).
 			F(NumList(dEscapeDirection, t.Escape[:], vec(t.Escape))).
-			F(Absent(dTrapNote, true))
+			F(Absent(dTrapNote, true)).
+			F(Num(dTrapHeatingRateKPerS, t.HeatingRate, units.FormatSI(t.HeatingRate, "K/s"))).
+			F(Num(dTrapTimeToHeatS, t.HeatTime, units.FormatSI(t.HeatTime, "s")))
 		if t.Saddle != nil {
 			r.F(NumList(dEscapeSaddleM, t.Saddle[:], lengths(*t.Saddle)))
 		} else {
@@ -127,6 +136,9 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 		if !math.IsNaN(t.Lattice) {
 			r.After = append(r.After, "  standing wave: lattice spacing λ/2, axial lattice frequency {lattice_frequency_hz} (Grimm et al. 2000)")
 		}
+		if t.Holds {
+			r.After = append(r.After, "  recoil heating by the far-detuned light's scattering at the minimum {heating_rate_k_per_s} (T_r Γ_sc/3 for each beam, Grimm et al. 2000): it heats the atoms by the depth in {time_to_heat_by_depth_s}")
+		}
 	}
 	r.F(Num(dGroundLightShiftHz, cr.GroundShift, units.FormatFrequency(cr.GroundShift)))
 	switch {
@@ -142,6 +154,18 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 	r.F(Plain(dSaturationTotal, cr.SaturationTotal)).F(Num(dCloudResultScatteringRatePerS, cr.ScatteringRate, fmtG(cr.ScatteringRate)+" photons/s"))
 	if slices.ContainsFunc(cr.Beams, func(cb *drive.CloudBeam) bool { return cb.Near }) {
 		r.After = append(r.After, "  near-resonant beams at the cloud centre: s = {saturation_total} in all, scattering rate {scattering_rate_per_s} ((Γ/2) s_i/(1 + s_total + 4Δ_i²/Γ²) summed)")
+	}
+	for _, cb := range cr.Beams {
+		e := cb.Atoms.Row.Element
+		switch {
+		case e.Pulse <= 0, cb.Near && cb.Forward != nil: // a standing wave's pulse is its forward pass's
+		case math.IsNaN(cb.Photons):
+			r.After = append(r.After, fmt.Sprintf("  pulse of %s from path %q (element %d): no trap holds the atoms here, or the beam is not near resonance; its photons are not set against a depth",
+				units.FormatSI(e.Pulse, "s"), cb.Atoms.Path.Path.Name, e.Index))
+		default:
+			r.After = append(r.After, fmt.Sprintf("  pulse of %s from path %q (element %d): %s photons per atom at the centre; from the trap's bottom %s random recoils (2 E_rec each) heat an atom out of the depth, %s pushes along the beam do in a pulse short against the trap period (N² + N recoils); atoms already warm leave sooner",
+				units.FormatSI(e.Pulse, "s"), cb.Atoms.Path.Path.Name, e.Index, fmtG(cb.Photons), fmtG(cb.HeatOut), fmtG(cb.PushOut)))
+		}
 	}
 	var goal *Record
 	if g := cr.Goal; g != nil {

@@ -101,6 +101,14 @@ var (
 	dLatticeFrequencyHz                 = &Desc{"lattice_frequency_hz", "lattice frequency", "Trap.Lattice"}
 	dEscapeDirection                    = &Desc{"escape_direction", "escape", "Trap.Escape"}
 	dEscapeSaddleM                      = &Desc{"escape_saddle_m", "escape saddle", "Trap.Saddle"}
+	dTrapHeatingRateKPerS               = &Desc{"heating_rate_k_per_s", "recoil heating", "Trap.HeatingRate"}
+	dTrapTimeToHeatS                    = &Desc{"time_to_heat_by_depth_s", "time to heat by the depth", "Trap.HeatTime"}
+	dDipoleHeatingRateKPerS             = &Desc{"heating_rate_k_per_s", "recoil heating", "DipoleResult.HeatingRate"}
+	dDipoleTimeToHeatS                  = &Desc{"time_to_heat_by_depth_s", "time to heat by the depth", "DipoleResult.HeatTime"}
+	dPulseS                             = &Desc{"pulse_s", "pulse", "Element.Pulse"}
+	dPhotonsPerAtom                     = &Desc{"photons_per_atom", "photons per atom in the pulse", "CloudBeam.Photons"}
+	dPhotonsToHeatOut                   = &Desc{"photons_to_heat_out", "photons that heat an atom out", "CloudBeam.HeatOut"}
+	dPhotonsToPushOut                   = &Desc{"photons_to_push_out", "photons that push an atom out", "CloudBeam.PushOut"}
 	dTrapNote                           = &Desc{"trap_note", "trap", "Trap.Skipped"}
 	dGroundLightShiftHz                 = &Desc{"ground_light_shift_hz", "ground light shift", "CloudResult.GroundShift"}
 	dDifferentialLightShiftHz           = &Desc{"differential_light_shift_hz", "differential light shift", "CloudResult.DifferentialShift"}
