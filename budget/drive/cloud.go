@@ -144,6 +144,9 @@ type CloudGoal struct {
 	// operating powers may be scaled by, Met says k ≥ 1, and MarginDB is
 	// +10 log10 k.
 	Upper bool
+	// WithoutScaling is set when the other beams meet the goal with these
+	// lasers off: Met, Scale 0, Needed zeros and MarginDB NaN (no margin).
+	WithoutScaling bool
 
 	hints trapHints // the trap's at the factor found, for the tolerance samples
 }
@@ -593,6 +596,9 @@ func (cr *CloudResult) fieldAt(scaled []*setup.Laser, k float64, gravity, maximu
 		if slices.Contains(scaled, a.Path.Laser) {
 			p *= k
 		}
+		if p == 0 && k == 0 {
+			continue // a laser turned off is not in the field (nor its return pass)
+		}
 		beam := a.Row.BeamIn
 		x := fieldBeam{x: beam.X, y: beam.Y, λ: beam.Wavelength, power: p, perI: a.Dipole.PerIntensity, scatI: a.Dipole.scatI, n: cb.Direction, u: cb.U, v: cb.V, laser: a.Path.Laser}
 		if fwd := fb[cb.Forward]; cb.Forward != nil && fwd != nil {
@@ -620,6 +626,7 @@ func (cr *CloudResult) evaluate(scaled []*setup.Laser, k float64, full bool) {
 		f.hint, f.trial, f.saddle = cr.hint, true, cr.saddle
 	}
 	cr.PotentialAtCloud = f.V([3]float64{})
+	cr.Trap = nil // (a goal's trial copy must not keep the nominal trap)
 	var at [3]float64
 	switch {
 	case len(f.beams) > MaxTrapBeams:
@@ -842,6 +849,21 @@ func (cr *CloudResult) goal(verify bool) *CloudGoal {
 		g.Impossible = "the combined trap was not searched for: " + t.Skipped
 		return g
 	}
+	// With the scaled lasers off, the other beams may reach the goal (or,
+	// for an upper bound, pass it) alone: no factor on these lasers
+	// changes that, and no margin in dB means anything.
+	if alone := cr.metric(g.Lasers, 0); alone >= g.Target {
+		if g.Upper {
+			if alone > g.Target {
+				g.Impossible = fmt.Sprintf("the other beams alone, with %s off, already give %s: more than the goal allows whatever these lasers do", laserNames(g.Lasers), goalFigure(c.Goal, alone))
+				return g
+			}
+		} else {
+			g.WithoutScaling, g.Met, g.MarginDB = true, true, math.NaN()
+			g.Needed = make([]float64, len(g.Lasers))
+			return g
+		}
+	}
 	γ := 1.0 // the figure's power law in k: s and U grow as k, Ω as √k
 	if c.Goal == setup.GoalRabi || c.Goal == setup.GoalCollective {
 		γ = 0.5
@@ -1031,4 +1053,16 @@ func beyondNames(g *CloudGoal) string {
 		}
 	}
 	return strings.Join(parts, ", ")
+}
+
+// goalFigure writes a cloud goal's figure: a trap depth in K, s, or Ω as
+// a frequency.
+func goalFigure(kind string, v float64) string {
+	switch kind {
+	case setup.GoalTrapDepth:
+		return "a depth of " + units.FormatSI(v, "K")
+	case setup.GoalSaturation:
+		return "s = " + units.FormatNumber(v)
+	}
+	return "Ω/2π = " + units.FormatFrequency(v/(2*math.Pi))
 }

@@ -343,3 +343,31 @@ func TestLatticeModulation(t *testing.T) {
 		t.Errorf("unequal/equal = %g, want 1/√2", un/eq)
 	}
 }
+
+// A whole-cloud goal whose scaled laser is not needed: beam "a" alone
+// holds the atoms 1.5 times deeper than the goal, so scaling "b" cannot
+// matter: met without scaling, no margin; and a goal_max the other beam
+// alone passes cannot be met by turning "b" down.
+func TestCloudGoalMetWithoutScaling(t *testing.T) {
+	beams := beamOn("a", "1064 nm", "5 W", "50 um", "z") + beamOn("b", "1064 nm", "5 W", "50 um", "x")
+	U := u0(t, 1064e-9, 5, 50e-6) / atoms.KB
+	for _, c := range []struct {
+		goal          string
+		without, fail bool
+	}{
+		{fmt.Sprintf("goal = \"trap_depth\"\ngoal_value = \"%g K\"\ngoal_lasers = [\"b\"]", U/1.5), true, false},
+		{fmt.Sprintf("goal = \"trap_depth\"\ngoal_max = \"%g K\"\ngoal_lasers = [\"b\"]", U/1.5), false, true},
+		{fmt.Sprintf("goal = \"trap_depth\"\ngoal_value = \"%g K\"\ngoal_lasers = [\"b\"]", U*1.5), false, false},
+	} {
+		_, cs := cloudsOf(t, beams+cloudC("none", c.goal))
+		g := cs[0].Goal
+		switch {
+		case c.without && (!g.WithoutScaling || !g.Met || !math.IsNaN(g.MarginDB) || g.Impossible != ""):
+			t.Errorf("%s: %+v, want met without scaling", c.goal, g)
+		case c.fail && (g.Impossible == "" || !strings.Contains(g.Impossible, "other beams alone")):
+			t.Errorf("%s: %+v, want impossible", c.goal, g)
+		case !c.without && !c.fail && (g.WithoutScaling || math.IsNaN(g.MarginDB) || !(g.Scale > 0)):
+			t.Errorf("%s: %+v, want a factor", c.goal, g)
+		}
+	}
+}

@@ -194,13 +194,10 @@ func atomsAt(b *budget.Budget, pb *budget.PathBudget, r *budget.Row, c *setup.Cl
 		a.ScatteredPower = a.Power * (1 - a.Absorption.Transmission)
 	}
 	ω := tr.Frequency() + a.Detuning
-	near, δ := tr.NearestLine(ω)
-	nearDriven := math.Abs(a.Detuning) <= setup.FarDetuningFactor*tr.Gamma
-	switch {
-	case nearDriven:
-	case math.Abs(δ) <= setup.FarDetuningFactor*near.Gamma:
+	switch kind, near, δ := setup.Classify(a.Detuning, tr); kind {
+	case setup.LightOtherLine:
 		a.NearLine, a.NearLineDetuning = near.Name, δ
-	default:
+	case setup.LightFar:
 		a.FarDetuned = true
 	}
 	switch {

@@ -73,7 +73,9 @@ func margins(s *setup.Setup, refs []goalRef) []float64 {
 				drive = driveAll(b, pass{goals: true})
 			}
 			cr := cloudResult(s.Clouds[ref.cloud], drive, pass{goals: true, given: ref.hints})
-			if cr != nil && cr.Goal != nil && cr.Goal.Impossible == "" {
+			if cr != nil && cr.Goal != nil && cr.Goal.WithoutScaling {
+				out[i] = math.Inf(1) // met whatever these lasers do
+			} else if cr != nil && cr.Goal != nil && cr.Goal.Impossible == "" {
 				out[i] = cr.Goal.MarginDB
 			} else {
 				out[i] = math.Inf(-1)
@@ -132,6 +134,9 @@ func TolerancesWithProgress(s *setup.Setup, drive []*AtomsResult, samples int, s
 		if c.Goal != "" {
 			ref := goalRef{cloud: i}
 			if cr := cloudResult(c, drive, pass{full: true, goals: true}); cr != nil && cr.Goal != nil {
+				if cr.Goal.WithoutScaling {
+					continue // met with its lasers off: nothing to sample
+				}
 				ref.hints = &cr.Goal.hints
 			}
 			refs = append(refs, ref)

@@ -16,6 +16,30 @@ import (
 // formula nor the two-level figures of the driven line, and is refused.
 const FarDetuningFactor = 1000
 
+// How light counts at a cloud (Classify).
+const (
+	LightNear      = "near resonance"
+	LightFar       = "far detuned"
+	LightOtherLine = "near another line"
+)
+
+// Classify says how light at detuning Δ (rad/s) from transition tr's
+// driven line counts there: within FarDetuningFactor of its linewidths,
+// near resonance (the two-level figures); within that many linewidths of
+// another line of the ground state, near that line (line, and δ its
+// detuning from it, rad/s: neither model applies); otherwise far detuned
+// (the dipole potential summed over the lines).
+func Classify(Δ float64, tr *atoms.Transition) (kind string, line atoms.Line, δ float64) {
+	if math.Abs(Δ) <= FarDetuningFactor*tr.Gamma {
+		return LightNear, line, 0
+	}
+	line, δ = tr.NearestLine(tr.Frequency() + Δ)
+	if math.Abs(δ) <= FarDetuningFactor*line.Gamma {
+		return LightOtherLine, line, δ
+	}
+	return LightFar, line, δ
+}
+
 // Detuning sources.
 const (
 	DetuningFromElement     = "stated at the atoms element"

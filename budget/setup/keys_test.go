@@ -135,6 +135,10 @@ func keysSetup(spec *TableSpec, kind ElementType, keys map[string]string) string
 		b.WriteString("[" + spec.Name + "]\n" + lines("\n") + "\n\n" + keysBase)
 	case spec.Name == "band":
 		b.WriteString(keysBase + "\n[[eyewear]]\nname = \"tested\"\nbands = [{ " + lines(", ") + " }]\n")
+	case spec.Name == "cloud":
+		// The trap's light reaches the cloud tested (its keys name the trap).
+		base := strings.Replace(keysBase, "  [[path.element]]\n  type = \"combiner\"", "  [[path.element]]\n  type = \"atoms\"\n  at = \"50 mm\"\n  cloud = \"tested\"\n\n  [[path.element]]\n  type = \"combiner\"", 1)
+		b.WriteString(base + "\n[[" + spec.Name + "]]\n" + lines("\n") + "\n")
 	default:
 		b.WriteString(keysBase + "\n[[" + spec.Name + "]]\n" + lines("\n") + "\n")
 	}
@@ -199,7 +203,13 @@ func keyCases(spec *TableSpec, kind ElementType) []keyCase {
 		if k.ByLaser() {
 			keys := minimalKeys(spec, k.Key, "")
 			keys[k.Key] = "{ probe-amp = " + k.Example + " }"
-			out = append(out, keyCase{what: "key " + k.Key + " per laser", src: setup(keys), loads: true})
+			src := setup(keys)
+			if kind == TypeCombiner && k.Key == "join_transmission" {
+				// The entry is for the beam that joins there.
+				keys[k.Key] = "{ repump = " + k.Example + " }"
+				src = setup(keys) + fmt.Sprintf("\n[[path]]\nname = \"joiner\"\nfrom = \"repump\"\ninto = \"tested:%s\"\ninto_at = \"250 mm\"\n", strings.Trim(keys["name"], `"`))
+			}
+			out = append(out, keyCase{what: "key " + k.Key + " per laser", src: src, loads: true})
 		}
 		for _, w := range k.With {
 			need, _, _ := strings.Cut(w, "=")

@@ -27,6 +27,7 @@ func (l *loader) link(s *Setup) {
 		func() { l.checkPerLaser(s, lasers, locs); l.checkClouds(s, lasers, locs) },
 		func() { l.linewidthDetunings(s, clouds, locs) },
 		func() { l.checkDetunings(s, clouds, locs) },
+		func() { l.checkGoalLasers(s) },
 	}
 	for _, step := range steps {
 		if len(l.problems) > 0 {
@@ -449,14 +450,27 @@ func (l *loader) checkPerLaser(s *Setup, lasers map[string]*Laser, locs map[*Pat
 						l.addf(line, ctx, "%s: no laser named %q (lasers: %s)%s", key, name, listNames(len(s.Lasers), func(i int) string { return s.Lasers[i].Name }), nameHint(name, len(s.Lasers), func(i int) string { return s.Lasers[i].Name }))
 					}
 				}
+				var here []string
 				for _, a := range reach[e] {
-					// At a combiner, join_transmission is for the beams that join
-					// there and transmission for the others.
-					if e.Type == TypeCombiner && (key == "join_transmission") != a.Joins {
+					if slices.Contains(here, a.Laser.Name) {
 						continue
 					}
+					// At a combiner, join_transmission is for the beams that join
+					// there and transmission for the others.
+					if e.Type == TypeCombiner && (key == "join_transmission" || key == "transmission") && (key == "join_transmission") != a.Joins {
+						continue
+					}
+					here = append(here, a.Laser.Name)
 					if _, ok := by[a.Laser.Name]; !ok {
 						l.addf(line, ctx, "%s: laser %q reaches this element but is missing from its table", key, a.Laser.Name)
+					}
+				}
+				// An entry for a laser whose light never gets here would be
+				// silently unused: a slip of a name, or a route that is not
+				// what the setup says.
+				for _, name := range slices.Sorted(maps.Keys(by)) {
+					if _, ok := lasers[name]; ok && !slices.Contains(here, name) {
+						l.addf(line, ctx, "%s: laser %q never reaches this element%s (the lasers here: %s)", key, name, map[bool]string{true: " as a joining beam", false: ""}[key == "join_transmission"], quotedOrNone(here))
 					}
 				}
 			}
@@ -525,6 +539,20 @@ func Arrivals(s *Setup) map[*Element][]Arrival {
 // opposite way.
 func (l *loader) checkClouds(s *Setup, lasers map[string]*Laser, locs map[*Path]int) {
 	laserNames := listNames(len(s.Lasers), func(i int) string { return s.Lasers[i].Name })
+	atCloud := map[string][]string{} // the lasers whose light reaches each cloud
+	reach := Arrivals(s)
+	for _, p := range s.Paths {
+		for _, e := range p.Elements {
+			if e.Type != TypeAtoms {
+				continue
+			}
+			for _, a := range reach[e] {
+				if !slices.Contains(atCloud[e.Cloud], a.Laser.Name) {
+					atCloud[e.Cloud] = append(atCloud[e.Cloud], a.Laser.Name)
+				}
+			}
+		}
+	}
 	for i, c := range s.Clouds {
 		loc := fmt.Sprintf("cloud[%d]", i)
 		ctx := fmt.Sprintf("cloud %q", c.Name)
@@ -536,6 +564,13 @@ func (l *loader) checkClouds(s *Setup, lasers map[string]*Laser, locs map[*Path]
 		for _, name := range slices.Sorted(maps.Keys(c.ExcitedPolarizability)) {
 			if _, ok := lasers[name]; !ok {
 				l.addf(l.lines.line(loc, "excited_polarizability"), ctx, "excited_polarizability: no laser named %q (lasers: %s)%s", name, laserNames, nameHint(name, len(s.Lasers), func(i int) string { return s.Lasers[i].Name }))
+			} else if at := atCloud[c.Name]; !slices.Contains(at, name) {
+				l.addf(l.lines.line(loc, "excited_polarizability"), ctx, "excited_polarizability: laser %q never reaches the cloud (the lasers whose light reaches it: %s)", name, quotedOrNone(at))
+			}
+		}
+		for _, name := range c.GoalLasers {
+			if at := atCloud[c.Name]; lasers[name] != nil && !slices.Contains(at, name) {
+				l.addf(l.lines.line(loc, "goal_lasers"), ctx, "goal_lasers: laser %q never reaches the cloud, so scaling it cannot change the goal (the lasers whose light reaches it: %s)", name, quotedOrNone(at))
 			}
 		}
 	}
@@ -598,4 +633,64 @@ func ElementIndex(p *Path, e *Element) int {
 		}
 	}
 	return -1
+}
+
+// quotedOrNone lists names quoted, or says there are none.
+func quotedOrNone(names []string) string {
+	if len(names) == 0 {
+		return "none"
+	}
+	q := make([]string, len(names))
+	for i, n := range names {
+		q[i] = fmt.Sprintf("%q", n)
+	}
+	return strings.Join(q, ", ")
+}
+
+// checkGoalLasers checks that every laser a cloud's goal names can serve
+// it: a trap depth scales far-detuned light, saturation, Rabi frequency
+// and the collective drive scale near-resonant light (Classify, at each
+// atoms element of the cloud the laser's light reaches; the laser serves
+// if it counts so at one of them). A goal scaling only light that cannot
+// change it would report a margin it does not have.
+func (l *loader) checkGoalLasers(s *Setup) {
+	reach := Arrivals(s)
+	for i, c := range s.Clouds {
+		if c.Goal == "" || len(c.GoalLasers) == 0 || c.Data == nil {
+			continue
+		}
+		want := LightNear
+		if c.Goal == GoalTrapDepth {
+			want = LightFar
+		}
+		for _, name := range c.GoalLasers {
+			var seen []string
+			serves := false
+			for _, p := range s.Paths {
+				for _, e := range p.Elements {
+					if e.Type != TypeAtoms || e.Cloud != c.Name {
+						continue
+					}
+					for _, a := range reach[e] {
+						if a.Laser.Name != name {
+							continue
+						}
+						var Δ float64
+						if a.Laser == p.Laser {
+							Δ, _ = DetuningAt(a.Laser, e, aomShift(p, e), c.Data)
+						} else {
+							Δ, _ = DetuningAt(a.Laser, nil, 0, c.Data)
+						}
+						kind, _, _ := Classify(Δ, c.Data)
+						serves = serves || kind == want
+						seen = append(seen, fmt.Sprintf("%s, %s from %s (path %q, element %d)", kind, units.FormatFrequency(Δ/(2*math.Pi)), c.Data.Name, p.Name, e.Index))
+					}
+				}
+			}
+			if !serves && len(seen) > 0 {
+				l.addf(l.lines.line(fmt.Sprintf("cloud[%d]", i), "goal_lasers"), fmt.Sprintf("cloud %q", c.Name),
+					"goal_lasers: laser %q cannot serve the %s goal: its light at the cloud is %s; a %s goal scales %s light", name, c.Goal, strings.Join(seen, "; "), c.Goal, map[string]string{LightFar: "far-detuned", LightNear: "near-resonant"}[want])
+			}
+		}
+	}
 }

@@ -282,8 +282,10 @@ func (t *table) str(key string, required bool) string {
 		t.fail(key, "want a string, got %s", tomlKind(v))
 		return ""
 	}
-	if required && strings.TrimSpace(s) == "" {
-		t.fail(key, "empty")
+	if strings.TrimSpace(s) == "" {
+		// An empty value is never the same as leaving the key out.
+		t.fail(key, "empty: give a value, or leave the key out")
+		return ""
 	}
 	if r, bad := unprintable(s); bad {
 		t.fail(key, "holds the control or direction character %U; text in a setup is printed in the sign-off and may hold no line breaks, tabs or control characters", r)
@@ -483,8 +485,15 @@ func (t *table) rawQuantity(key string, v any, dim units.Dimension) (float64, bo
 		if t.keyAs != "" {
 			pk = t.keyAs
 		}
-		if dim == units.Dimensionless && !percentKeys[pk] && strings.Contains(x, "%") {
-			t.fail(key, "%q: a bare number is wanted here; only fractions (transmission, efficiency, …) may be written as a percentage", x)
+		if dim == units.Dimensionless && !percentKeys[pk] {
+			// The format says bare numbers here (an atom number, M², an
+			// optical density, a direction): a string is only for a
+			// tolerance, and a percentage only for a fraction.
+			if strings.Contains(x, "%") {
+				t.fail(key, "%q: a bare number is wanted here; only fractions (transmission, efficiency, …) may be written as a percentage", x)
+			} else {
+				t.fail(key, "%q: a bare number is wanted here, without quotes (a string is for a quantity with its unit, or a tolerance)", x)
+			}
 			return 0, false
 		}
 		q, err := units.ParseAs(x, dim)

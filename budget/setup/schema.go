@@ -199,6 +199,7 @@ func (b *schemaBuilder) keySchema(k *KeySpec) map[string]any {
 func (b *schemaBuilder) quantitySchema(k *KeySpec) map[string]any {
 	var pats []string
 	var number map[string]any
+	bareOnly := false // a dimensionless value that is no fraction: a bare number, a string only for a tolerance
 	for _, d := range k.Dims {
 		if d == units.Dimensionless {
 			number = map[string]any{"type": "number"}
@@ -207,6 +208,10 @@ func (b *schemaBuilder) quantitySchema(k *KeySpec) map[string]any {
 				if k.Max != 0 {
 					number["maximum"] = k.Max
 				}
+			}
+			if !k.Percent() {
+				bareOnly = true
+				continue
 			}
 		}
 		pats = append(pats, QuantityPattern(d, k.Percent()))
@@ -218,14 +223,28 @@ func (b *schemaBuilder) quantitySchema(k *KeySpec) map[string]any {
 	if k.Percent() {
 		name += "_percent"
 	}
-	q := "(?:" + strings.Join(pats, "|") + ")"
-	pattern := "^\\s*" + q + "\\s*$"
+	tol := `(?:\s*(?:\.\.|±|\+/-)\s*`
+	var alts []string
+	if len(pats) > 0 {
+		q := "(?:" + strings.Join(pats, "|") + ")"
+		if k.Toleranced() {
+			alts = append(alts, q+tol+q+")?")
+		} else {
+			alts = append(alts, q)
+		}
+	}
+	if bareOnly && k.Toleranced() {
+		// A bare number's tolerance is the one string it may be.
+		alts = append(alts, numberPattern+tol+numberPattern+")")
+	}
 	if k.Toleranced() {
 		name += "_toleranced"
-		pattern = "^\\s*" + q + "(?:\\s*(?:\\.\\.|±|\\+/-)\\s*" + q + ")?\\s*$"
+	}
+	if len(alts) == 0 {
+		return number
 	}
 	if _, ok := b.defs[name]; !ok {
-		b.defs[name] = map[string]any{"type": "string", "pattern": pattern}
+		b.defs[name] = map[string]any{"type": "string", "pattern": "^\\s*(?:" + strings.Join(alts, "|") + ")\\s*$"}
 	}
 	str := map[string]any{"$ref": "#/$defs/" + name}
 	if number == nil {

@@ -662,22 +662,33 @@ func driveEntries(a *safety.Assessment, ids *idMap, old bool) map[string]entry {
 		what := fmt.Sprintf("path %q, element %s, laser %q", path, ids.id(old, path, at.Row.Element.Index), at.Path.Laser.Name)
 		out["power|"+what] = entry{"power_at_cloud", what, units.FormatPower(at.Power), map[string]float64{"power_w": at.Power}}
 		if g := at.Goal; g != nil {
-			out["goal|"+what] = entry{"goal", what + ", goal " + g.Kind, goalText(g.MarginDB, g.Met, g.Impossible), map[string]float64{"margin_db": g.MarginDB}}
+			out["goal|"+what] = entry{"goal", what + ", goal " + g.Kind, goalText(g.MarginDB, g.Met, g.Impossible), marginFigure(g.MarginDB)}
 		}
 	}
 	for _, cr := range a.Clouds {
 		if g := cr.Goal; g != nil {
 			what := fmt.Sprintf("cloud %q, goal %s", cr.Cloud.Name, g.Kind)
-			out["cloud|"+what] = entry{"cloud_goal", what, goalText(g.MarginDB, g.Met, g.Impossible), map[string]float64{"margin_db": g.MarginDB}}
+			out["cloud|"+what] = entry{"cloud_goal", what, goalText(g.MarginDB, g.Met, g.Impossible), marginFigure(g.MarginDB)}
 		}
 	}
 	return out
+}
+
+// marginFigure is a goal's margin as a figure of the diff (none when the
+// goal has no margin: met without scaling).
+func marginFigure(db float64) map[string]float64 {
+	if math.IsNaN(db) {
+		return map[string]float64{}
+	}
+	return map[string]float64{"margin_db": db}
 }
 
 func goalText(db float64, met bool, impossible string) string {
 	switch {
 	case impossible != "":
 		return "cannot be met: " + impossible
+	case met && math.IsNaN(db):
+		return "met without scaling"
 	case met:
 		return fmt.Sprintf("margin %+.2f dB, met", db)
 	default:

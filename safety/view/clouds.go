@@ -193,11 +193,17 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 			target = "at most " + target
 		}
 		goal.F(Num(dTargetSI, g.Target, target)).F(Flag(dCloudGoalUpperBound, g.Upper, yesNo(g.Upper)))
-		if g.Impossible != "" {
+		goal.F(Flag(dMetWithoutScaling, g.WithoutScaling, yesNo(g.WithoutScaling)))
+		switch {
+		case g.Impossible != "":
 			goal.F(Absent(dScaleFactor, false)).F(Absent(dCloudGoalMarginDb, false)).F(Flag(dCloudGoalMet, false, "no")).F(Str(dCloudGoalImpossible, g.Impossible)).
 				F(Flag(dCloudGoalBeyondMaximum, false, "no"))
 			r.After = append(r.After, "  goal for the whole cloud: {goal.kind} {goal.target_si}: cannot be met: {goal.impossible}")
-		} else {
+		case g.WithoutScaling:
+			goal.F(Absent(dScaleFactor, false)).F(Absent(dCloudGoalMarginDb, false)).F(Flag(dCloudGoalMet, true, "met")).
+				F(Absent(dCloudGoalImpossible, true)).F(Flag(dCloudGoalBeyondMaximum, false, "no"))
+			r.After = append(r.After, "  goal for the whole cloud: {goal.kind} {goal.target_si} scaling {goal.lasers}: met without scaling: the other beams reach it with these lasers off (no margin: their power does not decide it)")
+		default:
 			var needed []string
 			for i, las := range g.Lasers {
 				needed = append(needed, fmt.Sprintf("%s %s", las.Name, units.FormatPower(g.Needed[i])))

@@ -119,6 +119,7 @@ var (
 	dTargetSI                           = &Desc{"target_si", "target", "CloudGoal.Target"}
 	dScaleFactor                        = &Desc{"scale_factor", "scale factor", "CloudGoal.Scale"}
 	dCloudGoalMarginDb                  = &Desc{"margin_db", "margin", "CloudGoal.MarginDB"}
+	dMetWithoutScaling                  = &Desc{"met_without_scaling", "met without scaling", "CloudGoal.WithoutScaling"}
 	dCloudGoalMet                       = &Desc{"met", "met", "CloudGoal.Met"}
 	dCloudGoalImpossible                = &Desc{"impossible", "cannot be met", "CloudGoal.Impossible"}
 	dNeededW                            = &Desc{"needed_w", "needed", "CloudGoal.Needed"}

@@ -135,6 +135,8 @@ func goalState(impossible string, met, beyond bool, marginDB float64) string {
 	switch {
 	case impossible != "":
 		return "cannot be met (" + impossible + ")"
+	case met && math.IsNaN(marginDB):
+		return "met without scaling (the other beams reach it)"
 	case met:
 		return fmt.Sprintf("met, margin %+.1f dB", marginDB)
 	case beyond:
