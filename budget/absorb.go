@@ -183,41 +183,39 @@ func (col CloudColumn) FractionAbove(i0, wx, wy, sGoal float64) float64 {
 	}
 	const samples = 12
 	total := 0.0
-	var ts []float64
+	var cuts []float64
 	for k, u := range nodes.x {
 		θ := (u + 1) / 2 * math.Pi / 2
 		c, s := math.Cos(θ), math.Sin(θ)
 		q := wx*wx*c*c/(4*col.σx*col.σx) + wy*wy*s*s/(4*col.σy*col.σy)
 		g := func(t float64) float64 { return col.B0*math.Exp(-q*t) - bStar(t) }
-		// The break points: even steps in t, the column's own scale
-		// 1/q (a beam much wider than the cloud sees the column fall
-		// within a small t), and the kinks between them.
-		ts = ts[:0]
-		for j := 0; j <= samples; j++ {
-			ts = append(ts, L*float64(j)/samples)
-		}
+		// The pieces: cut at the column's own scale 1/q (a beam much
+		// wider than the cloud sees the column fall within a small t)
+		// and at the kinks, found between even steps in t and the scale
+		// points.
+		cuts = append(cuts[:0], 0, L)
 		for m := 1.0; m/q < L && m <= 256; m *= 4 {
-			ts = append(ts, m/q)
+			cuts = append(cuts, m/q)
 		}
-		slices.Sort(ts)
-		ray := 0.0
-		for j := 1; j < len(ts); j++ {
-			t0, t1 := ts[j-1], ts[j]
-			if g0, g1 := g(t0), g(t1); (g0 < 0) != (g1 < 0) {
-				// The kink, by bisection to the float's precision.
-				lo, hi := t0, t1
-				for hi-lo > 1e-13*L {
-					mid := (lo + hi) / 2
-					if (g(mid) < 0) == (g0 < 0) {
-						lo = mid
-					} else {
-						hi = mid
-					}
-				}
-				ray += piece(q, t0, lo) + piece(q, lo, t1)
-				continue
+		probe := append(slices.Clone(cuts), make([]float64, 0, samples)...)
+		for j := 1; j < samples; j++ {
+			probe = append(probe, L*float64(j)/samples)
+		}
+		slices.Sort(probe)
+		prev := g(probe[0])
+		for j := 1; j < len(probe); j++ {
+			gj := g(probe[j])
+			if (prev < 0) != (gj < 0) {
+				cuts = append(cuts, kink(g, probe[j-1], probe[j], prev, gj, 1e-13*L))
 			}
-			ray += piece(q, t0, t1)
+			prev = gj
+		}
+		slices.Sort(cuts)
+		ray := 0.0
+		for j := 1; j < len(cuts); j++ {
+			if cuts[j] > cuts[j-1] {
+				ray += piece(q, cuts[j-1], cuts[j])
+			}
 		}
 		total += nodes.w[k] * ray
 	}
@@ -273,20 +271,80 @@ func DetuningAtAtoms(pb *PathBudget, k int, e *setup.Element, c *setup.Cloud, δ
 func TrapShifted(Δ, δ float64) float64 { return Δ - 2*math.Pi*δ }
 
 // IncidentForFraction is the peak incident s (units of I_sat) at which the
-// share frac of the atoms reaches sGoal, by bisection on log s (the share
-// grows with the drive).
+// share frac of the atoms reaches sGoal: bracketed by steps of 4 in s,
+// then narrowed by the Illinois variant of regula falsi on ln s (the share
+// grows with the drive) until its bracket is 1e-4 wide in ln s (a flat
+// share must not end it early); the upper end is returned (the drive that
+// is enough).
 func (col CloudColumn) IncidentForFraction(sGoal, frac, wx, wy float64) float64 {
-	lo, hi := sGoal, sGoal
-	for col.FractionAbove(hi, wx, wy, sGoal) < frac && hi < 1e12*sGoal {
-		lo, hi = hi, hi*4
+	f := func(x float64) float64 { return col.FractionAbove(math.Exp(x), wx, wy, sGoal) - frac }
+	lo, hi := math.Log(sGoal), math.Log(sGoal)
+	flo, fhi := f(lo), f(hi)
+	for fhi < 0 && hi < math.Log(1e12*sGoal) {
+		lo, flo = hi, fhi
+		hi += math.Log(4)
+		fhi = f(hi)
 	}
-	for hi/lo > 1+1e-4 {
-		mid := math.Sqrt(lo * hi)
-		if col.FractionAbove(mid, wx, wy, sGoal) >= frac {
-			hi = mid
+	if fhi < 0 {
+		return math.Exp(hi)
+	}
+	side := 0
+	for range 100 {
+		if hi-lo <= 1e-4 {
+			break
+		}
+		x := (lo*fhi - hi*flo) / (fhi - flo)
+		if !(x > lo && x < hi) {
+			x = (lo + hi) / 2
+		}
+		fx := f(x)
+		if fx >= 0 {
+			hi, fhi = x, fx
+			if side == 1 {
+				flo /= 2
+			}
+			side = 1
 		} else {
-			lo = mid
+			lo, flo = x, fx
+			if side == -1 {
+				fhi /= 2
+			}
+			side = -1
 		}
 	}
-	return hi
+	return math.Exp(hi)
+}
+
+// kink is where g crosses zero between a and b (g(a) = ga and g(b) = gb of
+// opposite signs), by the Illinois variant of regula falsi to a width of
+// tol.
+func kink(g func(float64) float64, a, b, ga, gb, tol float64) float64 {
+	side := 0
+	for range 100 {
+		if b-a <= tol {
+			break
+		}
+		x := (a*gb - b*ga) / (gb - ga)
+		if !(x > a && x < b) {
+			x = (a + b) / 2
+		}
+		gx := g(x)
+		switch {
+		case gx == 0:
+			return x
+		case (gx < 0) == (ga < 0):
+			a, ga = x, gx
+			if side == -1 {
+				gb /= 2
+			}
+			side = -1
+		default:
+			b, gb = x, gx
+			if side == 1 {
+				ga /= 2
+			}
+			side = 1
+		}
+	}
+	return (a + b) / 2
 }

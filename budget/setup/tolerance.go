@@ -216,6 +216,14 @@ func (t *table) tolerance(key, x, a, b string, normal bool, dim units.Dimension)
 			t.fail(key, "%q: the mean lies outside the value's physical domain [%g, %g]", x, dom[0], dom[1])
 			return 0, false
 		}
+		// The samples and the worst case reach mean ± 3σ: that must be a
+		// value the setup could hold written directly (a waist, a focal
+		// length of the same sign, …), not the domain's floor.
+		if lo, hi := pa-3*pb, pa+3*pb; lo < dom[0] || hi > dom[1] {
+			t.fail(key, "%q: mean ± 3σ (%s to %s) leaves what %s may be (%s to %s); a standard deviation up to %s keeps it inside",
+				x, formatAs(lo, dim), formatAs(hi, dim), k, formatAs(dom[0], dim), formatAs(dom[1], dim), formatAs(roundDown(math.Min(pa-dom[0], dom[1]-pa)/3), dim))
+			return 0, false
+		}
 	} else {
 		if !(pb > pa) {
 			t.fail(key, "%q: the range's upper bound is not above its lower bound", x)
@@ -231,9 +239,55 @@ func (t *table) tolerance(key, x, a, b string, normal bool, dim units.Dimension)
 	return tol.Nominal(), true
 }
 
+// roundDown rounds v > 0 down to three significant figures (a bound that
+// is printed must not be above the true one).
+func roundDown(v float64) float64 {
+	p := math.Pow(10, math.Floor(math.Log10(v))-2)
+	return math.Floor(v/p) * p
+}
+
+// formatAs writes v (SI) in the dimension's unit, or bare.
+func formatAs(v float64, dim units.Dimension) string {
+	switch dim {
+	case units.Length:
+		return units.FormatLength(v)
+	case units.Power:
+		return units.FormatPower(v)
+	}
+	return units.FormatNumber(v)
+}
+
 // resolveTolerances turns the tolerances read into the setup's list, with
-// the indices of their lasers and elements and a label for people.
+// the indices of their lasers and elements and a label for people. An
+// element's position may not leave the place it is listed in: its ends
+// stay between its neighbours' positions.
 func (l *loader) resolveTolerances(s *Setup) {
+	for _, p := range l.tols {
+		if p.key == "at" && strings.HasPrefix(p.loc, "path[") {
+			var i, j int
+			fmt.Sscanf(p.loc, "path[%d].element[%d]", &i, &j)
+			els := s.Paths[i].Elements
+			lo, hi := p.tol.Ends()
+			prev, next := 0.0, math.Inf(1)
+			if j > 0 {
+				prev = els[j-1].At
+			}
+			if j+1 < len(els) {
+				next = els[j+1].At
+			}
+			if lo < prev || hi > next {
+				bound := fmt.Sprintf("from %s", units.FormatLength(prev))
+				if !math.IsInf(next, 1) {
+					bound += fmt.Sprintf(" to %s", units.FormatLength(next))
+				}
+				l.addf(l.lines.line(p.loc, "at"), fmt.Sprintf("path %q, element %d (%s)", s.Paths[i].Name, els[j].Index, els[j].Type),
+					"at: %q reaches %s to %s, past its neighbours along the path; the position may range %s (the elements' order is the path's)", p.tol.Text, units.FormatLength(lo), units.FormatLength(hi), bound)
+			}
+		}
+	}
+	if len(l.problems) > 0 {
+		return
+	}
 	for _, p := range l.tols {
 		t := &Toleranced{Tol: p.tol, Laser: -1, Key: p.key, Index: p.index, PerLaser: p.perLaser}
 		var i, j int
