@@ -67,6 +67,10 @@ type FiberCoupling struct {
 	// LensAt is where that beam was taken: the nearest lens before the
 	// fibre, or the fibre face when there is none, m.
 	LensAt float64
+	// IdealNote says why no ideal focal length is given (a cylindrical
+	// lens between the coupling lens and the fibre) or how to read the two
+	// (an astigmatic beam: one per plane); "" for a round beam.
+	IdealNote string
 }
 
 // Segment is free space between two points of a path.
@@ -343,7 +347,7 @@ func (pb *PathBudget) propagate(file string, followed map[*setup.Element]*setup.
 			after = p.Elements[pb.First-1].Index
 		}
 	}
-	lastLens := -1
+	lastLens, lastCyl := -1, -1
 	for i := pb.First; i < len(p.Elements); i++ {
 		e := p.Elements[i]
 		joining := i == pb.First && pb.Combiner != nil
@@ -361,9 +365,9 @@ func (pb *PathBudget) propagate(file string, followed map[*setup.Element]*setup.
 			}
 			frac *= row.ClipFraction
 		}
-		st := &stage{pb: pb, followed: followed, clouds: clouds, index: len(pb.Rows), lastLens: lastLens, beam: beam, frac: frac, row: &row, joining: joining, power: power, atOperating: atOperating, shifts: shifts}
+		st := &stage{pb: pb, followed: followed, clouds: clouds, index: len(pb.Rows), lastLens: lastLens, lastCyl: lastCyl, beam: beam, frac: frac, row: &row, joining: joining, power: power, atOperating: atOperating, shifts: shifts}
 		effects[e.Type](st, el)
-		beam, frac, lastLens = st.beam, st.frac, st.lastLens
+		beam, frac, lastLens, lastCyl = st.beam, st.frac, st.lastLens, st.lastCyl
 		if !beam.Valid() {
 			return &setup.InputError{Problems: []string{fmt.Sprintf("%s:%d: path %q, element %d (%s): the beam of laser %q is not a finite Gaussian beam after this element; check its numbers", file, e.Line, p.Name, e.Index, e.Type, pb.Laser.Name)}}
 		}
@@ -420,7 +424,7 @@ func (pb *PathBudget) checkJoinedDetuning(s *setup.Setup) error {
 }
 
 // couple finds the fibre coupling at element e for the arriving beam.
-func (pb *PathBudget) couple(e *setup.Element, beam optics.Beam, lastLens int) *FiberCoupling {
+func (pb *PathBudget) couple(e *setup.Element, beam optics.Beam, lastLens, lastCyl int) *FiberCoupling {
 	fc := &FiberCoupling{Overlap: math.NaN(), Alignment: 1}
 	if e.Coupling != nil {
 		fc.Coupling, fc.Given = *e.Coupling, true
@@ -443,6 +447,16 @@ func (pb *PathBudget) couple(e *setup.Element, beam optics.Beam, lastLens int) *
 		}
 		fc.IdealFocalLength[0] = optics.IdealCouplingFocalLength(at.X, at.Wavelength, e.ModeFieldDiameter/2)
 		fc.IdealFocalLength[1] = optics.IdealCouplingFocalLength(at.Y, at.Wavelength, e.ModeFieldDiameter/2)
+		f := fc.IdealFocalLength
+		switch {
+		case lastCyl >= 0 && lastCyl >= lastLens:
+			// The figure is a spherical lens's in place of the last lens,
+			// which here acts on one plane only.
+			fc.IdealFocalLength = [2]float64{math.NaN(), math.NaN()}
+			fc.IdealNote = fmt.Sprintf("not given: the last lens before the fibre is cylindrical (element %d), acting on one plane; no single spherical lens stands for it, so match each plane with its own optics", pb.Rows[lastCyl].Element.Index)
+		case !(math.IsNaN(f[0]) && math.IsNaN(f[1])) && !(math.Abs(f[0]-f[1]) < 1e-3*math.Abs(f[0])):
+			fc.IdealNote = "the beam is astigmatic there: one value per plane; no single spherical lens couples both planes fully"
+		}
 	}
 	return fc
 }

@@ -33,6 +33,7 @@ type stage struct {
 	clouds   map[string]*setup.Cloud        // by name
 	index    int                            // the element's index in the path, 0-based
 	lastLens int                            // index of the last lens since the start or the last fibre, -1 if none
+	lastCyl  int                            // index of the last cylindrical lens since then, -1 if none
 	beam     optics.Beam
 	frac     float64 // power fraction of the source
 	row      *Row
@@ -134,7 +135,7 @@ func applySplitter(s *stage, e *setup.Element) {
 }
 
 func applyFiber(s *stage, e *setup.Element) {
-	fc := s.pb.couple(e, s.beam, s.lastLens)
+	fc := s.pb.couple(e, s.beam, s.lastLens, s.lastCyl)
 	s.row.Fiber = fc
 	s.lose(LossCoupling, s.frac*(1-fc.Coupling))
 	s.frac *= fc.Coupling
@@ -144,7 +145,7 @@ func applyFiber(s *stage, e *setup.Element) {
 		w = optics.FiberOutputWaist(s.beam.Wavelength, e.OutputFocalLength, e.ModeFieldDiameter)
 	}
 	s.beam = optics.Beam{Wavelength: s.beam.Wavelength, X: optics.NewPlane(w, 0, 1, s.beam.Wavelength), Y: optics.NewPlane(w, 0, 1, s.beam.Wavelength)}
-	s.lastLens = -1
+	s.lastLens, s.lastCyl = -1, -1
 }
 
 func applyCombiner(s *stage, e *setup.Element) {
@@ -164,7 +165,7 @@ func applyCylLens(s *stage, e *setup.Element) {
 	}
 	s.stated(LossAbsorption, e.Transmission)
 	s.row.AssumedLossless = e.Transmission == nil
-	s.lastLens = s.index
+	s.lastLens, s.lastCyl = s.index, s.index
 }
 
 func applyDump(s *stage, e *setup.Element) {

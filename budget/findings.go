@@ -139,7 +139,7 @@ func (b *Budget) Findings() []Finding {
 				}
 				if r.Fiber != nil && !r.Fiber.Given && r.Fiber.Overlap < PoorModeOverlap {
 					out = append(out, Finding{Severity: SeverityNote, Kind: FindingModeMatch, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("%s: mode overlap with the fibre is only %.1f %%; the coupling optics do not match the beam to the mode (ideal coupling-lens focal length %s)",
-						where, 100*r.Fiber.Overlap, formatFocalPair(r.Fiber.IdealFocalLength))}.Figure(r.Fiber.Overlap, PoorModeOverlap, "1"))
+						where, 100*r.Fiber.Overlap, IdealText(r.Fiber))}.Figure(r.Fiber.Overlap, PoorModeOverlap, "1"))
 				}
 			}
 			for _, e := range pb.UnfollowedPorts {
@@ -210,6 +210,19 @@ func formatFocalPair(f [2]float64) string {
 		return show(f[0])
 	}
 	return fmt.Sprintf("x %s, y %s", show(f[0]), show(f[1]))
+}
+
+// IdealText is a fibre's ideal coupling-lens focal length as printed: the
+// pair (FormatFocalPair), with the note on an astigmatic beam, or the
+// note alone where none is given.
+func IdealText(fc *FiberCoupling) string {
+	switch {
+	case fc.IdealNote == "":
+		return formatFocalPair(fc.IdealFocalLength)
+	case math.IsNaN(fc.IdealFocalLength[0]) && math.IsNaN(fc.IdealFocalLength[1]):
+		return fc.IdealNote
+	}
+	return formatFocalPair(fc.IdealFocalLength) + " (" + fc.IdealNote + ")"
 }
 
 // FormatFocalPair writes the x and y ideal focal lengths, once when equal.

@@ -309,7 +309,8 @@ func (b *builder) fiberRecord(row *budget.Row, fc *budget.FiberCoupling) *Record
 		F(Len(dIdealFocalLengthXM, fc.IdealFocalLength[0])).
 		F(Len(dIdealFocalLengthYM, fc.IdealFocalLength[1])).
 		F(Len(dIdealFocalLengthForBeamAtM, fc.LensAt))
-	f.F(Field{d: dIdealFocalLengths, Kind: String, Text: budget.FormatFocalPair(fc.IdealFocalLength), People: true})
+	f.F(Field{d: dIdealFocalLengths, Kind: String, Text: budget.IdealText(fc), People: true})
+	f.F(Str(dIdealFocalLengthNote, fc.IdealNote))
 	f.F(Field{d: dModeFieldDiameter, Kind: Number, SI: e.ModeFieldDiameter, Text: units.FormatLength(e.ModeFieldDiameter), People: true})
 	head := fmt.Sprintf("fibre %d at %s: ", e.Index, units.FormatLength(e.At))
 	switch {

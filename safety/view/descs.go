@@ -239,6 +239,7 @@ var (
 	dIdealFocalLengthXM                 = &Desc{"ideal_focal_length_x_m", "ideal coupling-lens focal length x", "FiberCoupling.IdealFocalLength"}
 	dIdealFocalLengthYM                 = &Desc{"ideal_focal_length_y_m", "ideal coupling-lens focal length y", "FiberCoupling.IdealFocalLength"}
 	dIdealFocalLengths                  = &Desc{"ideal_focal_lengths", "ideal coupling-lens focal length", ""}
+	dIdealFocalLengthNote               = &Desc{"ideal_focal_length_note", "ideal focal length note", "FiberCoupling.IdealNote"}
 	dGoalResultImpossible               = &Desc{"impossible", "cannot be met", "GoalResult.Impossible"}
 	dRowIndex                           = &Desc{"index", "#", ""}
 	dElementIndex                       = &Desc{"index", "#", "Element.Index"}
