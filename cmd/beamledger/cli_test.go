@@ -9,6 +9,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"regexp"
 	"strings"
 	"testing"
 	"time"
@@ -479,5 +480,38 @@ func TestSchemaAndInitSchemaLine(t *testing.T) {
 	}
 	if _, _, code := runCLI(t, "init", "--schema", "a\nb", filepath.Join(t.TempDir(), "x.toml")); code != exitBadInput {
 		t.Errorf("a schema path with a line break: exit %d", code)
+	}
+}
+
+// report --html writes one self-contained HTML page, alone (no -o) or
+// beside the PDF; two runs with the same date give the same bytes; the
+// page carries the setup's SHA-256 the command prints.
+func TestReportWritesReproducibleHTML(t *testing.T) {
+	dir := t.TempDir()
+	env := map[string]string{"SOURCE_DATE_EPOCH": "1767225600"} // 2026-01-01
+	var pages [][]byte
+	for _, args := range [][]string{{"--html", filepath.Join(dir, "a.html")}, {"--html", filepath.Join(dir, "b.html"), "-o", filepath.Join(dir, "b.pdf")}} {
+		stdout, errOut, code := runCLIEnv(t, env, append([]string{"report", "../../testdata/examples/table-c.toml"}, args...)...)
+		if code != exitOK || !strings.Contains(stdout, "one HTML page") {
+			t.Fatalf("report %v: exit %d, %q, %q", args, code, stdout, errOut)
+		}
+		b, err := os.ReadFile(args[1])
+		if err != nil {
+			t.Fatal(err)
+		}
+		sha := regexp.MustCompile(`SHA-256 ([0-9a-f]{64})`).FindStringSubmatch(stdout)
+		if !bytes.HasPrefix(b, []byte("<!DOCTYPE html>")) || sha == nil || !bytes.Contains(b, []byte(sha[1])) {
+			t.Errorf("%s is not the page of the setup printed", args[1])
+		}
+		pages = append(pages, b)
+	}
+	if !bytes.Equal(pages[0], pages[1]) {
+		t.Error("two runs with the same SOURCE_DATE_EPOCH give different pages")
+	}
+	if _, err := os.Stat(filepath.Join(dir, "b.pdf")); err != nil {
+		t.Error("the PDF beside the page was not written")
+	}
+	if _, _, code := runCLIEnv(t, env, "report", "../../testdata/examples/table-c.toml"); code != exitBadInput {
+		t.Errorf("report without -o or --html: exit %d", code)
 	}
 }

@@ -22,7 +22,7 @@ var layers = [][]string{
 	{"safety/safetytest"},
 	{"safety/view", "safety/revision"},
 	{"safety/report"},
-	{"safety/pdf"},
+	{"safety/pdf", "safety/page"},
 	{"safety/verify"},
 	{"cmd/beamledger"},
 }

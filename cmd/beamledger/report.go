@@ -14,6 +14,7 @@ import (
 
 	"beamledger/budget/setup"
 	"beamledger/safety"
+	"beamledger/safety/page"
 	"beamledger/safety/pdf"
 	"beamledger/safety/report"
 	"beamledger/safety/revision"
@@ -22,6 +23,7 @@ import (
 type reportOptions struct {
 	file, output, date string
 	since, diagram     string
+	html               string
 	force              bool
 	tol                toleranceFlags
 }
@@ -29,8 +31,8 @@ type reportOptions struct {
 func (e *env) newReport() *cobra.Command {
 	o := &reportOptions{}
 	cmd := &cobra.Command{
-		Use:   "report FILE -o OUT.pdf",
-		Short: "Write the sign-off document of a setup as a PDF",
+		Use:   "report FILE -o OUT.pdf [--html OUT.html]",
+		Short: "Write the sign-off document of a setup as a PDF (and as one HTML page)",
 		Long: `report evaluates a setup as check does and writes the sign-off document: a
 title block with the SHA-256 of the setup file, a summary, the sources, every
 beam path with plots of its beam radius and power, the drive at the atoms, the
@@ -40,6 +42,11 @@ the responsible person.
 
 With --diagram FILE.svg the drawing of the beam paths (the document's
 second section) is also written as SVG, for wikis and lab notebooks.
+
+With --html OUT.html the same document is written as one self-contained
+HTML page (inline SVG and style, no scripts, nothing fetched), for a group's
+wiki; -o may then be left out. It carries the setup's SHA-256 and the setup
+file, and is reproducible byte for byte like the PDF.
 
 With --since OLD.toml the document opens with the changes since that
 revision: its title, revision and SHA-256, then what changed in the setup,
@@ -54,14 +61,16 @@ Exit status: 0 once the document is written, whatever it finds (its job is
 the document; check is the gate), 2 when the setup could not be used or the
 document could not be written.`,
 		Example: `  beamledger report testdata/examples/table-c.toml -o table-c.pdf
-  SOURCE_DATE_EPOCH=1767225600 beamledger report testdata/examples/table-c.toml -o table-c.pdf --force`,
+  SOURCE_DATE_EPOCH=1767225600 beamledger report testdata/examples/table-c.toml -o table-c.pdf --force
+  beamledger report testdata/examples/table-c.toml --html table-c.html`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			o.file = args[0]
 			return e.runReport(o)
 		},
 	}
-	cmd.Flags().StringVarP(&o.output, "output", "o", "", "the PDF to write (required)")
+	cmd.Flags().StringVarP(&o.output, "output", "o", "", "the PDF to write (required unless --html is given)")
+	cmd.Flags().StringVar(&o.html, "html", "", "also (or only) write the document as one self-contained HTML page to this file")
 	cmd.Flags().StringVar(&o.date, "date", "", "the document date, YYYY-MM-DD (default: SOURCE_DATE_EPOCH, else today)")
 	cmd.Flags().BoolVar(&o.force, "force", false, "replace an existing output file")
 	cmd.Flags().StringVar(&o.diagram, "diagram", "", "also write the drawing of the beam paths as SVG to this file")
@@ -93,15 +102,25 @@ func (e *env) reportDate(flag string) (time.Time, error) {
 }
 
 func (e *env) runReport(o *reportOptions) error {
-	if o.output == "" {
-		return fmt.Errorf("-o OUT.pdf is required")
+	if o.output == "" && o.html == "" {
+		return fmt.Errorf("-o OUT.pdf (or --html OUT.html) is required")
 	}
 	date, err := e.reportDate(o.date)
 	if err != nil {
 		return err
 	}
-	if err := checkOutput(o.file, o.output, o.force); err != nil {
-		return err
+	if o.output != "" {
+		if err := checkOutput(o.file, o.output, o.force); err != nil {
+			return err
+		}
+	}
+	if o.html != "" {
+		if err := checkOutput(o.file, o.html, o.force); err != nil {
+			return fmt.Errorf("--html: %w", err)
+		}
+		if filepath.Clean(o.html) == filepath.Clean(o.output) || filepath.Clean(o.html) == filepath.Clean(o.diagram) {
+			return fmt.Errorf("--html %s is the name of another output; give the page a name of its own", o.html)
+		}
 	}
 	if o.diagram != "" {
 		if err := checkOutput(o.file, o.diagram, o.force); err != nil {
@@ -147,21 +166,48 @@ func (e *env) runReport(o *reportOptions) error {
 			return err
 		}
 	}
-	if err := writeAtomically(o.output, e.interrupts, func(f *os.File) error {
-		return pdf.Write(f, doc, pdf.Options{Date: date, Compress: true})
-	}); err != nil {
-		return err
+	var htmlPage bytes.Buffer
+	if o.html != "" {
+		if err := page.Write(&htmlPage, doc); err != nil {
+			return err
+		}
 	}
-	if _, err := fmt.Fprintf(e.stdout, "wrote %s (%s, setup SHA-256 %s)\n", o.output, doc.Date, doc.SetupSHA256); err != nil {
-		return err
+	var written []string // removed again if a later output fails
+	if o.output != "" {
+		if err := writeAtomically(o.output, e.interrupts, func(f *os.File) error {
+			return pdf.Write(f, doc, pdf.Options{Date: date, Compress: true})
+		}); err != nil {
+			return err
+		}
+		written = append(written, o.output)
+		if _, err := fmt.Fprintf(e.stdout, "wrote %s (%s, setup SHA-256 %s)\n", o.output, doc.Date, doc.SetupSHA256); err != nil {
+			return err
+		}
+	}
+	if o.html != "" {
+		if err := writeAtomically(o.html, e.interrupts, func(f *os.File) error {
+			_, err := f.Write(htmlPage.Bytes())
+			return err
+		}); err != nil {
+			for _, w := range written {
+				os.Remove(w)
+			}
+			return fmt.Errorf("--html: %w (nothing else was left written)", err)
+		}
+		written = append(written, o.html)
+		if _, err := fmt.Fprintf(e.stdout, "wrote %s (%s, setup SHA-256 %s, one HTML page)\n", o.html, doc.Date, doc.SetupSHA256); err != nil {
+			return err
+		}
 	}
 	if o.diagram != "" {
 		if err := writeAtomically(o.diagram, e.interrupts, func(f *os.File) error {
 			_, err := f.Write(svg.Bytes())
 			return err
 		}); err != nil {
-			os.Remove(o.output)
-			return fmt.Errorf("--diagram: %w (the PDF was removed too)", err)
+			for _, w := range written {
+				os.Remove(w)
+			}
+			return fmt.Errorf("--diagram: %w (the other outputs were removed too)", err)
 		}
 		if _, err := fmt.Fprintf(e.stdout, "wrote %s (the drawing of the beam paths)\n", o.diagram); err != nil {
 			return err

@@ -83,6 +83,6 @@ officer under local regulations.`,
 	root.Version = version
 	root.SetVersionTemplate("beamledger {{.Version}}\n")
 	root.CompletionOptions.DisableDefaultCmd = true
-	root.AddCommand(e.newCheck(), e.newReport(), e.newLimits(), e.newInit(), e.newTransitions(), e.newVerify(), e.newDiff(), e.newSchema(), e.newVersion(), e.newCompletion(root))
+	root.AddCommand(e.newCheck(), e.newReport(), e.newServe(), e.newLimits(), e.newInit(), e.newTransitions(), e.newVerify(), e.newDiff(), e.newSchema(), e.newVersion(), e.newCompletion(root))
 	return root
 }

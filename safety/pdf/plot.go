@@ -5,8 +5,6 @@ import (
 
 	"math"
 	"sort"
-	"strconv"
-	"strings"
 
 	"beamledger/safety/view"
 )
@@ -21,96 +19,19 @@ type axis struct {
 }
 
 func (a axis) at(v float64) float64 {
-	if a.log {
-		v, lo, hi := math.Log10(v), math.Log10(a.lo), math.Log10(a.hi)
-		return a.p0 + (v-lo)/(hi-lo)*(a.p1-a.p0)
-	}
-	return a.p0 + (v-a.lo)/(a.hi-a.lo)*(a.p1-a.p0)
+	return view.Axis{Lo: a.lo, Hi: a.hi, Log: a.log}.At(v, a.p0, a.p1)
 }
 
-// ticks returns tick values: decades for a log axis, 1-2-5 steps otherwise.
-func (a axis) ticks() []float64 {
-	var out []float64
-	if a.log {
-		for e := math.Floor(math.Log10(a.lo)); e <= math.Ceil(math.Log10(a.hi)); e++ {
-			if v := math.Pow(10, e); v >= a.lo*(1-1e-9) && v <= a.hi*(1+1e-9) {
-				out = append(out, v)
-			}
-		}
-		return out
-	}
-	step := niceStep((a.hi - a.lo) / 6)
-	for k := math.Ceil(a.lo/step - 1e-9); k*step <= a.hi+step*1e-9; k++ {
-		// Round away the float noise of k·step (0.6000000000000001).
-		v, _ := strconv.ParseFloat(strconv.FormatFloat(k*step, 'g', 12, 64), 64)
-		out = append(out, v)
-	}
-	return out
-}
+// ticks are the axis's tick values (view.Axis.Ticks).
+func (a axis) ticks() []float64 { return view.Axis{Lo: a.lo, Hi: a.hi, Log: a.log}.Ticks() }
 
-func niceStep(raw float64) float64 {
-	if raw <= 0 || math.IsNaN(raw) {
-		return 1
-	}
-	e := math.Pow(10, math.Floor(math.Log10(raw)))
-	for _, m := range []float64{1, 2, 5, 10} {
-		if m*e >= raw {
-			return m * e
-		}
-	}
-	return 10 * e
-}
-
-// label writes a tick value briefly: plain digits for ordinary magnitudes,
-// else a short exponent form ("1e-6").
-func label(v float64) string {
-	a := math.Abs(v)
-	if v == 0 {
-		return "0" // never "-0"
-	}
-	if a >= 1e-3 && a < 1e6 {
-		return strconv.FormatFloat(v, 'f', -1, 64)
-	}
-	s := strconv.FormatFloat(v, 'g', 3, 64)
-	s = strings.Replace(s, "e-0", "e-", 1)
-	return strings.Replace(strings.Replace(s, "e+0", "e", 1), "e+", "e", 1)
-}
-
-// plottable reports whether v can be drawn: a finite number, and positive
-// on a log axis. Other points are left out, never drawn as NaN or Inf
-// operands, which PDF readers refuse.
-func plottable(v float64, log bool) bool {
-	return !math.IsNaN(v) && !math.IsInf(v, 0) && (!log || v > 0)
-}
-
-// dataRange finds the extent of the values, padded; for a log axis only
-// positive values count.
-func dataRange(vals []float64, log, fromZero bool) (float64, float64) {
-	lo, hi := math.Inf(1), math.Inf(-1)
-	for _, v := range vals {
-		if !plottable(v, log) {
-			continue
-		}
-		lo, hi = math.Min(lo, v), math.Max(hi, v)
-	}
-	if math.IsInf(lo, 1) {
-		return 0, 1
-	}
-	if log {
-		return math.Pow(10, math.Floor(math.Log10(lo))), math.Pow(10, math.Ceil(math.Log10(hi)+1e-12))
-	}
-	if fromZero && lo > 0 {
-		lo = 0
-	}
-	if hi == lo {
-		hi = lo + 1
-	}
-	pad := 0.05 * (hi - lo)
-	if lo != 0 {
-		lo -= pad
-	}
-	return lo, hi + pad
-}
+// The shared plot helpers of view.
+var (
+	label     = view.TickLabel
+	plottable = view.Plottable
+	dataRange = view.DataRange
+	roundTo3  = view.RoundTo3
+)
 
 func (w *writer) plot(p *view.Plot) {
 	f := w.f
@@ -247,11 +168,6 @@ func (w *writer) plot(p *view.Plot) {
 	}
 	f.SetLineWidth(0.2)
 	f.SetY(top + plotHeight)
-}
-
-func roundTo3(v float64) float64 {
-	f, _ := strconv.ParseFloat(strconv.FormatFloat(v, 'g', 3, 64), 64)
-	return f
 }
 
 func (w *writer) bars(p *view.Plot, x0, x1, y0, y1 float64) {

@@ -65,6 +65,21 @@ func WriteSVG(w io.Writer, title string, ds []*Drawing) error {
 	return bw.Flush()
 }
 
+// WriteInlineSVG writes one drawing as an <svg> element for an HTML page
+// (no XML declaration): the same shapes, its user unit the millimetre,
+// scaled to the page's width, titled by the drawing's title.
+func WriteInlineSVG(w io.Writer, d *Drawing) error {
+	bw := bufio.NewWriter(w)
+	fmt.Fprintf(bw, `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 %s %s" width="100%%" role="img" font-family="Go, sans-serif"><title>%s</title>
+<rect x="0" y="0" width="%s" height="%s" fill="white"/>
+`, num(d.Width), num(d.Height), esc(d.Title), num(d.Width), num(d.Height))
+	for _, s := range d.Shapes {
+		writeShapeSVG(bw, s)
+	}
+	bw.WriteString("</svg>")
+	return bw.Flush()
+}
+
 // ptMM is one typographic point in mm.
 const ptMM = 0.3528
 
