@@ -72,3 +72,14 @@ func BenchmarkTolerances200(b *testing.B) {
 		drive.Tolerances(s, d, drive.DefaultSamples, drive.DefaultSeed, 0)
 	}
 }
+
+// The generated labs with tolerances load (the benchmark lab among them):
+// every tolerance the generator writes is one the loader accepts.
+func TestGeneratedTolerancesLoad(t *testing.T) {
+	for seed := uint64(1); seed <= 8; seed++ {
+		s, _ := computed(t, seed, synth.Options{Lasers: 10, ElementsPerPath: 19, Tolerances: true})
+		if len(s.Tolerances) == 0 {
+			t.Errorf("seed %d: no tolerances generated", seed)
+		}
+	}
+}

@@ -144,6 +144,10 @@ var toleranceKeys = map[string][2]float64{
 	"waist": {1e-7, 10}, "waist_at": {-1e5, 1e5},
 }
 
+// boundedLoss are the loss values, whose domains are physical bounds that a
+// normal tolerance is truncated to.
+var boundedLoss = map[string]bool{"transmission": true, "reflectivity": true, "efficiency": true, "alignment": true, "coupling": true, "join_transmission": true, "optical_density": true}
+
 // splitTolerance splits "a .. b", "x ± s" or "x +/- s"; ok is false when s
 // is not written so.
 func splitTolerance(s string) (a, b string, normal, ok bool) {
@@ -216,10 +220,12 @@ func (t *table) tolerance(key, x, a, b string, normal bool, dim units.Dimension)
 			t.fail(key, "%q: the mean lies outside the value's physical domain [%g, %g]", x, dom[0], dom[1])
 			return 0, false
 		}
-		// The samples and the worst case reach mean ± 3σ: that must be a
-		// value the setup could hold written directly (a waist, a focal
-		// length of the same sign, …), not the domain's floor.
-		if lo, hi := pa-3*pb, pa+3*pb; lo < dom[0] || hi > dom[1] {
+		// The samples and the worst case reach mean ± 3σ: for a size, a
+		// power or a position that must be a value the setup could hold
+		// written directly (a waist, a focal length of the same sign, …),
+		// not the domain's floor. A loss value's bounds are physical (no
+		// transmission above 1): there the truncated normal is the model.
+		if lo, hi := pa-3*pb, pa+3*pb; !boundedLoss[k] && (lo < dom[0] || hi > dom[1]) {
 			t.fail(key, "%q: mean ± 3σ (%s to %s) leaves what %s may be (%s to %s); a standard deviation up to %s keeps it inside",
 				x, formatAs(lo, dim), formatAs(hi, dim), k, formatAs(dom[0], dim), formatAs(dom[1], dim), formatAs(roundDown(math.Min(pa-dom[0], dom[1]-pa)/3), dim))
 			return 0, false

@@ -21,6 +21,7 @@ from = "l"
   type = "lens"
   at = "AT"
   focal_length = "FOCAL"
+  transmission = "0.995 ± 0.005"
 
   [[path.element]]
   type = "dump"
@@ -32,7 +33,8 @@ from = "l"
 // reach) must stay where the value could be written directly; the message
 // gives the largest σ that does, rounded down (1.5 mm − 0.1 µm over 3 is
 // 499.97 µm: "499 µm", never "500 µm"). A position must stay between its
-// neighbours. By hand.
+// neighbours. A loss value keeps its truncated normal (no transmission
+// above 1). By hand.
 func TestToleranceStaysInItsDomain(t *testing.T) {
 	for _, c := range []struct{ waist, at, focal, want string }{
 		{"1 mm", "100 mm", "200 mm", ""},
@@ -44,6 +46,7 @@ func TestToleranceStaysInItsDomain(t *testing.T) {
 		{"1 mm", "250 mm ± 20 mm", "200 mm", "the position may range from 0 m to 300 mm"},
 		{"1 mm", "250 mm .. 299 mm", "200 mm", ""},
 		{"1 mm", "250 mm .. 301 mm", "200 mm", "past its neighbours"},
+		{"1 mm", "100 mm", "200 mm", ""}, // with the lens's transmission below
 	} {
 		src := strings.NewReplacer("WAIST", c.waist, "AT", c.at, "FOCAL", c.focal).Replace(tolLab)
 		ps := strings.Join(loadProblems(src), "\n")
