@@ -132,13 +132,16 @@ func (col CloudColumn) Absorb(p, wx, wy float64) Absorption {
 		ix[k], iy[k] = math.Exp(-2*x*x/(wx*wx)), math.Exp(-2*y*y/(wy*wy))
 		bx[k], by[k] = math.Exp(-x*x/(2*col.σx*col.σx)), math.Exp(-y*y/(2*col.σy*col.σy))
 	}
+	// The integrand is even in x and in y, and the nodes are symmetric
+	// about zero (an even count): one quadrant, four times.
+	const half = quadNodes / 2
 	absorbed := 0.0
-	for i := range nodes.x {
-		for j := range nodes.x {
+	for i := half; i < quadNodes; i++ {
+		for j := half; j < quadNodes; j++ {
 			absorbed += nodes.w[i] * nodes.w[j] * ray(i0*ix[i]*iy[j], col.B0*bx[i]*by[j])
 		}
 	}
-	absorbed *= X * Y * col.isat
+	absorbed *= 4 * X * Y * col.isat
 	ab.Transmission = math.Max(0, 1-absorbed/p)
 	return ab
 }

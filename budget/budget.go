@@ -5,6 +5,7 @@ import (
 	"beamledger/budget/setup"
 	"fmt"
 	"math"
+	"slices"
 	"sort"
 )
 
@@ -348,13 +349,20 @@ func (pb *PathBudget) propagate(file string, followed map[*setup.Element]*setup.
 		}
 	}
 	lastLens, lastCyl := -1, -1
+	n := len(p.Elements) - pb.First
+	pb.Rows = slices.Grow(pb.Rows, n)
+	pb.Segments = slices.Grow(pb.Segments, n+1)
+	// One stage and one row for the walk, filled anew at each element
+	// (a tolerance run walks every path for every sample).
+	var row Row
+	st := &stage{pb: pb, followed: followed, clouds: clouds, row: &row, power: power, atOperating: atOperating, shifts: shifts}
 	for i := pb.First; i < len(p.Elements); i++ {
 		e := p.Elements[i]
 		joining := i == pb.First && pb.Combiner != nil
 		pb.Segments = append(pb.Segments, Segment{From: pos, To: e.At, After: after, Beam: beam, Fraction: frac, Access: access, Arrival: joining})
 		beam = beam.Propagate(e.At - pos)
 		pos = e.At
-		row := Row{Element: e, BeamIn: beam, FractionIn: frac, ClipFraction: 1}
+		row = Row{Element: e, BeamIn: beam, FractionIn: frac, ClipFraction: 1}
 		el := e.For(pb.Laser)
 		// Clipping at the clear aperture (or the iris of an aperture element).
 		if clear := el.ClearAperture(); clear > 0 {
@@ -365,7 +373,7 @@ func (pb *PathBudget) propagate(file string, followed map[*setup.Element]*setup.
 			}
 			frac *= row.ClipFraction
 		}
-		st := &stage{pb: pb, followed: followed, clouds: clouds, index: len(pb.Rows), lastLens: lastLens, lastCyl: lastCyl, beam: beam, frac: frac, row: &row, joining: joining, power: power, atOperating: atOperating, shifts: shifts}
+		st.index, st.lastLens, st.lastCyl, st.beam, st.frac, st.joining = len(pb.Rows), lastLens, lastCyl, beam, frac, joining
 		effects[e.Type](st, el)
 		beam, frac, lastLens, lastCyl = st.beam, st.frac, st.lastLens, st.lastCyl
 		if !beam.Valid() {

@@ -147,7 +147,10 @@ func TolerancesWithProgress(s *setup.Setup, drive []*AtomsResult, samples int, s
 		return nil
 	}
 	nt := len(s.Tolerances)
-	inputs := make([]float64, samples*nt)
+	// The margins goal by goal (each goal's samples in one run, which its
+	// GoalTolerance keeps without a copy); the inputs are not kept: a
+	// sample's are drawn again from its own stream where the regression
+	// needs them (sampleInputs), so memory grows only with the margins.
 	results := make([]float64, samples*len(refs))
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
@@ -179,14 +182,15 @@ func TolerancesWithProgress(s *setup.Setup, drive []*AtomsResult, samples int, s
 		go func() {
 			defer wg.Done()
 			c := s.Clone()
+			x := make([]float64, nt)
 			for i := w; i < samples; i += workers {
-				r := rand.New(rand.NewPCG(seed, uint64(i)))
-				x := inputs[i*nt : (i+1)*nt]
+				sampleInputs(s.Tolerances, seed, i, x)
 				for j, t := range s.Tolerances {
-					x[j] = t.Tol.Sample(r)
 					t.Apply(c, x[j])
 				}
-				copy(results[i*len(refs):], margins(c, refs))
+				for g, m := range margins(c, refs) {
+					results[g*samples+i] = m
+				}
 				done.Add(1)
 			}
 		}()
@@ -209,6 +213,7 @@ func TolerancesWithProgress(s *setup.Setup, drive []*AtomsResult, samples int, s
 		t.Apply(c, t.Tol.Nominal())
 	}
 	out := map[any]*GoalTolerance{}
+	var all []*GoalTolerance // in the order of refs
 	for g, a := range owners {
 		w := s.Clone()
 		for j, t := range s.Tolerances {
@@ -220,11 +225,9 @@ func TolerancesWithProgress(s *setup.Setup, drive []*AtomsResult, samples int, s
 			}
 		}
 		gt := &GoalTolerance{Samples: samples, Seed: seed, Nominal: nominal[g], Worst: margins(w, refs)[g]}
-		gt.Margins = make([]float64, samples)
+		gt.Margins = results[g*samples : (g+1)*samples : (g+1)*samples]
 		met := 0
-		for i := range samples {
-			m := results[i*len(refs)+g]
-			gt.Margins[i] = m
+		for _, m := range gt.Margins {
 			if m >= 0 {
 				met++
 			}
@@ -233,68 +236,153 @@ func TolerancesWithProgress(s *setup.Setup, drive []*AtomsResult, samples int, s
 		sorted := slices.Clone(gt.Margins)
 		slices.Sort(sorted)
 		gt.P05, gt.P50, gt.P95 = numeric.Percentile(sorted, 0.05), numeric.Percentile(sorted, 0.5), numeric.Percentile(sorted, 0.95)
-		gt.Contributors = contributors(s.Tolerances, inputs, gt.Margins)
 		out[a] = gt
+		all = append(all, gt)
+	}
+	ys := make([][]float64, len(all))
+	for g, gt := range all {
+		ys[g] = gt.Margins
+	}
+	for g, cs := range contributors(s.Tolerances, seed, ys) {
+		all[g].Contributors = cs
 	}
 	return out
 }
 
+// sampleInputs draws sample i's value of every toleranced input into x,
+// each from the sample's own stream (PCG seeded by the seed and i): the
+// same values wherever and however often they are drawn.
+func sampleInputs(ts []*setup.Toleranced, seed uint64, i int, x []float64) {
+	r := rand.New(rand.NewPCG(seed, uint64(i)))
+	for j, t := range ts {
+		x[j] = t.Tol.Sample(r)
+	}
+}
+
 // contributors ranks the inputs by their standardized regression
-// coefficients on the margin (samples with a finite margin only):
-// share = SRC²/ΣSRC².
-func contributors(ts []*setup.Toleranced, inputs, y []float64) []Contributor {
+// coefficients on each goal's margins ys[g] (samples with a finite margin
+// only): share = SRC²/ΣSRC², the SRCs solving the normal equations of the
+// inputs' covariance, C_xx β = C_xy, scaled by σ_x/σ_y. The covariances
+// are summed in one pass over the samples, whose inputs are drawn again
+// (sampleInputs); goals whose finite samples are the same rows share one
+// Cholesky factorization.
+func contributors(ts []*setup.Toleranced, seed uint64, ys [][]float64) [][]Contributor {
 	nt := len(ts)
-	var rows []int
-	for i, v := range y {
-		if !math.IsInf(v, 0) && !math.IsNaN(v) {
-			rows = append(rows, i)
-		}
+	out := make([][]Contributor, len(ys))
+	if len(ys) == 0 {
+		return out
 	}
-	if len(rows) <= nt+1 {
-		return nil
+	n := len(ys[0])
+	type group struct {
+		finite []bool // the samples it counts
+		goals  []int
+		count  float64
+		sx     []float64 // Σ (x − x0), and Σ (x − x0)(x − x0)ᵀ
+		sxx    []float64
+		sy     []float64 // per goal: Σ y, Σ y², Σ (x − x0) y
+		syy    []float64
+		sxy    [][]float64
 	}
-	standard := func(get func(i int) float64) (mean, sd float64) {
-		for _, i := range rows {
-			mean += get(i)
-		}
-		mean /= float64(len(rows))
-		for _, i := range rows {
-			d := get(i) - mean
-			sd += d * d
-		}
-		return mean, math.Sqrt(sd / float64(len(rows)-1))
-	}
-	X := mat.NewDense(len(rows), nt, nil)
-	Y := mat.NewDense(len(rows), 1, nil)
-	for j := range nt {
-		mj, sj := standard(func(i int) float64 { return inputs[i*nt+j] })
-		for k, i := range rows {
-			v := 0.0
-			if sj > 0 {
-				v = (inputs[i*nt+j] - mj) / sj
+	var groups []*group
+	for g, y := range ys {
+		finite := make([]bool, n)
+		count := 0
+		for i, v := range y {
+			finite[i] = !math.IsInf(v, 0) && !math.IsNaN(v)
+			if finite[i] {
+				count++
 			}
-			X.Set(k, j, v)
+		}
+		if count <= nt+1 {
+			continue
+		}
+		k := slices.IndexFunc(groups, func(gr *group) bool { return slices.Equal(gr.finite, finite) })
+		if k < 0 {
+			groups = append(groups, &group{finite: finite, count: float64(count), sx: make([]float64, nt), sxx: make([]float64, nt*nt)})
+			k = len(groups) - 1
+		}
+		gr := groups[k]
+		gr.goals = append(gr.goals, g)
+		gr.sy, gr.syy, gr.sxy = append(gr.sy, 0), append(gr.syy, 0), append(gr.sxy, make([]float64, nt))
+	}
+	if len(groups) == 0 {
+		return out
+	}
+	// Shifted by the nominal values, against cancellation in the sums.
+	x0 := make([]float64, nt)
+	for j, t := range ts {
+		x0[j] = t.Tol.Nominal()
+	}
+	x := make([]float64, nt)
+	for i := range n {
+		sampleInputs(ts, seed, i, x)
+		for j := range x {
+			x[j] -= x0[j]
+		}
+		for _, gr := range groups {
+			if !gr.finite[i] {
+				continue
+			}
+			for j := range nt {
+				gr.sx[j] += x[j]
+				row := gr.sxx[j*nt : (j+1)*nt]
+				for k := j; k < nt; k++ {
+					row[k] += x[j] * x[k]
+				}
+			}
+			for q, g := range gr.goals {
+				y := ys[g][i]
+				gr.sy[q] += y
+				gr.syy[q] += y * y
+				for j := range nt {
+					gr.sxy[q][j] += x[j] * y
+				}
+			}
 		}
 	}
-	my, sy := standard(func(i int) float64 { return y[i] })
-	if !(sy > 0) {
-		return nil
+	for _, gr := range groups {
+		m := gr.count
+		cov := mat.NewSymDense(nt, nil)
+		sd := make([]float64, nt)
+		for j := range nt {
+			for k := j; k < nt; k++ {
+				cov.SetSym(j, k, (gr.sxx[j*nt+k]-gr.sx[j]*gr.sx[k]/m)/(m-1))
+			}
+			sd[j] = math.Sqrt(cov.At(j, j))
+		}
+		var ch mat.Cholesky
+		if !ch.Factorize(cov) {
+			continue // an input without spread: no unique coefficients
+		}
+		if cond := ch.Cond(); math.IsInf(cond, 1) || cond > mat.ConditionTolerance {
+			continue
+		}
+		for q, g := range gr.goals {
+			vy := (gr.syy[q] - gr.sy[q]*gr.sy[q]/m) / (m - 1)
+			if !(vy > 0) {
+				continue
+			}
+			cxy := mat.NewVecDense(nt, nil)
+			for j := range nt {
+				cxy.SetVec(j, (gr.sxy[q][j]-gr.sx[j]*gr.sy[q]/m)/(m-1))
+			}
+			var β mat.VecDense
+			if err := ch.SolveVecTo(&β, cxy); err != nil {
+				continue
+			}
+			src := make([]float64, nt)
+			total := 0.0
+			for j := range nt {
+				src[j] = β.AtVec(j) * sd[j] / math.Sqrt(vy)
+				total += src[j] * src[j]
+			}
+			cs := make([]Contributor, nt)
+			for j := range nt {
+				cs[j] = Contributor{Input: ts[j], Share: src[j] * src[j] / total}
+			}
+			slices.SortStableFunc(cs, func(a, b Contributor) int { return numeric.CmpFloat(b.Share, a.Share) })
+			out[g] = cs
+		}
 	}
-	for k, i := range rows {
-		Y.Set(k, 0, (y[i]-my)/sy)
-	}
-	var β mat.Dense
-	if err := β.Solve(X, Y); err != nil {
-		return nil
-	}
-	total := 0.0
-	for j := range nt {
-		total += β.At(j, 0) * β.At(j, 0)
-	}
-	out := make([]Contributor, nt)
-	for j := range nt {
-		out[j] = Contributor{Input: ts[j], Share: β.At(j, 0) * β.At(j, 0) / total}
-	}
-	slices.SortStableFunc(out, func(a, b Contributor) int { return numeric.CmpFloat(b.Share, a.Share) })
 	return out
 }
