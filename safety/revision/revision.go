@@ -490,7 +490,13 @@ func hazardEntries(a *safety.Assessment, ids *idMap, old bool) map[string]entry 
 		figs := map[string]float64{"eye_ratio": e.CombinedEyeRatio, "skin_ratio": e.CombinedSkinRatio, "od": e.OD}
 		text := fmt.Sprintf("eye %s × MPE, skin %s × MPE, OD %g", units.FormatRatio(e.CombinedEyeRatio), units.FormatRatio(e.CombinedSkinRatio), e.OD)
 		if e.OpenEnd {
-			figs["nohd_m"] = e.NOHD
+			// A distance beyond the search is a figure of its own, the
+			// search's reach, as check writes it: never a non-finite number.
+			if math.IsInf(e.NOHD, 1) {
+				figs["nohd_beyond_m"] = safety.MaxHazardDistance
+			} else {
+				figs["nohd_m"] = e.NOHD
+			}
 			text += ", open end, NOHD " + units.FormatDistance(e.NOHD, safety.MaxHazardDistance)
 		}
 		out["seg|"+what] = entry{"open_segment", what, text, figs}
@@ -640,12 +646,15 @@ func Moved(a, b float64) bool {
 
 func figures(a, b map[string]float64) []Figure {
 	var out []Figure
+	finite := func(v float64) bool { return !math.IsInf(v, 0) && !math.IsNaN(v) }
 	for _, k := range unionKeys(a, b) {
 		f := Figure{Key: k}
-		if v, ok := a[k]; ok {
+		// A figure that is not a finite number has no value to write (the
+		// text says what it is); JSON would refuse it.
+		if v, ok := a[k]; ok && finite(v) {
 			f.Old = &v
 		}
-		if v, ok := b[k]; ok {
+		if v, ok := b[k]; ok && finite(v) {
 			f.New = &v
 		}
 		out = append(out, f)
