@@ -3,6 +3,7 @@ package safety
 import (
 	"fmt"
 	"slices"
+	"time"
 
 	"beamledger/budget"
 	"beamledger/budget/drive"
@@ -37,6 +38,10 @@ type Options struct {
 	// Progress, when set, is told the samples done of the total while
 	// the analysis runs (drive.TolerancesWithProgress).
 	Progress func(done, total int)
+	// Estimate and Stop as for drive.Run: told the analysis's likely
+	// duration before it starts, and ending it early when closed.
+	Estimate func(time.Duration)
+	Stop     <-chan struct{}
 }
 
 // DefaultOptions are the analysis's defaults.
@@ -69,7 +74,7 @@ func EvaluateWith(s *setup.Setup, o Options) (*Assessment, error) {
 		if o.Progress != nil {
 			progress = func(done int) { o.Progress(done, o.Samples) }
 		}
-		a.Tolerances = drive.TolerancesWithProgress(s, a.Atoms, o.Samples, o.Seed, o.Workers, progress)
+		a.Tolerances = drive.TolerancesRun(s, a.Atoms, drive.Run{Samples: o.Samples, Seed: o.Seed, Workers: o.Workers, Progress: progress, Estimate: o.Estimate, Stop: o.Stop})
 	}
 	a.Findings = append(a.Findings, a.HazardBudget.Findings()...)
 	a.Findings = append(a.Findings, drive.DriveFindings(a.Atoms)...)

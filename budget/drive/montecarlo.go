@@ -22,8 +22,11 @@ const (
 
 // GoalTolerance is the tolerance analysis of one goal's margin, dB.
 type GoalTolerance struct {
-	Samples int
-	Seed    uint64
+	// Samples are the samples the figures are of; Requested those asked
+	// for (more when the run was stopped: Interrupted).
+	Samples, Requested int
+	Interrupted        bool
+	Seed               uint64
 	// Nominal is the margin at the nominal values; Worst with every
 	// toleranced value at the end that hurts the goal (±3σ for normals);
 	// P05, P50 and P95 the percentiles of the samples.
@@ -108,6 +111,9 @@ func Tolerances(s *setup.Setup, drive []*AtomsResult, samples int, seed uint64, 
 	return TolerancesWithProgress(s, drive, samples, seed, workers, nil)
 }
 
+// EstimateAfter is how far into a run its duration is projected.
+const EstimateAfter = 750 * time.Millisecond
+
 // ProgressEvery is how often TolerancesWithProgress reports the samples
 // done.
 const ProgressEvery = 250 * time.Millisecond
@@ -117,6 +123,29 @@ const ProgressEvery = 250 * time.Millisecond
 // run, and once with all of them at the end; progress runs on its own
 // goroutine, never two calls at once.
 func TolerancesWithProgress(s *setup.Setup, drive []*AtomsResult, samples int, seed uint64, workers int, progress func(done int)) map[any]*GoalTolerance {
+	return TolerancesRun(s, drive, Run{Samples: samples, Seed: seed, Workers: workers, Progress: progress})
+}
+
+// Run is how a tolerance analysis runs.
+type Run struct {
+	Samples int
+	Seed    uint64
+	Workers int // 0: all cores
+	// Progress as for TolerancesWithProgress.
+	Progress func(done int)
+	// Estimate, when set, is told once, EstimateAfter into the run, how
+	// long the whole run is likely to take (projected from the samples done
+	// by then); a run that ends sooner tells nothing.
+	Estimate func(time.Duration)
+	// Stop, when it closes, ends the run early: the figures are then of
+	// the first samples all done (in the order of their numbers, so the
+	// same on any number of cores), marked Interrupted.
+	Stop <-chan struct{}
+}
+
+// TolerancesRun is Tolerances with the run's options.
+func TolerancesRun(s *setup.Setup, drive []*AtomsResult, run Run) map[any]*GoalTolerance {
+	samples, seed, workers, progress := run.Samples, run.Seed, run.Workers, run.Progress
 	if len(s.Tolerances) == 0 || samples <= 0 {
 		return nil
 	}
@@ -156,22 +185,36 @@ func TolerancesWithProgress(s *setup.Setup, drive []*AtomsResult, samples int, s
 		workers = runtime.GOMAXPROCS(0)
 	}
 	workers = max(1, min(workers, samples))
+	nominal := margins(s.Clone(), refs)
+	completed := make([]bool, samples)
+	start := time.Now()
 	var done atomic.Int64
 	stop := make(chan struct{})
 	reported := make(chan struct{})
 	go func() {
 		defer close(reported)
-		if progress == nil {
+		if progress == nil && run.Estimate == nil {
 			return
 		}
 		tick := time.NewTicker(ProgressEvery)
 		defer tick.Stop()
+		estimated := run.Estimate == nil
 		for {
 			select {
 			case <-tick.C:
-				progress(int(done.Load()))
+				n := int(done.Load())
+				if progress != nil {
+					progress(n)
+				}
+				// The whole run's time, projected from its first samples.
+				if el := time.Since(start); !estimated && n > 0 && el >= EstimateAfter {
+					run.Estimate(time.Duration(float64(el) * float64(samples) / float64(n)))
+					estimated = true
+				}
 			case <-stop:
-				progress(samples)
+				if progress != nil {
+					progress(samples)
+				}
 				return
 			}
 		}
@@ -184,6 +227,11 @@ func TolerancesWithProgress(s *setup.Setup, drive []*AtomsResult, samples int, s
 			c := s.Clone()
 			x := make([]float64, nt)
 			for i := w; i < samples; i += workers {
+				select {
+				case <-run.Stop:
+					return
+				default:
+				}
 				sampleInputs(s.Tolerances, seed, i, x)
 				for j, t := range s.Tolerances {
 					t.Apply(c, x[j])
@@ -191,6 +239,7 @@ func TolerancesWithProgress(s *setup.Setup, drive []*AtomsResult, samples int, s
 				for g, m := range margins(c, refs) {
 					results[g*samples+i] = m
 				}
+				completed[i] = true
 				done.Add(1)
 			}
 		}()
@@ -198,10 +247,18 @@ func TolerancesWithProgress(s *setup.Setup, drive []*AtomsResult, samples int, s
 	wg.Wait()
 	close(stop)
 	<-reported
+	// The figures are of the first samples all done (all of them unless
+	// the run was stopped).
+	requested := samples
+	if k := slices.Index(completed, false); k >= 0 {
+		samples = k
+	}
+	if samples == 0 {
+		return nil
+	}
 
-	// The nominal and worst cases, one input at a time for its bad end.
+	// The worst cases, one input at a time for its bad end.
 	c := s.Clone()
-	nominal := margins(c, refs)
 	lows := make([][]float64, nt)
 	highs := make([][]float64, nt)
 	for j, t := range s.Tolerances {
@@ -224,8 +281,8 @@ func TolerancesWithProgress(s *setup.Setup, drive []*AtomsResult, samples int, s
 				t.Apply(w, hi)
 			}
 		}
-		gt := &GoalTolerance{Samples: samples, Seed: seed, Nominal: nominal[g], Worst: margins(w, refs)[g]}
-		gt.Margins = results[g*samples : (g+1)*samples : (g+1)*samples]
+		gt := &GoalTolerance{Samples: samples, Requested: requested, Interrupted: samples < requested, Seed: seed, Nominal: nominal[g], Worst: margins(w, refs)[g]}
+		gt.Margins = results[g*requested : g*requested+samples : g*requested+samples]
 		met := 0
 		for _, m := range gt.Margins {
 			if m >= 0 {

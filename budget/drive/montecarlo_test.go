@@ -7,6 +7,7 @@ import (
 	"slices"
 	"strings"
 	"testing"
+	"time"
 
 	"gonum.org/v1/gonum/stat/distuv"
 )
@@ -189,5 +190,35 @@ func TestTolerancesProgress(t *testing.T) {
 	want := Tolerances(s, d, 3000, DefaultSeed, 0)
 	if last != 3000 || calls < 1 || got[d[0]].P50 != want[d[0]].P50 {
 		t.Errorf("last %d after %d calls; P50 %g, want %g", last, calls, got[d[0]].P50, want[d[0]].P50)
+	}
+}
+
+// A run stopped early reports the first samples all done, marked as
+// such, and they are the same samples a run of that many gives (each
+// sample's inputs come from its own stream); a run stopped before any
+// sample gives no analysis. A long run's duration is projected once it has
+// run EstimateAfter.
+func TestToleranceRunStopped(t *testing.T) {
+	s, d := tolSetup(t, `"0.5 .. 0.9"`, "1", "250")
+	closed := make(chan struct{})
+	close(closed)
+	if res := TolerancesRun(s, d, Run{Samples: 1000, Seed: 7, Stop: closed}); res != nil {
+		t.Errorf("stopped before any sample: %v", res)
+	}
+	stop := make(chan struct{})
+	var estimated time.Duration
+	go func() { time.Sleep(EstimateAfter + 2*ProgressEvery); close(stop) }()
+	res := TolerancesRun(s, d, Run{Samples: 5_000_000, Seed: 7, Stop: stop, Estimate: func(e time.Duration) { estimated = e }})
+	if len(res) != 1 || !(estimated > 0) {
+		t.Fatalf("analyses %v, estimate %v", res, estimated)
+	}
+	for owner, gt := range res {
+		if !gt.Interrupted || gt.Requested != 5_000_000 || gt.Samples >= gt.Requested || gt.Samples != len(gt.Margins) {
+			t.Fatalf("%+v", gt)
+		}
+		full := TolerancesRun(s, d, Run{Samples: gt.Samples, Seed: 7})[owner]
+		if full.Interrupted || !slices.Equal(full.Margins, gt.Margins) || full.P50 != gt.P50 {
+			t.Errorf("the first %d samples differ from a run of that many", gt.Samples)
+		}
 	}
 }

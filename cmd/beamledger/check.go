@@ -80,8 +80,9 @@ func (e *env) runCheck(o *checkOptions) error {
 	if err != nil {
 		return err
 	}
-	opts.Progress = e.progress()
+	done, _ := e.tolerancesRun(&opts)
 	a, err := safety.EvaluateWith(s, opts)
+	done()
 	if err != nil {
 		return err
 	}

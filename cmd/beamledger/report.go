@@ -142,10 +142,15 @@ func (e *env) runReport(o *reportOptions) error {
 	if err != nil {
 		return err
 	}
-	opts.Progress = e.progress()
+	done, interrupted := e.tolerancesRun(&opts)
 	a, err := safety.EvaluateWith(s, opts)
+	done()
 	if err != nil {
 		return err
+	}
+	if interrupted() {
+		// A sign-off document is never of part of its analysis.
+		return errInterrupted
 	}
 	meta := report.Meta{Date: date.Format("2006-01-02"), ToolVersion: version, SetupBytes: data}
 	if o.since != "" {

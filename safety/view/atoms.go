@@ -260,6 +260,8 @@ func toleranceRecord(gt *drive.GoalTolerance) *Record {
 		return Num(d, v, fmt.Sprintf("%+.1f dB", v))
 	}
 	r.F(Whole(dSamples, gt.Samples)).
+		F(Whole(dSamplesRequested, gt.Requested)).
+		F(Flag(dInterrupted, gt.Interrupted, yesNo(gt.Interrupted))).
 		F(Field{d: dSeed, Kind: Int, SI: float64(gt.Seed), Text: strconv.FormatUint(gt.Seed, 10)}).
 		F(Num(dProbabilityMet, gt.ProbabilityMet, fixed(100*gt.ProbabilityMet, 1, " %"))).
 		F(db(dMarginNominal, gt.Nominal)).
@@ -283,6 +285,9 @@ func toleranceRecord(gt *drive.GoalTolerance) *Record {
 	}
 	r.L(cl)
 	r.F(Field{d: dTopContributors, Kind: String, Text: strings.Join(top, "; "), People: true})
+	if gt.Interrupted {
+		r.Line("    tolerance analysis interrupted after {samples} of {samples_requested} samples: the figures below are of those samples only")
+	}
 	r.Line("    tolerances ({samples} samples, seed {seed}): margin {margin_db_nominal} nominal, {margin_db_worst} worst case (every value at its bad end, ±3σ), {margin_db_p05} / {margin_db_p50} / {margin_db_p95} at the 5th / 50th / 95th percentile; met with probability {probability_met}")
 	if len(top) > 0 {
 		r.Line("    largest shares of the spread (standardized regression coefficients, SRC²/ΣSRC²): {top_contributors}")

@@ -51,6 +51,8 @@ var (
 	dFindingControlledBy                = &Desc{"controlled_by", "controlled by", "Finding.ControlledBy"}
 	dFindingControl                     = &Desc{"control", "control", ""}
 	dSamples                            = &Desc{"samples", "samples", "GoalTolerance.Samples"}
+	dSamplesRequested                   = &Desc{"samples_requested", "samples asked for", "GoalTolerance.Requested"}
+	dInterrupted                        = &Desc{"interrupted", "interrupted", "GoalTolerance.Interrupted"}
 	dSeed                               = &Desc{"seed", "seed", "GoalTolerance.Seed"}
 	dProbabilityMet                     = &Desc{"probability_met", "probability met", "GoalTolerance.ProbabilityMet"}
 	dMarginNominal                      = &Desc{"margin_db_nominal", "nominal", "GoalTolerance.Nominal"}
