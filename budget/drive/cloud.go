@@ -319,9 +319,11 @@ func (f *field) findTrap() Trap {
 	// The lowest barrier along straight lines from the minimum: along and
 	// across every beam, along gravity and along the principal axes.
 	// Along a beam's own axis the atoms have escaped once they are beyond
-	// the other beams (three of their radii out; the beam alone then holds
-	// them only as a weaker trap of its own): the barrier is measured up to
-	// there. Everywhere else it is measured out to the beams' reach.
+	// the other beams (three of their radii from each other beam's axis,
+	// which a ray at angle θ to it reaches after 3W/sin θ; the beam alone
+	// then holds them only as a weaker trap of its own): the barrier is
+	// measured up to there. Everywhere else it is measured out to the
+	// beams' reach.
 	type ray struct {
 		d    [3]float64
 		tmax float64
@@ -331,7 +333,13 @@ func (f *field) findTrap() Trap {
 		beyond := 0.0
 		for i := range f.beams {
 			if o := &f.beams[i]; o != b {
-				beyond = math.Max(beyond, 3*math.Max(o.x.Radius(o.λ), o.y.Radius(o.λ)))
+				c := numeric.Cross(b.n, o.n)
+				sin := math.Sqrt(numeric.Dot(c, c))
+				out := reach // along the same line: never beyond it
+				if sin > 1e-6 {
+					out = math.Min(reach, 3*math.Max(o.x.Radius(o.λ), o.y.Radius(o.λ))/sin)
+				}
+				beyond = math.Max(beyond, out)
 			}
 		}
 		if beyond == 0 {

@@ -1,6 +1,7 @@
 package drive
 
 import (
+	"fmt"
 	"math"
 	"strings"
 	"testing"
@@ -139,5 +140,25 @@ func TestToleranceSamplesKeepTheBentEscape(t *testing.T) {
 	}
 	if math.Abs(d[0].Goal.MarginDB-cs[0].Goal.MarginDB) > 0.01 {
 		t.Errorf("the element's margin %g dB and the cloud's %g dB differ for one beam", d[0].Goal.MarginDB, cs[0].Goal.MarginDB)
+	}
+}
+
+// Two equal beams crossing at a shallow angle, no gravity: the atoms
+// leave the crossing along one beam once they are three radii from the
+// other's axis, which a ray at angle θ reaches only after 3W/sin θ; the
+// barrier there is the other beam's depth at the crossing, U0 (by hand:
+// V = −U_a − U_b at the minimum, −U_a beyond the other beam; the focus
+// lies 3W/sin 15° = 0.58 mm from the crossing, 8 % of z_R = 7.4 mm,
+// where U_a falls by under 1 %). At 15°, 30° and 90°.
+func TestShallowCrossingDepth(t *testing.T) {
+	U := u0(t, 1064e-9, 5, 50e-6)
+	for _, deg := range []float64{15, 30, 90} {
+		θ := deg * math.Pi / 180
+		dir := fmt.Sprintf("[%g, 0, %g]", math.Sin(θ), math.Cos(θ))
+		b := strings.Replace(beamOn("b", "1064 nm", "5 W", "50 um", "z"), `axis = "z"`, "direction = "+dir, 1)
+		_, cs := cloudsOf(t, beamOn("a", "1064 nm", "5 W", "50 um", "z")+b+cloudC("none", ""))
+		if tr := cs[0].Trap; tr == nil || !relNear(tr.Depth, U, 0.02) {
+			t.Errorf("%g°: depth %g K, want the other beam's %g K", deg, tr.Depth/atoms.KB, U/atoms.KB)
+		}
 	}
 }
