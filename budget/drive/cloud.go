@@ -300,6 +300,26 @@ func (f *field) findTrap() Trap {
 	if vals[0] <= 0 {
 		return t
 	}
+	// Again along the principal axes, each with a step of its own (a
+	// hundredth of the length over which the harmonic potential changes by
+	// the trap's scale): a step fit for the tight axes is far too short
+	// for the weak one along a beam, and its truncation error would land
+	// in the weak frequency whenever that axis is not a cloud axis.
+	var axes [3][3]float64
+	var steps [3]float64
+	for i := range 3 {
+		axes[i] = [3]float64{vecs.At(0, i), vecs.At(1, i), vecs.At(2, i)}
+		steps[i] = math.Min(reach/100, math.Max(L/1000, 0.01*math.Sqrt(v0/vals[i])))
+	}
+	h = f.hessianAlong(best, axes, steps)
+	if !eig.Factorize(h, true) {
+		return t
+	}
+	vals = eig.Values(nil)
+	eig.VectorsTo(&vecs)
+	if vals[0] <= 0 {
+		return t
+	}
 	t.Found, t.Minimum = true, best
 	for i := range 3 {
 		t.Frequencies[i] = math.Sqrt(vals[i]/f.mass) / (2 * math.Pi)
@@ -472,6 +492,42 @@ func (f *field) hessian(r [3]float64, h float64) *mat.SymDense {
 		H.SetSym(i, i, (at(i, i, 0.5, 0.5)-2*v+at(i, i, -0.5, -0.5))/(h*h))
 		for j := i + 1; j < 3; j++ {
 			H.SetSym(i, j, (at(i, j, 1, 1)-at(i, j, 1, -1)-at(i, j, -1, 1)+at(i, j, -1, -1))/(4*h*h))
+		}
+	}
+	return H
+}
+
+// hessianAlong is the Hessian of V at r in the cloud frame, J/m², from
+// central differences along the unit axes a (orthonormal), step h[i]
+// along a[i]: H = A H' Aᵀ with H'_ij the second derivative along a[i] and
+// a[j].
+func (f *field) hessianAlong(r [3]float64, a [3][3]float64, h [3]float64) *mat.SymDense {
+	at := func(i, j int, si, sj float64) float64 {
+		q := r
+		for k := range 3 {
+			q[k] += si*h[i]*a[i][k] + sj*h[j]*a[j][k]
+		}
+		return f.V(q)
+	}
+	v := f.V(r)
+	var hp [3][3]float64
+	for i := range 3 {
+		hp[i][i] = (at(i, i, 0.5, 0.5) - 2*v + at(i, i, -0.5, -0.5)) / (h[i] * h[i])
+		for j := i + 1; j < 3; j++ {
+			hp[i][j] = (at(i, j, 1, 1) - at(i, j, 1, -1) - at(i, j, -1, 1) + at(i, j, -1, -1)) / (4 * h[i] * h[j])
+			hp[j][i] = hp[i][j]
+		}
+	}
+	H := mat.NewSymDense(3, nil)
+	for k := range 3 {
+		for l := k; l < 3; l++ {
+			sum := 0.0
+			for i := range 3 {
+				for j := range 3 {
+					sum += a[i][k] * hp[i][j] * a[j][l]
+				}
+			}
+			H.SetSym(k, l, sum)
 		}
 	}
 	return H

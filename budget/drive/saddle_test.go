@@ -162,3 +162,22 @@ func TestShallowCrossingDepth(t *testing.T) {
 		}
 	}
 }
+
+// The weak (axial) frequency of one focused beam, no gravity, is
+// √(2U0/(m z_R²)) whichever way the beam runs in the cloud frame (Grimm et
+// al. (2000), eq. (37)): at 0°, 25° and 45° from z in the x–z plane, the
+// principal axes' own steps keep the tight axes' step out of it.
+func TestAxialFrequencyOfAnObliqueBeam(t *testing.T) {
+	U := u0(t, 1064e-9, 5, 50e-6)
+	zR := math.Pi * 50e-6 * 50e-6 / 1064e-9
+	for _, deg := range []float64{0, 25, 45} {
+		θ := deg * math.Pi / 180
+		b := strings.Replace(beamOn("b", "1064 nm", "5 W", "50 um", "z"), `axis = "z"`, fmt.Sprintf("direction = [%g, 0, %g]", math.Sin(θ), math.Cos(θ)), 1)
+		_, cs := cloudsOf(t, b+cloudC("none", ""))
+		tr := cs[0].Trap
+		m := cs[0].Cloud.Data.Mass
+		if want := math.Sqrt(2*U/(m*zR*zR)) / (2 * math.Pi); tr == nil || !relNear(tr.Frequencies[0], want, 0.01) {
+			t.Errorf("%g°: weak frequency %g Hz, want %g Hz", deg, tr.Frequencies[0], want)
+		}
+	}
+}
