@@ -29,6 +29,22 @@ type Absorption struct {
 // and y planes), the detuning factor A = 1 + 4Δ²/Γ² and I_sat (W/m²).
 type CloudColumn struct {
 	B0, σx, σy, A, isat float64
+	// ρ is the correlation of the column's x and y (a beam oblique to an
+	// anisotropic cloud): the column is B0 exp(−½ rᵀΣ⁻¹r) with
+	// Σ = [[σx², ρσxσy], [ρσxσy, σy²]].
+	ρ float64
+}
+
+// inverse is Σ⁻¹ of the column's transverse covariance: P11, P12, P22.
+func (col CloudColumn) inverse() (p11, p12, p22 float64) {
+	d := 1 - col.ρ*col.ρ
+	return 1 / (col.σx * col.σx * d), -col.ρ / (col.σx * col.σy * d), 1 / (col.σy * col.σy * d)
+}
+
+// at is the column's optical depth at (x, y) across the beam.
+func (col CloudColumn) at(x, y float64) float64 {
+	p11, p12, p22 := col.inverse()
+	return col.B0 * math.Exp(-(p11*x*x+2*p12*x*y+p22*y*y)/2)
 }
 
 // weakLimit is the optical depth b0/a below which the cloud is treated as
@@ -81,15 +97,16 @@ func (col CloudColumn) Absorb(p, wx, wy float64) Absorption {
 	}
 	if col.B0/col.A < weakLimit {
 		// ∬ I (b/a) dx dy for the two Gaussians in closed form.
-		kx := 2/(wx*wx) + 1/(2*col.σx*col.σx)
-		ky := 2/(wy*wy) + 1/(2*col.σy*col.σy)
-		absorbed := i0 * col.isat * col.B0 / col.A * math.Pi / math.Sqrt(kx*ky)
+		// 2π/√det M with M = diag(4/wx², 4/wy²) + Σ⁻¹.
+		p11, p12, p22 := col.inverse()
+		m11, m22 := 4/(wx*wx)+p11, 4/(wy*wy)+p22
+		absorbed := i0 * col.isat * col.B0 / col.A * 2 * math.Pi / math.Sqrt(m11*m22-p12*p12)
 		ab.Transmission = 1 - absorbed/p
 		return ab
 	}
 	// A beam much wider than the cloud drives the whole column at its peak:
 	// with u = b/b0 = exp(−ρ²/2) the column's area element is
-	// 2π σx σy du/u, and one dimension suffices.
+	// 2π σx σy √(1 − ρ²) du/u, and one dimension suffices.
 	if math.Min(wx/col.σx, wy/col.σy) > uniformRatio {
 		absorbed := 0.0
 		for k, u := range nodes.x {
@@ -100,7 +117,7 @@ func (col CloudColumn) Absorb(p, wx, wy float64) Absorption {
 			}
 			absorbed += nodes.w[k] / 2 * (i0 - out) / u
 		}
-		absorbed *= 2 * math.Pi * col.σx * col.σy * col.isat
+		absorbed *= 2 * math.Pi * col.σx * col.σy * math.Sqrt(1-col.ρ*col.ρ) * col.isat
 		ab.Transmission = math.Max(0, 1-absorbed/p)
 		return ab
 	}
@@ -112,7 +129,7 @@ func (col CloudColumn) Absorb(p, wx, wy float64) Absorption {
 		return in - atoms.OutgoingIntensity(in, b, col.A)
 	}
 	// A round beam on a round cloud: one radial integral, ∫ 2πρ ΔI dρ.
-	if math.Abs(wx-wy) <= 1e-9*wx && math.Abs(col.σx-col.σy) <= 1e-9*col.σx {
+	if math.Abs(wx-wy) <= 1e-9*wx && math.Abs(col.σx-col.σy) <= 1e-9*col.σx && col.ρ == 0 {
 		R := math.Min(3.5*wx, 6*col.σx)
 		absorbed := 0.0
 		for k, u := range nodes.x {
@@ -133,15 +150,26 @@ func (col CloudColumn) Absorb(p, wx, wy float64) Absorption {
 		bx[k], by[k] = math.Exp(-x*x/(2*col.σx*col.σx)), math.Exp(-y*y/(2*col.σy*col.σy))
 	}
 	// The integrand is even in x and in y, and the nodes are symmetric
-	// about zero (an even count): one quadrant, four times.
+	// about zero (an even count): one quadrant, four times; with a
+	// correlated column only the point symmetry (x, y) → (−x, −y) holds:
+	// one half, twice.
 	const half = quadNodes / 2
 	absorbed := 0.0
-	for i := half; i < quadNodes; i++ {
-		for j := half; j < quadNodes; j++ {
-			absorbed += nodes.w[i] * nodes.w[j] * ray(i0*ix[i]*iy[j], col.B0*bx[i]*by[j])
+	if col.ρ == 0 {
+		for i := half; i < quadNodes; i++ {
+			for j := half; j < quadNodes; j++ {
+				absorbed += nodes.w[i] * nodes.w[j] * ray(i0*ix[i]*iy[j], col.B0*bx[i]*by[j])
+			}
 		}
+		absorbed *= 4 * X * Y * col.isat
+	} else {
+		for i := half; i < quadNodes; i++ {
+			for j := range quadNodes {
+				absorbed += nodes.w[i] * nodes.w[j] * ray(i0*ix[i]*iy[j], col.at(nodes.x[i]*X, nodes.x[j]*Y))
+			}
+		}
+		absorbed *= 2 * X * Y * col.isat
 	}
-	absorbed *= 4 * X * Y * col.isat
 	ab.Transmission = math.Max(0, 1-absorbed/p)
 	return ab
 }
@@ -187,10 +215,18 @@ func (col CloudColumn) FractionAbove(i0, wx, wy, sGoal float64) float64 {
 	const samples = 12
 	total := 0.0
 	var cuts []float64
-	for k, u := range nodes.x {
-		θ := (u + 1) / 2 * math.Pi / 2
+	p11, p12, p22 := col.inverse()
+	// θ over the first quadrant, four times; a correlated column is only
+	// point-symmetric: the first two quadrants, twice.
+	quadrants := 1
+	if col.ρ != 0 {
+		quadrants = 2
+	}
+	for k := range quadrants * len(nodes.x) {
+		u, w := nodes.x[k%len(nodes.x)], nodes.w[k%len(nodes.x)]
+		θ := (u+1)/2*math.Pi/2 + float64(k/len(nodes.x))*math.Pi/2
 		c, s := math.Cos(θ), math.Sin(θ)
-		q := wx*wx*c*c/(4*col.σx*col.σx) + wy*wy*s*s/(4*col.σy*col.σy)
+		q := (p11*wx*wx*c*c + 2*p12*wx*wy*c*s + p22*wy*wy*s*s) / 4
 		g := func(t float64) float64 { return col.B0*math.Exp(-q*t) - bStar(t) }
 		// The pieces: cut at the column's own scale 1/q (a beam much
 		// wider than the cloud sees the column fall within a small t)
@@ -220,10 +256,10 @@ func (col CloudColumn) FractionAbove(i0, wx, wy, sGoal float64) float64 {
 				ray += piece(q, cuts[j-1], cuts[j])
 			}
 		}
-		total += nodes.w[k] * ray
+		total += w * ray
 	}
-	total *= math.Pi / 4 // the θ nodes' scale
-	return math.Min(1, wx*wy*total/(2*math.Pi*col.σx*col.σy*col.B0))
+	total *= math.Pi / 4 * 4 / float64(quadrants) // the θ nodes' scale, and the quadrants not summed
+	return math.Min(1, wx*wy/4*total/(2*math.Pi*col.σx*col.σy*math.Sqrt(1-col.ρ*col.ρ)*col.B0))
 }
 
 // legendre16 holds 16 Gauss–Legendre nodes and weights on [−1, 1].
@@ -243,9 +279,10 @@ func ColumnFor(pb *PathBudget, k int, e *setup.Element, c *setup.Cloud, δ float
 	isat, _, _ := tr.Isat(c.Saturation)
 	u, v := setup.BeamAxes(e.Direction)
 	σx, σy := c.RMSAlong(u), c.RMSAlong(v)
+	ρ := c.Covariance(u, v) / (σx * σy)
 	σ0 := atoms.CrossSection(tr.Wavelength, tr.Gamma, isat)
 	Δ, _, _ := DetuningAtAtoms(pb, k, e, c, δ)
-	return CloudColumn{B0: atoms.OpticalDepth(σ0, c.Atoms, σx, σy), σx: σx, σy: σy, A: atoms.DetuningFactor(Δ, tr.Gamma), isat: isat}
+	return CloudColumn{B0: atoms.OpticalDepth(σ0, c.Atoms, σx, σy, ρ), σx: σx, σy: σy, ρ: ρ, A: atoms.DetuningFactor(Δ, tr.Gamma), isat: isat}
 }
 
 // DetuningAtAtoms is the detuning from cloud c's transition of the light

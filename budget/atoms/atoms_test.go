@@ -227,7 +227,7 @@ func TestOpticalDepthColumn(t *testing.T) {
 	col := quad.Fixed(func(z float64) float64 {
 		return n / (math.Pow(2*math.Pi, 1.5) * σx * σy * σz) * math.Exp(-z*z/(2*σz*σz))
 	}, -12*σz, 12*σz, 200, quad.Legendre{}, 0)
-	if got := OpticalDepth(σ0, n, σx, σy); !close(got, σ0*col, 1e-10) {
+	if got := OpticalDepth(σ0, n, σx, σy, 0); !close(got, σ0*col, 1e-10) {
 		t.Errorf("b0 = %g, column integral gives %g", got, σ0*col)
 	}
 }

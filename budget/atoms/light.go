@@ -20,9 +20,15 @@ func ScatteringRate(Γ, s, Δ float64) float64 {
 }
 
 // OpticalDepth is the resonant optical depth along the beam through the
-// centre of a Gaussian cloud of N atoms with rms radii σx, σy across the
-// beam: b0 = σ0 N / (2π σx σy).
-func OpticalDepth(σ0, n, σx, σy float64) float64 { return σ0 * n / (2 * math.Pi * σx * σy) }
+// centre of a Gaussian cloud of N atoms whose column across the beam has
+// rms widths σx, σy and correlation ρ (the cloud's covariance projected on
+// the beam's x and y: non-zero for a beam oblique to an anisotropic
+// cloud): b0 = σ0 N / (2π σx σy √(1 − ρ²)), which is
+// σ0 N/(2π √(det Σ · dᵀΣ⁻¹d)) for the cloud's covariance Σ and the beam's
+// direction d.
+func OpticalDepth(σ0, n, σx, σy, ρ float64) float64 {
+	return σ0 * n / (2 * math.Pi * σx * σy * math.Sqrt(1-ρ*ρ))
+}
 
 // Dipole holds the far-detuned response per unit intensity.
 type Dipole struct {

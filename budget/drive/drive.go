@@ -186,7 +186,7 @@ func atomsAt(b *budget.Budget, pb *budget.PathBudget, r *budget.Row, c *setup.Cl
 	a.Saturation = atoms.Saturation(a.PeakIrradiance, a.Isat)
 	a.Rabi = atoms.Rabi(tr.Gamma, a.Saturation)
 	a.CrossSection = atoms.CrossSection(tr.Wavelength, tr.Gamma, a.Isat)
-	a.OpticalDepth = atoms.OpticalDepth(a.CrossSection, c.Atoms, σu, σv)
+	a.OpticalDepth = atoms.OpticalDepth(a.CrossSection, c.Atoms, σu, σv, c.Covariance(u, v)/(σu*σv))
 	a.FractionAboveGoal = math.NaN()
 	if p.full {
 		col := budget.ColumnFor(pb, pb.First+pb.RowIndex(r), r.Element, c, b.Shifts[c])

@@ -1,6 +1,7 @@
 package drive
 
 import (
+	"fmt"
 	"math"
 	"strings"
 	"testing"
@@ -121,5 +122,33 @@ func TestHazardBudgetTakesTheMoreThatGetsThrough(t *testing.T) {
 	}
 	if !(through(shifted) > through(bare)) {
 		t.Errorf("through the cloud: %g with the shift, %g without; want more with", through(shifted), through(bare))
+	}
+}
+
+// The resonant optical depth of a beam oblique to an anisotropic cloud:
+// b0 = σ0 N/(2π √(det Σ · dᵀΣ⁻¹d)) for the cloud's covariance Σ and the
+// beam's direction d (the column of a Gaussian along d; by hand with
+// Σ = diag(10², 20², 40²) µm², d = [1, 1, 1]/√3: det Σ · dᵀΣ⁻¹d =
+// (σx²σy²σz²)(1/σx² + 1/σy² + 1/σz²)/3), and σ0 N/(2π σ_a σ_b) along each
+// axis.
+func TestOpticalDepthOfAnObliqueBeam(t *testing.T) {
+	sizes := [3]float64{10e-6, 20e-6, 40e-6}
+	for _, dir := range []string{"[1, 1, 1]", "[1, 0, 0]", "[0, 1, 0]", "[0, 0, 1]"} {
+		src := strings.Replace(beamOn("p", "780.241209686 nm", "1 uW", "1 mm", "z"), `axis = "z"`, "direction = "+dir, 1) +
+			strings.Replace(cloudC("none", ""), `rms_size = ["10 um", "10 um", "10 um"]`, `rms_size = ["10 um", "20 um", "40 um"]`, 1)
+		b, _ := cloudsOf(t, src)
+		a := Evaluate(b)[0]
+		var d [3]float64
+		fmt.Sscanf(dir, "[%g, %g, %g]", &d[0], &d[1], &d[2])
+		norm := math.Sqrt(d[0]*d[0] + d[1]*d[1] + d[2]*d[2])
+		det, quad := 1.0, 0.0
+		for i := range 3 {
+			det *= sizes[i] * sizes[i]
+			quad += d[i] * d[i] / (norm * norm) / (sizes[i] * sizes[i])
+		}
+		want := a.CrossSection * 1e5 / (2 * math.Pi * math.Sqrt(det*quad))
+		if !relNear(a.OpticalDepth, want, 1e-9) {
+			t.Errorf("along %s: b0 %g, want %g", dir, a.OpticalDepth, want)
+		}
 	}
 }

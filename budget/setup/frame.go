@@ -35,12 +35,16 @@ func BeamAxes(n [3]float64) (u, v [3]float64) {
 // direction set by rounding, not by the setup).
 const alongTolerance = 1 - 1e-6
 
-// RMSAlong is the cloud's rms size along the unit vector d, m: √Σ dᵢ² σᵢ²
-// for a Gaussian cloud with rms sizes σ along its axes.
-func (c *Cloud) RMSAlong(d [3]float64) float64 {
+// Covariance is the cloud's covariance between the unit directions a and
+// b, m²: Σ aᵢ bᵢ σᵢ² for a Gaussian cloud with rms sizes σ along its axes.
+func (c *Cloud) Covariance(a, b [3]float64) float64 {
 	s := 0.0
 	for i := range 3 {
-		s += d[i] * d[i] * c.RMSSize[i] * c.RMSSize[i]
+		s += a[i] * b[i] * c.RMSSize[i] * c.RMSSize[i]
 	}
-	return math.Sqrt(s)
+	return s
 }
+
+// RMSAlong is the cloud's rms size along the unit vector d, m: √Σ dᵢ² σᵢ²
+// (the square root of Covariance(d, d)).
+func (c *Cloud) RMSAlong(d [3]float64) float64 { return math.Sqrt(c.Covariance(d, d)) }

@@ -126,7 +126,7 @@ func (b *builder) atomsRecord(a *drive.AtomsResult) Record {
 	default:
 		r.Line("  s = I/I_sat = {saturation}, Ω/2π = {rabi_frequency_hz}, scattering rate {scattering_rate_per_s} photons/s (two-level)")
 	}
-	r.Line("  resonant optical depth along the beam b0 = σ0 N/(2π σx σy) = {optical_depth} (σ0 = {cross_section_m2} m²)")
+	r.Line("  resonant optical depth along the beam b0 = σ0 N/(2π σx σy √(1 − ρ²)) = {optical_depth} (σ0 = {cross_section_m2} m²; σx, σy, ρ the cloud's spread across the beam)")
 	ab := a.Absorption
 	r.F(Plain(dCloudTransmission, ab.Transmission)).
 		F(Pow(dScatteredPowerW, a.ScatteredPower)).
