@@ -35,6 +35,9 @@ type GoalTolerance struct {
 	ProbabilityMet float64
 	// Margins are the samples' margins (−Inf where the goal cannot be met).
 	Margins []float64
+	// NoSpread is set when no toleranced input moves the margin: its
+	// finite samples lie within NoSpreadDB (then no Contributors).
+	NoSpread bool
 	// Contributors rank the inputs by their share of the margin's variance,
 	// from standardized regression coefficients (a linear variance
 	// decomposition: share = SRC²/ΣSRC²), largest first.
@@ -110,6 +113,10 @@ func margins(s *setup.Setup, refs []goalRef) []float64 {
 func Tolerances(s *setup.Setup, drive []*AtomsResult, samples int, seed uint64, workers int) map[any]*GoalTolerance {
 	return TolerancesWithProgress(s, drive, samples, seed, workers, nil)
 }
+
+// NoSpreadDB is the spread of a goal's margins, dB, within which no
+// toleranced input counts as moving it (far below any printed figure).
+const NoSpreadDB = 1e-9
 
 // EstimateAfter is how far into a run its duration is projected.
 const EstimateAfter = 750 * time.Millisecond
@@ -293,6 +300,15 @@ func TolerancesRun(s *setup.Setup, drive []*AtomsResult, run Run) map[any]*GoalT
 		sorted := slices.Clone(gt.Margins)
 		slices.Sort(sorted)
 		gt.P05, gt.P50, gt.P95 = numeric.Percentile(sorted, 0.05), numeric.Percentile(sorted, 0.5), numeric.Percentile(sorted, 0.95)
+		// A margin no toleranced input moves has no shares to give (a
+		// regression on rounding noise would still print some).
+		var finite []float64
+		for _, m := range sorted {
+			if !math.IsInf(m, 0) && !math.IsNaN(m) {
+				finite = append(finite, m)
+			}
+		}
+		gt.NoSpread = len(finite) > 0 && finite[len(finite)-1]-finite[0] <= NoSpreadDB
 		out[a] = gt
 		all = append(all, gt)
 	}
@@ -301,7 +317,9 @@ func TolerancesRun(s *setup.Setup, drive []*AtomsResult, run Run) map[any]*GoalT
 		ys[g] = gt.Margins
 	}
 	for g, cs := range contributors(s.Tolerances, seed, ys) {
-		all[g].Contributors = cs
+		if !all[g].NoSpread {
+			all[g].Contributors = cs
+		}
 	}
 	return out
 }

@@ -222,3 +222,45 @@ func TestToleranceRunStopped(t *testing.T) {
 		}
 	}
 }
+
+// A goal no toleranced input reaches (the tolerance sits on another
+// path's window) has no spread: no shares are given, and it says so
+// (a regression on rounding noise printed 50 % / 50 %).
+func TestToleranceWithoutSpread(t *testing.T) {
+	src := tolLab + `
+[[laser]]
+name = "other"
+wavelength = "1064 nm"
+power = "1 W"
+waist = "1 mm"
+
+[[path]]
+name = "other"
+from = "other"
+
+  [[path.element]]
+  type = "window"
+  at = "100 mm"
+  transmission = "0.9 .. 0.99"
+
+  [[path.element]]
+  type = "dump"
+  at = "200 mm"
+  rating = "5 W"
+`
+	src = strings.NewReplacer("EFF", "0.8", "T2", "1", "GOAL", "250").Replace(src)
+	s, err := setup.Parse("nospread.toml", []byte(src))
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, _ := budget.ComputeAtOperating(s)
+	res := Tolerances(s, Evaluate(b), 500, DefaultSeed, 0)
+	if len(res) != 1 {
+		t.Fatalf("analyses %v", res)
+	}
+	for _, gt := range res {
+		if !gt.NoSpread || gt.Contributors != nil {
+			t.Errorf("no spread %v, contributors %+v", gt.NoSpread, gt.Contributors)
+		}
+	}
+}

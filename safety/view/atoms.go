@@ -289,7 +289,11 @@ func toleranceRecord(gt *drive.GoalTolerance) *Record {
 		r.Line("    tolerance analysis interrupted after {samples} of {samples_requested} samples: the figures below are of those samples only")
 	}
 	r.Line("    tolerances ({samples} samples, seed {seed}): margin {margin_db_nominal} nominal, {margin_db_worst} worst case (every value at its bad end, ±3σ), {margin_db_p05} / {margin_db_p50} / {margin_db_p95} at the 5th / 50th / 95th percentile; met with probability {probability_met}")
-	if len(top) > 0 {
+	r.F(Flag(dNoSpread, gt.NoSpread, yesNo(gt.NoSpread)))
+	switch {
+	case gt.NoSpread:
+		r.Line("    no toleranced input moves this goal's margin (its samples lie within 1e-9 dB): no shares of a spread")
+	case len(top) > 0:
 		r.Line("    largest shares of the spread (standardized regression coefficients, SRC²/ΣSRC²): {top_contributors}")
 	}
 	return r

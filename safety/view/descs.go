@@ -53,6 +53,7 @@ var (
 	dSamples                            = &Desc{"samples", "samples", "GoalTolerance.Samples"}
 	dSamplesRequested                   = &Desc{"samples_requested", "samples asked for", "GoalTolerance.Requested"}
 	dInterrupted                        = &Desc{"interrupted", "interrupted", "GoalTolerance.Interrupted"}
+	dNoSpread                           = &Desc{"no_spread", "no toleranced input moves it", "GoalTolerance.NoSpread"}
 	dSeed                               = &Desc{"seed", "seed", "GoalTolerance.Seed"}
 	dProbabilityMet                     = &Desc{"probability_met", "probability met", "GoalTolerance.ProbabilityMet"}
 	dMarginNominal                      = &Desc{"margin_db_nominal", "nominal", "GoalTolerance.Nominal"}
