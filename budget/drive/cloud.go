@@ -1059,12 +1059,10 @@ func trapDepthScale(a *AtomsResult, depth float64, given *trapHints) (k float64,
 	if c.Data.Mass == 0 {
 		return 0, hints, "the transition's data give no mass"
 	}
-	n := a.Row.Element.Direction
-	u, v := setup.BeamAxes(n)
-	beam := a.Row.BeamIn
 	fieldAt := func(k float64) *field {
-		return &field{mass: c.Data.Mass, down: c.Down, hint: hints.minimum, saddle: hints.saddle, trial: true, beams: []fieldBeam{{x: beam.X, y: beam.Y, λ: beam.Wavelength, power: k * a.Power,
-			perI: a.Dipole.PerIntensity, n: n, u: u, v: v, laser: a.Path.Laser}}}
+		f := singleBeamField(a, k)
+		f.hint, f.saddle, f.trial = hints.minimum, hints.saddle, true
+		return f
 	}
 	// search is a trap search at factor k that floods for the saddle.
 	search := func(k float64) Trap {
@@ -1105,6 +1103,16 @@ func trapDepthScale(a *AtomsResult, depth float64, given *trapHints) (k float64,
 		return 0, hints, "even a million times the power makes no trap that deep against gravity"
 	}
 	return k, hints, ""
+}
+
+// singleBeamField is the field of atoms element a's far-detuned beam alone
+// at k times its power, with the cloud's gravity.
+func singleBeamField(a *AtomsResult, k float64) *field {
+	n := a.Row.Element.Direction
+	u, v := setup.BeamAxes(n)
+	beam := a.Row.BeamIn
+	return &field{mass: a.Cloud.Data.Mass, down: a.Cloud.Down, beams: []fieldBeam{{x: beam.X, y: beam.Y, λ: beam.Wavelength, power: k * a.Power,
+		perI: a.Dipole.PerIntensity, scatI: a.Dipole.scatI, n: n, u: u, v: v, laser: a.Path.Laser}}}
 }
 
 // beyondNames lists the lasers a cloud goal would take past their maximum

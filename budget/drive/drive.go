@@ -82,6 +82,11 @@ type DipoleResult struct {
 	// where the beam does not confine (blue detuning, unknown mass, or off
 	// the focus along the beam).
 	TrapX, TrapY, TrapAxial float64
+	// DepthWithGravity is the depth of this beam's own trap found at its
+	// real minimum with the cloud's gravity, over its lowest escape, J (0
+	// when it does not hold; NaN where not searched: a tolerance sample,
+	// no mass, or no trap) — beside Depth, the field-free |U| at the centre.
+	DepthWithGravity float64
 	// HeatingRate is the trap light's recoil heating at the cloud centre,
 	// K/s (atoms.RecoilHeatingRate), and HeatTime the time it takes to
 	// heat the atoms by this beam's depth, s; NaN where the beam makes no
@@ -206,7 +211,7 @@ func atomsAt(b *budget.Budget, pb *budget.PathBudget, r *budget.Row, c *setup.Cl
 	case a.FarDetuned:
 		d := atoms.FarDetuned(tr.Lines, ω)
 		dr := &DipoleResult{PerIntensity: d.PotentialPerIntensity, Depth: d.PotentialPerIntensity * a.PeakIrradiance, RWARatio: d.PotentialPerIntensity / d.RWAPotentialPerIntensity,
-			TrapX: math.NaN(), TrapY: math.NaN(), TrapAxial: math.NaN(), HeatingRate: math.NaN(), HeatTime: math.NaN(), scatI: d.ScatteringPerIntensity}
+			TrapX: math.NaN(), TrapY: math.NaN(), TrapAxial: math.NaN(), HeatingRate: math.NaN(), HeatTime: math.NaN(), DepthWithGravity: math.NaN(), scatI: d.ScatteringPerIntensity}
 		a.ScatteringRate = d.ScatteringPerIntensity * a.PeakIrradiance
 		if dr.Depth < 0 && tr.Mass > 0 {
 			u0 := -dr.Depth
@@ -217,6 +222,15 @@ func atomsAt(b *budget.Budget, pb *budget.PathBudget, r *budget.Row, c *setup.Cl
 			dr.HeatTime = u0 / atoms.KB / dr.HeatingRate
 		}
 		a.Dipole = dr
+		if dr.Depth < 0 && tr.Mass > 0 && p.full && a.Power > 0 {
+			f := singleBeamField(a, 1)
+			f.flood = true
+			if t := f.findTrap(); t.Holds {
+				dr.DepthWithGravity = t.Depth
+			} else {
+				dr.DepthWithGravity = 0
+			}
+		}
 	default:
 		a.ScatteringRate = atoms.ScatteringRate(tr.Gamma, a.Saturation, a.Detuning)
 	}

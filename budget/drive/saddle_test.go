@@ -181,3 +181,16 @@ func TestAxialFrequencyOfAnObliqueBeam(t *testing.T) {
 		}
 	}
 }
+
+// An atoms element's own beam under gravity gives both depths, named: the
+// field-free |U| at the centre and its trap's depth with gravity over the
+// lowest escape (by hand as singleBeamEscape).
+func TestElementDepthWithGravity(t *testing.T) {
+	b, _ := cloudsOf(t, beamOn("trap", "1064 nm", "100 mW", "30 um", "z")+cloudC("-y", ""))
+	a := Evaluate(b)[0]
+	U := u0(t, 1064e-9, 0.1, 30e-6)
+	bent, _, _ := singleBeamEscape(U, 30e-6, math.Pi*30e-6*30e-6/1064e-9, a.Cloud.Data.Mass)
+	if d := a.Dipole; !relNear(-d.Depth, U, 1e-9) || !relNear(d.DepthWithGravity, bent, 1e-3) {
+		t.Errorf("|U| %g K (want %g K), with gravity %g K (want %g K)", -d.Depth/atoms.KB, U/atoms.KB, d.DepthWithGravity/atoms.KB, bent/atoms.KB)
+	}
+}

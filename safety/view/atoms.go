@@ -66,6 +66,7 @@ func (b *builder) atomsRecord(a *drive.AtomsResult) Record {
 		r.F(Num(dDipolePotentialK, d.Depth/kB, units.FormatSI(d.Depth/kB, "K"))).
 			F(Num(dDipolePotentialHz, d.Depth/hPlanck, units.FormatFrequency(d.Depth/hPlanck))).
 			F(Num(dDipoleResultTrapDepthK, depth, units.FormatSI(depth, "K"))).
+			F(Num(dDepthWithGravityK, d.DepthWithGravity/kB, units.FormatSI(d.DepthWithGravity/kB, "K"))).
 			F(hzField(dTrapFrequencyRadialHz, math.Sqrt(d.TrapX*d.TrapY))).
 			F(hzField(dTrapFrequencyXHz, d.TrapX)).
 			F(hzField(dTrapFrequencyYHz, d.TrapY)).
@@ -74,7 +75,7 @@ func (b *builder) atomsRecord(a *drive.AtomsResult) Record {
 			F(Num(dDipoleHeatingRateKPerS, d.HeatingRate, units.FormatSI(d.HeatingRate, "K/s"))).
 			F(Num(dDipoleTimeToHeatS, d.HeatTime, units.FormatSI(d.HeatTime, "s")))
 	} else {
-		for _, k := range []string{"dipole_potential_k", "dipole_potential_hz", "trap_depth_k", "trap_frequency_radial_hz", "trap_frequency_x_hz", "trap_frequency_y_hz", "trap_frequency_axial_hz", "heating_rate_k_per_s", "time_to_heat_by_depth_s"} {
+		for _, k := range []string{"dipole_potential_k", "dipole_potential_hz", "trap_depth_k", "trap_depth_with_gravity_k", "trap_frequency_radial_hz", "trap_frequency_x_hz", "trap_frequency_y_hz", "trap_frequency_axial_hz", "heating_rate_k_per_s", "time_to_heat_by_depth_s"} {
 			r.F(Absent(&Desc{k, k, ""}, false))
 		}
 	}
@@ -120,6 +121,9 @@ func (b *builder) atomsRecord(a *drive.AtomsResult) Record {
 				ax = "none (the cloud is not at an intensity maximum along the beam)"
 			}
 			r.Line("  trap frequencies (harmonic, this beam alone): x {trap_frequency_x_hz}, y {trap_frequency_y_hz}, axial " + ax)
+			if !math.IsNaN(d.DepthWithGravity) && a.Cloud.Down != [3]float64{} {
+				r.Line("  depth of this beam's own trap: {trap_depth_k} without gravity (|U| at the centre), {trap_depth_with_gravity_k} with the cloud's gravity over its lowest escape")
+			}
 			r.Line("  recoil heating by this beam's scattering at the centre {heating_rate_k_per_s} (T_r Γ_sc/3, Grimm et al. 2000): it heats the atoms by its depth in {time_to_heat_by_depth_s}")
 		}
 		r.Line(fmt.Sprintf("  for reference: s = I/I_sat = {saturation}, Ω/2π = {rabi_frequency_hz} on %s", tr.Name))

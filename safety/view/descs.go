@@ -350,6 +350,7 @@ var (
 	dTotalW                             = &Desc{"total_w", "total", "LaserBalance.Total"}
 	dTransitionName                     = &Desc{"transition", "transition", "Transition.Name"}
 	dDipoleResultTrapDepthK             = &Desc{"trap_depth_k", "trap depth", "DipoleResult.Depth"}
+	dDepthWithGravityK                  = &Desc{"trap_depth_with_gravity_k", "trap depth with gravity", "DipoleResult.DepthWithGravity"}
 	dTrapFrequencyAxialHz               = &Desc{"trap_frequency_axial_hz", "axial trap frequency", "DipoleResult.TrapAxial"}
 	dTrapFrequencyRadialHz              = &Desc{"trap_frequency_radial_hz", "radial trap frequency", "DipoleResult.TrapX"}
 	dTrapFrequencyXHz                   = &Desc{"trap_frequency_x_hz", "trap frequency x", "DipoleResult.TrapX"}
