@@ -236,7 +236,7 @@ func atomsAt(b *budget.Budget, pb *budget.PathBudget, r *budget.Row, c *setup.Cl
 	}
 	// A goal is the path's own laser's; another laser's beam on the path
 	// is shown beside it.
-	if e := r.Element; p.goals && e.Goal != "" && !pb.IsJoined() {
+	if e := r.Element; p.goals && e.Goal != "" && pb.Laser.Name == e.GoalLaser {
 		a.Goal = goalOf(b, a, e, p)
 	}
 	return a

@@ -473,3 +473,41 @@ rms_size = ["10 um", "10 um", "10 um"]
 		t.Errorf("s at most 1: %g W the most, met %v", g.SourcePower, g.Met)
 	}
 }
+
+// A goal on a path a probe joins on a combiner, the path's own laser far
+// detuned: the saturation goal is the probe's (the one near-resonant beam
+// there), judged at the probe's power and sampled with the probe's
+// toleranced window; the trap's beam at the element has no goal.
+func TestGoalOnASharedPathIsTheServingLasers(t *testing.T) {
+	s, err := setup.Load("testdata/shared-goal.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := budget.ComputeAtOperating(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	d := Evaluate(b)
+	var probe *AtomsResult
+	for _, a := range d {
+		switch {
+		case a.Path.Laser.Name == "probe":
+			probe = a
+		case a.Goal != nil:
+			t.Errorf("the %s beam carries the goal", a.Path.Laser.Name)
+		}
+	}
+	if probe == nil || probe.Goal == nil || probe.Goal.Impossible != "" || probe.Goal.Available != 1e-3 {
+		t.Fatalf("probe goal %+v", probe)
+	}
+	// s = 0.1 at the centre through half the column (Reinaudi et al. 2007,
+	// eq. (1)), the same relation as on the probe's own path.
+	sIn := probe.Goal.Intensity / probe.Isat
+	if lhs := math.Log(sIn/0.1) + sIn - 0.1; !near(lhs, probe.OpticalDepth/2, 1e-6) {
+		t.Errorf("ln(s_in/s) + s_in − s = %g, want b0/2 = %g", lhs, probe.OpticalDepth/2)
+	}
+	res := Tolerances(s, d, 200, DefaultSeed, 0)
+	if gt := res[probe]; gt == nil || gt.NoSpread || len(gt.Contributors) != 1 {
+		t.Errorf("the probe's goal sampled: %+v", gt)
+	}
+}

@@ -1,6 +1,7 @@
 package drive
 
 import (
+	"beamledger/budget"
 	"beamledger/budget/numeric"
 	"beamledger/budget/setup"
 	"math"
@@ -56,6 +57,7 @@ type goalRef struct {
 	path, element int
 	cloud         int
 	hints         *trapHints // the nominal goal's trap, where a sample's search starts
+	laser         string     // the laser whose beam on the path the goal is for
 }
 
 // margins computes every referenced goal's margin for setup s.
@@ -88,7 +90,18 @@ func margins(s *setup.Setup, refs []goalRef) []float64 {
 			}
 			continue
 		}
-		pb := b.Paths[ref.path]
+		// The beam on the path whose goal it is (a laser joining the path
+		// on a combiner may carry it).
+		var pb *budget.PathBudget
+		for _, q := range b.Paths[ref.path].Beams() {
+			if q.Laser.Name == ref.laser {
+				pb = q
+			}
+		}
+		if pb == nil || ref.element >= len(pb.Rows) {
+			out[i] = math.Inf(-1)
+			continue
+		}
 		r := &pb.Rows[ref.element]
 		a := atomsAt(b, pb, r, clouds[r.Element.Cloud], pass{goals: true, given: ref.hints})
 		if g := a.Goal; g != nil && g.Impossible == "" {
@@ -159,11 +172,11 @@ func TolerancesRun(s *setup.Setup, drive []*AtomsResult, run Run) map[any]*GoalT
 	var refs []goalRef
 	var owners []any // the *AtomsResult or *Cloud each goal belongs to
 	for _, a := range drive {
-		if a.Goal == nil || a.Path.IsJoined() {
+		if a.Goal == nil {
 			continue
 		}
 		h := a.Goal.hints
-		refs = append(refs, goalRef{slices.Index(s.Paths, a.Path.Path), a.Path.RowIndex(a.Row), -1, &h})
+		refs = append(refs, goalRef{slices.Index(s.Paths, a.Path.Path), a.Path.RowIndex(a.Row), -1, &h, a.Path.Laser.Name})
 		owners = append(owners, a)
 	}
 	for i, c := range s.Clouds {

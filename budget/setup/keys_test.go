@@ -199,7 +199,12 @@ func keyCases(spec *TableSpec, kind ElementType) []keyCase {
 	setup := func(keys map[string]string) string { return keysSetup(spec, kind, keys) }
 	out := []keyCase{{what: "the minimal table", src: setup(minimalKeys(spec, "", "")), loads: true}}
 	for _, k := range spec.Keys {
-		out = append(out, keyCase{what: "key " + k.Key + " = " + k.Example, src: setup(minimalKeys(spec, k.Key, "")), loads: true})
+		keys := minimalKeys(spec, k.Key, "")
+		if kind == TypeAtoms && k.Key == "goal_laser" {
+			// The example laser is near resonance: a goal it can serve.
+			keys["goal"], keys["goal_value"] = `"saturation"`, "1"
+		}
+		out = append(out, keyCase{what: "key " + k.Key + " = " + k.Example, src: setup(keys), loads: true})
 		if k.ByLaser() {
 			keys := minimalKeys(spec, k.Key, "")
 			keys[k.Key] = "{ probe-amp = " + k.Example + " }"

@@ -73,6 +73,7 @@ var atomsKeys = append([]KeySpec{
 	choice("axis", AxisValues, false, "the cloud axis the beam runs along (default z)", `"y"`),
 	KeySpec{Key: "direction", Kind: ValVector, Doc: "the beam's direction in the cloud's frame, instead of axis", Example: `[0, -1, 0]`},
 	choice("interference", InterferenceValues, false, "standing_wave: this return pass interferes with the forward one", `"standing_wave"`),
+	with(KeySpec{Key: "goal_laser", Kind: ValName, Doc: "on a path several lasers' light shares: the laser whose beam the goal is for (default: the path's own laser when it serves the goal, else the one that does: near resonance for saturation, rabi and collective, far detuned for trap_depth)", Example: `"probe-amp"`}, "goal"),
 	quantity("pulse", units.Time, false, "how long this near-resonant beam shines on trapped atoms at a time (an imaging or push pulse): the photons each atom scatters in it are set against the number that heats it out of the trap", `"50 us"`),
 )...)
 
@@ -213,6 +214,10 @@ func readAtoms(t *table, e *Element, m map[string]any) {
 		e.Detuning, e.DetuningLinewidths = &d, n
 	}
 	e.Pulse = t.positive("pulse", units.Time, false)
+	e.GoalLaser = t.str("goal_laser", false)
+	if e.GoalLaser != "" && e.Goal == "" {
+		t.fail("goal_laser", "given without goal")
+	}
 }
 
 // readGoal reads goal, goal_value and goal_factor (of an atoms element or a

@@ -28,6 +28,7 @@ func (l *loader) link(s *Setup) {
 		func() { l.linewidthDetunings(s, clouds, locs) },
 		func() { l.checkDetunings(s, clouds, locs) },
 		func() { l.checkGoalLasers(s) },
+		func() { l.linkElementGoals(s, clouds, locs) },
 	}
 	for _, step := range steps {
 		if len(l.problems) > 0 {
@@ -690,6 +691,74 @@ func (l *loader) checkGoalLasers(s *Setup) {
 			if !serves && len(seen) > 0 {
 				l.addf(l.lines.line(fmt.Sprintf("cloud[%d]", i), "goal_lasers"), fmt.Sprintf("cloud %q", c.Name),
 					"goal_lasers: laser %q cannot serve the %s goal: its light at the cloud is %s; a %s goal scales %s light", name, c.Goal, strings.Join(seen, "; "), c.Goal, map[string]string{LightFar: "far-detuned", LightNear: "near-resonant"}[want])
+			}
+		}
+	}
+}
+
+// lightAt is how laser las's light counts at atoms element e of path p on
+// transition tr (Classify of its detuning there: the element's stated
+// detuning and the AOM shifts for the path's own laser, the laser's own
+// detuning or wavelength otherwise).
+func lightAt(p *Path, e *Element, las *Laser, tr *atoms.Transition) (string, float64) {
+	var Δ float64
+	if las == p.Laser {
+		Δ, _ = DetuningAt(las, e, aomShift(p, e), tr)
+	} else {
+		Δ, _ = DetuningAt(las, nil, 0, tr)
+	}
+	kind, _, _ := Classify(Δ, tr)
+	return kind, Δ
+}
+
+// linkElementGoals sets each atoms element's goal laser: the one named
+// (which must reach the element and serve the goal), else the path's own
+// laser when it serves it, else the one arriving laser that does; a goal
+// no arriving laser serves, or that several could serve but not the
+// path's own, is an input error naming them.
+func (l *loader) linkElementGoals(s *Setup, clouds map[string]*Cloud, locs map[*Path]int) {
+	reach := Arrivals(s)
+	for _, p := range s.Paths {
+		for k, e := range p.Elements {
+			c := clouds[e.Cloud]
+			if e.Type != TypeAtoms || e.Goal == "" || c == nil || c.Data == nil {
+				continue
+			}
+			want := LightNear
+			if e.Goal == GoalTrapDepth {
+				want = LightFar
+			}
+			adj := map[string]string{LightFar: "far-detuned", LightNear: "near-resonant"}[want]
+			line, ctx := l.lines.line(fmt.Sprintf("%s.element[%d]", pathLoc(locs, p), k), "goal_laser"), fmt.Sprintf("path %q, element %d (atoms, cloud %q)", p.Name, e.Index, e.Cloud)
+			var here, serve []string
+			kinds := map[string]string{}
+			for _, a := range reach[e] {
+				if slices.Contains(here, a.Laser.Name) {
+					continue
+				}
+				here = append(here, a.Laser.Name)
+				kind, Δ := lightAt(p, e, a.Laser, c.Data)
+				kinds[a.Laser.Name] = fmt.Sprintf("%s, %s from %s", kind, units.FormatFrequency(Δ/(2*math.Pi)), c.Data.Name)
+				if kind == want {
+					serve = append(serve, a.Laser.Name)
+				}
+			}
+			switch {
+			case e.GoalLaser != "" && !slices.Contains(here, e.GoalLaser):
+				l.addf(line, ctx, "goal_laser: laser %q does not reach this element (the lasers here: %s)", e.GoalLaser, quotedOrNone(here))
+			case e.GoalLaser != "" && !slices.Contains(serve, e.GoalLaser):
+				l.addf(line, ctx, "goal_laser: laser %q cannot serve the %s goal: its light here is %s; a %s goal is for %s light", e.GoalLaser, e.Goal, kinds[e.GoalLaser], e.Goal, adj)
+			case e.GoalLaser != "":
+			case slices.Contains(serve, p.Laser.Name) || len(here) == 1:
+				// The path's own laser, as always; alone, it keeps the goal
+				// even where it cannot serve it (the drive says why).
+				e.GoalLaser = p.Laser.Name
+			case len(serve) == 1:
+				e.GoalLaser = serve[0]
+			case len(serve) == 0:
+				l.addf(line, ctx, "goal: no laser whose light reaches this element can serve the %s goal (%s light): %s", e.Goal, adj, quotedOrNone(here))
+			default:
+				l.addf(line, ctx, "goal: the lasers %s could each serve the %s goal here, and the path's own laser %q cannot; name one with goal_laser", quotedOrNone(serve), e.Goal, p.Laser.Name)
 			}
 		}
 	}

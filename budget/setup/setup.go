@@ -184,7 +184,11 @@ type Element struct {
 	// GoalFraction the share of the atoms for "all".
 	GoalAt       string
 	GoalFraction float64
-	Detuning     *float64 // Hz, overrides the laser's plus AOM shifts
+	// GoalLaser names the laser whose beam the goal is for; the linker
+	// sets it (the path's own laser when it serves the goal, else the one
+	// arriving laser that does).
+	GoalLaser string
+	Detuning  *float64 // Hz, overrides the laser's plus AOM shifts
 	// DetuningLinewidths is the detuning as written in linewidths of the
 	// cloud's transition; the linker sets Detuning from it.
 	DetuningLinewidths *float64

@@ -33,6 +33,7 @@ func (b *builder) atomsRecord(a *drive.AtomsResult) Record {
 	wx, wy := a.Row.BeamIn.Radii()
 	r := Record{Members: b.members(40)}
 	r.F(Str(dPathRef, a.Path.Path.Name)).F(Whole(dElementRef, e.Index)).
+		F(Str(dAtomsLaser, las.Name)).F(Field{d: dAtomsWavelengthM, Kind: Number, SI: a.Row.BeamIn.Wavelength, Text: units.FormatWavelength(a.Row.BeamIn.Wavelength)}).
 		F(Str(dCloud, a.Cloud.Name)).F(Str(dTransitionName, tr.Name)).
 		F(Len(dElementAtM, e.At)).
 		F(Pow(dAtomsResultPowerW, a.Power)).

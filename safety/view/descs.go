@@ -83,6 +83,8 @@ var (
 	dPathRef                            = &Desc{"path", "path", "Path.Name"}
 	dElementIndexRef                    = &Desc{"element_index", "element", "Element.Index"}
 	dLaserRef                           = &Desc{"laser", "laser", "Laser.Name"}
+	dAtomsLaser                         = &Desc{"laser", "laser", "AtomsResult.Path.Laser"}
+	dAtomsWavelengthM                   = &Desc{"wavelength_m", "wavelength", "AtomsResult.Row.BeamIn.Wavelength"}
 	dAtomsResultPowerW                  = &Desc{"power_w", "power", "AtomsResult.Power"}
 	dDirection                          = &Desc{"direction", "direction", "CloudBeam.Direction"}
 	dAtomsResultDetuningHz              = &Desc{"detuning_hz", "detuning Δ/2π", "AtomsResult.Detuning"}
