@@ -93,6 +93,10 @@ type Trap struct {
 	Depth  float64
 	Escape [3]float64
 	Saddle *[3]float64
+	// Leave is the energy above the minimum at which the atoms leave the
+	// whole potential, out of every beam, along straight lines, J (at least
+	// Depth; the same for a single beam).
+	Leave float64
 	// Frequencies are the harmonic trap frequencies at the minimum, Hz,
 	// ascending, along Axes (unit vectors in the cloud frame).
 	Frequencies [3]float64
@@ -415,6 +419,21 @@ func (f *field) findTrap() Trap {
 	t.Depth = math.Max(t.Depth, 0)
 	if f.trial {
 		return t
+	}
+	// The energy to leave the whole potential, out of every beam: the
+	// same straight rays run out to the beams' reach, no stop beyond the
+	// other beams (the depth above is the barrier out of the trap's basin,
+	// into one arm of a crossing).
+	t.Leave = math.Inf(1)
+	for _, r := range rays {
+		for _, sgn := range []float64{1, -1} {
+			dd := [3]float64{sgn * r.d[0], sgn * r.d[1], sgn * r.d[2]}
+			t.Leave = math.Min(t.Leave, f.barrier(best, vmin, dd, L/50, math.Max(reach, L)))
+		}
+	}
+	t.Leave = math.Max(t.Leave, t.Depth)
+	if len(f.beams) == 1 && f.beams[0].back == nil {
+		t.Leave = t.Depth // one beam: its escape leaves the whole potential
 	}
 	if t.Saddle != nil {
 		t.Profile = f.escapeProfile(fr, best, *t.Saddle)

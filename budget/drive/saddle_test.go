@@ -194,3 +194,16 @@ func TestElementDepthWithGravity(t *testing.T) {
 		t.Errorf("|U| %g K (want %g K), with gravity %g K (want %g K)", -d.Depth/atoms.KB, U/atoms.KB, d.DepthWithGravity/atoms.KB, bent/atoms.KB)
 	}
 }
+
+// Two conventions, both named: a crossed trap's depth is the barrier out
+// of the crossing into one arm, U0 (one beam's, without gravity); the
+// energy to leave the whole potential, out of both beams, is the depth of
+// both at the crossing, 2U0 (by hand: V = −2U0 at the minimum, 0 far away
+// along every line).
+func TestCrossedTrapLeaveEnergy(t *testing.T) {
+	_, cs := cloudsOf(t, beamOn("a", "1064 nm", "5 W", "50 um", "z")+beamOn("b", "1064 nm", "5 W", "50 um", "x")+cloudC("none", ""))
+	U := u0(t, 1064e-9, 5, 50e-6)
+	if tr := cs[0].Trap; !relNear(tr.Depth, U, 0.02) || !relNear(tr.Leave, 2*U, 0.02) {
+		t.Errorf("depth %g K (want %g K), leave %g K (want %g K)", tr.Depth/atoms.KB, U/atoms.KB, tr.Leave/atoms.KB, 2*U/atoms.KB)
+	}
+}

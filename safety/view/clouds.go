@@ -83,17 +83,17 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 	case t == nil:
 		r.F(Absent(dTrapMinimumOffsetM, false)).F(Absent(dTrapTrapDepthK, false)).F(Absent(dTrapFrequenciesHz, false)).F(Absent(dTrapAxes, false)).
 			F(Absent(dGravitySagM, false)).F(Absent(dHoldsAgainstGravity, false)).F(Absent(dForceAtCloudG, false)).F(Absent(dLatticeFrequencyHz, false)).F(Absent(dEscapeDirection, false)).F(Absent(dTrapNote, true)).
-			F(Absent(dTrapHeatingRateKPerS, false)).F(Absent(dTrapTimeToHeatS, false))
+			F(Absent(dTrapHeatingRateKPerS, false)).F(Absent(dTrapTimeToHeatS, false)).F(Absent(dTrapLeaveK, false))
 		r.After = append(r.After, "  no far-detuned beam: no dipole trap")
 	case t.Skipped != "":
 		r.F(Absent(dTrapMinimumOffsetM, false)).F(Absent(dTrapTrapDepthK, false)).F(Absent(dTrapFrequenciesHz, false)).F(Absent(dTrapAxes, false)).
 			F(Absent(dGravitySagM, false)).F(Absent(dHoldsAgainstGravity, false)).F(Absent(dForceAtCloudG, false)).F(Absent(dLatticeFrequencyHz, false)).F(Absent(dEscapeDirection, false)).F(Str(dTrapNote, t.Skipped)).
-			F(Absent(dTrapHeatingRateKPerS, false)).F(Absent(dTrapTimeToHeatS, false))
+			F(Absent(dTrapHeatingRateKPerS, false)).F(Absent(dTrapTimeToHeatS, false)).F(Absent(dTrapLeaveK, false))
 		r.After = append(r.After, "  trap: not searched for: {trap_note}")
 	case !t.Found:
 		r.F(Absent(dTrapMinimumOffsetM, false)).F(Absent(dTrapTrapDepthK, false)).F(Absent(dTrapFrequenciesHz, false)).F(Absent(dTrapAxes, false)).
 			F(Absent(dGravitySagM, false)).F(Flag(dHoldsAgainstGravity, false, "no")).F(Absent(dForceAtCloudG, false)).F(Absent(dLatticeFrequencyHz, false)).F(Absent(dEscapeDirection, false)).F(Absent(dTrapNote, true)).
-			F(Absent(dTrapHeatingRateKPerS, false)).F(Absent(dTrapTimeToHeatS, false))
+			F(Absent(dTrapHeatingRateKPerS, false)).F(Absent(dTrapTimeToHeatS, false)).F(Absent(dTrapLeaveK, false))
 		r.After = append(r.After, "  trap: the combined potential has no minimum near the cloud (with gravity): the beams do not trap the atoms")
 	default:
 		var freqs []string
@@ -110,6 +110,7 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 			F(Num(dForceAtCloudG, t.ForceAtCloud, fmtG(t.ForceAtCloud))).
 			F(NumList(dEscapeDirection, t.Escape[:], vec(t.Escape))).
 			F(Absent(dTrapNote, true)).
+			F(Num(dTrapLeaveK, t.Leave/atoms.KB, units.FormatSI(t.Leave/atoms.KB, "K"))).
 			F(Num(dTrapHeatingRateKPerS, t.HeatingRate, units.FormatSI(t.HeatingRate, "K/s"))).
 			F(Num(dTrapTimeToHeatS, t.HeatTime, units.FormatSI(t.HeatTime, "s")))
 		if t.Saddle != nil {
@@ -135,6 +136,9 @@ func (b *builder) cloudRecord(cr *drive.CloudResult) Record {
 			"  trap frequencies {trap_frequencies_hz} along the principal axes {trap_axes}; sag under gravity g/ω² = {gravity_sag_m}")
 		if !math.IsNaN(t.Lattice) {
 			r.After = append(r.After, "  standing wave: lattice spacing λ/2, axial lattice frequency {lattice_frequency_hz} (Grimm et al. 2000)")
+		}
+		if t.Holds && t.Leave > t.Depth*1.01 {
+			r.After = append(r.After, "  the depth above is the barrier out of the trap's basin (into one arm of a crossing); the atoms leave the whole potential, out of every beam, above {trap_leave_k} (along straight lines)")
 		}
 		if t.Holds {
 			r.After = append(r.After, "  recoil heating by the far-detuned light's scattering at the minimum {heating_rate_k_per_s} (T_r Γ_sc/3 for each beam, Grimm et al. 2000): it heats the atoms by the depth in {time_to_heat_by_depth_s}")

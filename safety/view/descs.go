@@ -106,6 +106,7 @@ var (
 	dLatticeFrequencyHz                 = &Desc{"lattice_frequency_hz", "lattice frequency", "Trap.Lattice"}
 	dEscapeDirection                    = &Desc{"escape_direction", "escape", "Trap.Escape"}
 	dEscapeSaddleM                      = &Desc{"escape_saddle_m", "escape saddle", "Trap.Saddle"}
+	dTrapLeaveK                         = &Desc{"trap_leave_k", "energy to leave the whole potential", "Trap.Leave"}
 	dTrapHeatingRateKPerS               = &Desc{"heating_rate_k_per_s", "recoil heating", "Trap.HeatingRate"}
 	dTrapTimeToHeatS                    = &Desc{"time_to_heat_by_depth_s", "time to heat by the depth", "Trap.HeatTime"}
 	dDipoleHeatingRateKPerS             = &Desc{"heating_rate_k_per_s", "recoil heating", "DipoleResult.HeatingRate"}
