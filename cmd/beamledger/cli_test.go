@@ -515,3 +515,46 @@ func TestReportWritesReproducibleHTML(t *testing.T) {
 		t.Errorf("report without -o or --html: exit %d", code)
 	}
 }
+
+// No output is ever lost or replaced by another: an output named twice
+// under two spellings (an absolute path, a linked folder), or naming the
+// setup or the --since setup, is refused before anything is written; a
+// failed output (a folder that does not exist) leaves every existing file
+// as it was.
+func TestReportNeverLosesAFile(t *testing.T) {
+	dir := t.TempDir()
+	setupFile := filepath.Join(dir, "s.toml")
+	old := filepath.Join(dir, "old.toml")
+	data, _ := os.ReadFile("../../testdata/examples/table-c.toml")
+	os.WriteFile(setupFile, data, 0o644)
+	os.WriteFile(old, data, 0o644)
+	pdf := filepath.Join(dir, "out.pdf")
+	os.WriteFile(pdf, []byte("the previous PDF"), 0o644)
+	link := filepath.Join(dir, "link")
+	if err := os.Symlink(dir, link); err != nil {
+		t.Skip("no symbolic links here")
+	}
+	cwd, _ := os.Getwd()
+	rel, err := filepath.Rel(cwd, pdf)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, args := range [][]string{
+		{"-o", pdf, "--diagram", rel, "--force"},
+		{"-o", pdf, "--diagram", filepath.Join(link, "out.pdf"), "--force"},
+		{"-o", pdf, "--html", filepath.Join(dir, ".", "out.pdf"), "--force"},
+		{"-o", old, "--since", old, "--force"},
+		{"-o", pdf, "--diagram", filepath.Join(dir, "missing", "d.svg"), "--force"},
+	} {
+		_, errOut, code := runCLI(t, append([]string{"report", setupFile}, args...)...)
+		if code != exitBadInput {
+			t.Errorf("%v: exit %d (%s)", args, code, errOut)
+		}
+		if b, _ := os.ReadFile(pdf); string(b) != "the previous PDF" {
+			t.Fatalf("%v: the previous PDF was replaced or removed", args)
+		}
+		if b, _ := os.ReadFile(old); !bytes.Equal(b, data) {
+			t.Fatalf("%v: the --since setup was replaced", args)
+		}
+	}
+}

@@ -109,6 +109,19 @@ func (e *env) runReport(o *reportOptions) error {
 	if err != nil {
 		return err
 	}
+	var outputs [][2]string
+	for _, out := range [][2]string{{"-o", o.output}, {"--html", o.html}, {"--diagram", o.diagram}} {
+		if out[1] != "" {
+			outputs = append(outputs, out)
+		}
+	}
+	inputs := [][2]string{{"setup file", o.file}}
+	if o.since != "" {
+		inputs = append(inputs, [2]string{"--since setup", o.since})
+	}
+	if err := checkOutputs(outputs, inputs); err != nil {
+		return err
+	}
 	if o.output != "" {
 		if err := checkOutput(o.file, o.output, o.force); err != nil {
 			return err
@@ -118,16 +131,10 @@ func (e *env) runReport(o *reportOptions) error {
 		if err := checkOutput(o.file, o.html, o.force); err != nil {
 			return fmt.Errorf("--html: %w", err)
 		}
-		if filepath.Clean(o.html) == filepath.Clean(o.output) || filepath.Clean(o.html) == filepath.Clean(o.diagram) {
-			return fmt.Errorf("--html %s is the name of another output; give the page a name of its own", o.html)
-		}
 	}
 	if o.diagram != "" {
 		if err := checkOutput(o.file, o.diagram, o.force); err != nil {
 			return fmt.Errorf("--diagram: %w", err)
-		}
-		if filepath.Clean(o.diagram) == filepath.Clean(o.output) {
-			return fmt.Errorf("--diagram %s is the PDF's own name; give the SVG a name of its own", o.diagram)
 		}
 	}
 	data, err := setup.ReadSetupFile(o.file)
@@ -177,45 +184,92 @@ func (e *env) runReport(o *reportOptions) error {
 			return err
 		}
 	}
-	var written []string // removed again if a later output fails
+	// Every output is written to a temporary file beside it first; only
+	// when all are written are they renamed into place, so a failure (a
+	// missing folder, a full disk, an interrupt) replaces nothing.
+	type output struct {
+		name, what string
+		write      func(*os.File) error
+	}
+	var outs []output
 	if o.output != "" {
-		if err := writeAtomically(o.output, e.interrupts, func(f *os.File) error {
+		outs = append(outs, output{o.output, fmt.Sprintf("(%s, setup SHA-256 %s)", doc.Date, doc.SetupSHA256), func(f *os.File) error {
 			return pdf.Write(f, doc, pdf.Options{Date: date, Compress: true})
-		}); err != nil {
-			return err
-		}
-		written = append(written, o.output)
-		if _, err := fmt.Fprintf(e.stdout, "wrote %s (%s, setup SHA-256 %s)\n", o.output, doc.Date, doc.SetupSHA256); err != nil {
-			return err
-		}
+		}})
 	}
 	if o.html != "" {
-		if err := writeAtomically(o.html, e.interrupts, func(f *os.File) error {
+		outs = append(outs, output{o.html, fmt.Sprintf("(%s, setup SHA-256 %s, one HTML page)", doc.Date, doc.SetupSHA256), func(f *os.File) error {
 			_, err := f.Write(htmlPage.Bytes())
 			return err
-		}); err != nil {
-			for _, w := range written {
-				os.Remove(w)
-			}
-			return fmt.Errorf("--html: %w (nothing else was left written)", err)
+		}})
+	}
+	if o.diagram != "" {
+		outs = append(outs, output{o.diagram, "(the drawing of the beam paths)", func(f *os.File) error {
+			_, err := f.Write(svg.Bytes())
+			return err
+		}})
+	}
+	var staged []string
+	unstage := func() {
+		for _, t := range staged {
+			os.Remove(t)
 		}
-		written = append(written, o.html)
-		if _, err := fmt.Fprintf(e.stdout, "wrote %s (%s, setup SHA-256 %s, one HTML page)\n", o.html, doc.Date, doc.SetupSHA256); err != nil {
+	}
+	for _, out := range outs {
+		tmp, err := stageFile(out.name, e.interrupts, out.write)
+		if err != nil {
+			unstage()
+			return fmt.Errorf("%s: %w (nothing was written)", out.name, err)
+		}
+		staged = append(staged, tmp)
+	}
+	for i, out := range outs {
+		if err := os.Rename(staged[i], out.name); err != nil {
+			unstage()
+			return err
+		}
+		if _, err := fmt.Fprintf(e.stdout, "wrote %s %s\n", out.name, out.what); err != nil {
 			return err
 		}
 	}
-	if o.diagram != "" {
-		if err := writeAtomically(o.diagram, e.interrupts, func(f *os.File) error {
-			_, err := f.Write(svg.Bytes())
-			return err
-		}); err != nil {
-			for _, w := range written {
-				os.Remove(w)
-			}
-			return fmt.Errorf("--diagram: %w (the other outputs were removed too)", err)
+	return nil
+}
+
+// samePath reports whether two names resolve to one file: the same file
+// where both exist, else the same absolute path once the links in their
+// folders are followed.
+func samePath(a, b string) bool {
+	if ia, err := os.Stat(a); err == nil {
+		if ib, err := os.Stat(b); err == nil {
+			return os.SameFile(ia, ib)
 		}
-		if _, err := fmt.Fprintf(e.stdout, "wrote %s (the drawing of the beam paths)\n", o.diagram); err != nil {
-			return err
+	}
+	resolve := func(p string) string {
+		abs, err := filepath.Abs(p)
+		if err != nil {
+			return filepath.Clean(p)
+		}
+		if dir, err := filepath.EvalSymlinks(filepath.Dir(abs)); err == nil {
+			return filepath.Join(dir, filepath.Base(abs))
+		}
+		return abs
+	}
+	return resolve(a) == resolve(b)
+}
+
+// checkOutputs refuses outputs that are one file under two spellings, and
+// an output that is an input (the setup, the --since setup).
+func checkOutputs(outputs, inputs [][2]string) error {
+	for i, a := range outputs {
+		for _, b := range outputs[i+1:] {
+			if samePath(a[1], b[1]) {
+				return fmt.Errorf("%s %s and %s %s are the same file; give each output a name of its own", a[0], a[1], b[0], b[1])
+			}
+		}
+		for _, in := range inputs {
+			if samePath(a[1], in[1]) {
+				return fmt.Errorf("%s %s is the %s %s; the report never replaces its inputs", a[0], a[1], in[0], in[1])
+			}
 		}
 	}
 	return nil
@@ -259,15 +313,29 @@ func checkOutput(setup, output string, force bool) error {
 var errInterrupted = errors.New("interrupted; no report was written")
 
 // writeAtomically writes through a temporary file beside name and renames it
-// into place, so no half-written file is ever left at name. The temporary
-// name is short (a long output name still fits the file system's limit); a
-// signal arriving on interrupts removes it and returns errInterrupted.
+// into place, so no half-written file is ever left at name (stageFile, then
+// the rename).
 func writeAtomically(name string, interrupts func() (<-chan os.Signal, func()), write func(*os.File) error) error {
-	tmp, err := os.CreateTemp(filepath.Dir(name), ".beamledger-*.tmp")
+	tmp, err := stageFile(name, interrupts, write)
 	if err != nil {
 		return err
 	}
-	defer os.Remove(tmp.Name()) // no-op after a successful rename
+	if err := os.Rename(tmp, name); err != nil {
+		os.Remove(tmp)
+		return err
+	}
+	return nil
+}
+
+// stageFile writes a temporary file beside name with write and returns its
+// name, ready to be renamed into place. The temporary name is short (a
+// long output name still fits the file system's limit); a signal arriving
+// on interrupts removes it and returns errInterrupted.
+func stageFile(name string, interrupts func() (<-chan os.Signal, func()), write func(*os.File) error) (string, error) {
+	tmp, err := os.CreateTemp(filepath.Dir(name), ".beamledger-*.tmp")
+	if err != nil {
+		return "", err
+	}
 	sig, stop := interrupts()
 	defer stop()
 	done := make(chan error, 1)
@@ -282,14 +350,16 @@ func writeAtomically(name string, interrupts func() (<-chan os.Signal, func()), 
 	case <-sig:
 		tmp.Close()
 		os.Remove(tmp.Name())
-		return errInterrupted
+		return "", errInterrupted
 	case err := <-done:
 		if err != nil {
-			return err
+			os.Remove(tmp.Name())
+			return "", err
 		}
 	}
 	if err := os.Chmod(tmp.Name(), 0o644); err != nil {
-		return err
+		os.Remove(tmp.Name())
+		return "", err
 	}
-	return os.Rename(tmp.Name(), name)
+	return tmp.Name(), nil
 }
