@@ -261,3 +261,22 @@ func TestQuantityPatternMatchesParser(t *testing.T) {
 		}
 	}
 }
+
+// One tolerance per value in the schema as in the loader: a tolerance
+// inside another fails validation, one alone passes.
+func TestNestedToleranceFailsValidation(t *testing.T) {
+	sch := schema(t)
+	for _, name := range []string{"tolerance-nested-range", "tolerance-nested-normal"} {
+		src, err := os.ReadFile("../../testdata/bad/" + name + ".toml")
+		if err != nil {
+			t.Fatal(err)
+		}
+		if validateTOML(sch, string(src)) == nil {
+			t.Errorf("%s validates", name)
+		}
+		one := regexp.MustCompile(`transmission = "[^"]*"`).ReplaceAllString(string(src), `transmission = "0.9 ± 0.05"`)
+		if err := validateTOML(sch, one); err != nil {
+			t.Errorf("%s with one tolerance: %v", name, err)
+		}
+	}
+}

@@ -194,6 +194,13 @@ func (t *table) tolerance(key, x, a, b string, normal bool, dim units.Dimension)
 		t.fail(key, "%q: %s takes no tolerance (ranges \"a .. b\" and \"x ± s\" are for the loss values, a laser's operating_power, waist and waist_at, and an element's at and focal_length)", x, k)
 		return 0, false
 	}
+	// One tolerance per value: a bound that is itself a range or a ±.
+	for _, part := range []string{a, b} {
+		if _, _, _, nested := splitTolerance(part); nested {
+			t.fail(key, "%q: one tolerance per value (\"a .. b\" or \"x ± s\"), not a tolerance inside another", x)
+			return 0, false
+		}
+	}
 	pa, ok := t.rawQuantity(key, a, dim)
 	if !ok {
 		return 0, false
