@@ -276,6 +276,15 @@ func formatAs(v float64, dim units.Dimension) string {
 // stay between its neighbours' positions.
 func (l *loader) resolveTolerances(s *Setup) {
 	for _, p := range l.tols {
+		if p.key == "operating_power" && strings.HasPrefix(p.loc, "laser[") {
+			var i int
+			fmt.Sscanf(p.loc, "laser[%d]", &i)
+			las := s.Lasers[i]
+			if _, hi := p.tol.Ends(); hi > las.Power {
+				l.addf(l.lines.line(p.loc, "operating_power"), fmt.Sprintf("laser %q", las.Name),
+					"operating_power: %q reaches %s, more than the laser's power %s; an operating power may range up to its maximum", p.tol.Text, units.FormatPower(hi), units.FormatPower(las.Power))
+			}
+		}
 		if p.key == "at" && strings.HasPrefix(p.loc, "path[") {
 			var i, j int
 			fmt.Sscanf(p.loc, "path[%d].element[%d]", &i, &j)

@@ -4,8 +4,10 @@ package synth
 
 import (
 	"fmt"
+	"math"
 	"math/rand/v2"
 	"regexp"
+	"strconv"
 	"strings"
 )
 
@@ -96,16 +98,27 @@ func Lab(seed uint64, o Options) string {
 	// Tolerances on the text already drawn, so that a seed's lab is the same
 	// lab with or without them.
 	out := b.String()
-	out = opRE.ReplaceAllString(out, `operating_power = "$1 W ± ${2}e-2 W"`)
+	// σ is 1 % of the operating power, at most a third of its way to the
+	// maximum (mean + 3σ stays a power the laser has).
+	out = opRE.ReplaceAllStringFunc(out, func(m string) string {
+		g := opRE.FindStringSubmatch(m)
+		pw, _ := strconv.ParseFloat(g[1], 64)
+		op, _ := strconv.ParseFloat(g[2], 64)
+		σ := math.Min(0.01*op, (pw-op)/3)
+		if !(σ > 0) {
+			return m
+		}
+		return fmt.Sprintf("power = \"%s W\"\noperating_power = \"%s W ± %.6g W\"", g[1], g[2], σ)
+	})
 	out = transRE.ReplaceAllString(out, `transmission = "$1 ± 0.005"`)
 	out = strings.ReplaceAll(out, "  type = \"atoms\"\n  cloud = \"c\"\n", "  type = \"atoms\"\n  cloud = \"c\"\n  goal = \"saturation\"\n  goal_value = 1\n")
 	return out
 }
 
-// The patterns the tolerance mode rewrites: an operating power (its σ is 1 %
-// of it: the mantissa, read as hundredths) and a bare transmission.
+// The patterns the tolerance mode rewrites: a laser's power and operating
+// power, and a bare transmission.
 var (
-	opRE    = regexp.MustCompile(`operating_power = "(([0-9.]+)) W"`)
+	opRE    = regexp.MustCompile(`power = "([0-9.e+-]+) W"\noperating_power = "([0-9.e+-]+) W"`)
 	transRE = regexp.MustCompile(`(?m)transmission = (0\.[0-9]+)$`)
 )
 
