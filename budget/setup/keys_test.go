@@ -200,7 +200,7 @@ func keyCases(spec *TableSpec, kind ElementType) []keyCase {
 	out := []keyCase{{what: "the minimal table", src: setup(minimalKeys(spec, "", "")), loads: true}}
 	for _, k := range spec.Keys {
 		keys := minimalKeys(spec, k.Key, "")
-		if kind == TypeAtoms && k.Key == "goal_laser" {
+		if kind == TypeAtoms && (k.Key == "goal_laser" || k.Key == "goal_at" || k.Key == "goal_fraction") {
 			// The example laser is near resonance: a goal it can serve.
 			keys["goal"], keys["goal_value"] = `"saturation"`, "1"
 		}

@@ -207,6 +207,13 @@ func readAtoms(t *table, e *Element, m map[string]any) {
 	if (t.has("goal_at") || t.has("goal_fraction")) && e.Goal == "" {
 		t.fail("goal_at", "given without goal")
 	}
+	if (t.has("goal_at") || t.has("goal_fraction")) && e.Goal == GoalTrapDepth {
+		key := "goal_at"
+		if !t.has(key) {
+			key = "goal_fraction"
+		}
+		t.fail(key, "a trap-depth goal is judged at the trap's own minimum; goal_at and goal_fraction are for the saturation, rabi and collective goals, which hold at a place in the cloud")
+	}
 	if e.GoalMax && e.GoalAt == GoalAtAll {
 		t.fail("goal_at", "\"all\" is for a value to reach; an upper bound (goal_max) is judged at the \"centre\" or the \"exit\"")
 	}
