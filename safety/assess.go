@@ -79,6 +79,7 @@ func EvaluateWith(s *setup.Setup, o Options) (*Assessment, error) {
 	a.Findings = append(a.Findings, a.HazardBudget.Findings()...)
 	a.Findings = append(a.Findings, drive.DriveFindings(a.Atoms)...)
 	a.Findings = append(a.Findings, drive.CloudFindings(a.Clouds)...)
+	a.Findings = append(a.Findings, drive.UnreachedCloudGoals(s, a.Clouds)...)
 	h, err := evaluateHazards(hs, a.HazardBudget)
 	if err != nil {
 		return nil, err

@@ -1011,6 +1011,20 @@ const (
 	FindingPulseHeatsOut       budget.FindingKind = "pulse_heats_out"
 )
 
+// UnreachedCloudGoals are the goals of clouds no beam reaches: each cannot
+// be met, and says so rather than vanish.
+func UnreachedCloudGoals(s *setup.Setup, clouds []*CloudResult) []budget.Finding {
+	var out []budget.Finding
+	for _, c := range s.Clouds {
+		if c.Goal == "" || slices.ContainsFunc(clouds, func(cr *CloudResult) bool { return cr.Cloud == c }) {
+			continue
+		}
+		out = append(out, budget.Finding{Severity: budget.SeverityDrive, Kind: FindingCloudGoalImpossible,
+			Message: fmt.Sprintf("cloud %q: goal %s cannot be met: no beam reaches the cloud (no atoms element names it, or no light arrives there)", c.Name, c.Goal)})
+	}
+	return out
+}
+
 // CloudFindings lists what the clouds' combined figures found: a trap that
 // would hold but for gravity (action), a trap whose minimum lies more than
 // one rms size from the cloud (advice), a pulse whose photons heat the

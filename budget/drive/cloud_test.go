@@ -371,3 +371,22 @@ func TestCloudGoalMetWithoutScaling(t *testing.T) {
 		}
 	}
 }
+
+// A cloud goal no beam can serve because no beam reaches the cloud is a
+// finding, never silence.
+func TestUnreachedCloudGoalIsAFinding(t *testing.T) {
+	src := beamOn("a", "1064 nm", "5 W", "50 um", "z") + cloudC("none", "") + `
+[[cloud]]
+name = "far"
+transition = "Rb87 D2"
+atoms = 1e5
+rms_size = ["10 um", "10 um", "10 um"]
+goal = "trap_depth"
+goal_value = "100 uK"
+`
+	b, cs := cloudsOf(t, src)
+	fs := UnreachedCloudGoals(b.Setup, cs)
+	if len(fs) != 1 || fs[0].Kind != FindingCloudGoalImpossible || !strings.Contains(fs[0].Message, `cloud "far"`) {
+		t.Errorf("findings %+v", fs)
+	}
+}
