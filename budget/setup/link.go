@@ -580,15 +580,21 @@ func (l *loader) checkClouds(s *Setup, lasers map[string]*Laser, locs map[*Path]
 			if e.Type != TypeAtoms || e.Interference != "standing_wave" {
 				continue
 			}
-			found := false
-			for _, f := range p.Elements[:k] {
+			found, mirrored := false, false
+			for kf, f := range p.Elements[:k] {
 				if f.Type == TypeAtoms && f.Cloud == e.Cloud && numeric.Dot(f.Direction, e.Direction) < -0.999 {
 					found = true
+					// The return pass comes back from a mirror between them.
+					mirrored = mirrored || slices.ContainsFunc(p.Elements[kf+1:k], func(m *Element) bool { return m.Type == TypeMirror })
 				}
 			}
-			if !found {
+			switch {
+			case !found:
 				l.addf(l.lines.line(fmt.Sprintf("%s.element[%d]", pathLoc(locs, p), k), "interference"), fmt.Sprintf("path %q, element %d (atoms)", p.Name, e.Index),
 					"interference: a standing wave is the return pass of a beam: an earlier atoms element on this path must reach cloud %q running the opposite way (direction reversed)", e.Cloud)
+			case !mirrored:
+				l.addf(l.lines.line(fmt.Sprintf("%s.element[%d]", pathLoc(locs, p), k), "interference"), fmt.Sprintf("path %q, element %d (atoms)", p.Name, e.Index),
+					"interference: a standing wave is the return pass of a retro-reflected beam: a mirror must stand between the forward pass on cloud %q and this one", e.Cloud)
 			}
 		}
 	}
