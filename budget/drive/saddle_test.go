@@ -207,3 +207,15 @@ func TestCrossedTrapLeaveEnergy(t *testing.T) {
 		t.Errorf("depth %g K (want %g K), leave %g K (want %g K)", tr.Depth/atoms.KB, U/atoms.KB, tr.Leave/atoms.KB, 2*U/atoms.KB)
 	}
 }
+
+// Two beams on one line (running opposite ways, not declared a standing
+// wave), no gravity: the atoms sit in both, 2U0 deep every way out (by
+// hand: −2U0 at the focus, 0 far away); a ray along the line never leaves
+// the other beam, so it runs to the beams' reach.
+func TestTwoBeamsOnOneLine(t *testing.T) {
+	b := strings.Replace(beamOn("b", "1064 nm", "5 W", "50 um", "z"), `axis = "z"`, "direction = [0, 0, -1]", 1)
+	_, cs := cloudsOf(t, beamOn("a", "1064 nm", "5 W", "50 um", "z")+b+cloudC("none", ""))
+	if U := u0(t, 1064e-9, 5, 50e-6); !relNear(cs[0].Trap.Depth, 2*U, 0.01) {
+		t.Errorf("depth %g K, want 2U0 = %g K", cs[0].Trap.Depth/atoms.KB, 2*U/atoms.KB)
+	}
+}
