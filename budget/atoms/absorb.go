@@ -46,7 +46,14 @@ func IncomingIntensity(iOut, b, a float64) float64 {
 	for a*hi+math.Exp(hi) < rhs {
 		hi += 1 + b/a
 	}
-	return math.Exp(solveLinExp(a, rhs, lo, hi, hi))
+	// Start where eˣ alone would meet the right side: Newton then
+	// converges in a few steps at any column (from the bracket's top it
+	// crept down by about one per step: a column of 231 needed 230).
+	x0 := hi
+	if rhs > 0 {
+		x0 = math.Max(lo, math.Min(hi, math.Log(rhs)))
+	}
+	return math.Exp(solveLinExp(a, rhs, lo, hi, x0))
 }
 
 // solveLinExp solves a·x + eˣ = c for x in the bracket [lo, hi] that holds
