@@ -285,13 +285,20 @@ func pairElements(old, new []map[string]any) []elementPair {
 		oldOf[i] = -1
 	}
 	used := make([]bool, len(old))
+	// Linear in the elements: the old ones by name, and by type in order.
+	byName := map[string][]int{}
+	byType := map[string][]int{}
+	for oi, o := range old {
+		if n := name(o); n != "" {
+			byName[n] = append(byName[n], oi)
+		}
+		byType[typ(o)] = append(byType[typ(o)], oi)
+	}
 	for ni, m := range new {
 		if n := name(m); n != "" {
-			for oi, o := range old {
-				if !used[oi] && name(o) == n {
-					oldOf[ni], used[oi] = oi, true
-					break
-				}
+			if q := byName[n]; len(q) > 0 {
+				oldOf[ni], used[q[0]] = q[0], true
+				byName[n] = q[1:]
 			}
 		}
 	}
@@ -299,12 +306,15 @@ func pairElements(old, new []map[string]any) []elementPair {
 		if oldOf[ni] >= 0 {
 			continue
 		}
-		for oi, o := range old {
-			if !used[oi] && typ(o) == typ(m) {
-				oldOf[ni], used[oi] = oi, true
-				break
-			}
+		q := byType[typ(m)]
+		for len(q) > 0 && used[q[0]] {
+			q = q[1:]
 		}
+		if len(q) > 0 {
+			oldOf[ni], used[q[0]] = q[0], true
+			q = q[1:]
+		}
+		byType[typ(m)] = q
 	}
 	label := func(m map[string]any, i int) string {
 		if n := name(m); n != "" {
