@@ -213,7 +213,7 @@ func formatFocalPair(f [2]float64) string {
 }
 
 // IdealText is a fibre's ideal coupling-lens focal length as printed: the
-// pair (FormatFocalPair), with the note on an astigmatic beam, or the
+// pair (formatFocalPair), with the note on an astigmatic beam, or the
 // note alone where none is given.
 func IdealText(fc *FiberCoupling) string {
 	switch {
@@ -225,5 +225,3 @@ func IdealText(fc *FiberCoupling) string {
 	return formatFocalPair(fc.IdealFocalLength) + " (" + fc.IdealNote + ")"
 }
 
-// FormatFocalPair writes the x and y ideal focal lengths, once when equal.
-func FormatFocalPair(f [2]float64) string { return formatFocalPair(f) }

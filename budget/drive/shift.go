@@ -52,7 +52,11 @@ func Shifts(b *budget.Budget) map[*setup.Cloud]float64 {
 // its near-resonant light's detuning (Shifts; the far-detuned light that
 // makes the shift does not depend on it, so one more pass settles it).
 func Budget(s *setup.Setup, atOperating bool) (*budget.Budget, error) {
-	b, err := budget.ComputeShifted(s, atOperating, nil)
+	compute := budget.Compute
+	if atOperating {
+		compute = budget.ComputeAtOperating
+	}
+	b, err := compute(s)
 	if err != nil {
 		return nil, err
 	}
