@@ -224,4 +224,3 @@ func IdealText(fc *FiberCoupling) string {
 	}
 	return formatFocalPair(fc.IdealFocalLength) + " (" + fc.IdealNote + ")"
 }
-
