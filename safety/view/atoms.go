@@ -122,10 +122,17 @@ func (b *builder) atomsRecord(a *drive.AtomsResult) Record {
 				ax = "none (the cloud is not at an intensity maximum along the beam)"
 			}
 			r.Line("  trap frequencies (harmonic, this beam alone): x {trap_frequency_x_hz}, y {trap_frequency_y_hz}, axial " + ax)
-			if !math.IsNaN(d.DepthWithGravity) && a.Cloud.Down != [3]float64{} {
+			gravity := !math.IsNaN(d.DepthWithGravity) && a.Cloud.Down != [3]float64{}
+			switch {
+			case gravity && d.DepthWithGravity == 0:
+				r.Line("  depth of this beam's own trap: {trap_depth_k} without gravity (|U| at the centre); with the cloud's gravity the beam alone does not hold the atoms")
+				r.Line("  recoil heating by this beam's scattering at the centre {heating_rate_k_per_s} (T_r Γ_sc/3, Grimm et al. 2000)")
+			case gravity:
 				r.Line("  depth of this beam's own trap: {trap_depth_k} without gravity (|U| at the centre), {trap_depth_with_gravity_k} with the cloud's gravity over its lowest escape")
+				r.Line("  recoil heating by this beam's scattering at the centre {heating_rate_k_per_s} (T_r Γ_sc/3, Grimm et al. 2000): it heats the atoms by its field-free depth in {time_to_heat_by_depth_s}")
+			default:
+				r.Line("  recoil heating by this beam's scattering at the centre {heating_rate_k_per_s} (T_r Γ_sc/3, Grimm et al. 2000): it heats the atoms by its depth in {time_to_heat_by_depth_s}")
 			}
-			r.Line("  recoil heating by this beam's scattering at the centre {heating_rate_k_per_s} (T_r Γ_sc/3, Grimm et al. 2000): it heats the atoms by its depth in {time_to_heat_by_depth_s}")
 		}
 		r.Line(fmt.Sprintf("  for reference: s = I/I_sat = {saturation}, Ω/2π = {rabi_frequency_hz} on %s", tr.Name))
 	default:
