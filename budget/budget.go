@@ -257,7 +257,8 @@ func compute(s *setup.Setup, atOperating bool, shifts map[*setup.Cloud]float64) 
 					continue
 				}
 				row := q.row(p.ParentPort)
-				t := *p.ParentPort.For(q.Laser).Transmission
+				el := p.ParentPort.For(q.Laser)
+				t := *el.Leaving("transmission", q.Laser, el.Transmission)
 				beams = append(beams, &PathBudget{Path: p, Laser: q.Laser, Start: row.BeamOut,
 					StartFraction: row.FractionIn * row.ClipFraction * (1 - t), ShiftIn: q.ShiftBefore(k)})
 			}
@@ -309,6 +310,18 @@ func compute(s *setup.Setup, atOperating bool, shifts map[*setup.Cloud]float64) 
 		out.Paths = append(out.Paths, own[p])
 	}
 	return out, nil
+}
+
+// Lost is the fraction of the source's power the row loses in losses of
+// kind k.
+func (r *Row) Lost(k string) float64 {
+	f := 0.0
+	for _, l := range r.Losses {
+		if l.Kind == k {
+			f += l.Fraction
+		}
+	}
+	return f
 }
 
 // RowIndex is the index of row r in pb.Rows.

@@ -62,6 +62,18 @@ func (s *stage) stated(kind string, t *float64) {
 	}
 }
 
+// leave applies a stated transmission t (nil: none stated) whose loss
+// leaves the path as a beam of its own; that beam is 1 − out of the
+// arriving power (out is t but in the hazards' copy of a setup, where a
+// toleranced value's leaving beam takes its own worst end:
+// setup.Element.Leaving).
+func (s *stage) leave(kind string, t, out *float64) {
+	if t != nil {
+		s.lose(kind, s.frac*(1-*out))
+		s.frac *= *t
+	}
+}
+
 func applyLens(s *stage, e *setup.Element) {
 	s.beam = s.beam.Lens(e.FocalLength)
 	s.stated(LossAbsorption, e.Transmission)
@@ -73,7 +85,7 @@ func applyMirror(s *stage, e *setup.Element) {
 	if e.RadiusOfCurvature != 0 {
 		s.beam = s.beam.Lens(e.RadiusOfCurvature / 2)
 	}
-	s.stated(LossMirror, e.Reflectivity)
+	s.leave(LossMirror, e.Reflectivity, e.Leaving("reflectivity", s.pb.Laser, e.Reflectivity))
 	s.row.AssumedLossless = e.Reflectivity == nil
 }
 
@@ -89,7 +101,8 @@ func applyAOM(s *stage, e *setup.Element) {
 	s.stated(LossAbsorption, e.Transmission)
 	if e.Efficiency != nil {
 		t := math.Pow(*e.Efficiency, float64(e.Passes))
-		s.stated(LossDiffraction, &t)
+		out := math.Pow(*e.Leaving("efficiency", s.pb.Laser, e.Efficiency), float64(e.Passes))
+		s.leave(LossDiffraction, &t, &out)
 	}
 	s.row.AssumedLossless = e.Transmission == nil && e.Efficiency == nil
 }
@@ -128,7 +141,7 @@ func applyAtoms(s *stage, e *setup.Element) {
 
 func applySplitter(s *stage, e *setup.Element) {
 	if s.followed[s.row.Element] == nil {
-		s.lose(LossSplitterPort, s.frac*(1-*e.Transmission))
+		s.lose(LossSplitterPort, s.frac*(1-*e.Leaving("transmission", s.pb.Laser, e.Transmission)))
 		s.pb.UnfollowedPorts = append(s.pb.UnfollowedPorts, s.row.Element)
 	}
 	s.frac *= *e.Transmission
@@ -149,11 +162,11 @@ func applyFiber(s *stage, e *setup.Element) {
 }
 
 func applyCombiner(s *stage, e *setup.Element) {
-	t := e.Transmission
+	t, key := e.Transmission, "transmission"
 	if s.joining {
-		t = e.JoinTransmission
+		t, key = e.JoinTransmission, "join_transmission"
 	}
-	s.stated(LossCombiner, t)
+	s.leave(LossCombiner, t, e.Leaving(key, s.pb.Laser, t))
 	s.row.AssumedLossless = t == nil
 }
 

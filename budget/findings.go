@@ -144,7 +144,7 @@ func (b *Budget) Findings() []Finding {
 			}
 			for _, e := range pb.UnfollowedPorts {
 				r := pb.row(e)
-				pw := r.FractionIn * r.ClipFraction * (1 - *e.For(pb.Laser).Transmission) * max
+				pw := r.Lost(LossSplitterPort) * max
 				out = append(out, Finding{Severity: SeverityDefect, Kind: FindingUnfollowed, Path: p.Name, Element: e.Index, At: e.At, Message: fmt.Sprintf("element %d (%s%s): up to %s leaves the other port and no path follows it; describe where it goes (a path from %q) or block it",
 					e.Index, e.Label(), beamNote, units.FormatPower(pw), p.Name+":"+e.Name)})
 			}

@@ -60,8 +60,9 @@ func EvaluateWith(s *setup.Setup, o Options) (*Assessment, error) {
 	a := &Assessment{Setup: s, Budget: b, Atoms: drive.Evaluate(b)}
 	a.Clouds = drive.Clouds(b, a.Atoms)
 	// Hazards at each laser's maximum power (a saturable cloud passes
-	// more of it), and at the conservative end of every tolerance: the
-	// highest transmission of each toleranced loss value.
+	// more of it), and at the conservative end of every tolerance for each
+	// beam: the highest transmission of each toleranced loss value for the
+	// light that goes on, the lowest for the light that leaves there.
 	hs := s
 	if len(s.Tolerances) > 0 {
 		hs = ConservativeSetup(s)
@@ -90,14 +91,23 @@ func EvaluateWith(s *setup.Setup, o Options) (*Assessment, error) {
 	return a, nil
 }
 
-// ConservativeSetup is a copy of s with every toleranced loss value at its
-// highest transmission (the optical density's low end); positions, focal
-// lengths, waists and operating powers stay nominal.
+// ConservativeSetup is a copy of s with every toleranced loss value at the
+// end that makes each beam most hazardous: its highest transmission (the
+// optical density's low end) for the beam that goes on through the
+// element, and, for the beam that leaves the path there (a splitter's
+// other port, a mirror's leak, an AOM's unused orders, a combiner's
+// rejected port), its lowest (setup.Element.Leaving). One value is then at
+// both ends at once, for different beams: where the two beams meet again
+// their sum is overstated, never understated. Positions, focal lengths,
+// waists and operating powers stay nominal.
 func ConservativeSetup(s *setup.Setup) *setup.Setup {
 	c := s.Clone()
 	for _, t := range s.Tolerances {
 		if v, ok := t.HighTransmission(); ok {
 			t.Apply(c, v)
+		}
+		if v, ok := t.HighLeaving(); ok {
+			t.ApplyLeaving(c, v)
 		}
 	}
 	return c

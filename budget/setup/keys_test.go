@@ -3,6 +3,7 @@ package setup
 import (
 	"errors"
 	"fmt"
+	"maps"
 	"slices"
 	"strings"
 	"testing"
@@ -205,6 +206,17 @@ func keyCases(spec *TableSpec, kind ElementType) []keyCase {
 			keys["goal"], keys["goal_value"] = `"saturation"`, "1"
 		}
 		out = append(out, keyCase{what: "key " + k.Key + " = " + k.Example, src: setup(keys), loads: true})
+		if fraction := k.Kind == ValQuantity && k.Min == 0 && k.Max == 1; fraction || k.Percent() {
+			// A fraction (a bare number in [0, 1]) may be written as a
+			// percentage and, where it may carry one, with a tolerance.
+			keys := maps.Clone(keys)
+			keys[k.Key] = `"50 %"`
+			out = append(out, keyCase{what: "key " + k.Key + " as a percentage", src: setup(keys), loads: true})
+			if k.Toleranced() {
+				keys[k.Key] = `"0.5 .. 0.6"`
+				out = append(out, keyCase{what: "key " + k.Key + " with a tolerance", src: setup(keys), loads: true})
+			}
+		}
 		if k.ByLaser() {
 			keys := minimalKeys(spec, k.Key, "")
 			keys[k.Key] = "{ probe-amp = " + k.Example + " }"

@@ -425,7 +425,7 @@ const MinFraction = 1e-20
 // as a percentage ("82 %"); an optical density, M² or atom number may not.
 var percentKeys = map[string]bool{
 	"transmission": true, "reflectivity": true, "efficiency": true, "alignment": true,
-	"coupling": true, "surface_reflectance": true, "diffuse_reflectance": true,
+	"coupling": true, "join_transmission": true, "surface_reflectance": true, "diffuse_reflectance": true, "goal_fraction": true,
 }
 
 // linewidthUnits are the ways a detuning may be written in linewidths of

@@ -220,6 +220,33 @@ type Element struct {
 	DamageThreshold     float64 // W/m (cw) or J/m² (pulsed)
 	DamagePulseDuration float64 // s
 	DamageIsFluence     bool
+
+	// leaving holds, only in the hazards' copy of a setup (Toleranced.
+	// ApplyLeaving), a toleranced loss value at the end that sends the most
+	// light out of the path at this element: key → laser name ("" for the
+	// bare value) → value. Leaving reads it.
+	leaving map[string]map[string]float64
+}
+
+// Leaving is loss value key of the element as laser las sees it (v, from
+// For) for the light that leaves the path here as a beam of its own: a
+// splitter's other port, a mirror's leak, an AOM's unused orders, a
+// combiner's rejected port. In the hazards' copy of a setup a toleranced
+// value is then at its own end that sends the most light out (the lowest
+// transmission), while the beam that goes on takes the highest
+// (ConservativeSetup); everywhere else it is v.
+func (e *Element) Leaving(key string, las *Laser, v *float64) *float64 {
+	if e.leaving == nil || v == nil {
+		return v
+	}
+	name := ""
+	if _, ok := e.PerLaser[key]; ok && las != nil {
+		name = las.Name
+	}
+	if x, ok := e.leaving[key][name]; ok {
+		return &x
+	}
+	return v
 }
 
 // PerLaserKeys are the keys that may be given per laser, as an inline table

@@ -3,6 +3,7 @@ package setup
 import (
 	"beamledger/budget/units"
 	"fmt"
+	"maps"
 	"math"
 	"math/rand/v2"
 	"strconv"
@@ -112,6 +113,23 @@ func (t *Toleranced) Apply(s *Setup, v float64) {
 	}
 }
 
+// ApplyLeaving sets v as the value of a toleranced loss value for the
+// light that leaves the path at its element (Element.Leaving), in setup s
+// (a copy made by Clone).
+func (t *Toleranced) ApplyLeaving(s *Setup, v float64) {
+	if t.Laser >= 0 {
+		return
+	}
+	e := s.Paths[t.Path].Elements[t.Element]
+	if e.leaving == nil {
+		e.leaving = map[string]map[string]float64{}
+	}
+	if e.leaving[t.Key] == nil {
+		e.leaving[t.Key] = map[string]float64{}
+	}
+	e.leaving[t.Key][t.PerLaser] = v
+}
+
 func setPair(p *[2]float64, i int, v float64) {
 	if i < 0 {
 		p[0], p[1] = v, v
@@ -130,6 +148,21 @@ func (t *Toleranced) HighTransmission() (float64, bool) {
 		return lo, true
 	case "transmission", "reflectivity", "efficiency", "alignment", "coupling", "join_transmission":
 		return hi, true
+	}
+	return 0, false
+}
+
+// HighLeaving is the end of a toleranced loss value that sends the most
+// light out of the path at its element as a beam of its own (a
+// splitter's other port, a mirror's leak, an AOM's unused orders, a
+// combiner's rejected port): the lowest transmission, reflectivity or
+// efficiency. The other loss values send nothing out as a beam (absorbed,
+// scattered, or not coupled into a fibre), so ok is false for them.
+func (t *Toleranced) HighLeaving() (float64, bool) {
+	lo, _ := t.Tol.Ends()
+	switch t.Key {
+	case "transmission", "reflectivity", "efficiency", "join_transmission":
+		return lo, true
 	}
 	return 0, false
 }
@@ -357,6 +390,12 @@ func (s *Setup) Clone() *Setup {
 						m[n] = v
 					}
 					y.PerLaser[key] = m
+				}
+			}
+			if e.leaving != nil {
+				y.leaving = make(map[string]map[string]float64, len(e.leaving))
+				for key, by := range e.leaving {
+					y.leaving[key] = maps.Clone(by)
 				}
 			}
 			x.Elements[k], elems[e] = &y, &y
