@@ -14,6 +14,8 @@ import (
 	"testing"
 	"time"
 
+	"github.com/pdfcpu/pdfcpu/pkg/api"
+
 	"beamledger/budget/setup"
 	"beamledger/limits"
 )
@@ -385,6 +387,28 @@ func TestVerifyExitStatus(t *testing.T) {
 	}
 	if _, _, code := runCLI(t, "verify", doc, "/no/such/setup.toml"); code != exitBadInput {
 		t.Errorf("a missing setup file: exit %d", code)
+	}
+	if _, errOut, code := runCLI(t, "verify", "/dev/zero"); code != exitBadInput || !strings.Contains(errOut, "not a regular file") {
+		t.Errorf("/dev/zero: exit %d, stderr %q", code, errOut)
+	}
+	// The pages of table C carrying another setup under its name.
+	other, err := os.ReadFile("../../testdata/examples/table-c-rev4.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	swapped := filepath.Join(dir, "swapped.pdf")
+	if err := api.RemoveAttachmentsFile(doc, swapped, []string{"table-c.toml"}, nil); err != nil {
+		t.Fatal(err)
+	}
+	renamed := filepath.Join(t.TempDir(), "table-c.toml")
+	if err := os.WriteFile(renamed, other, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := api.AddAttachmentsFile(swapped, swapped, []string{renamed}, false, nil); err != nil {
+		t.Fatal(err)
+	}
+	if out, errOut, code := runCLI(t, "verify", swapped, renamed); code != exitFindings || !strings.Contains(out, "its pages and its attachments disagree") {
+		t.Errorf("pages of one setup, another attached: exit %d, stdout %q, stderr %q", code, out, errOut)
 	}
 }
 

@@ -3,7 +3,6 @@ package main
 import (
 	"errors"
 	"fmt"
-	"os"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -20,15 +19,24 @@ func (e *env) newVerify() *cobra.Command {
 	return &cobra.Command{
 		Use:   "verify REPORT.pdf [SETUP.toml]",
 		Short: "Check that a sign-off document carries its setup, and what this version finds for it",
-		Long: `verify reads the setup file attached to a sign-off document written by
-report, recomputes its SHA-256 and compares it with the hash the document
-states. Given a setup file, it says whether that file is the one the document
-covers, byte for byte. It then evaluates the attached setup with this version
-of the tool and lists every hazard (class, open-segment ratio and OD, eyewear
-need, finding that needs action) that differs from those the document recorded.
+		Long: fmt.Sprintf(`verify reads the setup file attached to a sign-off document written by
+report and the document's own pages: the title, revision and setup SHA-256
+in every footer and on the cover, and the hazard record printed in its
+appendix must agree with the attached setup and the attached list of
+hazards. It recomputes the setup's SHA-256 and compares it with the hash the
+document states. Given a setup file, it says whether that file is the one
+the document covers, byte for byte. It then evaluates the attached setup with
+this version of the tool and lists every hazard (class, open-segment ratio
+and OD, eyewear need, finding that needs action) that differs from those the
+document recorded.
+
+The document must be a regular file of at most %d MiB carrying exactly one
+setup file and one hazard list, its compressed streams Flate streams that
+expand to at most %d MiB in all.
 
 Exit status: 0 everything matches, 1 something differs, 2 the document or the
-setup cannot be used (not a PDF, no attached setup).`,
+setup cannot be used (not a PDF, not a regular file, not exactly one setup
+attached).`, verify.MaxDocumentBytes>>20, verify.MaxInflatedBytes>>20),
 		Example: `  beamledger verify table-c.pdf
   beamledger verify table-c.pdf testdata/examples/table-c.toml`,
 		Args: cobra.RangeArgs(1, 2),
@@ -39,7 +47,7 @@ setup cannot be used (not a PDF, no attached setup).`,
 }
 
 func (e *env) runVerify(args []string) error {
-	doc, err := os.ReadFile(args[0])
+	doc, err := verify.ReadDocument(args[0])
 	if err != nil {
 		return err
 	}
@@ -54,7 +62,15 @@ func (e *env) runVerify(args []string) error {
 		return fmt.Errorf("%s: %w", args[0], err)
 	}
 	var b strings.Builder
-	fmt.Fprintf(&b, "%s carries the setup %s\n", args[0], r.SetupName)
+	fmt.Fprintf(&b, "%s carries the setup %s\n", args[0], verify.AttachmentLabel(r.SetupName))
+	if len(r.Pages) == 0 {
+		b.WriteString("  its pages state that setup's title, revision and hash, and the hazards recorded with it\n")
+	} else {
+		b.WriteString("  its pages and its attachments disagree:\n")
+		for _, p := range r.Pages {
+			fmt.Fprintf(&b, "    %s\n", p)
+		}
+	}
 	if r.SetupSHA256 == r.RecordedSHA256 {
 		fmt.Fprintf(&b, "  SHA-256 %s, as the document states\n", r.SetupSHA256)
 	} else {

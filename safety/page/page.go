@@ -51,6 +51,7 @@ func Body(d *report.Document) (template.HTML, error) {
 		Right                 []bool
 		Figure                template.HTML
 		SignOff               []string
+		Record                []string
 	}
 	type section struct {
 		N       int
@@ -81,6 +82,8 @@ func Body(d *report.Document) (template.HTML, error) {
 				out.Figure = template.HTML("<figure class=\"drawing\"><figcaption>" + html.EscapeString(b.Drawing.Title) + "</figcaption>" + buf.String() + "</figure>")
 			case b.SignOff != nil:
 				out.SignOff = b.SignOff
+			case len(b.Record) > 0:
+				out.Record = b.Record
 			default:
 				continue
 			}
@@ -173,6 +176,9 @@ var body = sync.OnceValue(func() *template.Template {
 {{range .SignOff}}<tr><th scope="row">{{.}}</th><td></td><td></td><td></td></tr>
 {{end}}</tbody>
 </table>
+{{else if .Record}}<ol class="record">
+{{range .Record}}<li><code>{{.}}</code></li>
+{{end}}</ol>
 {{end}}{{end}}</section>
 {{end}}<section>
 <h2>The setup file this document covers</h2>
@@ -187,7 +193,7 @@ table{border-collapse:collapse;margin:0.5rem 0;font-size:0.85rem}th,td{border:1p
 th{background:#eee}td.num,th.num{text-align:right;font-variant-numeric:tabular-nums;white-space:nowrap}
 dl.title-block{display:grid;grid-template-columns:max-content 1fr;gap:0.1rem 1rem}dt{font-weight:bold}dd{margin:0}
 figure{margin:1rem 0;break-inside:avoid}figcaption{font-weight:bold;font-size:0.9rem}svg{max-width:100%;height:auto}
-.legend{font-size:0.8rem}table.signoff td{min-width:8rem;height:2rem}
+.legend{font-size:0.8rem}table.signoff td{min-width:8rem;height:2rem}ol.record{font-size:0.8rem}
 pre{white-space:pre-wrap;font-size:0.8rem}
 .stale{opacity:0.45}.load-error{border:2px solid #000;padding:0.5rem;font-weight:bold}
 @media print{details{display:none}body{max-width:none}}`

@@ -124,3 +124,11 @@ func copyStrings(v reflect.Value, f func(string) string) reflect.Value {
 		return v
 	}
 }
+
+// Drawable is s as the pages print it: every character the embedded font
+// cannot draw replaced by Missing (verify compares the pages with the
+// attachments through it).
+func Drawable(s string) string {
+	t, _ := glyphCache{}.drawableText(s)
+	return t
+}

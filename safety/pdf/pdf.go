@@ -122,14 +122,28 @@ func (w *writer) footer() {
 	f.SetY(-12)
 	f.SetFont(font, "", 7)
 	f.SetTextColor(60, 60, 60)
-	rev := ""
-	if w.doc.Revision != "" {
-		rev = ", revision " + w.doc.Revision
-	}
-	f.CellFormat(w.textW*0.78, 4, fmt.Sprintf("%s%s — setup SHA-256 %s", w.doc.Title, rev, w.doc.SetupSHA256), "T", 0, "L", false, 0, "")
+	f.CellFormat(w.textW*0.78, 4, FooterText(w.doc.Title, w.doc.Revision, w.doc.SetupSHA256), "T", 0, "L", false, 0, "")
 	f.CellFormat(w.textW*0.22, 4, fmt.Sprintf("page %d of %s", f.PageNo(), pageCount), "T", 0, "R", false, 0, "")
 	f.SetTextColor(0, 0, 0)
 }
+
+// FooterText is what every page's footer states of the document: its
+// title, revision and setup hash (verify reads it back off the pages).
+func FooterText(title, revision, sha256 string) string {
+	rev := ""
+	if revision != "" {
+		rev = ", revision " + revision
+	}
+	return fmt.Sprintf("%s%s — setup SHA-256 %s", title, rev, sha256)
+}
+
+// FooterBand is the height above the page's bottom edge, mm, where only
+// the footer prints: the body ends bottomSpace above the edge, the footer
+// line 12 mm above it.
+const FooterBand = 15.0
+
+// recordMarkW is the width of the column of a record's line numbers, mm.
+const recordMarkW = 9.0
 
 // need starts a new page unless h mm remain above the bottom margin.
 func (w *writer) need(h float64) {
@@ -222,6 +236,14 @@ func (w *writer) section(n int, s report.Section) {
 			w.drawing(b.Drawing)
 		case b.SignOff != nil:
 			w.signOff(b.SignOff)
+		case b.Record != nil:
+			f.SetFont(font, "", 8)
+			for k, l := range b.Record {
+				w.need(lineH)
+				f.SetFont(font, "", 8)
+				f.CellFormat(recordMarkW, lineH, report.RecordMark(k+1), "", 0, "L", false, 0, "")
+				f.MultiCell(w.textW-recordMarkW, lineH, l, "", "L", false)
+			}
 		}
 		// Something was drawn after the heading (a page break before it
 		// finished the heading's page, and the footer recorded that).
@@ -265,6 +287,8 @@ func (w *writer) leadHeight(blocks []report.Block, i int) float64 {
 		return b.Drawing.Height + 9
 	case b.SignOff != nil:
 		return 30
+	case len(b.Record) > 0:
+		return lineH
 	}
 	return 0
 }

@@ -25,12 +25,18 @@ type Meta struct {
 // SignOffRoles are the people who sign.
 var SignOffRoles = []string{"Prepared by", "Reviewed by (laser safety officer)", "Approved by (responsible person)"}
 
+// Heading is the title and revision a setup's document states.
+func Heading(s *setup.Setup) (title, revision string) {
+	return orDefault(s.Meta.Title, "(untitled setup)"), s.Meta.Revision
+}
+
 // Build makes the document for an assessment.
 func Build(a *safety.Assessment, m Meta) *Document {
 	s := a.Setup
 	sum := sha256.Sum256(m.SetupBytes)
+	title, rev := Heading(s)
 	d := &Document{
-		Title: orDefault(s.Meta.Title, "(untitled setup)"), Site: s.Meta.Site, Revision: s.Meta.Revision, PreparedBy: s.Meta.PreparedBy,
+		Title: title, Site: s.Meta.Site, Revision: rev, PreparedBy: s.Meta.PreparedBy,
 		Date: m.Date, ToolVersion: m.ToolVersion, SetupFile: s.File, SetupSHA256: hex.EncodeToString(sum[:]), Setup: m.SetupBytes,
 		Hazards: safety.HazardDigest(a),
 	}
@@ -67,8 +73,18 @@ func Build(a *safety.Assessment, m Meta) *Document {
 	if len(f.Clouds) > 0 {
 		d.Sections = append(d.Sections, cloudsSection(f, lists["clouds"]))
 	}
-	d.Sections = append(d.Sections, hazards(lists), eyewear(lists["eyewear"]), controls(a, lists["control_checks"]), provenance(lists["limits_used"]), assumptions(a), cautions(), signOff(a.Setup.SignOff))
+	d.Sections = append(d.Sections, hazards(lists), eyewear(lists["eyewear"]), controls(a, lists["control_checks"]), provenance(lists["limits_used"]), assumptions(a), cautions(), signOff(a.Setup.SignOff), record(d.Hazards))
 	return d
+}
+
+// record is the appendix after the signatures: the hazards found at
+// sign-off as attached, one numbered line each, so that the pages and
+// the attachment can be held to each other.
+func record(hazards []string) Section {
+	return Section{Heading: RecordHeading, Blocks: []Block{
+		{Paragraph: "The hazards found at sign-off, one numbered line each, as attached to this document (" + HazardsAttachment + "). beamledger verify requires these lines, the setup hash in every footer and the attached setup file to agree, then compares the lines with what the tool finds for the attached setup."},
+		{Record: append([]string{}, hazards...)},
+	}}
 }
 
 // drawings is the section of schematics: a key, then one drawing per
@@ -422,7 +438,7 @@ func cautions() Section {
 	return Section{Heading: "Cautions", Blocks: []Block{{Bullets: view.Cautions}}}
 }
 
-// signOff is the last section: the officer's decision (three boxes the
+// signOff is the last section before the record: the officer's decision (three boxes the
 // officer ticks by hand; the tool never ticks one), the conditions (the
 // setup's, or blank lines to write them on), the review date, and the
 // signatures.

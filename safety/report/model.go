@@ -3,7 +3,11 @@
 // drawing. Package pdf draws it; tests read the model as text.
 package report
 
-import "beamledger/safety/view"
+import (
+	"fmt"
+
+	"beamledger/safety/view"
+)
 
 // Document is the whole sign-off document.
 type Document struct {
@@ -40,7 +44,17 @@ type Block struct {
 	Plot       *view.Plot
 	Drawing    *Drawing
 	SignOff    []string // roles, each with name, signature and date lines
+	// Record lists the hazards found at sign-off, one numbered line each,
+	// as attached (Document.Hazards): what verify reads off the pages.
+	Record []string
 }
+
+// RecordHeading is the heading of the appendix that prints the hazards
+// recorded at sign-off (verify finds the record under it).
+const RecordHeading = "Hazard record"
+
+// RecordMark is how the record numbers its n-th line (from 1).
+func RecordMark(n int) string { return fmt.Sprintf("#%d", n) }
 
 // Table is a captioned table of text cells.
 type Table struct {

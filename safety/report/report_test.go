@@ -41,7 +41,7 @@ func TestModelOrderAndWording(t *testing.T) {
 	for _, s := range doc.Sections {
 		heads = append(heads, s.Heading)
 	}
-	want := "At a glance|Sources|Drawing of the beam paths|Beam paths|At the atoms|At each cloud, every beam counted together|Hazards|Eyewear|Control measures|Where the limits come from|Assumptions|Cautions|Sign-off"
+	want := "At a glance|Sources|Drawing of the beam paths|Beam paths|At the atoms|At each cloud, every beam counted together|Hazards|Eyewear|Control measures|Where the limits come from|Assumptions|Cautions|Sign-off|Hazard record"
 	if got := strings.Join(heads, "|"); got != want {
 		t.Errorf("sections %s, want %s", got, want)
 	}

@@ -43,6 +43,10 @@ func (d *Document) WriteText(w io.Writer) error {
 				for _, role := range bl.SignOff {
 					fmt.Fprintf(&b, "  %s: name ______ signature ______ date ______\n", role)
 				}
+			case bl.Record != nil:
+				for i, l := range bl.Record {
+					fmt.Fprintf(&b, "  %s %s\n", RecordMark(i+1), l)
+				}
 			}
 		}
 	}

@@ -12,10 +12,12 @@ import (
 	"fmt"
 	"io"
 	"slices"
+	"strconv"
 	"strings"
 
 	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu"
 	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu/model"
+	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu/types"
 	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu/validate"
 
 	"beamledger/budget/setup"
@@ -26,11 +28,16 @@ import (
 // Result is what verify found.
 type Result struct {
 	// SetupName and SetupSHA256 are the attached setup's name and hash;
-	// RecordedSHA256 the hash the document states for it.
+	// RecordedSHA256 the hash the attachment's description states for it.
 	SetupName, SetupSHA256, RecordedSHA256 string
 	// GivenMatches is set when a setup file was given and is the attached
 	// one, byte for byte; Given says one was given.
 	Given, GivenMatches bool
+	// Pages lists where the document's pages disagree with its
+	// attachments (the setup hash, title and revision in the footers and
+	// on the cover, the hazard record): the pages are what people read
+	// and sign, the attachments what verify evaluates.
+	Pages []string
 	// Removed and Added are the hazard lines the document recorded that
 	// this version no longer finds, and the new ones.
 	Removed, Added []string
@@ -38,7 +45,7 @@ type Result struct {
 
 // Match reports whether everything agrees.
 func (r *Result) Match() bool {
-	return r.SetupSHA256 == r.RecordedSHA256 && (!r.Given || r.GivenMatches) && len(r.Removed) == 0 && len(r.Added) == 0
+	return r.SetupSHA256 == r.RecordedSHA256 && (!r.Given || r.GivenMatches) && len(r.Pages) == 0 && len(r.Removed) == 0 && len(r.Added) == 0
 }
 
 // ErrUnusable marks an input that cannot be verified (not a PDF, no
@@ -51,34 +58,83 @@ func init() {
 	model.ConfigPath = "disable"
 }
 
-// attachments reads and validates a PDF and returns its attached files. It
-// uses pdfcpu's reader and validator directly (its api package brings in a
-// text-width table whose start-up costs every command 30 ms); a panic in
-// the reader on a malformed file is an unreadable file.
-func attachments(pdf []byte) (atts []model.Attachment, err error) {
+// read bounds, reads and validates a PDF (checkStreams first, then
+// pdfcpu's reader and validator directly: its api package brings in a
+// text-width table whose start-up costs every command 30 ms) and returns
+// its attached files and the text its pages show; a panic in the reader on
+// a malformed file is an unreadable file.
+func read(pdf []byte) (atts []model.Attachment, pages [][]run, err error) {
 	defer func() {
 		if r := recover(); r != nil {
 			err = fmt.Errorf("the PDF reader failed: %v", r)
 		}
 	}()
+	if err := checkStreams(pdf); err != nil {
+		return nil, nil, err
+	}
 	ctx, err := pdfcpu.Read(bytes.NewReader(pdf), model.NewDefaultConfiguration())
 	if err != nil {
-		return nil, err
+		return nil, nil, err
+	}
+	if err := flateOnly(ctx); err != nil {
+		return nil, nil, err
 	}
 	if err := validate.XRefTable(ctx); err != nil {
-		return nil, err
+		return nil, nil, err
 	}
-	return ctx.ExtractAttachments(nil)
+	if pages, err = pageRuns(ctx); err != nil {
+		return nil, nil, err
+	}
+	if !ctx.XRefTable.Valid {
+		if err := ctx.XRefTable.LocateNameTree("EmbeddedFiles", false); err != nil {
+			return nil, nil, err
+		}
+	}
+	if ctx.XRefTable.Names["EmbeddedFiles"] == nil {
+		return nil, pages, nil // no attachments: said below
+	}
+	atts, err = ctx.ExtractAttachments(nil)
+	return atts, pages, err
+}
+
+// flateOnly refuses a stream with any filter but Flate, as the reader sees
+// the document (checkStreams looked at its bytes).
+func flateOnly(ctx *model.Context) error {
+	for _, e := range ctx.XRefTable.Table {
+		if e == nil {
+			continue
+		}
+		var fp []types.PDFFilter
+		switch o := e.Object.(type) {
+		case types.StreamDict:
+			fp = o.FilterPipeline
+		case types.ObjectStreamDict:
+			fp = o.FilterPipeline
+		case types.XRefStreamDict:
+			fp = o.FilterPipeline
+		}
+		for _, f := range fp {
+			if f.Name != "FlateDecode" {
+				return fmt.Errorf("a stream uses the filter %s, which a sign-off document never uses", f.Name)
+			}
+		}
+	}
+	return nil
 }
 
 // Check verifies the document pdf; given is the setup file to compare with
-// (nil: none).
+// (nil: none). The document must carry exactly one setup file and one
+// hazard list, and its pages must state what they hold.
 func Check(pdf []byte, given []byte) (*Result, error) {
-	atts, err := attachments(pdf)
+	atts, pages, err := read(pdf)
 	if err != nil {
+		if errors.Is(err, ErrUnusable) {
+			return nil, err
+		}
 		return nil, fmt.Errorf("%w: not a readable PDF: %v", ErrUnusable, err)
 	}
 	var attached, recorded []byte
+	var setups, lists, others []string
 	r := &Result{}
 	for _, a := range atts {
 		data, err := io.ReadAll(a)
@@ -88,15 +144,27 @@ func Check(pdf []byte, given []byte) (*Result, error) {
 		switch {
 		case a.FileName == report.HazardsAttachment:
 			recorded = data
+			lists = append(lists, a.FileName)
 		case strings.HasSuffix(a.FileName, ".toml") || strings.Contains(a.Desc, "SHA-256"):
 			attached, r.SetupName = data, a.FileName
+			setups = append(setups, a.FileName)
+			r.RecordedSHA256 = ""
 			if _, h, ok := strings.Cut(a.Desc, "SHA-256 "); ok {
 				r.RecordedSHA256 = strings.TrimSpace(h)
 			}
+		default:
+			others = append(others, a.FileName)
 		}
 	}
-	if attached == nil {
+	switch {
+	case len(setups) == 0:
 		return nil, fmt.Errorf("%w: the PDF carries no setup file (was it written by beamledger report?)", ErrUnusable)
+	case len(setups) > 1:
+		return nil, fmt.Errorf("%w: the PDF carries %d setup files (%s); a sign-off covers exactly one", ErrUnusable, len(setups), quoteAll(setups))
+	case len(lists) != 1:
+		return nil, fmt.Errorf("%w: the PDF carries %d lists of the hazards at sign-off (%s); a sign-off carries exactly one", ErrUnusable, len(lists), report.HazardsAttachment)
+	case len(others) > 0:
+		return nil, fmt.Errorf("%w: the PDF carries files a sign-off never carries (%s)", ErrUnusable, quoteAll(others))
 	}
 	sum := sha256.Sum256(attached)
 	r.SetupSHA256 = hex.EncodeToString(sum[:])
@@ -104,7 +172,7 @@ func Check(pdf []byte, given []byte) (*Result, error) {
 		r.Given = true
 		r.GivenMatches = bytes.Equal(given, attached)
 	}
-	s, err := setup.Parse(r.SetupName, attached)
+	s, err := setup.Parse(AttachmentLabel(r.SetupName), attached)
 	if err != nil {
 		return nil, fmt.Errorf("%w: the attached setup no longer loads: %v", ErrUnusable, err)
 	}
@@ -119,6 +187,7 @@ func Check(pdf []byte, given []byte) (*Result, error) {
 			then = append(then, l)
 		}
 	}
+	r.Pages = pagesAgree(pages, s, r.SetupSHA256, then)
 	for _, l := range then {
 		if !slices.Contains(now, l) {
 			r.Removed = append(r.Removed, l)
@@ -130,4 +199,22 @@ func Check(pdf []byte, given []byte) (*Result, error) {
 		}
 	}
 	return r, nil
+}
+
+// AttachmentLabel is an attachment's name as verify prints it: as it is
+// when it is plain printable text, else quoted with its control
+// characters escaped (a name cannot print a line of its own).
+func AttachmentLabel(name string) string {
+	if q := strconv.Quote(name); q[1:len(q)-1] != name || strings.ContainsAny(name, " \t") {
+		return q
+	}
+	return name
+}
+
+func quoteAll(names []string) string {
+	q := make([]string, len(names))
+	for i, n := range names {
+		q[i] = strconv.Quote(n)
+	}
+	return strings.Join(q, ", ")
 }

@@ -92,6 +92,7 @@ func TestHazardsDiffer(t *testing.T) {
 	doc, _ := document(t, func(d *report.Document) {
 		gone = d.Hazards[0]
 		d.Hazards = append([]string{"class: laser \"retired\" Class 4"}, d.Hazards[1:]...)
+		setRecord(d, d.Hazards) // the pages as that version prints them
 	})
 	r, err := Check(doc, nil)
 	if err != nil {
@@ -99,6 +100,9 @@ func TestHazardsDiffer(t *testing.T) {
 	}
 	if r.Match() {
 		t.Fatal("different hazards match")
+	}
+	if len(r.Pages) != 0 {
+		t.Errorf("the pages and the attachments disagree: %q", r.Pages)
 	}
 	if !slices.Equal(r.Removed, []string{"class: laser \"retired\" Class 4"}) || !slices.Equal(r.Added, []string{gone}) {
 		t.Errorf("removed %q, added %q; want the edited line removed and %q added", r.Removed, r.Added, gone)
