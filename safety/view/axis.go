@@ -18,6 +18,9 @@ type Axis struct {
 // Ticks returns tick values: decades for a log axis, 1-2-5 steps otherwise.
 func (a Axis) Ticks() []float64 {
 	var out []float64
+	if !(a.Lo < a.Hi) || math.IsInf(a.Lo, 0) || math.IsInf(a.Hi, 0) || (a.Log && !(a.Lo > 0)) {
+		return nil // no range to mark (the loops below would never end)
+	}
 	if a.Log {
 		for e := math.Floor(math.Log10(a.Lo)); e <= math.Ceil(math.Log10(a.Hi)); e++ {
 			if v := math.Pow(10, e); v >= a.Lo*(1-1e-9) && v <= a.Hi*(1+1e-9) {
@@ -89,6 +92,9 @@ func DataRange(vals []float64, log, fromZero bool) (float64, float64) {
 		lo, hi = math.Min(lo, v), math.Max(hi, v)
 	}
 	if math.IsInf(lo, 1) {
+		if log {
+			return 1, 10 // nothing a log axis can show: one decade
+		}
 		return 0, 1
 	}
 	if log {

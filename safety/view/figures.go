@@ -10,6 +10,7 @@ import (
 	"beamledger/safety"
 	"fmt"
 	"math"
+	"slices"
 	"sort"
 )
 
@@ -302,7 +303,12 @@ func saturationPlot(at *drive.AtomsResult) *Plot {
 	if g := at.Goal; g != nil && g.Impossible == "" && g.Kind != setup.GoalTrapDepth {
 		series("at the goal's power", g.Intensity/at.Isat, true)
 	}
-	return pl
+	for _, s := range pl.Series {
+		if slices.ContainsFunc(s.Y, func(y float64) bool { return Plottable(y, true) }) {
+			return pl
+		}
+	}
+	return nil // nothing a log axis can show (s underflows to 0): no plot
 }
 
 // collectivePlot shows the source power needed against the multiple of the
