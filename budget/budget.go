@@ -123,6 +123,10 @@ type PathBudget struct {
 	UnfollowedPorts []*setup.Element
 
 	arrival setup.Access // the access of the segment a joined beam arrives through
+	// absorbThrough is the index (in the path) of the last element whose
+	// cloud's absorption is computed (ComputeForGoals leaves out what
+	// nothing reads).
+	absorbThrough int
 }
 
 // IsJoined reports whether the beam is another laser's on a shared path.
@@ -204,13 +208,13 @@ func (b *Budget) Path(name string) *PathBudget {
 // Compute propagates every beam and accounts for its power. Paths are
 // taken in an order where the paths feeding one (through a splitter or a
 // combiner) come first; every beam a feeding path carries goes on into it.
-func Compute(s *setup.Setup) (*Budget, error) { return compute(s, false, nil) }
+func Compute(s *setup.Setup) (*Budget, error) { return compute(s, false, nil, false) }
 
 // ComputeAtOperating is Compute with the clouds absorbing at each laser's
 // operating power: a saturable cloud scatters a different fraction at
 // another power, so the power scattered and the power after a cloud are
 // figures of one power or the other, never a mix.
-func ComputeAtOperating(s *setup.Setup) (*Budget, error) { return compute(s, true, nil) }
+func ComputeAtOperating(s *setup.Setup) (*Budget, error) { return compute(s, true, nil, false) }
 
 // ComputeShifted is Compute (atOperating false) or ComputeAtOperating with
 // the trap's differential light shift on each cloud (Hz) in the
@@ -218,10 +222,22 @@ func ComputeAtOperating(s *setup.Setup) (*Budget, error) { return compute(s, tru
 // given, the hazards' budget lets through the more of with and without it
 // (the trap may be off).
 func ComputeShifted(s *setup.Setup, atOperating bool, shifts map[*setup.Cloud]float64) (*Budget, error) {
-	return compute(s, atOperating, shifts)
+	return compute(s, atOperating, shifts, false)
 }
 
-func compute(s *setup.Setup, atOperating bool, shifts map[*setup.Cloud]float64) (*Budget, error) {
+// ComputeForGoals is ComputeShifted at the operating powers for what the
+// drive's goals and the trap's light shift read, the power and beam
+// arriving at every atoms element (the tolerance analysis's samples): a
+// cloud's absorption is left out where no atoms element follows it on its
+// path and the path feeds no other, since nothing read depends on it. The
+// rows after such a cloud, the path's dumps, open end and balance are then
+// not figures of the setup and are not to be printed.
+func ComputeForGoals(s *setup.Setup, shifts map[*setup.Cloud]float64) (*Budget, error) {
+	return compute(s, true, shifts, true)
+}
+
+// compute is the budget; goalsOnly as for ComputeForGoals.
+func compute(s *setup.Setup, atOperating bool, shifts map[*setup.Cloud]float64, goalsOnly bool) (*Budget, error) {
 	out := &Budget{Setup: s, AtOperating: atOperating, Shifts: shifts}
 	balances := map[*setup.Laser]*LaserBalance{}
 	for _, las := range s.Lasers {
@@ -238,6 +254,17 @@ func compute(s *setup.Setup, atOperating bool, shifts map[*setup.Cloud]float64) 
 	clouds := map[string]*setup.Cloud{}
 	for _, c := range s.Clouds {
 		clouds[c.Name] = c
+	}
+	// feeds marks the paths another path starts from or goes on into.
+	var feeds map[*setup.Path]bool
+	if goalsOnly {
+		feeds = map[*setup.Path]bool{}
+		for _, p := range s.Paths {
+			feeds[p.Parent] = true
+			if p.IntoPath != nil {
+				feeds[p] = true
+			}
+		}
 	}
 	own := map[*setup.Path]*PathBudget{}
 	lossless := map[*setup.Element]bool{}
@@ -274,6 +301,19 @@ func compute(s *setup.Setup, atOperating bool, shifts map[*setup.Cloud]float64) 
 			}
 		}
 		for _, pb := range beams {
+			// The elements (by index in the path) whose clouds' absorption
+			// is read: all but the last atoms element's on a path that feeds
+			// no other (goalsOnly), else all.
+			lastRead := len(p.Elements)
+			if goalsOnly && !feeds[p] {
+				lastRead = -1
+				for k, e := range p.Elements {
+					if e.Type == setup.TypeAtoms {
+						lastRead = max(lastRead, k-1) // an atoms element before this one
+					}
+				}
+			}
+			pb.absorbThrough = lastRead
 			if err := pb.propagate(s.File, followed, clouds, atOperating, shifts); err != nil {
 				return nil, err
 			}

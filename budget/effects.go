@@ -125,7 +125,7 @@ func applyAtoms(s *stage, e *setup.Element) {
 	// maximum for the hazards (the most that saturation lets through:
 	// conservative downstream), the operating power for the drive; near
 	// resonance at the detuning the trap's light shift leaves.
-	if c := s.clouds[e.Cloud]; c != nil && c.Data != nil && s.frac > 0 {
+	if c := s.clouds[e.Cloud]; c != nil && c.Data != nil && s.frac > 0 && s.pb.First+s.index <= s.pb.absorbThrough {
 		δ := s.shifts[c]
 		wx, wy := s.beam.Radii()
 		t := ColumnFor(s.pb, s.pb.First+s.index, s.row.Element, c, δ).Absorb(s.frac*s.power, wx, wy).Transmission

@@ -63,7 +63,7 @@ type goalRef struct {
 // margins computes every referenced goal's margin for setup s.
 func margins(s *setup.Setup, refs []goalRef) []float64 {
 	out := make([]float64, len(refs))
-	b, err := Budget(s, true)
+	b, err := budgetForGoals(s)
 	if err != nil {
 		for i := range out {
 			out[i] = math.Inf(-1)

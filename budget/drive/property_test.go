@@ -83,3 +83,21 @@ func TestGeneratedTolerancesLoad(t *testing.T) {
 		}
 	}
 }
+
+// The tolerance analysis of the shipped weak-probe example (two
+// tolerances, one goal), 10 000 samples on all cores.
+func BenchmarkTolerancesWeakProbe(b *testing.B) {
+	s, err := setup.Load("../../testdata/examples/weak-probe.toml")
+	if err != nil {
+		b.Fatal(err)
+	}
+	bu, err := drive.Budget(s, true)
+	if err != nil {
+		b.Fatal(err)
+	}
+	d := drive.Evaluate(bu)
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		drive.Tolerances(s, d, drive.DefaultSamples, drive.DefaultSeed, 0)
+	}
+}

@@ -66,3 +66,18 @@ func Budget(s *setup.Setup, atOperating bool) (*budget.Budget, error) {
 	}
 	return budget.ComputeShifted(s, atOperating, shifts)
 }
+
+// budgetForGoals is Budget at the operating powers for the tolerance
+// samples, which read only what arrives at atoms elements
+// (budget.ComputeForGoals).
+func budgetForGoals(s *setup.Setup) (*budget.Budget, error) {
+	b, err := budget.ComputeForGoals(s, nil)
+	if err != nil {
+		return nil, err
+	}
+	shifts := Shifts(b)
+	if shifts == nil {
+		return b, nil
+	}
+	return budget.ComputeForGoals(s, shifts)
+}
