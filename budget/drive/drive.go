@@ -3,6 +3,8 @@ package drive
 import (
 	"fmt"
 	"math"
+	"runtime"
+	"sync"
 
 	"beamledger/budget"
 	"beamledger/budget/atoms"
@@ -148,7 +150,12 @@ func driveAll(b *budget.Budget, p pass) []*AtomsResult {
 	for _, c := range b.Setup.Clouds {
 		clouds[c.Name] = c
 	}
-	var out []*AtomsResult
+	type job struct {
+		pb *budget.PathBudget
+		r  *budget.Row
+		c  *setup.Cloud
+	}
+	var jobs []job
 	for _, own := range b.Paths {
 		for _, pb := range own.Beams() {
 			for i := range pb.Rows {
@@ -160,12 +167,35 @@ func driveAll(b *budget.Budget, p pass) []*AtomsResult {
 				if c == nil || c.Data == nil {
 					continue
 				}
-				out = append(out, atomsAt(b, pb, r, c, p))
+				jobs = append(jobs, job{pb, r, c})
 			}
 		}
 	}
+	out := make([]*AtomsResult, len(jobs))
+	// The elements are independent: the output's pass spreads many of
+	// them over the cores (a tolerance sample's pass runs on one core of
+	// its own already).
+	workers := 1
+	if p.full && len(jobs) >= parallelAtoms {
+		workers = runtime.GOMAXPROCS(0)
+	}
+	var wg sync.WaitGroup
+	for w := range workers {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := w; i < len(jobs); i += workers {
+				out[i] = atomsAt(b, jobs[i].pb, jobs[i].r, jobs[i].c, p)
+			}
+		}()
+	}
+	wg.Wait()
 	return out
 }
+
+// parallelAtoms is the number of atoms elements from which the output's
+// drive is spread over the cores.
+const parallelAtoms = 16
 
 // atomsAt evaluates the drive at one atoms element for the pass p.
 func atomsAt(b *budget.Budget, pb *budget.PathBudget, r *budget.Row, c *setup.Cloud, p pass) *AtomsResult {
@@ -225,6 +255,10 @@ func atomsAt(b *budget.Budget, pb *budget.PathBudget, r *budget.Row, c *setup.Cl
 		if dr.Depth < 0 && tr.Mass > 0 && p.full && a.Power > 0 {
 			f := singleBeamField(a, 1)
 			f.flood = true
+			// One beam has one minimum, by its focus (sagged under
+			// gravity): the search starts there alone.
+			fp := f.beams[0].focusPoint()
+			f.hint = &fp
 			if t := f.findTrap(); t.Holds {
 				dr.DepthWithGravity = t.Depth
 			} else {
