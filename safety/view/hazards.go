@@ -261,7 +261,7 @@ func classMeaning(c string) string {
 }
 
 func (b *builder) exposureRecord(e *safety.Exposure) Record {
-	r := Record{Members: b.members(20)}
+	r := Record{Members: b.members(40)}
 	s := e.Segment
 	r.F(Str(dPathRef, e.Path.Path.Name)).
 		F(Whole(dAfterElement, s.After)).
