@@ -193,6 +193,8 @@ type Budget struct {
 	Balances []*LaserBalance
 	// AssumedLossless counts the elements whose loss was not stated.
 	AssumedLossless int
+
+	plan *plan
 }
 
 // Path returns the budget of the named path.
@@ -208,13 +210,13 @@ func (b *Budget) Path(name string) *PathBudget {
 // Compute propagates every beam and accounts for its power. Paths are
 // taken in an order where the paths feeding one (through a splitter or a
 // combiner) come first; every beam a feeding path carries goes on into it.
-func Compute(s *setup.Setup) (*Budget, error) { return compute(s, false, nil, false) }
+func Compute(s *setup.Setup) (*Budget, error) { return compute(s, false, nil, false, nil) }
 
 // ComputeAtOperating is Compute with the clouds absorbing at each laser's
 // operating power: a saturable cloud scatters a different fraction at
 // another power, so the power scattered and the power after a cloud are
 // figures of one power or the other, never a mix.
-func ComputeAtOperating(s *setup.Setup) (*Budget, error) { return compute(s, true, nil, false) }
+func ComputeAtOperating(s *setup.Setup) (*Budget, error) { return compute(s, true, nil, false, nil) }
 
 // ComputeShifted is Compute (atOperating false) or ComputeAtOperating with
 // the trap's differential light shift on each cloud (Hz) in the
@@ -222,7 +224,7 @@ func ComputeAtOperating(s *setup.Setup) (*Budget, error) { return compute(s, tru
 // given, the hazards' budget lets through the more of with and without it
 // (the trap may be off).
 func ComputeShifted(s *setup.Setup, atOperating bool, shifts map[*setup.Cloud]float64) (*Budget, error) {
-	return compute(s, atOperating, shifts, false)
+	return compute(s, atOperating, shifts, false, nil)
 }
 
 // ComputeForGoals is ComputeShifted at the operating powers for what the
@@ -231,52 +233,92 @@ func ComputeShifted(s *setup.Setup, atOperating bool, shifts map[*setup.Cloud]fl
 // cloud's absorption is left out where no atoms element follows it on its
 // path and the path feeds no other, since nothing read depends on it. The
 // rows after such a cloud, the path's dumps, open end and balance are then
-// not figures of the setup and are not to be printed.
-func ComputeForGoals(s *setup.Setup, shifts map[*setup.Cloud]float64) (*Budget, error) {
-	return compute(s, true, shifts, true)
+// not figures of the setup and are not to be printed. reuse, when not nil,
+// is an earlier result of ComputeForGoals for the same setup s (its values
+// changed since, its structure not): its memory is used again, and it must
+// not be read afterwards.
+func ComputeForGoals(s *setup.Setup, shifts map[*setup.Cloud]float64, reuse *Budget) (*Budget, error) {
+	return compute(s, true, shifts, true, reuse)
+}
+
+// plan is what a budget's walk takes from the setup's structure alone
+// (kept with the budget for ComputeForGoals to walk again), and the path
+// budgets of its last walk, by path, for the next to recycle.
+type plan struct {
+	balances map[*setup.Laser]*LaserBalance
+	followed map[*setup.Element]*setup.Path // splitters whose other port a path follows
+	clouds   map[string]*setup.Cloud
+	feeds    map[*setup.Path]bool // the paths another path starts from or goes on into
+	lossless map[*setup.Element]bool
+	order    []*setup.Path
+	beams    map[*setup.Path][]*PathBudget
+}
+
+func (pl *plan) make(s *setup.Setup) {
+	pl.balances = make(map[*setup.Laser]*LaserBalance, len(s.Lasers))
+	for _, las := range s.Lasers {
+		pl.balances[las] = &LaserBalance{Laser: las, Lost: map[string]float64{}}
+	}
+	pl.followed = map[*setup.Element]*setup.Path{}
+	pl.feeds = map[*setup.Path]bool{}
+	for _, p := range s.Paths {
+		if p.ParentPort != nil {
+			pl.followed[p.ParentPort] = p
+		}
+		pl.feeds[p.Parent] = true
+		if p.IntoPath != nil {
+			pl.feeds[p] = true
+		}
+	}
+	pl.clouds = make(map[string]*setup.Cloud, len(s.Clouds))
+	for _, c := range s.Clouds {
+		pl.clouds[c.Name] = c
+	}
+	pl.lossless = map[*setup.Element]bool{}
+	pl.order = setup.PathOrder(s)
 }
 
 // compute is the budget; goalsOnly as for ComputeForGoals.
-func compute(s *setup.Setup, atOperating bool, shifts map[*setup.Cloud]float64, goalsOnly bool) (*Budget, error) {
-	out := &Budget{Setup: s, AtOperating: atOperating, Shifts: shifts}
-	balances := map[*setup.Laser]*LaserBalance{}
-	for _, las := range s.Lasers {
-		bal := &LaserBalance{Laser: las, Lost: map[string]float64{}}
-		balances[las] = bal
-		out.Balances = append(out.Balances, bal)
-	}
-	followed := map[*setup.Element]*setup.Path{}
-	for _, p := range s.Paths {
-		if p.ParentPort != nil {
-			followed[p.ParentPort] = p
+func compute(s *setup.Setup, atOperating bool, shifts map[*setup.Cloud]float64, goalsOnly bool, reuse *Budget) (*Budget, error) {
+	out, pl := &Budget{}, &plan{}
+	if reuse != nil && reuse.Setup == s && reuse.plan != nil {
+		out, pl = reuse, reuse.plan
+		for _, bal := range out.Balances {
+			bal.Dumped, bal.Leaving = 0, 0
+			clear(bal.Lost)
+		}
+		clear(pl.lossless)
+	} else {
+		pl.make(s)
+		for _, las := range s.Lasers {
+			out.Balances = append(out.Balances, pl.balances[las])
 		}
 	}
-	clouds := map[string]*setup.Cloud{}
-	for _, c := range s.Clouds {
-		clouds[c.Name] = c
-	}
-	// feeds marks the paths another path starts from or goes on into.
-	var feeds map[*setup.Path]bool
-	if goalsOnly {
-		feeds = map[*setup.Path]bool{}
-		for _, p := range s.Paths {
-			feeds[p.Parent] = true
-			if p.IntoPath != nil {
-				feeds[p] = true
-			}
+	out.Setup, out.AtOperating, out.Shifts, out.plan = s, atOperating, shifts, pl
+	balances, followed, clouds, feeds, lossless := pl.balances, pl.followed, pl.clouds, pl.feeds, pl.lossless
+	// The path budgets of the previous walk, recycled beam by beam (a
+	// tolerance sample walks the same paths again).
+	recycled := pl.beams
+	pl.beams = map[*setup.Path][]*PathBudget{}
+	fresh := func(p *setup.Path, k int, v PathBudget) *PathBudget {
+		if k < len(recycled[p]) {
+			pb := recycled[p][k]
+			v.Rows, v.Segments, v.UnfollowedPorts = pb.Rows[:0], pb.Segments[:0], pb.UnfollowedPorts[:0]
+			*pb = v
+			return pb
 		}
+		return &v
 	}
 	own := map[*setup.Path]*PathBudget{}
-	lossless := map[*setup.Element]bool{}
-	for _, p := range setup.PathOrder(s) {
+	for _, p := range pl.order {
 		var beams []*PathBudget
 		if p.Parent == nil {
 			las := p.Laser
-			beams = append(beams, &PathBudget{Path: p, Laser: las, StartFraction: 1, Start: optics.Beam{
+			beams = append(beams, fresh(p, 0, PathBudget{Path: p, Laser: las, StartFraction: 1, Start: optics.Beam{
 				Wavelength: las.Wavelength,
 				X:          optics.NewPlane(las.Waist[0], las.WaistAt[0], las.M2[0], las.Wavelength),
 				Y:          optics.NewPlane(las.Waist[1], las.WaistAt[1], las.M2[1], las.Wavelength),
-			}})
+			}}))
 		} else {
 			k := setup.ElementIndex(p.Parent, p.ParentPort)
 			for _, q := range own[p.Parent].Beams() {
@@ -286,8 +328,8 @@ func compute(s *setup.Setup, atOperating bool, shifts map[*setup.Cloud]float64, 
 				row := q.row(p.ParentPort)
 				el := p.ParentPort.For(q.Laser)
 				t := *el.Leaving("transmission", q.Laser, el.Transmission)
-				beams = append(beams, &PathBudget{Path: p, Laser: q.Laser, Start: row.BeamOut,
-					StartFraction: row.FractionIn * row.ClipFraction * (1 - t), ShiftIn: q.ShiftBefore(k)})
+				beams = append(beams, fresh(p, len(beams), PathBudget{Path: p, Laser: q.Laser, Start: row.BeamOut,
+					StartFraction: row.FractionIn * row.ClipFraction * (1 - t), ShiftIn: q.ShiftBefore(k)}))
 			}
 		}
 		for _, j := range s.Paths {
@@ -296,10 +338,11 @@ func compute(s *setup.Setup, atOperating bool, shifts map[*setup.Cloud]float64, 
 			}
 			k := setup.ElementIndex(p, j.IntoPort)
 			for _, q := range own[j].Beams() {
-				beams = append(beams, &PathBudget{Path: p, Laser: q.Laser, First: k, JoinedAt: j.IntoPort.At, Combiner: j.IntoPort, Start: q.End,
-					StartFraction: q.EndFraction, ShiftIn: q.ShiftBefore(len(j.Elements)), arrival: q.Segments[len(q.Segments)-1].Access})
+				beams = append(beams, fresh(p, len(beams), PathBudget{Path: p, Laser: q.Laser, First: k, JoinedAt: j.IntoPort.At, Combiner: j.IntoPort, Start: q.End,
+					StartFraction: q.EndFraction, ShiftIn: q.ShiftBefore(len(j.Elements)), arrival: q.Segments[len(q.Segments)-1].Access}))
 			}
 		}
+		pl.beams[p] = beams
 		for _, pb := range beams {
 			// The elements (by index in the path) whose clouds' absorption
 			// is read: all but the last atoms element's on a path that feeds
@@ -345,7 +388,7 @@ func compute(s *setup.Setup, atOperating bool, shifts map[*setup.Cloud]float64, 
 	}
 	out.AssumedLossless = len(lossless)
 	// Report paths in the order of the setup file.
-	out.Paths = make([]*PathBudget, 0, len(s.Paths))
+	out.Paths = slices.Grow(out.Paths[:0], len(s.Paths))
 	for _, p := range s.Paths {
 		out.Paths = append(out.Paths, own[p])
 	}
@@ -415,7 +458,12 @@ func (pb *PathBudget) propagate(file string, followed map[*setup.Element]*setup.
 		pb.Segments = append(pb.Segments, Segment{From: pos, To: e.At, After: after, Beam: beam, Fraction: frac, Access: access, Arrival: joining})
 		beam = beam.Propagate(e.At - pos)
 		pos = e.At
-		row = Row{Element: e, BeamIn: beam, FractionIn: frac, ClipFraction: 1}
+		// A recycled budget's row here has a slice of losses to use again.
+		var losses []Loss
+		if n := len(pb.Rows); n < cap(pb.Rows) {
+			losses = pb.Rows[: n+1 : n+1][n].Losses[:0]
+		}
+		row = Row{Element: e, BeamIn: beam, FractionIn: frac, ClipFraction: 1, Losses: losses}
 		el := e.For(pb.Laser)
 		// Clipping at the clear aperture (or the iris of an aperture element).
 		if clear := el.ClearAperture(); clear > 0 {

@@ -119,7 +119,7 @@ func TestBudgetForGoalsReadsTheSame(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		goals, err := budget.ComputeForGoals(s, nil)
+		goals, err := budget.ComputeForGoals(s, nil, nil)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -141,4 +141,66 @@ func TestBudgetForGoalsReadsTheSame(t *testing.T) {
 	if skipped == 0 {
 		t.Error("no absorption was left out: the comparison shows nothing")
 	}
+}
+
+// A budget walked again in the memory of an earlier one (the tolerance
+// samples') is the budget walked afresh: every row of every beam, after the
+// toleranced values moved from one end to the other.
+func TestBudgetForGoalsReused(t *testing.T) {
+	var setups []*setup.Setup
+	s, err := setup.Load("../testdata/examples/weak-probe.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	setups = append(setups, s)
+	for seed := uint64(1); seed <= 10; seed++ {
+		s, err := setup.Parse("gen.toml", []byte(synth.Lab(seed, synth.Options{Lasers: 3, ElementsPerPath: 10, Splits: int(seed % 2), Tolerances: true})))
+		if err != nil {
+			t.Fatal(err)
+		}
+		setups = append(setups, s)
+	}
+	for _, s := range setups {
+		c := s.Clone()
+		for _, tol := range s.Tolerances {
+			lo, _ := tol.Tol.Ends()
+			tol.Apply(c, lo)
+		}
+		before, err := budget.ComputeForGoals(c, nil, nil)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, tol := range s.Tolerances {
+			_, hi := tol.Tol.Ends()
+			tol.Apply(c, hi)
+		}
+		fresh, err := budget.ComputeForGoals(c, nil, nil)
+		if err != nil {
+			t.Fatal(err)
+		}
+		reused, err := budget.ComputeForGoals(c, nil, before)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got, want := fmt.Sprintf("%+v", dump(reused)), fmt.Sprintf("%+v", dump(fresh)); got != want {
+			t.Errorf("%s: walked again:\n%s\nafresh:\n%s", s.File, got, want)
+		}
+	}
+}
+
+// dump lists every beam's rows and end of a budget, for comparison.
+func dump(b *budget.Budget) []string {
+	var out []string
+	for _, own := range b.Paths {
+		for _, pb := range own.Beams() {
+			out = append(out, fmt.Sprintf("%s/%s start %g end %g open %v %d segments", pb.Path.Name, pb.Laser.Name, pb.StartFraction, pb.EndFraction, pb.OpenEnd, len(pb.Segments)))
+			for _, r := range pb.Rows {
+				out = append(out, fmt.Sprintf("  %d in %g out %g clip %g losses %v beam %+v", r.Element.Index, r.FractionIn, r.FractionOut, r.ClipFraction, r.Losses, r.BeamIn))
+			}
+		}
+	}
+	for _, bal := range b.Balances {
+		out = append(out, fmt.Sprintf("%s: %g %g %v", bal.Laser.Name, bal.Dumped, bal.Leaving, bal.Lost))
+	}
+	return out
 }

@@ -62,13 +62,21 @@ type goalRef struct {
 
 // margins computes every referenced goal's margin for setup s.
 func margins(s *setup.Setup, refs []goalRef) []float64 {
+	out, _ := marginsReusing(s, refs, nil)
+	return out
+}
+
+// marginsReusing is margins that walks the budget in the memory of reuse,
+// an earlier budget of s (budget.ComputeForGoals), and returns the budget
+// for the next call to reuse.
+func marginsReusing(s *setup.Setup, refs []goalRef, reuse *budget.Budget) ([]float64, *budget.Budget) {
 	out := make([]float64, len(refs))
-	b, err := budgetForGoals(s)
+	b, err := budgetForGoals(s, reuse)
 	if err != nil {
 		for i := range out {
 			out[i] = math.Inf(-1)
 		}
-		return out
+		return out, nil
 	}
 	clouds := map[string]*setup.Cloud{}
 	for _, c := range s.Clouds {
@@ -110,7 +118,7 @@ func margins(s *setup.Setup, refs []goalRef) []float64 {
 			out[i] = math.Inf(-1)
 		}
 	}
-	return out
+	return out, b
 }
 
 // Tolerances analyses every goal, of the paths' own beams at atoms
@@ -246,6 +254,7 @@ func TolerancesRun(s *setup.Setup, drive []*AtomsResult, run Run) map[any]*GoalT
 			defer wg.Done()
 			c := s.Clone()
 			x := make([]float64, nt)
+			var reuse *budget.Budget
 			for i := w; i < samples; i += workers {
 				select {
 				case <-run.Stop:
@@ -256,7 +265,9 @@ func TolerancesRun(s *setup.Setup, drive []*AtomsResult, run Run) map[any]*GoalT
 				for j, t := range s.Tolerances {
 					t.Apply(c, x[j])
 				}
-				for g, m := range margins(c, refs) {
+				var ms []float64
+				ms, reuse = marginsReusing(c, refs, reuse)
+				for g, m := range ms {
 					results[g*samples+i] = m
 				}
 				completed[i] = true

@@ -70,8 +70,9 @@ func Budget(s *setup.Setup, atOperating bool) (*budget.Budget, error) {
 // budgetForGoals is Budget at the operating powers for the tolerance
 // samples, which read only what arrives at atoms elements
 // (budget.ComputeForGoals).
-func budgetForGoals(s *setup.Setup) (*budget.Budget, error) {
-	b, err := budget.ComputeForGoals(s, nil)
+// reuse as for budget.ComputeForGoals.
+func budgetForGoals(s *setup.Setup, reuse *budget.Budget) (*budget.Budget, error) {
+	b, err := budget.ComputeForGoals(s, nil, reuse)
 	if err != nil {
 		return nil, err
 	}
@@ -79,5 +80,5 @@ func budgetForGoals(s *setup.Setup) (*budget.Budget, error) {
 	if shifts == nil {
 		return b, nil
 	}
-	return budget.ComputeForGoals(s, shifts)
+	return budget.ComputeForGoals(s, shifts, b)
 }
