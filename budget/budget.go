@@ -251,7 +251,11 @@ type plan struct {
 	feeds    map[*setup.Path]bool // the paths another path starts from or goes on into
 	lossless map[*setup.Element]bool
 	order    []*setup.Path
-	beams    map[*setup.Path][]*PathBudget
+	// beams are the path budgets of the last walk, by path; spare the map
+	// of the walk before (its entries recycled); own the main beam of each
+	// path during a walk.
+	beams, spare map[*setup.Path][]*PathBudget
+	own          map[*setup.Path]*PathBudget
 }
 
 func (pl *plan) make(s *setup.Setup) {
@@ -299,7 +303,11 @@ func compute(s *setup.Setup, atOperating bool, shifts map[*setup.Cloud]float64, 
 	// The path budgets of the previous walk, recycled beam by beam (a
 	// tolerance sample walks the same paths again).
 	recycled := pl.beams
-	pl.beams = map[*setup.Path][]*PathBudget{}
+	pl.beams, pl.spare = pl.spare, recycled
+	if pl.beams == nil {
+		pl.beams = map[*setup.Path][]*PathBudget{}
+	}
+	clear(pl.beams)
 	fresh := func(p *setup.Path, k int, v PathBudget) *PathBudget {
 		if k < len(recycled[p]) {
 			pb := recycled[p][k]
@@ -309,7 +317,11 @@ func compute(s *setup.Setup, atOperating bool, shifts map[*setup.Cloud]float64, 
 		}
 		return &v
 	}
-	own := map[*setup.Path]*PathBudget{}
+	if pl.own == nil {
+		pl.own = map[*setup.Path]*PathBudget{}
+	}
+	own := pl.own
+	clear(own)
 	for _, p := range pl.order {
 		var beams []*PathBudget
 		if p.Parent == nil {
