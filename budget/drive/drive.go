@@ -366,17 +366,24 @@ func goalOf(b *budget.Budget, a *AtomsResult, e *setup.Element, p pass) *GoalRes
 		return g
 	}
 	g.PowerAtAtoms = a.Row.BeamIn.PowerForPeakIrradiance(g.Intensity)
-	g.SourcePower = g.PowerAtAtoms / a.Row.FractionIn
-	g.Maximum = a.Path.Laser.Power
+	g.settle(a.Row.FractionIn, a.Path.Laser)
+	return g
+}
+
+// settle works out, from the power the goal needs at the atoms, what the
+// laser las must send (the beam reaching the atoms with the fraction f of
+// its power) and the margin against its operating power.
+func (g *GoalResult) settle(f float64, las *setup.Laser) {
+	g.SourcePower = g.PowerAtAtoms / f
+	g.Available, g.Maximum = las.OperatingPower, las.Power
 	if g.Upper {
 		g.MarginDB = units.Decibels(g.SourcePower / g.Available)
 		g.Met = g.Available <= g.SourcePower
-		return g
+		return
 	}
 	g.MarginDB = units.Decibels(g.Available / g.SourcePower)
 	g.Met = g.Available >= g.SourcePower
 	g.BeyondMaximum = g.SourcePower > g.Maximum
-	return g
 }
 
 // Finding kinds of the drive.

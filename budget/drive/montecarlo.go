@@ -58,6 +58,35 @@ type goalRef struct {
 	cloud         int
 	hints         *trapHints // the nominal goal's trap, where a sample's search starts
 	laser         string     // the laser whose beam on the path the goal is for
+	// need, in a run whose toleranced inputs move only powers (powerOnly),
+	// is the nominal goal, whose power needed at the atoms no sample
+	// changes: a sample settles it against the power that arrives there.
+	need *GoalResult
+}
+
+// powerOnlyKeys are the toleranced inputs that change only how much power
+// arrives where (loss values and operating powers), never a beam's shape,
+// a detuning or a cloud.
+var powerOnlyKeys = map[string]bool{"transmission": true, "reflectivity": true, "efficiency": true, "alignment": true,
+	"coupling": true, "join_transmission": true, "optical_density": true, "operating_power": true}
+
+// sampleShortcut lets the samples of a power-only run settle element goals
+// from the power arriving (tests turn it off to compare with the full
+// solution).
+var sampleShortcut = true
+
+// powerOnly reports whether every toleranced input of s only changes
+// powers and no trap light shifts a detuning (a shift follows the trap's
+// power): then the power an element goal needs at the atoms is the same in
+// every sample.
+func powerOnly(s *setup.Setup) bool {
+	for _, t := range s.Tolerances {
+		if !powerOnlyKeys[t.Key] {
+			return false
+		}
+	}
+	b, err := budgetForGoals(s, nil)
+	return err == nil && b.Shifts == nil
 }
 
 // margins computes every referenced goal's margin for setup s.
@@ -111,6 +140,19 @@ func marginsReusing(s *setup.Setup, refs []goalRef, reuse *budget.Budget) ([]flo
 			continue
 		}
 		r := &pb.Rows[ref.element]
+		if ref.need != nil {
+			// The power needed at the atoms is the nominal goal's; the
+			// margin is that of the power arriving (goalOf without the
+			// solution it would repeat).
+			if !(r.FractionIn > 0) {
+				out[i] = math.Inf(-1) // no light at the atoms
+				continue
+			}
+			g := *ref.need
+			g.settle(r.FractionIn, pb.Laser)
+			out[i] = g.MarginDB
+			continue
+		}
 		a := atomsAt(b, pb, r, clouds[r.Element.Cloud], pass{goals: true, given: ref.hints})
 		if g := a.Goal; g != nil && g.Impossible == "" {
 			out[i] = g.MarginDB
@@ -179,13 +221,23 @@ func TolerancesRun(s *setup.Setup, drive []*AtomsResult, run Run) map[any]*GoalT
 	}
 	var refs []goalRef
 	var owners []any // the *AtomsResult or *Cloud each goal belongs to
+	shortcut := sampleShortcut && powerOnly(s)
+	var sampleRefs []goalRef // refs as the samples take them
 	for _, a := range drive {
 		if a.Goal == nil {
 			continue
 		}
 		h := a.Goal.hints
-		refs = append(refs, goalRef{slices.Index(s.Paths, a.Path.Path), a.Path.RowIndex(a.Row), -1, &h, a.Path.Laser.Name})
+		refs = append(refs, goalRef{path: slices.Index(s.Paths, a.Path.Path), element: a.Path.RowIndex(a.Row), cloud: -1, hints: &h, laser: a.Path.Laser.Name})
 		owners = append(owners, a)
+	}
+	if shortcut {
+		sampleRefs = slices.Clone(refs)
+		for i, a := range owners {
+			if g := a.(*AtomsResult).Goal; g.Impossible == "" {
+				sampleRefs[i].need = g
+			}
+		}
 	}
 	for i, c := range s.Clouds {
 		if c.Goal != "" {
@@ -202,6 +254,11 @@ func TolerancesRun(s *setup.Setup, drive []*AtomsResult, run Run) map[any]*GoalT
 	}
 	if len(refs) == 0 {
 		return nil
+	}
+	if !shortcut {
+		sampleRefs = refs
+	} else {
+		sampleRefs = append(sampleRefs, refs[len(sampleRefs):]...) // the clouds' goals, solved in full
 	}
 	nt := len(s.Tolerances)
 	// The margins goal by goal (each goal's samples in one run, which its
@@ -266,7 +323,7 @@ func TolerancesRun(s *setup.Setup, drive []*AtomsResult, run Run) map[any]*GoalT
 					t.Apply(c, x[j])
 				}
 				var ms []float64
-				ms, reuse = marginsReusing(c, refs, reuse)
+				ms, reuse = marginsReusing(c, sampleRefs, reuse)
 				for g, m := range ms {
 					results[g*samples+i] = m
 				}

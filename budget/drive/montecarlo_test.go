@@ -3,6 +3,7 @@ package drive
 import (
 	"beamledger/budget"
 	"beamledger/budget/setup"
+	"beamledger/budget/setup/synth"
 	"math"
 	"slices"
 	"strings"
@@ -262,5 +263,55 @@ from = "other"
 		if !gt.NoSpread || gt.Contributors != nil {
 			t.Errorf("no spread %v, contributors %+v", gt.NoSpread, gt.Contributors)
 		}
+	}
+}
+
+// A run whose toleranced inputs move only powers settles each sample's
+// element goals from the power arriving at the atoms; every margin is the
+// one the full solution gives, bit for bit (weak-probe: a saturation goal
+// through a thick column; generated labs: saturation goals behind
+// toleranced lenses and operating powers), and the shortcut is taken.
+func TestPowerOnlySamplesSettle(t *testing.T) {
+	var setups []*setup.Setup
+	s, err := setup.Load("../../testdata/examples/weak-probe.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	setups = append(setups, s)
+	for _, seed := range []uint64{5, 6} { // the benchmark lab and another
+		s, err := setup.Parse("gen.toml", []byte(synth.Lab(seed, synth.Options{Lasers: 10, ElementsPerPath: 19, Tolerances: true})))
+		if err != nil {
+			t.Fatal(err)
+		}
+		setups = append(setups, s)
+	}
+	defer func() { sampleShortcut = true }()
+	for _, s := range setups {
+		if !powerOnly(s) {
+			t.Fatalf("%s: not a power-only run", s.File)
+		}
+		b, err := Budget(s, true)
+		if err != nil {
+			t.Fatal(err)
+		}
+		d := Evaluate(b)
+		sampleShortcut = true
+		fast := Tolerances(s, d, 300, 7, 1)
+		sampleShortcut = false
+		full := Tolerances(s, d, 300, 7, 1)
+		if len(fast) == 0 || len(fast) != len(full) {
+			t.Fatalf("%s: %d goals analysed, %d in full", s.File, len(fast), len(full))
+		}
+		for k, gt := range full {
+			if !slices.Equal(fast[k].Margins, gt.Margins) {
+				t.Errorf("%s: margins differ from the full solution", s.File)
+			}
+		}
+	}
+	// A toleranced focal length changes the beam at the atoms: no shortcut.
+	c := setups[0].Clone()
+	c.Tolerances = append(c.Tolerances, &setup.Toleranced{Key: "focal_length", Laser: -1})
+	if powerOnly(c) {
+		t.Error("a focal length counted as power only")
 	}
 }
