@@ -256,6 +256,7 @@ type plan struct {
 	// path during a walk.
 	beams, spare map[*setup.Path][]*PathBudget
 	own          map[*setup.Path]*PathBudget
+	stage        *stage // the walk's, for every path
 }
 
 func (pl *plan) make(s *setup.Setup) {
@@ -309,14 +310,18 @@ func compute(s *setup.Setup, atOperating bool, shifts map[*setup.Cloud]float64, 
 	}
 	clear(pl.beams)
 	fresh := func(p *setup.Path, k int, v PathBudget) *PathBudget {
+		pb := new(PathBudget)
 		if k < len(recycled[p]) {
-			pb := recycled[p][k]
+			pb = recycled[p][k]
 			v.Rows, v.Segments, v.UnfollowedPorts = pb.Rows[:0], pb.Segments[:0], pb.UnfollowedPorts[:0]
-			*pb = v
-			return pb
 		}
-		return &v
+		*pb = v
+		return pb
 	}
+	if pl.stage == nil {
+		pl.stage = &stage{}
+	}
+	st := pl.stage
 	if pl.own == nil {
 		pl.own = map[*setup.Path]*PathBudget{}
 	}
@@ -369,7 +374,7 @@ func compute(s *setup.Setup, atOperating bool, shifts map[*setup.Cloud]float64, 
 				}
 			}
 			pb.absorbThrough = lastRead
-			if err := pb.propagate(s.File, followed, clouds, atOperating, shifts); err != nil {
+			if err := pb.propagate(st, s.File, followed, clouds, atOperating, shifts); err != nil {
 				return nil, err
 			}
 			if pb.IsJoined() {
@@ -439,7 +444,7 @@ func (pb *PathBudget) row(e *setup.Element) *Row {
 }
 
 // propagate walks the beam through the path's elements from First.
-func (pb *PathBudget) propagate(file string, followed map[*setup.Element]*setup.Path, clouds map[string]*setup.Cloud, atOperating bool, shifts map[*setup.Cloud]float64) error {
+func (pb *PathBudget) propagate(st *stage, file string, followed map[*setup.Element]*setup.Path, clouds map[string]*setup.Cloud, atOperating bool, shifts map[*setup.Cloud]float64) error {
 	power := pb.Laser.Power
 	if atOperating {
 		power = pb.Laser.OperatingPower
@@ -460,10 +465,12 @@ func (pb *PathBudget) propagate(file string, followed map[*setup.Element]*setup.
 	n := len(p.Elements) - pb.First
 	pb.Rows = slices.Grow(pb.Rows, n)
 	pb.Segments = slices.Grow(pb.Segments, n+1)
-	// One stage and one row for the walk, filled anew at each element
-	// (a tolerance run walks every path for every sample).
-	var row Row
-	st := &stage{pb: pb, followed: followed, clouds: clouds, row: &row, power: power, atOperating: atOperating, shifts: shifts}
+	// One stage and one row for the walk (the caller's, for all its
+	// paths), filled anew at each element (a tolerance run walks every
+	// path for every sample).
+	*st = stage{pb: pb, followed: followed, clouds: clouds, power: power, atOperating: atOperating, shifts: shifts}
+	row := &st.rowBuf
+	st.row = row
 	for i := pb.First; i < len(p.Elements); i++ {
 		e := p.Elements[i]
 		joining := i == pb.First && pb.Combiner != nil
@@ -475,7 +482,7 @@ func (pb *PathBudget) propagate(file string, followed map[*setup.Element]*setup.
 		if n := len(pb.Rows); n < cap(pb.Rows) {
 			losses = pb.Rows[: n+1 : n+1][n].Losses[:0]
 		}
-		row = Row{Element: e, BeamIn: beam, FractionIn: frac, ClipFraction: 1, Losses: losses}
+		*row = Row{Element: e, BeamIn: beam, FractionIn: frac, ClipFraction: 1, Losses: losses}
 		el := e.For(pb.Laser)
 		// Clipping at the clear aperture (or the iris of an aperture element).
 		if clear := el.ClearAperture(); clear > 0 {
@@ -494,7 +501,7 @@ func (pb *PathBudget) propagate(file string, followed map[*setup.Element]*setup.
 		}
 		row.BeamOut = beam
 		row.FractionOut = frac
-		pb.Rows = append(pb.Rows, row)
+		pb.Rows = append(pb.Rows, *row)
 		// The segment after an element is open unless the element says
 		// otherwise; after a cloud it stays as it was (the atoms sit in their
 		// chamber). Open is the conservative reading for hazards.

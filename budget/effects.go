@@ -37,6 +37,7 @@ type stage struct {
 	beam     optics.Beam
 	frac     float64 // power fraction of the source
 	row      *Row
+	rowBuf   Row // the row row points to
 	// joining is set at the combiner where the beam joins the path.
 	joining bool
 	// power is the laser's power the clouds absorb at, W; atOperating says
