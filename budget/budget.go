@@ -310,11 +310,13 @@ func compute(s *setup.Setup, atOperating bool, shifts map[*setup.Cloud]float64, 
 	}
 	clear(pl.beams)
 	fresh := func(p *setup.Path, k int, v PathBudget) *PathBudget {
-		pb := new(PathBudget)
-		if k < len(recycled[p]) {
-			pb = recycled[p][k]
-			v.Rows, v.Segments, v.UnfollowedPorts = pb.Rows[:0], pb.Segments[:0], pb.UnfollowedPorts[:0]
+		if k >= len(recycled[p]) {
+			pb := new(PathBudget)
+			*pb = v
+			return pb
 		}
+		pb := recycled[p][k]
+		v.Rows, v.Segments, v.UnfollowedPorts = pb.Rows[:0], pb.Segments[:0], pb.UnfollowedPorts[:0]
 		*pb = v
 		return pb
 	}
@@ -328,7 +330,9 @@ func compute(s *setup.Setup, atOperating bool, shifts map[*setup.Cloud]float64, 
 	own := pl.own
 	clear(own)
 	for _, p := range pl.order {
-		var beams []*PathBudget
+		// The slice of the previous walk's beams, filled again in place
+		// (fresh reads each entry before it is replaced).
+		beams := recycled[p][:0]
 		if p.Parent == nil {
 			las := p.Laser
 			beams = append(beams, fresh(p, 0, PathBudget{Path: p, Laser: las, StartFraction: 1, Start: optics.Beam{

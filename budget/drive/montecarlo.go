@@ -264,7 +264,7 @@ func TolerancesRun(s *setup.Setup, drive []*AtomsResult, run Run) map[any]*GoalT
 	// The margins goal by goal (each goal's samples in one run, which its
 	// GoalTolerance keeps without a copy); the inputs are not kept: a
 	// sample's are drawn again from its own stream where the regression
-	// needs them (sampleInputs), so memory grows only with the margins.
+	// needs them (sampler.sampleInputs), so memory grows only with the margins.
 	results := make([]float64, samples*len(refs))
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
@@ -312,13 +312,14 @@ func TolerancesRun(s *setup.Setup, drive []*AtomsResult, run Run) map[any]*GoalT
 			c := s.Clone()
 			x := make([]float64, nt)
 			var reuse *budget.Budget
+			sm := newSampler()
 			for i := w; i < samples; i += workers {
 				select {
 				case <-run.Stop:
 					return
 				default:
 				}
-				sampleInputs(s.Tolerances, seed, i, x)
+				sm.sampleInputs(s.Tolerances, seed, i, x)
 				for j, t := range s.Tolerances {
 					t.Apply(c, x[j])
 				}
@@ -408,11 +409,25 @@ func TolerancesRun(s *setup.Setup, drive []*AtomsResult, run Run) map[any]*GoalT
 // sampleInputs draws sample i's value of every toleranced input into x,
 // each from the sample's own stream (PCG seeded by the seed and i): the
 // same values wherever and however often they are drawn.
-func sampleInputs(ts []*setup.Toleranced, seed uint64, i int, x []float64) {
-	r := rand.New(rand.NewPCG(seed, uint64(i)))
+func (sm *sampler) sampleInputs(ts []*setup.Toleranced, seed uint64, i int, x []float64) {
+	sm.pcg.Seed(seed, uint64(i))
 	for j, t := range ts {
-		x[j] = t.Tol.Sample(r)
+		x[j] = t.Tol.Sample(sm.r)
 	}
+}
+
+// sampler holds one generator, reseeded for each sample (a Rand keeps no
+// state of its own besides its source: the same values as a new generator
+// of the sample's seed).
+type sampler struct {
+	pcg rand.PCG
+	r   *rand.Rand
+}
+
+func newSampler() *sampler {
+	sm := &sampler{}
+	sm.r = rand.New(&sm.pcg)
+	return sm
 }
 
 // contributors ranks the inputs by their standardized regression
@@ -420,7 +435,7 @@ func sampleInputs(ts []*setup.Toleranced, seed uint64, i int, x []float64) {
 // only): share = SRC²/ΣSRC², the SRCs solving the normal equations of the
 // inputs' covariance, C_xx β = C_xy, scaled by σ_x/σ_y. The covariances
 // are summed in one pass over the samples, whose inputs are drawn again
-// (sampleInputs); goals whose finite samples are the same rows share one
+// (sampler.sampleInputs); goals whose finite samples are the same rows share one
 // Cholesky factorization.
 func contributors(ts []*setup.Toleranced, seed uint64, ys [][]float64) [][]Contributor {
 	nt := len(ts)
@@ -470,8 +485,9 @@ func contributors(ts []*setup.Toleranced, seed uint64, ys [][]float64) [][]Contr
 		x0[j] = t.Tol.Nominal()
 	}
 	x := make([]float64, nt)
+	sm := newSampler()
 	for i := range n {
-		sampleInputs(ts, seed, i, x)
+		sm.sampleInputs(ts, seed, i, x)
 		for j := range x {
 			x[j] -= x0[j]
 		}
