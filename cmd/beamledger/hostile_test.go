@@ -29,6 +29,7 @@ import (
 //	text S / no-text S   the text output holds (or lacks) S
 //	json S               the JSON output holds S
 //	report ok            report writes a PDF that pdfcpu validates (exit 0 or 1)
+//	                     and that verify matches with the setup (exit 0)
 
 func init() {
 	// Validate documents without pdfcpu writing its configuration into
@@ -94,6 +95,9 @@ func TestHostileCorpus(t *testing.T) {
 						t.Errorf("report: exit %d, %q", code, errOut)
 					} else if err := api.ValidateFile(out, model.NewDefaultConfiguration()); err != nil {
 						t.Errorf("the PDF does not validate: %v", err)
+					} else if vOut, vErr, code := runCLI(t, "verify", out, f); code != exitOK {
+						// The pages read back as written, whatever the setup's text.
+						t.Errorf("verify of its own sign-off: exit %d, %q %q", code, vOut, vErr)
 					}
 				default:
 					t.Fatalf("unknown line %q in the .want file", line)
