@@ -200,3 +200,19 @@ func TestContentRuns(t *testing.T) {
 		t.Errorf("literal %q", got)
 	}
 }
+
+// Any bytes a page's content stream may hold are read to their end,
+// without a panic or an endless loop, and no run read is empty.
+func FuzzContentRuns(f *testing.F) {
+	f.Add([]byte("BT 10 20 Td (\\000a) Tj ET"))
+	f.Add([]byte("BT [(\\000b) -5 <0063>] TJ T* (x) ' 1 2 (y) \" ET"))
+	f.Add([]byte("((( \\"))
+	f.Add([]byte("<< /A [ 1 2 ] >> % comment\r BT 1e400 0 Td <zz> Tj"))
+	f.Fuzz(func(t *testing.T, c []byte) {
+		for _, r := range contentRuns(c) {
+			if r.text == "" {
+				t.Fatalf("an empty run: %+v", r)
+			}
+		}
+	})
+}
