@@ -46,7 +46,7 @@ func pagesAgree(pages [][]run, s *setup.Setup, sha string, hazards []string) []s
 	if len(wrong) > 0 {
 		what := fmt.Sprintf("reads %q", read)
 		if read == "" {
-			what = "states no setup"
+			what = "states no setup hash"
 		}
 		out = append(out, fmt.Sprintf("the footer of %s %s; the attached setup gives %q", pageList(wrong, len(pages)), what, footer))
 	}
