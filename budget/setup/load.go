@@ -11,10 +11,11 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"time"
 	"unicode"
 	"unicode/utf8"
 
-	"github.com/BurntSushi/toml"
+	"github.com/pelletier/go-toml/v2"
 
 	"beamledger/budget/units"
 	"beamledger/limits"
@@ -83,10 +84,11 @@ func Parse(filename string, data []byte) (*Setup, error) {
 		return nil, err
 	}
 	var raw map[string]any
-	if _, err := toml.Decode(src, &raw); err != nil {
-		var pe toml.ParseError
-		if errors.As(err, &pe) {
-			return nil, &InputError{[]string{fmt.Sprintf("%s:%d: TOML syntax: %s", filename, pe.Position.Line, pe.Message)}}
+	if err := toml.Unmarshal(data, &raw); err != nil {
+		var de *toml.DecodeError
+		if errors.As(err, &de) {
+			row, _ := de.Position()
+			return nil, &InputError{[]string{fmt.Sprintf("%s:%d: TOML syntax: %s", filename, row, strings.TrimPrefix(de.Error(), "toml: "))}}
 		}
 		return nil, &InputError{[]string{fmt.Sprintf("%s: TOML syntax: %v", filename, err)}}
 	}
@@ -657,6 +659,14 @@ func tomlKind(v any) string {
 		return "an array"
 	case map[string]any:
 		return "a table"
+	case time.Time:
+		return "a date-time"
+	case toml.LocalDateTime:
+		return "a local date-time"
+	case toml.LocalDate:
+		return "a local date"
+	case toml.LocalTime:
+		return "a local time"
 	}
 	return fmt.Sprintf("a %T", v)
 }

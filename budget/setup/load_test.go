@@ -66,8 +66,10 @@ from = "l"
 // Every class of bad input gives one message naming file, line and field.
 func TestLoadErrors(t *testing.T) {
 	tests := []struct{ name, src, want string }{
-		{"syntax", "[[laser]\nname = 1", "bad.toml:2: TOML syntax:"},
+		{"syntax", "[[laser]\nname = 1", "bad.toml:1: TOML syntax:"}, // the header line left open
 		{"unknown top key", "colour = 1\n" + okLaser + okPath, `bad.toml:1: colour: unknown key`},
+		{"a date for a string", "[setup]\ntitle = 1979-05-27\n" + okLaser + okPath, `bad.toml:2: [setup]: title: want a string, got a local date`},
+		{"a time for a string", "[setup]\ntitle = 07:32:00\n" + okLaser + okPath, `bad.toml:2: [setup]: title: want a string, got a local time`},
 		{"key after element", okLaser + okPath + "colour = 1\n", `bad.toml:14: path "p", element 1 (dump): colour: unknown key for a dump (it takes rating,`},
 		{"unknown laser key", okLaser + "colour = \"red\"\n" + okPath, `bad.toml:7: laser "l": colour: unknown key`},
 		{"unknown element key", okLaser + okPath + "  focal_length = \"1 m\"\n", `bad.toml:14: path "p", element 1 (dump): focal_length: unknown key for a dump`},

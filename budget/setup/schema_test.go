@@ -12,7 +12,7 @@ import (
 	"strings"
 	"testing"
 
-	"github.com/BurntSushi/toml"
+	"github.com/pelletier/go-toml/v2"
 	"github.com/santhosh-tekuri/jsonschema/v6"
 
 	"beamledger/budget/setup/starter"
@@ -51,7 +51,7 @@ func schema(t testing.TB) *jsonschema.Schema {
 // editor's TOML support does (the TOML document read as JSON).
 func validateTOML(s *jsonschema.Schema, src string) error {
 	var raw map[string]any
-	if _, err := toml.Decode(src, &raw); err != nil {
+	if err := toml.Unmarshal([]byte(src), &raw); err != nil {
 		return fmt.Errorf("TOML: %v", err)
 	}
 	j, err := json.Marshal(raw)

@@ -17,7 +17,7 @@ import (
 	"strconv"
 	"strings"
 
-	"github.com/BurntSushi/toml"
+	"github.com/pelletier/go-toml/v2"
 
 	"beamledger/budget"
 	"beamledger/budget/setup"
@@ -132,7 +132,7 @@ func side(v Revision) Side {
 
 func decode(v Revision) (map[string]any, error) {
 	var raw map[string]any
-	if _, err := toml.Decode(string(v.Data), &raw); err != nil {
+	if err := toml.Unmarshal(v.Data, &raw); err != nil {
 		return nil, fmt.Errorf("%s: %v", v.File, err)
 	}
 	return raw, nil
