@@ -205,7 +205,7 @@ func (l *lexer) word() string {
 	for l.i < len(l.b) && !isSpace(l.b[l.i]) && !isDelim(l.b[l.i]) {
 		l.i++
 	}
-	if l.i == start { // a lone delimiter
+	if l.i == start && l.i < len(l.b) { // a lone delimiter
 		l.i++
 	}
 	return string(l.b[start:l.i])
