@@ -249,8 +249,10 @@ type plan struct {
 	followed map[*setup.Element]*setup.Path // splitters whose other port a path follows
 	clouds   map[string]*setup.Cloud
 	feeds    map[*setup.Path]bool // the paths another path starts from or goes on into
-	lossless map[*setup.Element]bool
-	order    []*setup.Path
+	// lastAtoms is the index of each path's last atoms element (−1: none).
+	lastAtoms map[*setup.Path]int
+	lossless  map[*setup.Element]bool
+	order     []*setup.Path
 	// beams are the path budgets of the last walk, by path; spare the map
 	// of the walk before (its entries recycled); own the main beam of each
 	// path during a walk.
@@ -266,7 +268,14 @@ func (pl *plan) make(s *setup.Setup) {
 	}
 	pl.followed = map[*setup.Element]*setup.Path{}
 	pl.feeds = map[*setup.Path]bool{}
+	pl.lastAtoms = make(map[*setup.Path]int, len(s.Paths))
 	for _, p := range s.Paths {
+		pl.lastAtoms[p] = -1
+		for k, e := range p.Elements {
+			if e.Type == setup.TypeAtoms {
+				pl.lastAtoms[p] = k
+			}
+		}
 		if p.ParentPort != nil {
 			pl.followed[p.ParentPort] = p
 		}
@@ -368,16 +377,10 @@ func compute(s *setup.Setup, atOperating bool, shifts map[*setup.Cloud]float64, 
 			// The elements (by index in the path) whose clouds' absorption
 			// is read: all but the last atoms element's on a path that feeds
 			// no other (goalsOnly), else all.
-			lastRead := len(p.Elements)
+			pb.absorbThrough = len(p.Elements)
 			if goalsOnly && !feeds[p] {
-				lastRead = -1
-				for k, e := range p.Elements {
-					if e.Type == setup.TypeAtoms {
-						lastRead = max(lastRead, k-1) // an atoms element before this one
-					}
-				}
+				pb.absorbThrough = pl.lastAtoms[p] - 1 // the atoms elements before the last
 			}
-			pb.absorbThrough = lastRead
 			if err := pb.propagate(st, s.File, followed, clouds, atOperating, shifts); err != nil {
 				return nil, err
 			}

@@ -64,12 +64,6 @@ type goalRef struct {
 	need *GoalResult
 }
 
-// powerOnlyKeys are the toleranced inputs that change only how much power
-// arrives where (loss values and operating powers), never a beam's shape,
-// a detuning or a cloud.
-var powerOnlyKeys = map[string]bool{"transmission": true, "reflectivity": true, "efficiency": true, "alignment": true,
-	"coupling": true, "join_transmission": true, "optical_density": true, "operating_power": true}
-
 // sampleShortcut lets the samples of a power-only run settle element goals
 // from the power arriving (tests turn it off to compare with the full
 // solution).
@@ -81,7 +75,7 @@ var sampleShortcut = true
 // every sample.
 func powerOnly(s *setup.Setup) bool {
 	for _, t := range s.Tolerances {
-		if !powerOnlyKeys[t.Key] {
+		if !t.LossValue() && t.Key != "operating_power" {
 			return false
 		}
 	}

@@ -143,14 +143,19 @@ func setPair(p *[2]float64, i int, v float64) {
 // value's high end), and whether the value is a loss value at all.
 func (t *Toleranced) HighTransmission() (float64, bool) {
 	lo, hi := t.Tol.Ends()
-	switch t.Key {
-	case "optical_density":
+	switch {
+	case !t.LossValue():
+		return 0, false
+	case t.Key == "optical_density":
 		return lo, true
-	case "transmission", "reflectivity", "efficiency", "alignment", "coupling", "join_transmission":
-		return hi, true
 	}
-	return 0, false
+	return hi, true
 }
+
+// LossValue reports whether the toleranced value is a loss value (a
+// transmission, reflectivity, efficiency, alignment, coupling or optical
+// density): it changes how much power goes on, never a beam's shape.
+func (t *Toleranced) LossValue() bool { return boundedLoss[t.Key] }
 
 // HighLeaving is the end of a toleranced loss value that sends the most
 // light out of the path at its element as a beam of its own (a
