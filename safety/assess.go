@@ -99,7 +99,7 @@ func EvaluateWith(s *setup.Setup, o Options) (*Assessment, error) {
 // rejected port), its lowest (setup.Element.Leaving). One value is then at
 // both ends at once, for different beams: where the two beams meet again
 // their sum is overstated, never understated. Positions, focal lengths,
-// waists and operating powers stay nominal.
+// waists stay nominal (operating powers do not enter the hazards).
 func ConservativeSetup(s *setup.Setup) *setup.Setup {
 	c := s.Clone()
 	for _, t := range s.Tolerances {

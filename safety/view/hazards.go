@@ -31,7 +31,7 @@ func Assumptions(s *setup.Setup) []string {
 		"reflections evaluated where the beam arrives through an open segment",
 	}
 	if len(s.Tolerances) > 0 {
-		out = append(out, "each toleranced loss value at the end that makes each beam most hazardous: its highest transmission for the beam that goes on, its lowest for the beam that leaves the path there (a splitter's other port, a mirror's leak, an AOM's unused orders, a combiner's rejected port); positions, focal lengths, waists and operating powers at their nominal values")
+		out = append(out, "each toleranced loss value at the end that makes each beam most hazardous: its highest transmission for the beam that goes on, its lowest for the beam that leaves the path there (a splitter's other port, a mirror's leak, an AOM's unused orders, a combiner's rejected port); positions, focal lengths and waists at their nominal values (operating powers do not enter: each laser at its maximum power)")
 	}
 	return out
 }
