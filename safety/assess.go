@@ -98,7 +98,7 @@ func EvaluateWith(s *setup.Setup, o Options) (*Assessment, error) {
 // other port, a mirror's leak, an AOM's unused orders, a combiner's
 // rejected port), its lowest (setup.Element.Leaving). One value is then at
 // both ends at once, for different beams: where the two beams meet again
-// their sum is overstated, never understated. Positions, focal lengths,
+// their sum is overstated, never understated. Positions, focal lengths and
 // waists stay nominal (operating powers do not enter the hazards).
 func ConservativeSetup(s *setup.Setup) *setup.Setup {
 	c := s.Clone()
