@@ -38,22 +38,24 @@ func maxAlong(b optics.Beam, p, d, length float64) (irr, at float64) {
 	// at an end; when it fits the aperture there, all of it passes everywhere
 	// and the irradiance is P over the aperture area throughout.
 	full := p / (math.Pi * d * d / 4)
-	if best, z := math.Max(f(lo), f(hi)), lo; best >= full*(1-1e-12) {
-		if f(hi) > f(lo) {
+	flo, fhi := f(lo), f(hi)
+	if best, z := math.Max(flo, fhi), lo; best >= full*(1-1e-12) {
+		if fhi > flo {
 			z = hi
 		}
 		return best, z
 	}
-	return maxBetween(f, lo, hi)
+	return maxBetween(f, lo, hi, flo, fhi)
 }
 
 // maxBetween finds the largest value of f on [lo, hi], f having one
 // maximum there: samples, then a golden-section search around the best
 // sample, one new evaluation per step, to a relative width of 1e-5 of the
 // stretch (the value near a maximum changes with the square of the step).
-func maxBetween(f func(float64) float64, lo, hi float64) (best, bestZ float64) {
-	best, bestZ = f(lo), lo
-	if e := f(hi); e > best {
+// flo and fhi are f(lo) and f(hi), already known to the caller.
+func maxBetween(f func(float64) float64, lo, hi, flo, fhi float64) (best, bestZ float64) {
+	best, bestZ = flo, lo
+	if e := fhi; e > best {
 		best, bestZ = e, hi
 	}
 	const n = 12
@@ -83,7 +85,7 @@ func PeakAlong(b optics.Beam, p, length float64) (peak, at float64) {
 	if hi-lo <= 1e-9*(1+hi) {
 		return f(lo), lo
 	}
-	return maxBetween(f, lo, hi)
+	return maxBetween(f, lo, hi, f(lo), f(hi))
 }
 
 // hazardDistance is how far beyond `from` (m) the aperture-averaged

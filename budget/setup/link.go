@@ -19,16 +19,23 @@ func (l *loader) link(s *Setup) {
 	uniqueNames(l, "eyewear", s.Eyewear, func(x *Eyewear) (string, int) { return x.Name, x.Line })
 	locs := pathLocs(s)
 	paths := l.checkPaths(s, clouds, locs)
+	// The lasers reaching each element, once the paths are linked: the
+	// steps after that read them and change no path.
+	var reach map[*Element][]Arrival
 	// Each step needs the ones before it to have found nothing.
 	steps := []func(){
 		func() { l.linkSources(s, lasers, paths, locs) },
 		func() { l.linkLasers(s, locs) },
 		func() { l.linkInto(s, paths, locs) },
-		func() { l.checkPerLaser(s, lasers, locs); l.checkClouds(s, lasers, locs) },
+		func() {
+			reach = Arrivals(s)
+			l.checkPerLaser(s, reach, lasers, locs)
+			l.checkClouds(s, reach, lasers, locs)
+		},
 		func() { l.linewidthDetunings(s, clouds, locs) },
 		func() { l.checkDetunings(s, clouds, locs) },
-		func() { l.checkGoalLasers(s) },
-		func() { l.linkElementGoals(s, clouds, locs) },
+		func() { l.checkGoalLasers(s, reach) },
+		func() { l.linkElementGoals(s, reach, clouds, locs) },
 	}
 	for _, step := range steps {
 		if len(l.problems) > 0 {
@@ -438,8 +445,7 @@ func (l *loader) linkInto(s *Setup, paths map[string]*Path, locs map[*Path]int) 
 
 // checkPerLaser checks each per-laser table: every laser that reaches the
 // element is in it, and it names no laser the setup does not have.
-func (l *loader) checkPerLaser(s *Setup, lasers map[string]*Laser, locs map[*Path]int) {
-	reach := Arrivals(s)
+func (l *loader) checkPerLaser(s *Setup, reach map[*Element][]Arrival, lasers map[string]*Laser, locs map[*Path]int) {
 	for _, p := range s.Paths {
 		for k, e := range p.Elements {
 			for _, key := range slices.Sorted(maps.Keys(e.PerLaser)) {
@@ -496,8 +502,12 @@ func Arrivals(s *Setup) map[*Element][]Arrival {
 		first int
 		joins bool // at the element first, a combiner
 	}
-	on := map[*Path][]arrival{}
-	out := map[*Element][]Arrival{}
+	n := 0
+	for _, p := range s.Paths {
+		n += len(p.Elements)
+	}
+	on := make(map[*Path][]arrival, len(s.Paths))
+	out := make(map[*Element][]Arrival, n)
 	for _, p := range PathOrder(s) {
 		var arr []arrival
 		if p.Parent == nil {
@@ -538,10 +548,9 @@ func Arrivals(s *Setup) map[*Element][]Arrival {
 // excited_polarizability) and that every standing wave has its forward pass:
 // an earlier atoms element on the same path, on the same cloud, running the
 // opposite way.
-func (l *loader) checkClouds(s *Setup, lasers map[string]*Laser, locs map[*Path]int) {
+func (l *loader) checkClouds(s *Setup, reach map[*Element][]Arrival, lasers map[string]*Laser, locs map[*Path]int) {
 	laserNames := listNames(len(s.Lasers), func(i int) string { return s.Lasers[i].Name })
 	atCloud := map[string][]string{} // the lasers whose light reaches each cloud
-	reach := Arrivals(s)
 	for _, p := range s.Paths {
 		for _, e := range p.Elements {
 			if e.Type != TypeAtoms {
@@ -660,8 +669,7 @@ func quotedOrNone(names []string) string {
 // atoms element of the cloud the laser's light reaches; the laser serves
 // if it counts so at one of them). A goal scaling only light that cannot
 // change it would report a margin it does not have.
-func (l *loader) checkGoalLasers(s *Setup) {
-	reach := Arrivals(s)
+func (l *loader) checkGoalLasers(s *Setup, reach map[*Element][]Arrival) {
 	for i, c := range s.Clouds {
 		if c.Goal == "" || len(c.GoalLasers) == 0 || c.Data == nil {
 			continue
@@ -722,8 +730,7 @@ func lightAt(p *Path, e *Element, las *Laser, tr *atoms.Transition) (string, flo
 // laser when it serves it, else the one arriving laser that does; a goal
 // no arriving laser serves, or that several could serve but not the
 // path's own, is an input error naming them.
-func (l *loader) linkElementGoals(s *Setup, clouds map[string]*Cloud, locs map[*Path]int) {
-	reach := Arrivals(s)
+func (l *loader) linkElementGoals(s *Setup, reach map[*Element][]Arrival, clouds map[string]*Cloud, locs map[*Path]int) {
 	for _, p := range s.Paths {
 		for k, e := range p.Elements {
 			c := clouds[e.Cloud]

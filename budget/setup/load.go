@@ -121,9 +121,12 @@ func (l *loader) addf(line int, context, format string, args ...any) {
 	}
 	l.problems = append(l.problems, where+": "+msg)
 	if len(l.problems) == maxProblems {
-		l.problems = append(l.problems, fmt.Sprintf("%s: more problems not shown", l.file))
+		l.problems = append(l.problems, moreProblems(l.file))
 	}
 }
+
+// moreProblems ends a list of problems cut at maxProblems.
+func moreProblems(file string) string { return fmt.Sprintf("%s: more problems not shown", file) }
 
 // table reads the keys of one TOML table and remembers which were used, so
 // that unknown keys can be reported.
@@ -135,8 +138,10 @@ type table struct {
 	describe func() string
 	loc      string // line-index key, e.g. "path[0].element[2]"
 	m        map[string]any
-	// used lists the keys of m that a reader asked for.
-	used []string
+	// used lists the keys of m that a reader asked for, in usedBuf while
+	// they are few (as in most tables).
+	used    []string
+	usedBuf [8]string
 	// keyAs is the key a per-laser table's entries stand for ("": the
 	// table's own keys); pairIndex the index of the value of an [x, y]
 	// pair being read (−1: a single value).
@@ -198,7 +203,9 @@ func (t *table) of(spec *TableSpec) *table {
 }
 
 func (l *loader) table(context, loc string, m map[string]any) *table {
-	return &table{l: l, context: context, loc: loc, m: m, pairIndex: -1}
+	t := &table{l: l, context: context, loc: loc, m: m, pairIndex: -1}
+	t.used = t.usedBuf[:0]
+	return t
 }
 
 // where names the table in messages.

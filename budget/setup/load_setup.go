@@ -4,9 +4,12 @@ import (
 	"fmt"
 	"maps"
 	"math"
+	"runtime"
 	"slices"
 	"strconv"
 	"strings"
+	"sync"
+	"sync/atomic"
 	"time"
 
 	"beamledger/budget/atoms"
@@ -127,9 +130,7 @@ func (l *loader) setup(raw map[string]any) *Setup {
 	for i, m := range clouds {
 		s.Clouds = append(s.Clouds, l.cloud(i, m))
 	}
-	for i, m := range paths {
-		s.Paths = append(s.Paths, l.path(i, m))
-	}
+	s.Paths = l.paths(paths)
 	for i, m := range eyewear {
 		s.Eyewear = append(s.Eyewear, l.eyewear(i, m))
 	}
@@ -344,6 +345,60 @@ func (l *loader) eyewear(i int, m map[string]any) *Eyewear {
 	return e
 }
 
+// parallelLoadPaths is the number of paths from which they are read on
+// all cores (a variable so that a test can read any setup both ways).
+var parallelLoadPaths = 32
+
+// paths reads the [[path]] tables. Each path is read by a loader of its
+// own, on all cores for a large setup; their problems and pending
+// tolerances are then taken in the file's order, so that what is reported
+// does not depend on timing and equals what one loader would report.
+func (l *loader) paths(ms []map[string]any) []*Path {
+	out := make([]*Path, len(ms))
+	if len(ms) < parallelLoadPaths {
+		for i, m := range ms {
+			out[i] = l.path(i, m)
+		}
+		return out
+	}
+	subs := make([]loader, len(ms))
+	var (
+		wg   sync.WaitGroup
+		next atomic.Int64
+	)
+	for range min(runtime.GOMAXPROCS(0), len(ms)) {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := int(next.Add(1) - 1); i < len(ms); i = int(next.Add(1) - 1) {
+				subs[i] = loader{file: l.file, lines: l.lines}
+				out[i] = subs[i].path(i, ms[i])
+			}
+		}()
+	}
+	wg.Wait()
+	for i := range subs {
+		l.take(&subs[i])
+	}
+	return out
+}
+
+// take adds what another loader found to l's, as if l had found it: its
+// problems up to l's bound (o's own closing line lies past the bound, so
+// it is never taken), and its pending tolerances.
+func (l *loader) take(o *loader) {
+	for _, msg := range o.problems {
+		if len(l.problems) >= maxProblems {
+			break
+		}
+		l.problems = append(l.problems, msg)
+		if len(l.problems) == maxProblems {
+			l.problems = append(l.problems, moreProblems(l.file))
+		}
+	}
+	l.tols = append(l.tols, o.tols...)
+}
+
 func (l *loader) path(i int, m map[string]any) *Path {
 	t, loc, name := l.named("path", i, m)
 	p := &Path{Line: l.lines[loc], Name: name}
@@ -359,8 +414,12 @@ func (l *loader) path(i int, m map[string]any) *Path {
 		t.get("into_at")
 		t.fail("into_at", "given without into")
 	}
-	for k, em := range t.tables("element") {
-		p.Elements = append(p.Elements, l.element(p, t.where(), loc+".element["+strconv.Itoa(k)+"]", k, em))
+	ems := t.tables("element")
+	// One allocation for the path's elements.
+	slab := make([]Element, len(ems))
+	p.Elements = make([]*Element, 0, len(ems))
+	for k, em := range ems {
+		p.Elements = append(p.Elements, l.element(&slab[k], p, t.where(), loc+".element["+strconv.Itoa(k)+"]", k, em))
 	}
 	t.done()
 	return p
@@ -436,10 +495,10 @@ func typeList() []string {
 // typeAliases are other spellings of element types that mean the same.
 var typeAliases = map[ElementType]ElementType{"fibre": TypeFiber}
 
-func (l *loader) element(p *Path, pathContext, loc string, k int, m map[string]any) *Element {
+func (l *loader) element(e *Element, p *Path, pathContext, loc string, k int, m map[string]any) *Element {
 	t := l.table("", loc, m)
 	t.describe = func() string { return fmt.Sprintf("%s, element %d", pathContext, k+1) }
-	e := &Element{Index: k + 1, Line: l.lines[loc]}
+	e.Index, e.Line = k+1, l.lines[loc]
 	e.Type = ElementType(t.str("type", true))
 	if a, ok := typeAliases[e.Type]; ok {
 		e.Type = a

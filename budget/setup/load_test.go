@@ -2,11 +2,17 @@ package setup
 
 import (
 	"errors"
+	"fmt"
+	"math"
 	"os"
 	"path/filepath"
+	"reflect"
+	"regexp"
 	"slices"
 	"strings"
 	"testing"
+
+	"beamledger/budget/setup/synth"
 )
 
 func TestLoadDemo(t *testing.T) {
@@ -190,5 +196,70 @@ func TestParseEN207(t *testing.T) {
 	b := EyewearBand{Ratings: []EN207Rating{{"D", 5}, {"I", 7}}}
 	if !b.Rates("D", 5) || b.Rates("D", 6) || !b.Rates("I", 6) || b.Rates("R", 1) {
 		t.Error("Rates")
+	}
+}
+
+// The paths of a large setup are read on all cores, each by a loader of
+// its own; what is read, and every problem reported with its bound, must be
+// what one loader reading them in order gives (common practice: a parallel
+// reader is held to the serial one).
+func TestParallelPathsReadAsOne(t *testing.T) {
+	merged := synth.Lab(7, synth.Options{Lasers: 24, ElementsPerPath: 6, Splits: 1, Merges: true, Fibers: true})
+	toleranced := synth.Lab(8, synth.Options{Lasers: 20, ElementsPerPath: 6, Splits: 1, Tolerances: true})
+	bothWays := func(t *testing.T, src string) (par, ser *Setup, parErr, serErr error) {
+		t.Helper()
+		if n := strings.Count(src, "[[path]]"); n < parallelLoadPaths {
+			t.Fatalf("the lab has %d paths, fewer than the %d read in parallel", n, parallelLoadPaths)
+		}
+		par, parErr = Parse("lab.toml", []byte(src))
+		defer func(n int) { parallelLoadPaths = n }(parallelLoadPaths)
+		parallelLoadPaths = math.MaxInt
+		ser, serErr = Parse("lab.toml", []byte(src))
+		return
+	}
+	for _, src := range []string{merged, toleranced} {
+		t.Run("valid", func(t *testing.T) {
+			par, ser, pe, se := bothWays(t, src)
+			if pe != nil || se != nil {
+				t.Fatalf("errors: %v / %v", pe, se)
+			}
+			if src == toleranced && len(par.Tolerances) == 0 {
+				t.Fatal("the lab has no tolerances to compare")
+			}
+			if !reflect.DeepEqual(par, ser) {
+				t.Error("the setup read in parallel differs from the one read in order")
+			}
+		})
+	}
+	src := merged
+	for _, tc := range []struct {
+		name  string
+		every int // an unknown key on every n-th mirror
+		want  int // problems reported, the bound's line included
+	}{{"few problems", 9, -1}, {"more than the bound", 1, maxProblems + 1}} {
+		t.Run(tc.name, func(t *testing.T) {
+			k := 0
+			bad := regexp.MustCompile(`type = "mirror"\n`).ReplaceAllStringFunc(src, func(m string) string {
+				k++
+				if k%tc.every != 0 {
+					return m
+				}
+				return m + fmt.Sprintf("  colour_%d = \"red\"\n", k)
+			})
+			_, _, pe, se := bothWays(t, bad)
+			var pi, si *InputError
+			if !errors.As(pe, &pi) || !errors.As(se, &si) {
+				t.Fatalf("want input errors, got %v / %v", pe, se)
+			}
+			if !slices.Equal(pi.Problems, si.Problems) {
+				t.Errorf("problems differ:\nparallel:\n%s\nin order:\n%s", pi, si)
+			}
+			if tc.want > 0 && len(pi.Problems) != tc.want {
+				t.Errorf("%d problems, want %d", len(pi.Problems), tc.want)
+			}
+			if tc.want < 0 && (len(pi.Problems) < 2 || len(pi.Problems) >= maxProblems) {
+				t.Errorf("%d problems: the case should have a few, below the bound", len(pi.Problems))
+			}
+		})
 	}
 }

@@ -145,8 +145,10 @@ func writeList(ew *errWriter, l *List, indent string) {
 		at := make([]int, len(l.Columns))
 		row := func(r *Record) {
 			for c, k := range l.Columns {
-				var f *Field
-				f, at[c] = r.fieldAt(k, at[c])
+				f, j := r.fieldAt(k, at[c])
+				if j >= 0 { // a record without the field keeps the hint
+					at[c] = j
+				}
 				t.field(f)
 			}
 		}
