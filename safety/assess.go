@@ -81,13 +81,39 @@ func EvaluateWith(s *setup.Setup, o Options) (*Assessment, error) {
 	a.Findings = append(a.Findings, drive.DriveFindings(a.Atoms)...)
 	a.Findings = append(a.Findings, drive.CloudFindings(a.Clouds)...)
 	a.Findings = append(a.Findings, drive.UnreachedCloudGoals(s, a.Clouds)...)
-	h, err := evaluateHazards(hs, a.HazardBudget)
+	// Toleranced positions, focal lengths and waists: the hazards again at
+	// geometries within the tolerances (geometry.go).
+	var (
+		sw *sweepFigures
+		w  Sweep
+	)
+	g := GeometricTolerances(hs)
+	if len(g) > 0 {
+		var plan []geometry
+		plan, w = sweepPlan(g)
+		if sw, err = sweepGeometry(hs, g, plan, &w); err != nil {
+			return nil, err
+		}
+	}
+	h, err := evaluateHazards(hs, a.HazardBudget, sw)
 	if err != nil {
 		return nil, err
 	}
 	a.Hazards = h
 	a.Findings = append(a.Findings, h.Findings...)
 	controlOpenEnds(hs, a.HazardBudget, a.Findings)
+	if len(g) > 0 {
+		nominal := append(a.HazardBudget.Findings(), h.Findings...)
+		controlOpenEnds(hs, a.HazardBudget, nominal)
+		more := sw.findings(nominal)
+		w.Worse = len(more)
+		if w.Geometries < w.Planned {
+			more = append(more, sweepCut(w))
+		}
+		h.Sweep = &w
+		h.Findings = append(h.Findings, more...)
+		a.Findings = append(a.Findings, more...)
+	}
 	return a, nil
 }
 

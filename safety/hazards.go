@@ -231,6 +231,13 @@ type Exposure struct {
 	// Enclosed marks an enclosed segment's exposure, as when its enclosure
 	// is opened for alignment.
 	Enclosed bool
+	// Geometry names, when the setup has toleranced positions, focal
+	// lengths or waists, the geometry within those tolerances at which the
+	// figures are worse than at the nominal values: the one of the highest
+	// eye ratio, else of the longest NOHD, else of the other figures ("":
+	// the nominal values give the worst). Each figure is then the highest
+	// over the geometries evaluated (geometry.go).
+	Geometry string
 }
 
 // ReflectionKind says how light leaves a path at a surface.
@@ -315,12 +322,21 @@ type Hazards struct {
 	Controls []ControlCheck
 	// DefaultsAssumed lists default values the evaluation had to assume.
 	DefaultsAssumed []string
+	// Sweep says what the sweep over toleranced positions, focal lengths
+	// and waists evaluated (nil: the setup has none).
+	Sweep *Sweep
 }
 
 // pathsPerWorker is the least number of paths worth another core.
 const pathsPerWorker = 16
 
-func evaluateHazards(s *setup.Setup, b *budget.Budget) (*Hazards, error) {
+// evaluateHazards evaluates the hazards of setup s on its hazard budget b.
+// sw holds the hazards at the other geometries of the sweep over
+// toleranced geometry (geometry.go), nil when there is none: each
+// exposure's figures, the eyewear needed and the alignment powers are then
+// the worst over them and this one, and the controls are judged against
+// that eyewear.
+func evaluateHazards(s *setup.Setup, b *budget.Budget, sw *sweepFigures) (*Hazards, error) {
 	h := &Hazards{}
 	byLaser := map[*setup.Laser]*LaserLimits{}
 	for _, las := range s.Lasers {
@@ -345,7 +361,7 @@ func evaluateHazards(s *setup.Setup, b *budget.Budget) (*Hazards, error) {
 	workers := min(runtime.GOMAXPROCS(0), len(b.Paths)/pathsPerWorker)
 	if workers <= 1 {
 		for i, pb := range b.Paths {
-			results[i] = pathHazards(pb, byLaser)
+			results[i] = pathHazards(pb, byLaser, sw.envelopeOf())
 		}
 	} else {
 		var (
@@ -357,7 +373,7 @@ func evaluateHazards(s *setup.Setup, b *budget.Budget) (*Hazards, error) {
 			go func() {
 				defer wg.Done()
 				for i := int(next.Add(1) - 1); i < len(b.Paths); i = int(next.Add(1) - 1) {
-					results[i] = pathHazards(b.Paths[i], byLaser)
+					results[i] = pathHazards(b.Paths[i], byLaser, sw.envelopeOf())
 				}
 			}()
 		}
@@ -383,17 +399,12 @@ func evaluateHazards(s *setup.Setup, b *budget.Budget) (*Hazards, error) {
 	if diffuseDefault > 0 {
 		h.DefaultsAssumed = append(h.DefaultsAssumed, fmt.Sprintf("diffuse reflectance %g (conservative) at %d dump(s) or path end(s) without diffuse_reflectance", DefaultDiffuseReflectance, diffuseDefault))
 	}
-	for _, ll := range h.Lasers {
-		worst := 0.0
-		for _, e := range slices.Concat(h.Exposures, h.Enclosed) {
-			if e.Laser == ll {
-				worst = max(worst, e.Ratio, e.SkinRatio)
-			}
-		}
+	for i, ll := range h.Lasers {
+		worst := max(h.worstRatio(ll), sw.worstOf(i))
 		ll.AlignmentPower = AlignmentPower(ll.Laser.Power, worst)
 		ll.AlignmentOD = limits.OpticalDensity(ll.Laser.OperatingPower / ll.AlignmentPower)
 	}
-	h.Eyewear = eyewearNeeds(h)
+	h.Eyewear = eyewearNeeds(h, sw.needsOf())
 	controlHazards(s, h, h.Findings, refs)
 	h.Findings = append(h.Findings, checkEyewear(s, h.Eyewear)...)
 	checks, missing := CheckControls(s, h)
@@ -413,13 +424,16 @@ type pathHazardResult struct {
 	// the elements (nil: the open end) where a default reflectance was
 	// assumed, each counted once however many beams reach it
 	strayDefault, diffuseDefault map[*setup.Element]bool
+	// envelope holds the worst figures of each exposure over the sweep's
+	// geometries (nil: no sweep)
+	envelope *envelope
 }
 
 // pathHazards evaluates the open segments, reflections and damage of one
 // path, for every beam on it, at the lasers' maximum powers; exposures of
 // beams that share a segment are combined (combine).
-func pathHazards(own *budget.PathBudget, byLaser map[*setup.Laser]*LaserLimits) pathHazardResult {
-	res := pathHazardResult{strayDefault: map[*setup.Element]bool{}, diffuseDefault: map[*setup.Element]bool{}}
+func pathHazards(own *budget.PathBudget, byLaser map[*setup.Laser]*LaserLimits, env *envelope) pathHazardResult {
+	res := pathHazardResult{strayDefault: map[*setup.Element]bool{}, diffuseDefault: map[*setup.Element]bool{}, envelope: env}
 	for _, pb := range own.Beams() {
 		ll := byLaser[pb.Laser]
 		for _, seg := range pb.Segments {
@@ -459,24 +473,18 @@ func (res *pathHazardResult) segment(pb *budget.PathBudget, ll *LaserLimits, seg
 	if seg.Access == setup.AccessVacuum || seg.Fraction <= 0 || seg.Arrival {
 		return
 	}
-	p := seg.Fraction * pb.Laser.Power
-	irr, at := maxAlong(seg.Beam, p, ll.EyeAperture, seg.To-seg.From)
-	skin, _ := maxAlong(seg.Beam, p, ll.SkinAperture, seg.To-seg.From)
-	e := &Exposure{Path: pb, Segment: seg, Laser: ll, At: seg.From + at, Power: p, Irradiance: irr,
-		Ratio: irr / ll.EyeIrradiance, SkinIrr: skin, SkinRatio: skin / ll.SkinIrradiance,
-		PeakIrr: seg.Beam.Propagate(at).PeakIrradiance(p), OpenEnd: math.IsInf(seg.To, 1)}
+	e := measureSegment(pb, ll, seg)
+	// With toleranced geometry, each figure the worst over the sweep's
+	// geometries before the figures derived from them.
+	res.envelope.raise(e)
 	e.OD = limits.OpticalDensity(e.Ratio)
 	e.Wavelengths = []float64{pb.Laser.Wavelength}
 	e.Lasers = []*setup.Laser{pb.Laser}
 	e.CombinedEyeRatio, e.CombinedSkinRatio, e.Additive = e.Ratio, e.SkinRatio, 1
-	e.BeamIrradiance, _ = PeakAlong(seg.Beam, p, seg.To-seg.From)
 	if las := pb.Laser; las.Emission == setup.EmissionPulsed {
 		e.BeamPulseExposure = optics.PulseEnergy(e.BeamIrradiance, las.RepetitionRate)
-		e.PulseRadiantExposure = optics.PulseEnergy(irr, las.RepetitionRate)
+		e.PulseRadiantExposure = optics.PulseEnergy(e.Irradiance, las.RepetitionRate)
 		e.PulsePeakIrr = optics.PulsePeakPower(optics.PulseEnergy(e.PeakIrr, las.RepetitionRate), las.PulseDuration)
-	}
-	if e.OpenEnd {
-		e.NOHD = hazardDistance(seg.Beam, p, ll.EyeAperture, ll.EyeIrradiance)
 	}
 	if seg.Access == setup.AccessEnclosed {
 		e.Enclosed = true
@@ -484,6 +492,24 @@ func (res *pathHazardResult) segment(pb *budget.PathBudget, ll *LaserLimits, seg
 		return
 	}
 	res.exposures = append(res.exposures, e)
+}
+
+// measureSegment measures one beam's open (or enclosed) segment: the worst
+// point of the eye- and skin-aperture-averaged irradiance, the peak
+// irradiance there, the beam's own highest power density, and for an open
+// end the NOHD. The figures derived from these are segment's.
+func measureSegment(pb *budget.PathBudget, ll *LaserLimits, seg budget.Segment) *Exposure {
+	p := seg.Fraction * pb.Laser.Power
+	irr, at := maxAlong(seg.Beam, p, ll.EyeAperture, seg.To-seg.From)
+	skin, _ := maxAlong(seg.Beam, p, ll.SkinAperture, seg.To-seg.From)
+	e := &Exposure{Path: pb, Segment: seg, Laser: ll, At: seg.From + at, Power: p, Irradiance: irr,
+		Ratio: irr / ll.EyeIrradiance, SkinIrr: skin, SkinRatio: skin / ll.SkinIrradiance,
+		PeakIrr: seg.Beam.Propagate(at).PeakIrradiance(p), OpenEnd: math.IsInf(seg.To, 1)}
+	e.BeamIrradiance, _ = PeakAlong(seg.Beam, p, seg.To-seg.From)
+	if e.OpenEnd {
+		e.NOHD = hazardDistance(seg.Beam, p, ll.EyeAperture, ll.EyeIrradiance)
+	}
+	return e
 }
 
 // combine adds up the exposures of the beams that share a segment of the
@@ -576,6 +602,9 @@ func (res *pathHazardResult) segmentFinding(g []*Exposure) {
 	if worst.OpenEnd {
 		msg += fmt.Sprintf("; the escaping beam stays above the MPE for %s beyond the path's end (NOHD)", units.FormatDistance(worst.NOHD, MaxHazardDistance))
 	}
+	if worst.Geometry != "" {
+		msg += fmt.Sprintf("; the worst within the stated tolerances, with %s", worst.Geometry)
+	}
 	ref := hazardRef{index: len(res.findings)}
 	for _, e := range g {
 		ref.lasers = append(ref.lasers, e.Laser)
@@ -642,7 +671,7 @@ func (res *pathHazardResult) diffuseZone(pb *budget.PathBudget, ll *LaserLimits,
 	res.hazards = append(res.hazards, hazardRef{index: len(res.findings), lasers: []*LaserLimits{ll}, eye: true})
 	res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityHazard, Kind: FindingDiffuseZone, Path: pb.Path.Name, Element: index, At: at,
 		Message: fmt.Sprintf("%s: its diffuse reflection of %s (ρ = %g%s) stays above the eye MPE within %s of it (nominal hazard zone, small-source MPE, viewed along the normal: conservative)",
-			where, units.FormatPower(rf.Power), rf.Reflectance, assumedNote(rf.Assumed), units.FormatDistance(rf.Radius, MaxHazardDistance))})
+			where, units.FormatPower(rf.Power), rf.Reflectance, assumedNote(rf.Assumed), units.FormatDistance(rf.Radius, MaxHazardDistance))}.Figure(rf.Radius, NearestViewing, "m"))
 }
 
 // stray evaluates the reflection of each of an element's surfaces, at the
@@ -863,7 +892,33 @@ func plural(bs []beamAt, one, many string) string {
 	return many
 }
 
-func eyewearNeeds(h *Hazards) []*EyewearNeed {
+// worstRatio is the largest ratio to its limit, eye or skin, of any
+// exposure of the laser ll on an open or enclosed segment.
+func (h *Hazards) worstRatio(ll *LaserLimits) float64 {
+	worst := 0.0
+	for _, e := range slices.Concat(h.Exposures, h.Enclosed) {
+		if e.Laser == ll {
+			worst = max(worst, e.Ratio, e.SkinRatio)
+		}
+	}
+	return worst
+}
+
+// raise takes the higher of each figure of n and o that the need rests on:
+// the OD, the irradiances and the exposures.
+func (n *EyewearNeed) raise(o EyewearNeed) {
+	n.OD = math.Max(n.OD, o.OD)
+	n.Irradiance = math.Max(n.Irradiance, o.Irradiance)
+	n.PulseRadiantExposure = math.Max(n.PulseRadiantExposure, o.PulseRadiantExposure)
+	n.BeamIrradiance = math.Max(n.BeamIrradiance, o.BeamIrradiance)
+	n.BeamPulseExposure = math.Max(n.BeamPulseExposure, o.BeamPulseExposure)
+}
+
+// eyewearNeeds is the eyewear each wavelength and EN 207 test condition
+// needs: the highest OD, irradiances and exposures of the open segments and
+// of the reflections of h, and of the needs of the sweep's other
+// geometries (none without a sweep), and the scale number they call for.
+func eyewearNeeds(h *Hazards, sweep []EyewearNeed) []*EyewearNeed {
 	type key struct {
 		λ    float64
 		mode string
@@ -879,18 +934,23 @@ func eyewearNeeds(h *Hazards) []*EyewearNeed {
 		return n
 	}
 	for _, e := range h.Exposures {
-		n := get(e.Laser)
-		n.OD = math.Max(n.OD, e.OD)
-		n.Irradiance = math.Max(n.Irradiance, e.Irradiance)
-		n.PulseRadiantExposure = math.Max(n.PulseRadiantExposure, e.PulseRadiantExposure)
-		n.BeamIrradiance = math.Max(n.BeamIrradiance, e.BeamIrradiance)
-		n.BeamPulseExposure = math.Max(n.BeamPulseExposure, e.BeamPulseExposure)
+		get(e.Laser).raise(EyewearNeed{OD: e.OD, Irradiance: e.Irradiance, PulseRadiantExposure: e.PulseRadiantExposure,
+			BeamIrradiance: e.BeamIrradiance, BeamPulseExposure: e.BeamPulseExposure})
 	}
 	for _, r := range h.Reflections {
 		if r.Kind != ReflectionDiffuse {
 			n := get(r.Laser)
 			n.OD = math.Max(n.OD, r.OD)
 		}
+	}
+	for _, o := range sweep {
+		k := key{o.Wavelength, o.Mode}
+		n, ok := by[k]
+		if !ok {
+			n = &EyewearNeed{Wavelength: k.λ, Mode: k.mode}
+			by[k] = n
+		}
+		n.raise(o)
 	}
 	var out []*EyewearNeed
 	for _, n := range by {

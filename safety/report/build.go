@@ -420,7 +420,7 @@ func eyewear(l *view.List) Section {
 
 func assumptions(a *safety.Assessment) Section {
 	b := []string{"Limits: " + safety.LimitsBasis(a.Setup.Meta.Limits) + " (IEC 60825-1:2014 Annex A and the directive's Annex II, MPE at the cornea and for the skin); " + safety.ClassBasis + ", from its AEL tables. Each value's provenance is listed under where the limits come from, and those not checked against a public source must be checked against the standard's text (see SAFETY.md)."}
-	for _, as := range view.Assumptions(a.Setup) {
+	for _, as := range view.Assumptions(a) {
 		b = append(b, "Hazards: "+as+".")
 	}
 	b = append(b,

@@ -6,11 +6,13 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"slices"
 	"strings"
 	"testing"
 	"unicode/utf8"
 
 	"beamledger/budget/setup"
+	"beamledger/budget/units"
 	"beamledger/safety"
 	"beamledger/safety/safetytest"
 	"beamledger/safety/view"
@@ -323,4 +325,31 @@ func TestChangedElementsMarked(t *testing.T) {
 	if n := boxes(); n != 2 {
 		t.Errorf("%d boxes for two changed elements", n)
 	}
+}
+
+// Every shipped example draws every path that starts at a laser, with the
+// laser's class in the title, tolerances or not: the hazard budget of a
+// setup with toleranced values is built on the hazards' own copy of it,
+// whose lasers the drawing must follow (common practice: a drawing that
+// reads "no path starts at this laser" for a laser with paths hides them
+// from the officer).
+func TestDiagramsDrawEveryPath(t *testing.T) {
+	safetytest.ForEachExample(t, "../..", func(t *testing.T, name, path string) {
+		a, _ := safetytest.EvaluateFile(t, path)
+		ds := Diagrams(view.BuildDrawn(a))
+		for _, p := range a.Setup.Paths {
+			if len(shapesWith(ds, ShapeText, fmt.Sprintf("path %q", p.Name))) == 0 {
+				t.Errorf("path %q is not drawn", p.Name)
+			}
+		}
+		if len(shapesWith(ds, ShapeText, "no path starts at this laser")) > 0 {
+			t.Errorf("a drawing says no path starts at its laser: %v", titles(ds))
+		}
+		for _, ll := range a.Hazards.Lasers {
+			title := fmt.Sprintf("Laser %q, %s, Class %s", ll.Laser.Name, units.FormatWavelength(ll.Laser.Wavelength), ll.Class)
+			if ll.Class != "" && !slices.ContainsFunc(ds, func(d *Drawing) bool { return strings.HasPrefix(d.Title, title) }) {
+				t.Errorf("no drawing titled %q: %v", title, titles(ds))
+			}
+		}
+	})
 }

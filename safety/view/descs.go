@@ -369,4 +369,5 @@ var (
 	dGoalWhereText                      = &Desc{"where", "where", ""}
 	dGroup                              = &Desc{"group", "group", ""}
 	dWorstAtM                           = &Desc{"worst_at_m", "worst at", "Exposure.At"}
+	dWorstGeometry                      = &Desc{"worst_geometry", "worst within the tolerances with", "Exposure.Geometry"}
 )

@@ -390,12 +390,14 @@ func BuildDrawn(a *safety.Assessment) *Drawn {
 			d.EscapingRatio[rf.Path][rf.Element] = math.Max(d.EscapingRatio[rf.Path][rf.Element], rf.Ratio)
 		}
 	}
-	for _, las := range a.Setup.Lasers {
+	// The hazards' lasers, in the setup's order: with toleranced values
+	// they are those of the hazards' own copy of the setup, the ones the
+	// hazard budget's beams carry.
+	for _, ll := range a.Hazards.Lasers {
+		las := ll.Laser
 		title := fmt.Sprintf("Laser %q, %s", las.Name, units.FormatWavelength(las.Wavelength))
-		for _, ll := range a.Hazards.Lasers {
-			if ll.Laser == las && ll.Class != "" {
-				title += ", Class " + ll.Class
-			}
+		if ll.Class != "" {
+			title += ", Class " + ll.Class
 		}
 		d.Lasers = append(d.Lasers, DrawnLaser{Laser: las, Title: title})
 	}

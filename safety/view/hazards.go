@@ -22,7 +22,8 @@ var Cautions = []string{
 }
 
 // Assumptions lists what the hazard figures assume, for every output.
-func Assumptions(s *setup.Setup) []string {
+func Assumptions(a *safety.Assessment) []string {
+	s := a.Setup
 	out := []string{
 		"intrabeam viewing of a small source (angular subtense at most 1.5 mrad)",
 		"each laser at its maximum power",
@@ -30,8 +31,13 @@ func Assumptions(s *setup.Setup) []string {
 		"irradiance averaged over the limiting aperture of the eye or skin",
 		"reflections evaluated where the beam arrives through an open segment",
 	}
-	if len(s.Tolerances) > 0 {
-		out = append(out, "each toleranced loss value at the end that makes each beam most hazardous: its highest transmission for the beam that goes on, its lowest for the beam that leaves the path there (a splitter's other port, a mirror's leak, an AOM's unused orders, a combiner's rejected port); positions, focal lengths and waists at their nominal values (operating powers do not enter: each laser at its maximum power)")
+	if len(s.Tolerances) > len(safety.GeometricTolerances(s)) { // a loss value or an operating power
+		out = append(out, "each toleranced loss value at the end that makes each beam most hazardous: its highest transmission for the beam that goes on, its lowest for the beam that leaves the path there (a splitter's other port, a mirror's leak, an AOM's unused orders, a combiner's rejected port); operating powers do not enter: each laser at its maximum power")
+	}
+	if a.Hazards != nil {
+		if d := a.Hazards.Sweep.Description(); d != "" {
+			out = append(out, d)
+		}
 	}
 	return out
 }
@@ -102,7 +108,7 @@ func (b *builder) hazards(a *safety.Assessment) hazardView {
 	v.json.F(Str(dStandard, safety.Standard)).
 		F(Str(dLimitSet, string(a.Setup.Meta.Limits))).
 		F(Field{d: dLimitSetText, Kind: String, Text: safety.LimitsBasis(a.Setup.Meta.Limits), People: true}).
-		F(StrList(dAssumptions, Assumptions(a.Setup))).
+		F(StrList(dAssumptions, Assumptions(a))).
 		F(StrList(dCautions, Cautions))
 	v.lasers = &List{Key: "lasers", Heading: "Sources", Columns: []string{"name", "wavelength_m", "power_w", "emission", "class_text", "label_class", "eye_mpe_irradiance_w_m2", "skin_mpe_irradiance_w_m2", "duration_s", "eye_aperture_diameter_m"}, Records: make([]Record, 0, len(h.Lasers))}
 	for _, ll := range h.Lasers {
@@ -154,7 +160,7 @@ func (b *builder) hazards(a *safety.Assessment) hazardView {
 	v.json.L(checks)
 
 	blocks := []Block{{Indent: 1, Line: "limits applied: " + safety.LimitsBasis(a.Setup.Meta.Limits) + "; " + safety.ClassBasis}, {Indent: 1, Line: "assumptions:"}}
-	for _, as := range Assumptions(a.Setup) {
+	for _, as := range Assumptions(a) {
 		blocks = append(blocks, Block{Indent: 2, Line: "- " + as})
 	}
 	for _, d := range h.DefaultsAssumed {
@@ -322,6 +328,12 @@ func (b *builder) exposureRecord(e *safety.Exposure) Record {
 	r.F(Field{d: dCombinedText, Kind: String, Text: combined, People: true})
 	if len(e.Wavelengths) > 1 {
 		r.Line("      {segment}: lasers {lasers} share this segment; with the beams whose effects add ({additive_beams} on the eye) the ratios sum to {combined_eye_ratio} (eye) and {combined_skin_ratio} (skin); OD {od_required} holds this wavelength to an equal share")
+	}
+	if e.Geometry != "" {
+		r.F(Str(dWorstGeometry, e.Geometry))
+		r.Line("      {segment}: its figures are the worst within the stated tolerances, with {worst_geometry}")
+	} else {
+		r.F(Field{d: dWorstGeometry, Kind: String, OmitEmpty: true})
 	}
 	if e.Laser.Pulsed != nil {
 		r.F(Num(dExposurePulseRadiantExposureJM2, e.PulseRadiantExposure, withUnit(e.PulseRadiantExposure, "J/m²"))).
