@@ -255,3 +255,37 @@ func BenchmarkSweepLargeLab(b *testing.B) {
 		}
 	}
 }
+
+// Two toleranced lenses of the expander whose ends, one at a time, leave
+// its focus beyond the 5 m run, but together bring it inside: the corner
+// is the worst geometry. By hand (thin lens, Hecht (2017), §5.2.3): the
+// first lens's virtual focus lies |f1| before it, 150 mm + |f1| before the
+// second, whose image lies at 1/(1/f2 − 1/(150 mm + |f1|)) beyond it:
+// 9.09 m for f1 = −54.5 mm alone, 8.69 m for f2 = 195.5 mm alone, 4.44 m
+// for both, the only one inside the run.
+func TestSweepCornerFindsTheCombination(t *testing.T) {
+	src := readFile(t, focusFile)
+	src = strings.Replace(src, `focal_length = "-50 mm"`, `focal_length = "-50 mm ± 1.5 mm"`, 1)
+	src = strings.Replace(src, `"200 mm ± 5 mm"`, `"200 mm ± 1.5 mm"`, 1)
+	src = strings.Replace(src, `at = "3250 mm"`, `at = "5000 mm"`, 1)
+	swept := exposureAfter(t, load(t, src), "expander", 2)
+	fixed := func(f1, f2 string) *Exposure {
+		s := strings.Replace(src, `"-50 mm ± 1.5 mm"`, `"`+f1+`"`, 1)
+		return exposureAfter(t, load(t, strings.Replace(s, `"200 mm ± 1.5 mm"`, `"`+f2+`"`, 1)), "expander", 2)
+	}
+	corner := fixed("-54.5 mm", "195.5 mm")
+	if want := `path "expander", element 1 (lens), focal_length at -54.5 mm, path "expander", element 2 (lens), focal_length at 195.5 mm`; swept.Geometry != want {
+		t.Errorf("worst geometry %q, want the corner %q", swept.Geometry, want)
+	}
+	if swept.Ratio != corner.Ratio || swept.At != corner.At {
+		t.Errorf("swept ratio %g at %g m, the corner's %g at %g m", swept.Ratio, swept.At, corner.Ratio, corner.At)
+	}
+	if !nearRel(corner.At, 0.25+4.4418, 1e-3) {
+		t.Errorf("the corner's worst point at %g m, want its focus at 4.692 m", corner.At)
+	}
+	for _, one := range []*Exposure{fixed("-54.5 mm", "200 mm"), fixed("-50 mm", "195.5 mm")} {
+		if !(one.Ratio < corner.Ratio) {
+			t.Errorf("one lens at its end alone reaches %g × the MPE, the corner %g ×: the case does not need the corner", one.Ratio, corner.Ratio)
+		}
+	}
+}
