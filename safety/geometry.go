@@ -49,7 +49,7 @@ func (w *Sweep) Description() string {
 	}
 	each := "at its two ends"
 	if w.Between > 0 {
-		each = fmt.Sprintf("at its two ends and at the %d points that divide its range evenly", w.Between)
+		each = fmt.Sprintf("at its two ends and at the %d points that divide its range into %d equal parts", w.Between, w.Between+1)
 	}
 	var corners string
 	switch {
@@ -62,6 +62,9 @@ func (w *Sweep) Description() string {
 	}
 	s := fmt.Sprintf("toleranced positions, focal lengths and waists (%d): the open segments' figures, the findings, the eyewear needed and the alignment powers are the worst of %d geometries within the tolerances (the nominal one, and each value %s with the others nominal%s), each segment naming the geometry of its worst figure; the reflections' and the budget's tables are at the nominal values. A search, not a proof: an extreme between the points evaluated can be missed",
 		w.Tolerances, w.Geometries+1, each, corners)
+	if w.Worse > 0 {
+		s += fmt.Sprintf("; %d finding(s) added where a geometry within the tolerances is worse than the nominal one, each naming it", w.Worse)
+	}
 	if w.Geometries < w.Planned {
 		s += fmt.Sprintf("; only %d of the %d geometries planned were evaluated (see the findings)", w.Geometries, w.Planned)
 	}
