@@ -263,8 +263,14 @@ type sweepFigures struct {
 	plan     []geometry
 	envelope *envelope
 	worst    []float64 // by laser, in the setup's order
-	needs    map[[2]any]*EyewearNeed
+	needs    map[needKey]*EyewearNeed
 	found    map[findingPlace]*foundFinding
+}
+
+// needKey is the wavelength and EN 207 test condition of an eyewear need.
+type needKey struct {
+	λ    float64
+	mode string
 }
 
 // foundFinding is the worst judged finding at one place: the geometry it
@@ -276,7 +282,7 @@ type foundFinding struct {
 
 func newSweepFigures(plan []geometry, lasers int) *sweepFigures {
 	return &sweepFigures{plan: plan, envelope: &envelope{worst: map[exposureKey]*worstFigures{}}, worst: make([]float64, lasers),
-		needs: map[[2]any]*EyewearNeed{}, found: map[findingPlace]*foundFinding{}}
+		needs: map[needKey]*EyewearNeed{}, found: map[findingPlace]*foundFinding{}}
 }
 
 // gather takes what geometry geo of the plan found: its hazard budget's
@@ -302,7 +308,7 @@ func (sw *sweepFigures) gather(geo int, h *Hazards, findings []budget.Finding) {
 		sw.worst[i] = max(sw.worst[i], h.worstRatio(ll))
 	}
 	for _, n := range h.Eyewear {
-		k := [2]any{n.Wavelength, n.Mode}
+		k := needKey{n.Wavelength, n.Mode}
 		if sw.needs[k] == nil {
 			sw.needs[k] = &EyewearNeed{Wavelength: n.Wavelength, Mode: n.Mode}
 		}

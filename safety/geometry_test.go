@@ -289,3 +289,75 @@ func TestSweepCornerFindsTheCombination(t *testing.T) {
 		}
 	}
 }
+
+// For a toleranced waist, waist position or element position, as for a
+// focal length, each open segment's swept figures are the highest of the
+// geometries evaluated as setups of their own (the value fixed at each
+// end and at the quarter points), NOHD included (common practice: the
+// sweep is held to the evaluations it stands for).
+func TestSweepEqualsItsGeometriesForEachKind(t *testing.T) {
+	const base = `
+[[laser]]
+name = "diode"
+wavelength = "850 nm"
+power = "50 mW"
+waist = "WAIST"
+waist_at = "WAISTAT"
+
+[[path]]
+name = "out"
+from = "diode"
+  [[path.element]]
+  type = "lens"
+  at = "AT"
+  focal_length = "100 mm"
+  access = "enclosed"
+  [[path.element]]
+  type = "window"
+  at = "400 mm"
+`
+	for _, c := range []struct {
+		key, tol string
+		fixed    []string
+	}{
+		{"WAIST", "0.5 mm ± 0.05 mm", []string{"0.35 mm", "0.425 mm", "0.575 mm", "0.65 mm"}},
+		{"WAISTAT", "0 mm .. 40 mm", []string{"0 mm", "10 mm", "30 mm", "40 mm"}},
+		{"AT", "80 mm .. 120 mm", []string{"80 mm", "90 mm", "110 mm", "120 mm"}},
+	} {
+		t.Run(c.key, func(t *testing.T) {
+			with := func(v string) string {
+				s := base
+				for k, d := range map[string]string{"WAIST": "0.5 mm", "WAISTAT": "20 mm", "AT": "100 mm"} {
+					if k == c.key {
+						d = v
+					}
+					s = strings.Replace(s, `"`+k+`"`, `"`+d+`"`, 1)
+				}
+				return s
+			}
+			swept := load(t, with(c.tol))
+			if w := swept.Hazards.Sweep; w == nil || w.Geometries != len(c.fixed) {
+				t.Fatalf("sweep %+v, want %d geometries", w, len(c.fixed))
+			}
+			var fixed []*Assessment
+			for _, v := range append([]string{""}, c.fixed...) {
+				if v == "" { // the nominal geometry
+					v = map[string]string{"WAIST": "0.5 mm", "WAISTAT": "20 mm", "AT": "100 mm"}[c.key]
+				}
+				fixed = append(fixed, load(t, with(v)))
+			}
+			for _, e := range swept.Hazards.Exposures {
+				var ratio, nohd, power, beam float64
+				for _, a := range fixed {
+					o := exposureAfter(t, a, "out", e.Segment.After)
+					ratio, nohd = max(ratio, o.Ratio), max(nohd, o.NOHD)
+					power, beam = max(power, o.Power), max(beam, o.BeamIrradiance)
+				}
+				if e.Ratio != ratio || e.NOHD != nohd || e.Power != power || e.BeamIrradiance != beam {
+					t.Errorf("after element %d: swept ratio %g, NOHD %g, power %g, beam %g; the geometries' highest %g, %g, %g, %g",
+						e.Segment.After, e.Ratio, e.NOHD, e.Power, e.BeamIrradiance, ratio, nohd, power, beam)
+				}
+			}
+		})
+	}
+}
