@@ -125,7 +125,8 @@ func EvaluateWith(s *setup.Setup, o Options) (*Assessment, error) {
 // rejected port), its lowest (setup.Element.Leaving). One value is then at
 // both ends at once, for different beams: where the two beams meet again
 // their sum is overstated, never understated. Positions, focal lengths and
-// waists stay nominal (operating powers do not enter the hazards).
+// waists stay nominal here; the sweep (geometry.go) moves them. Operating
+// powers do not enter the hazards.
 func ConservativeSetup(s *setup.Setup) *setup.Setup {
 	c := s.Clone()
 	for _, t := range s.Tolerances {
