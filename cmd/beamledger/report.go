@@ -159,7 +159,7 @@ func (e *env) runReport(o *reportOptions) error {
 		// A sign-off document is never of part of its analysis.
 		return errInterrupted
 	}
-	meta := report.Meta{Date: date.Format("2006-01-02"), ToolVersion: version, SetupBytes: data}
+	meta := report.Meta{Date: date.Format("2006-01-02"), ToolVersion: version, SetupBytes: data, Samples: opts.Samples, Seed: opts.Seed}
 	if o.since != "" {
 		old, err := loadRevision(o.since)
 		if err != nil {

@@ -28,7 +28,10 @@ document states. Given a setup file, it says whether that file is the one
 the document covers, byte for byte. It then evaluates the attached setup with
 this version of the tool and lists every hazard (class, open-segment ratio
 and OD, eyewear need, finding that needs action) that differs from those the
-document recorded.
+document recorded. A document written by this same version without --since
+is written again from the attached setup and what the document records it
+was written from (the setup file's name, the date, the tolerance samples
+and seed), and every page must read word for word as the one written again.
 
 The document must be a regular file of at most %d MiB carrying exactly one
 setup file and one hazard list, its compressed streams Flate streams that
@@ -57,15 +60,19 @@ func (e *env) runVerify(args []string) error {
 			return err
 		}
 	}
-	r, err := verify.Check(doc, given)
+	r, err := verify.Check(doc, given, version)
 	if err != nil {
 		return fmt.Errorf("%s: %w", args[0], err)
 	}
 	var b strings.Builder
 	fmt.Fprintf(&b, "%s carries the setup %s\n", args[0], verify.AttachmentLabel(r.SetupName))
-	if len(r.Pages) == 0 {
+	switch {
+	case len(r.Pages) == 0 && r.BodyCompared:
+		b.WriteString("  its pages state that setup's title, revision and hash and the hazards recorded with it, and read word for word as this version writes them for it\n")
+	case len(r.Pages) == 0:
 		b.WriteString("  its pages state that setup's title, revision and hash, and the hazards recorded with it\n")
-	} else {
+		fmt.Fprintf(&b, "  the rest of its pages were not compared: %s\n", r.BodyNote)
+	default:
 		b.WriteString("  its pages and its attachments disagree:\n")
 		for _, p := range r.Pages {
 			fmt.Fprintf(&b, "    %s\n", p)

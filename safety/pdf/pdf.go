@@ -99,7 +99,7 @@ func draw(doc *report.Document, o Options, replaced int) (*fpdf.Fpdf, *writer, e
 	if len(doc.Setup) > 0 {
 		f.SetAttachments([]fpdf.Attachment{
 			{Content: doc.Setup, Filename: AttachmentName(doc.SetupFile), Description: "the setup file this document covers, SHA-256 " + doc.SetupSHA256},
-			{Content: []byte(strings.Join(doc.Hazards, "\n") + "\n"), Filename: report.HazardsAttachment, Description: "the hazards found at sign-off, one per line"},
+			{Content: []byte(strings.Join(doc.Hazards, "\n") + "\n"), Filename: report.HazardsAttachment, Description: "the hazards found at sign-off, one per line; " + doc.Render.String()},
 		})
 	}
 	f.AddPage()

@@ -20,6 +20,9 @@ type Meta struct {
 	// Since, when set, is the comparison with the previous revision the
 	// document opens with (report --since).
 	Since *revision.Report
+	// Samples and Seed are the tolerance analysis's (safety.Options).
+	Samples int
+	Seed    uint64
 }
 
 // SignOffRoles are the people who sign.
@@ -39,6 +42,10 @@ func Build(a *safety.Assessment, m Meta) *Document {
 		Title: title, Site: s.Meta.Site, Revision: rev, PreparedBy: s.Meta.PreparedBy,
 		Date: m.Date, ToolVersion: m.ToolVersion, SetupFile: s.File, SetupSHA256: hex.EncodeToString(sum[:]), Setup: m.SetupBytes,
 		Hazards: safety.HazardDigest(a),
+		Render:  Render{Tool: m.ToolVersion, SetupFile: s.File, Date: m.Date, Samples: m.Samples, Seed: m.Seed},
+	}
+	if m.Since != nil {
+		d.Render.SinceSHA256 = m.Since.Old.SHA256
 	}
 	d.Summary = view.Summary(a)
 	v := view.Build(a)
@@ -82,7 +89,7 @@ func Build(a *safety.Assessment, m Meta) *Document {
 // the attachment can be held to each other.
 func record(hazards []string) Section {
 	return Section{Heading: RecordHeading, Blocks: []Block{
-		{Paragraph: "The hazards found at sign-off, one numbered line each, as attached to this document (" + HazardsAttachment + "). beamledger verify requires these lines, the setup hash in every footer and the attached setup file to agree, then compares the lines with what the tool finds for the attached setup."},
+		{Paragraph: "The hazards found at sign-off, one numbered line each, as attached to this document (" + HazardsAttachment + "). beamledger verify requires these lines, the setup hash in every footer and the attached setup file to agree, then compares the lines with what the tool finds for the attached setup; the same version also writes the document again from the attached setup and compares every page."},
 		{Record: append([]string{}, hazards...)},
 	}}
 }

@@ -5,6 +5,8 @@ package report
 
 import (
 	"fmt"
+	"strconv"
+	"strings"
 
 	"beamledger/safety/view"
 )
@@ -24,6 +26,72 @@ type Document struct {
 	Hazards  []string
 	Summary  string
 	Sections []Section
+	// Render is what the document was written from besides its setup,
+	// recorded with the hazard list so that verify can write it again.
+	Render Render
+}
+
+// Render is what a sign-off is written from besides its setup file: the
+// tool's version, the setup file's name as given (the pages print it),
+// the date, the tolerance analysis's samples and seed, and the SHA-256 of
+// the previous revision's setup when the document opens with the changes
+// since it ("" otherwise). The same setup and Render give the same pages.
+type Render struct {
+	Tool, SetupFile, Date string
+	Samples               int
+	Seed                  uint64
+	SinceSHA256           string
+}
+
+// renderPrefix starts a Render's text.
+const renderPrefix = "written by beamledger "
+
+// String is the Render as the hazard list's description records it.
+func (r Render) String() string {
+	since := "none"
+	if r.SinceSHA256 != "" {
+		since = r.SinceSHA256
+	}
+	return fmt.Sprintf("%s%s from the setup file %s, dated %s, tolerance samples %d, seed %d, since %s",
+		renderPrefix, strconv.Quote(r.Tool), strconv.Quote(r.SetupFile), r.Date, r.Samples, r.Seed, since)
+}
+
+// ParseRender reads a Render from text that holds one as String writes it
+// (after any other words); ok is false when it holds none.
+func ParseRender(s string) (r Render, ok bool) {
+	_, rest, found := strings.Cut(s, renderPrefix)
+	if !found {
+		return Render{}, false
+	}
+	var err error
+	if r.Tool, rest, ok = cutQuoted(rest); !ok {
+		return Render{}, false
+	}
+	if rest, ok = strings.CutPrefix(rest, " from the setup file "); !ok {
+		return Render{}, false
+	}
+	if r.SetupFile, rest, ok = cutQuoted(rest); !ok {
+		return Render{}, false
+	}
+	var since string
+	if _, err = fmt.Sscanf(rest, ", dated %s tolerance samples %d, seed %d, since %s", &r.Date, &r.Samples, &r.Seed, &since); err != nil {
+		return Render{}, false
+	}
+	r.Date = strings.TrimSuffix(r.Date, ",")
+	if since != "none" {
+		r.SinceSHA256 = since
+	}
+	return r, r.String() == s[len(s)-len(r.String()):]
+}
+
+// cutQuoted reads a Go-quoted string at the start of s.
+func cutQuoted(s string) (v, rest string, ok bool) {
+	q, err := strconv.QuotedPrefix(s)
+	if err != nil {
+		return "", s, false
+	}
+	v, err = strconv.Unquote(q)
+	return v, s[len(q):], err == nil
 }
 
 // HazardsAttachment is the name of the attached list of hazards.

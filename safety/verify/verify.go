@@ -41,6 +41,12 @@ type Result struct {
 	// Removed and Added are the hazard lines the document recorded that
 	// this version no longer finds, and the new ones.
 	Removed, Added []string
+	// BodyCompared is set when every page was compared with the document
+	// this version writes from the attached setup and the render inputs
+	// the document records (report.Render): the same version, no --since.
+	// Its differences are in Pages. Otherwise BodyNote says why not.
+	BodyCompared bool
+	BodyNote     string
 }
 
 // Match reports whether everything agrees.
@@ -122,11 +128,14 @@ func flateOnly(ctx *model.Context) error {
 	return nil
 }
 
-// Check verifies the document pdf; given is the setup file to compare with
+// Check verifies the document; given is the setup file to compare with
 // (nil: none). The document must carry exactly one setup file and one
 // hazard list, and its pages must state what they hold.
-func Check(pdf []byte, given []byte) (*Result, error) {
-	atts, pages, err := read(pdf)
+//
+// tool is this tool's version: the body of a document written by the same
+// version is compared with the document it writes again.
+func Check(document []byte, given []byte, tool string) (*Result, error) {
+	atts, pages, err := read(document)
 	if err != nil {
 		if errors.Is(err, ErrUnusable) {
 			return nil, err
@@ -134,6 +143,7 @@ func Check(pdf []byte, given []byte) (*Result, error) {
 		return nil, fmt.Errorf("%w: not a readable PDF: %v", ErrUnusable, err)
 	}
 	var attached, recorded []byte
+	var listDesc string
 	var setups, lists, others []string
 	r := &Result{}
 	for _, a := range atts {
@@ -143,7 +153,7 @@ func Check(pdf []byte, given []byte) (*Result, error) {
 		}
 		switch {
 		case a.FileName == report.HazardsAttachment:
-			recorded = data
+			recorded, listDesc = data, a.Desc
 			lists = append(lists, a.FileName)
 		case strings.HasSuffix(a.FileName, ".toml") || strings.Contains(a.Desc, "SHA-256"):
 			attached, r.SetupName = data, a.FileName
@@ -172,11 +182,27 @@ func Check(pdf []byte, given []byte) (*Result, error) {
 		r.Given = true
 		r.GivenMatches = bytes.Equal(given, attached)
 	}
-	s, err := setup.Parse(AttachmentLabel(r.SetupName), attached)
+	// The body is written again when the document records what it was
+	// written from, by this version, without --since: then the setup is
+	// read under the name the pages print, with the same tolerance
+	// analysis.
+	label, opts := AttachmentLabel(r.SetupName), safety.Options{}
+	rd, ok := report.ParseRender(listDesc)
+	switch {
+	case !ok:
+		r.BodyNote = "the document does not record what it was written from (it predates that record), so its pages were not written again to compare"
+	case rd.Tool != tool:
+		r.BodyNote = fmt.Sprintf("written by beamledger %s, this is %s: its pages were not written again to compare (verify with that version to compare them)", rd.Tool, tool)
+	case rd.SinceSHA256 != "":
+		r.BodyNote = "written with the changes since a previous revision (report --since), whose setup is not attached: its pages were not written again to compare"
+	default:
+		label, opts = rd.SetupFile, safety.Options{Samples: rd.Samples, Seed: rd.Seed}
+	}
+	s, err := setup.Parse(label, attached)
 	if err != nil {
 		return nil, fmt.Errorf("%w: the attached setup no longer loads: %v", ErrUnusable, err)
 	}
-	a, err := safety.EvaluateWith(s, safety.Options{})
+	a, err := safety.EvaluateWith(s, opts)
 	if err != nil {
 		return nil, fmt.Errorf("%w: evaluating the attached setup: %v", ErrUnusable, err)
 	}
@@ -188,6 +214,14 @@ func Check(pdf []byte, given []byte) (*Result, error) {
 		}
 	}
 	r.Pages = pagesAgree(pages, s, r.SetupSHA256, then)
+	if r.BodyNote == "" {
+		again, err := writeAgain(a, attached, rd)
+		if err != nil {
+			return nil, fmt.Errorf("%w: writing the document again: %v", ErrUnusable, err)
+		}
+		r.BodyCompared = true
+		r.Pages = append(r.Pages, bodyAgrees(pages, again)...)
+	}
 	for _, l := range then {
 		if !slices.Contains(now, l) {
 			r.Removed = append(r.Removed, l)

@@ -5,6 +5,7 @@ import (
 	"errors"
 	"os"
 	"slices"
+	"strings"
 	"testing"
 	"time"
 
@@ -33,7 +34,7 @@ func document(t *testing.T, edit func(*report.Document)) ([]byte, []byte) {
 
 func TestMatch(t *testing.T) {
 	doc, setup := document(t, nil)
-	r, err := Check(doc, setup)
+	r, err := Check(doc, setup, "test")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -47,7 +48,7 @@ func TestMatch(t *testing.T) {
 		t.Errorf("hash %q, recorded %q", r.SetupSHA256, r.RecordedSHA256)
 	}
 	// Without a setup file beside it, the document still checks itself.
-	r, err = Check(doc, nil)
+	r, err = Check(doc, nil, "test")
 	if err != nil || !r.Match() || r.Given {
 		t.Fatalf("document alone: %+v, %v", r, err)
 	}
@@ -59,7 +60,7 @@ func TestModifiedSetup(t *testing.T) {
 	if bytes.Equal(changed, setup) {
 		t.Fatal("the example has no revision key to edit before")
 	}
-	r, err := Check(doc, changed)
+	r, err := Check(doc, changed, "test")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -76,7 +77,7 @@ func TestHashStatedDiffers(t *testing.T) {
 		}
 		d.SetupSHA256 = prefix + d.SetupSHA256[2:]
 	})
-	r, err := Check(doc, nil)
+	r, err := Check(doc, nil, "test")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -94,12 +95,15 @@ func TestHazardsDiffer(t *testing.T) {
 		d.Hazards = append([]string{"class: laser \"retired\" Class 4"}, d.Hazards[1:]...)
 		setRecord(d, d.Hazards) // the pages as that version prints them
 	})
-	r, err := Check(doc, nil)
+	r, err := Check(doc, nil, "later") // this is a later version
 	if err != nil {
 		t.Fatal(err)
 	}
 	if r.Match() {
 		t.Fatal("different hazards match")
+	}
+	if r.BodyCompared || !strings.Contains(r.BodyNote, "written by beamledger test, this is later") {
+		t.Errorf("another version's document: body compared %v, %q", r.BodyCompared, r.BodyNote)
 	}
 	if len(r.Pages) != 0 {
 		t.Errorf("the pages and the attachments disagree: %q", r.Pages)
@@ -111,7 +115,7 @@ func TestHazardsDiffer(t *testing.T) {
 
 func TestNoAttachment(t *testing.T) {
 	doc, _ := document(t, func(d *report.Document) { d.Setup = nil })
-	_, err := Check(doc, nil)
+	_, err := Check(doc, nil, "test")
 	if !errors.Is(err, ErrUnusable) {
 		t.Fatalf("a PDF without an attached setup: error %v, want ErrUnusable", err)
 	}
@@ -123,7 +127,7 @@ func TestNotAPDF(t *testing.T) {
 		t.Fatal(err)
 	}
 	for name, b := range map[string][]byte{"setup": data, "empty": nil, "truncated": []byte("%PDF-1.4\n1 0 obj\n")} {
-		if _, err := Check(b, nil); !errors.Is(err, ErrUnusable) {
+		if _, err := Check(b, nil, "test"); !errors.Is(err, ErrUnusable) {
 			t.Errorf("%s: error %v, want ErrUnusable", name, err)
 		}
 	}
