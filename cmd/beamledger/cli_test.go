@@ -582,3 +582,24 @@ func TestReportNeverLosesAFile(t *testing.T) {
 		}
 	}
 }
+
+// A document written with --since is written again and compared page by
+// page when verify is given the same previous revision; without it, verify
+// says the pages were not compared; with another file, exit 2 naming both
+// hashes.
+func TestVerifySince(t *testing.T) {
+	doc := filepath.Join(t.TempDir(), "rev4.pdf")
+	old, rev4 := "../../testdata/examples/table-c.toml", "../../testdata/examples/table-c-rev4.toml"
+	if _, errOut, code := runCLI(t, "report", rev4, "-o", doc, "--date", "2026-01-02", "--since", old); code == exitBadInput {
+		t.Fatalf("report: %s", errOut)
+	}
+	if out, errOut, code := runCLI(t, "verify", doc, "--since", old); code != exitOK || !strings.Contains(out, "read word for word as this version writes them") {
+		t.Errorf("with its previous revision: exit %d, stdout %q, stderr %q", code, out, errOut)
+	}
+	if out, _, code := runCLI(t, "verify", doc); code != exitOK || !strings.Contains(out, "were not compared") || !strings.Contains(out, "with --since to compare them") {
+		t.Errorf("without it: exit %d, stdout %q", code, out)
+	}
+	if _, errOut, code := runCLI(t, "verify", doc, "--since", "../../testdata/examples/table-d.toml"); code != exitBadInput || !strings.Contains(errOut, "the document compares with") {
+		t.Errorf("another previous revision: exit %d, stderr %q", code, errOut)
+	}
+}

@@ -16,7 +16,8 @@ import (
 var errDiffer = errors.New("differences found")
 
 func (e *env) newVerify() *cobra.Command {
-	return &cobra.Command{
+	var since string
+	cmd := &cobra.Command{
 		Use:   "verify REPORT.pdf [SETUP.toml]",
 		Short: "Check that a sign-off document carries its setup, and what this version finds for it",
 		Long: fmt.Sprintf(`verify reads the setup file attached to a sign-off document written by
@@ -32,6 +33,9 @@ document recorded. A document written by this same version without --since
 is written again from the attached setup and what the document records it
 was written from (the setup file's name, the date, the tolerance samples
 and seed), and every page must read word for word as the one written again.
+A document written with --since is written again when the previous revision
+it compares with is given with --since too (its SHA-256 must be the one the
+document records).
 
 The document must be a regular file of at most %d MiB carrying exactly one
 setup file and one hazard list, its compressed streams Flate streams that
@@ -41,26 +45,37 @@ Exit status: 0 everything matches, 1 something differs, 2 the document or the
 setup cannot be used (not a PDF, not a regular file, not exactly one setup
 attached).`, verify.MaxDocumentBytes>>20, verify.MaxInflatedBytes>>20),
 		Example: `  beamledger verify table-c.pdf
-  beamledger verify table-c.pdf testdata/examples/table-c.toml`,
+  beamledger verify table-c.pdf testdata/examples/table-c.toml
+  beamledger verify table-c-rev4.pdf --since testdata/examples/table-c.toml`,
 		Args: cobra.RangeArgs(1, 2),
 		RunE: func(cmd *cobra.Command, args []string) error {
-			return e.runVerify(args)
+			return e.runVerify(args, since)
 		},
 	}
+	cmd.Flags().StringVar(&since, "since", "", "the previous revision's setup file, for a document written with report --since")
+	return cmd
 }
 
-func (e *env) runVerify(args []string) error {
+func (e *env) runVerify(args []string, sinceFile string) error {
 	doc, err := verify.ReadDocument(args[0])
 	if err != nil {
 		return err
 	}
-	var given []byte
+	var given, since []byte
 	if len(args) == 2 {
 		if given, err = setup.ReadSetupFile(args[1]); err != nil {
 			return err
 		}
 	}
-	r, err := verify.Check(doc, given, version)
+	if sinceFile != "" {
+		if since, err = setup.ReadSetupFile(sinceFile); err != nil {
+			return fmt.Errorf("--since: %w", err)
+		}
+	}
+	r, err := verify.Check(doc, given, version, since)
+	if errors.Is(err, verify.ErrGiven) {
+		return &setup.InputError{Problems: []string{fmt.Sprintf("%s: %v", sinceFile, err)}}
+	}
 	if err != nil {
 		return fmt.Errorf("%s: %w", args[0], err)
 	}

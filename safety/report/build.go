@@ -45,7 +45,7 @@ func Build(a *safety.Assessment, m Meta) *Document {
 		Render:  Render{Tool: m.ToolVersion, SetupFile: s.File, Date: m.Date, Samples: m.Samples, Seed: m.Seed},
 	}
 	if m.Since != nil {
-		d.Render.SinceSHA256 = m.Since.Old.SHA256
+		d.Render.SinceSHA256, d.Render.SinceFile = m.Since.Old.SHA256, m.Since.Old.File
 	}
 	d.Summary = view.Summary(a)
 	v := view.Build(a)

@@ -33,14 +33,15 @@ type Document struct {
 
 // Render is what a sign-off is written from besides its setup file: the
 // tool's version, the setup file's name as given (the pages print it),
-// the date, the tolerance analysis's samples and seed, and the SHA-256 of
-// the previous revision's setup when the document opens with the changes
-// since it ("" otherwise). The same setup and Render give the same pages.
+// the date, the tolerance analysis's samples and seed, and the SHA-256 and
+// name of the previous revision's setup file when the document opens with
+// the changes since it ("" otherwise). The same setup and Render (with the
+// previous revision's file) give the same pages.
 type Render struct {
-	Tool, SetupFile, Date string
-	Samples               int
-	Seed                  uint64
-	SinceSHA256           string
+	Tool, SetupFile, Date  string
+	Samples                int
+	Seed                   uint64
+	SinceSHA256, SinceFile string
 }
 
 // renderPrefix starts a Render's text.
@@ -50,7 +51,7 @@ const renderPrefix = "written by beamledger "
 func (r Render) String() string {
 	since := "none"
 	if r.SinceSHA256 != "" {
-		since = r.SinceSHA256
+		since = r.SinceSHA256 + " " + strconv.Quote(r.SinceFile)
 	}
 	return fmt.Sprintf("%s%s from the setup file %s, dated %s, tolerance samples %d, seed %d, since %s",
 		renderPrefix, strconv.Quote(r.Tool), strconv.Quote(r.SetupFile), r.Date, r.Samples, r.Seed, since)
@@ -80,8 +81,13 @@ func ParseRender(s string) (r Render, ok bool) {
 	r.Date = strings.TrimSuffix(r.Date, ",")
 	if since != "none" {
 		r.SinceSHA256 = since
+		_, file, _ := strings.Cut(rest, " since "+since+" ")
+		if r.SinceFile, _, ok = cutQuoted(file); !ok {
+			return Render{}, false
+		}
 	}
-	return r, r.String() == s[len(s)-len(r.String()):]
+	w := r.String()
+	return r, len(w) <= len(s) && w == s[len(s)-len(w):]
 }
 
 // cutQuoted reads a Go-quoted string at the start of s.

@@ -5,26 +5,43 @@ import (
 	"fmt"
 	"time"
 
+	"beamledger/budget/setup"
 	"beamledger/safety"
 	"beamledger/safety/pdf"
 	"beamledger/safety/report"
+	"beamledger/safety/revision"
 )
 
 // writeAgain writes the sign-off document again, as report does, from the
 // assessment of the attached setup and what the document records it was
 // written from, and reads its pages.
-func writeAgain(a *safety.Assessment, setupBytes []byte, rd report.Render) ([][]run, error) {
+func writeAgain(a *safety.Assessment, setupBytes []byte, rd report.Render, since *revision.Report) ([][]run, error) {
 	date, err := time.Parse("2006-01-02", rd.Date)
 	if err != nil {
 		return nil, fmt.Errorf("the recorded date %q: %v", rd.Date, err)
 	}
-	doc := report.Build(a, report.Meta{Date: rd.Date, ToolVersion: rd.Tool, SetupBytes: setupBytes, Samples: rd.Samples, Seed: rd.Seed})
+	doc := report.Build(a, report.Meta{Date: rd.Date, ToolVersion: rd.Tool, SetupBytes: setupBytes, Samples: rd.Samples, Seed: rd.Seed, Since: since})
 	var b bytes.Buffer
 	if err := pdf.Write(&b, doc, pdf.Options{Date: date, Compress: true}); err != nil {
 		return nil, err
 	}
 	_, pages, err := read(b.Bytes())
 	return pages, err
+}
+
+// sinceRevision compares the previous revision given, read under the name
+// the document records for it and evaluated as report does, with the
+// attached setup: the changes the document opens with.
+func sinceRevision(rd report.Render, since []byte, now revision.Revision) (*revision.Report, error) {
+	s, err := setup.Parse(rd.SinceFile, since)
+	if err != nil {
+		return nil, fmt.Errorf("%w: the previous revision does not load: %v", ErrGiven, err)
+	}
+	a, err := safety.EvaluateWith(s, safety.Options{})
+	if err != nil {
+		return nil, fmt.Errorf("%w: evaluating the previous revision: %v", ErrGiven, err)
+	}
+	return revision.Compare(revision.Revision{File: rd.SinceFile, Data: since, Assessment: a}, now)
 }
 
 // maxBodyDifferences bounds the page differences listed.

@@ -38,7 +38,7 @@ func TestBodyFigureEdited(t *testing.T) {
 	if edited == "" {
 		t.Fatal("the example's hazards have no table with an eye ratio to edit")
 	}
-	r, err := Check(doc, nil, "test")
+	r, err := Check(doc, nil, "test", nil)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -51,12 +51,12 @@ func TestBodyFigureEdited(t *testing.T) {
 // --since, or by another version, is not written again, and says why.
 func TestBodyComparedOrWhyNot(t *testing.T) {
 	doc, _ := document(t, nil)
-	r, err := Check(doc, nil, "test")
+	r, err := Check(doc, nil, "test", nil)
 	if err != nil || !r.Match() || !r.BodyCompared || r.BodyNote != "" {
 		t.Fatalf("unedited: %+v, %v", r, err)
 	}
 	doc, _ = document(t, func(d *report.Document) { d.Render.SinceSHA256 = strings.Repeat("ab", 32) })
-	if r, err = Check(doc, nil, "test"); err != nil || !r.Match() || r.BodyCompared || !strings.Contains(r.BodyNote, "report --since") {
+	if r, err = Check(doc, nil, "test", nil); err != nil || !r.Match() || r.BodyCompared || !strings.Contains(r.BodyNote, "report --since") {
 		t.Fatalf("--since: %+v, %v", r, err)
 	}
 }
@@ -66,7 +66,7 @@ func TestBodyComparedOrWhyNot(t *testing.T) {
 func TestRenderRecord(t *testing.T) {
 	for _, rd := range []report.Render{
 		{Tool: "0.1.0", SetupFile: "testdata/examples/table-c.toml", Date: "2026-01-02", Samples: 10000, Seed: 20261202},
-		{Tool: "dev", SetupFile: "lab \"7\", seed 3, since x\n.toml", Date: "2026-12-31", Samples: 0, Seed: 1, SinceSHA256: strings.Repeat("0f", 32)},
+		{Tool: "dev", SetupFile: "lab \"7\", seed 3, since x\n.toml", Date: "2026-12-31", Samples: 0, Seed: 1, SinceSHA256: strings.Repeat("0f", 32), SinceFile: "old \"rev\", since 0f.toml"},
 	} {
 		got, ok := report.ParseRender("the hazards found at sign-off, one per line; " + rd.String())
 		if !ok || got != rd {

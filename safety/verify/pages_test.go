@@ -69,7 +69,7 @@ func TestPagesShowAnotherSetup(t *testing.T) {
 		"table-c.toml":           {string(other), "the setup file this document covers, SHA-256 " + otherSHA},
 		report.HazardsAttachment: {strings.Join(safety.HazardDigest(b), "\n") + "\n", ""},
 	})
-	r, err := Check(forged, other, "test")
+	r, err := Check(forged, other, "test", nil)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -91,7 +91,7 @@ func TestRecordOnThePages(t *testing.T) {
 		h[2] = strings.Replace(h[2], "OD", "OD 9 (edited)", 1)
 		setRecord(d, h)
 	})
-	r, err := Check(doc, nil, "test")
+	r, err := Check(doc, nil, "test", nil)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -102,7 +102,7 @@ func TestRecordOnThePages(t *testing.T) {
 		t.Fatalf("an edited record line: %q", r.Pages)
 	}
 	doc, _ = document(t, func(d *report.Document) { d.Sections = d.Sections[:len(d.Sections)-1] })
-	if r, err = Check(doc, nil, "test"); err != nil || r.Match() || len(r.Pages) < 1 || !strings.Contains(r.Pages[0], "no hazard record") {
+	if r, err = Check(doc, nil, "test", nil); err != nil || r.Match() || len(r.Pages) < 1 || !strings.Contains(r.Pages[0], "no hazard record") {
 		t.Fatalf("no record: %q, %v", r.Pages, err)
 	}
 }
@@ -116,7 +116,7 @@ func TestOneSetupAttached(t *testing.T) {
 		"a name that prints a line": {"x\n\x1b[32mThe document matches.toml": {string(setup), ""}},
 		"a file of another kind":    {"notes.txt": {"hello", ""}},
 	} {
-		_, err := Check(attach(t, doc, files), nil, "test")
+		_, err := Check(attach(t, doc, files), nil, "test", nil)
 		if !errors.Is(err, ErrUnusable) {
 			t.Errorf("%s: error %v, want ErrUnusable", name, err)
 			continue
@@ -164,16 +164,16 @@ func TestExpansionBounded(t *testing.T) {
 	w := zlib.NewWriter(&z)
 	w.Write(make([]byte, 2<<20))
 	w.Close()
-	_, err := Check(minimalPDF("/Filter /FlateDecode", z.Bytes()), nil, "test")
+	_, err := Check(minimalPDF("/Filter /FlateDecode", z.Bytes()), nil, "test", nil)
 	if !errors.Is(err, ErrUnusable) || !strings.Contains(err.Error(), "expand to more than the 1048576 bytes") {
 		t.Errorf("a 2 MiB stream against a 1 MiB bound: %v", err)
 	}
 	// The same stream within the bound reads (and then carries no setup).
 	maxInflatedBytes = 4 << 20
-	if _, err := Check(minimalPDF("/Filter /FlateDecode", z.Bytes()), nil, "test"); err == nil || !strings.Contains(err.Error(), "no setup file") {
+	if _, err := Check(minimalPDF("/Filter /FlateDecode", z.Bytes()), nil, "test", nil); err == nil || !strings.Contains(err.Error(), "no setup file") {
 		t.Errorf("within the bound: %v", err)
 	}
-	_, err = Check(minimalPDF("/Filter /LZWDecode", []byte{0x80, 0x0b, 0x60, 0x50, 0x22, 0x0c, 0x0c, 0x85, 0x01}), nil, "test")
+	_, err = Check(minimalPDF("/Filter /LZWDecode", []byte{0x80, 0x0b, 0x60, 0x50, 0x22, 0x0c, 0x0c, 0x85, 0x01}), nil, "test", nil)
 	if !errors.Is(err, ErrUnusable) || !strings.Contains(err.Error(), "LZWDecode") {
 		t.Errorf("an LZW stream: %v", err)
 	}

@@ -23,6 +23,7 @@ import (
 	"beamledger/budget/setup"
 	"beamledger/safety"
 	"beamledger/safety/report"
+	"beamledger/safety/revision"
 )
 
 // Result is what verify found.
@@ -57,6 +58,10 @@ func (r *Result) Match() bool {
 // ErrUnusable marks an input that cannot be verified (not a PDF, no
 // attached setup).
 var ErrUnusable = errors.New("cannot be verified")
+
+// ErrGiven marks a previous revision given that the document does not
+// compare with.
+var ErrGiven = errors.New("--since")
 
 func init() {
 	// pdfcpu would otherwise write its configuration into the user's
@@ -133,8 +138,10 @@ func flateOnly(ctx *model.Context) error {
 // hazard list, and its pages must state what they hold.
 //
 // tool is this tool's version: the body of a document written by the same
-// version is compared with the document it writes again.
-func Check(document []byte, given []byte, tool string) (*Result, error) {
+// version is compared with the document it writes again. since is the
+// previous revision's setup file for a document written with the changes
+// since it (nil: none given); it must be the one the document records.
+func Check(document []byte, given []byte, tool string, since []byte) (*Result, error) {
 	atts, pages, err := read(document)
 	if err != nil {
 		if errors.Is(err, ErrUnusable) {
@@ -193,10 +200,18 @@ func Check(document []byte, given []byte, tool string) (*Result, error) {
 		r.BodyNote = "the document does not record what it was written from (it predates that record), so its pages were not written again to compare"
 	case rd.Tool != tool:
 		r.BodyNote = fmt.Sprintf("written by beamledger %s, this is %s: its pages were not written again to compare (verify with that version to compare them)", rd.Tool, tool)
-	case rd.SinceSHA256 != "":
-		r.BodyNote = "written with the changes since a previous revision (report --since), whose setup is not attached: its pages were not written again to compare"
+	case rd.SinceSHA256 != "" && since == nil:
+		r.BodyNote = fmt.Sprintf("written with the changes since a previous revision (report --since), whose setup is not attached: its pages were not written again to compare (give that revision, %s, with --since to compare them)", AttachmentLabel(rd.SinceFile))
 	default:
 		label, opts = rd.SetupFile, safety.Options{Samples: rd.Samples, Seed: rd.Seed}
+	}
+	if since != nil {
+		switch sum := sha256.Sum256(since); {
+		case rd.SinceSHA256 == "":
+			return nil, fmt.Errorf("%w: a previous revision was given, but the document was not written with the changes since one", ErrGiven)
+		case hex.EncodeToString(sum[:]) != rd.SinceSHA256:
+			return nil, fmt.Errorf("%w: the previous revision given has SHA-256 %s; the document compares with %s (%s)", ErrGiven, hex.EncodeToString(sum[:]), rd.SinceSHA256, AttachmentLabel(rd.SinceFile))
+		}
 	}
 	s, err := setup.Parse(label, attached)
 	if err != nil {
@@ -215,7 +230,13 @@ func Check(document []byte, given []byte, tool string) (*Result, error) {
 	}
 	r.Pages = pagesAgree(pages, s, r.SetupSHA256, then)
 	if r.BodyNote == "" {
-		again, err := writeAgain(a, attached, rd)
+		var changes *revision.Report
+		if rd.SinceSHA256 != "" {
+			if changes, err = sinceRevision(rd, since, revision.Revision{File: label, Data: attached, Assessment: a}); err != nil {
+				return nil, err
+			}
+		}
+		again, err := writeAgain(a, attached, rd, changes)
 		if err != nil {
 			return nil, fmt.Errorf("%w: writing the document again: %v", ErrUnusable, err)
 		}

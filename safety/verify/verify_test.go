@@ -34,7 +34,7 @@ func document(t *testing.T, edit func(*report.Document)) ([]byte, []byte) {
 
 func TestMatch(t *testing.T) {
 	doc, setup := document(t, nil)
-	r, err := Check(doc, setup, "test")
+	r, err := Check(doc, setup, "test", nil)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -48,7 +48,7 @@ func TestMatch(t *testing.T) {
 		t.Errorf("hash %q, recorded %q", r.SetupSHA256, r.RecordedSHA256)
 	}
 	// Without a setup file beside it, the document still checks itself.
-	r, err = Check(doc, nil, "test")
+	r, err = Check(doc, nil, "test", nil)
 	if err != nil || !r.Match() || r.Given {
 		t.Fatalf("document alone: %+v, %v", r, err)
 	}
@@ -60,7 +60,7 @@ func TestModifiedSetup(t *testing.T) {
 	if bytes.Equal(changed, setup) {
 		t.Fatal("the example has no revision key to edit before")
 	}
-	r, err := Check(doc, changed, "test")
+	r, err := Check(doc, changed, "test", nil)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -77,7 +77,7 @@ func TestHashStatedDiffers(t *testing.T) {
 		}
 		d.SetupSHA256 = prefix + d.SetupSHA256[2:]
 	})
-	r, err := Check(doc, nil, "test")
+	r, err := Check(doc, nil, "test", nil)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -95,7 +95,7 @@ func TestHazardsDiffer(t *testing.T) {
 		d.Hazards = append([]string{"class: laser \"retired\" Class 4"}, d.Hazards[1:]...)
 		setRecord(d, d.Hazards) // the pages as that version prints them
 	})
-	r, err := Check(doc, nil, "later") // this is a later version
+	r, err := Check(doc, nil, "later", nil) // this is a later version
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -115,7 +115,7 @@ func TestHazardsDiffer(t *testing.T) {
 
 func TestNoAttachment(t *testing.T) {
 	doc, _ := document(t, func(d *report.Document) { d.Setup = nil })
-	_, err := Check(doc, nil, "test")
+	_, err := Check(doc, nil, "test", nil)
 	if !errors.Is(err, ErrUnusable) {
 		t.Fatalf("a PDF without an attached setup: error %v, want ErrUnusable", err)
 	}
@@ -127,7 +127,7 @@ func TestNotAPDF(t *testing.T) {
 		t.Fatal(err)
 	}
 	for name, b := range map[string][]byte{"setup": data, "empty": nil, "truncated": []byte("%PDF-1.4\n1 0 obj\n")} {
-		if _, err := Check(b, nil, "test"); !errors.Is(err, ErrUnusable) {
+		if _, err := Check(b, nil, "test", nil); !errors.Is(err, ErrUnusable) {
 			t.Errorf("%s: error %v, want ErrUnusable", name, err)
 		}
 	}
