@@ -84,3 +84,14 @@ func TestRenderRecord(t *testing.T) {
 		}
 	}
 }
+
+// BenchmarkVerifyDemo is verify of table C's sign-off: the attachments, the
+// pages, the hazards again and the document written again.
+func BenchmarkVerifyDemo(b *testing.B) {
+	doc, _ := document(b, nil)
+	for b.Loop() {
+		if r, err := Check(doc, nil, "test", nil); err != nil || !r.Match() {
+			b.Fatalf("%v, %+v", err, r)
+		}
+	}
+}

@@ -18,7 +18,7 @@ const example = "../../testdata/examples/table-c.toml"
 
 // document writes the sign-off of the shipped example, after edit changes
 // the document model (nil: as report writes it).
-func document(t *testing.T, edit func(*report.Document)) ([]byte, []byte) {
+func document(t testing.TB, edit func(*report.Document)) ([]byte, []byte) {
 	t.Helper()
 	a, data := safetytest.EvaluateFile(t, example)
 	doc := report.Build(a, report.Meta{Date: "2026-01-02", ToolVersion: "test", SetupBytes: data})
