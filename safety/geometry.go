@@ -60,7 +60,7 @@ func (w *Sweep) Description() string {
 	default:
 		corners = fmt.Sprintf(", then %d corners where every one is at an end together (all at their low ends, all at their high ends, and %d drawn with the fixed seed %d)", w.Corners, w.Corners-2, sweepSeed)
 	}
-	s := fmt.Sprintf("toleranced positions, focal lengths and waists (%d): the open segments' figures, the findings, the eyewear needed and the alignment powers are the worst of %d geometries within the tolerances (the nominal one, and each value %s with the others nominal%s), each segment naming the geometry of its worst figure; the reflections' and the budget's tables are at the nominal values. A search, not a proof: an extreme between the points evaluated can be missed",
+	s := fmt.Sprintf("toleranced positions, focal lengths and waists (%d): the figures of the open segments and the reflections, the findings, the eyewear needed and the alignment powers are the worst of %d geometries within the tolerances (the nominal one, and each value %s with the others nominal%s), each segment and reflection naming the geometry of its worst figures; the budget's tables are at the nominal values. A search, not a proof: an extreme between the points evaluated can be missed",
 		w.Tolerances, w.Geometries+1, each, corners)
 	if w.Worse > 0 {
 		s += fmt.Sprintf("; %d finding(s) added where a geometry within the tolerances is worse than the nominal one, each naming it", w.Worse)
@@ -281,7 +281,7 @@ type foundFinding struct {
 }
 
 func newSweepFigures(plan []geometry, lasers int) *sweepFigures {
-	return &sweepFigures{plan: plan, envelope: &envelope{worst: map[exposureKey]*worstFigures{}}, worst: make([]float64, lasers),
+	return &sweepFigures{plan: plan, envelope: &envelope{plan: plan, worst: map[exposureKey]*worstFigures{}, reflections: map[reflectionKey]*worstReflection{}}, worst: make([]float64, lasers),
 		needs: map[needKey]*EyewearNeed{}, found: map[findingPlace]*foundFinding{}}
 }
 
@@ -303,6 +303,9 @@ func (sw *sweepFigures) gather(geo int, h *Hazards, findings []budget.Finding) {
 		w.power.take(f, geo, f.Power, w.power.f.Power)
 		w.beam.take(f, geo, f.BeamIrradiance, w.beam.f.BeamIrradiance)
 		w.nohd.take(f, geo, f.NOHD, w.nohd.f.NOHD)
+	}
+	for _, r := range h.Reflections {
+		sw.envelope.take(r, geo)
 	}
 	for i, ll := range h.Lasers {
 		sw.worst[i] = max(sw.worst[i], h.worstRatio(ll))
@@ -356,10 +359,65 @@ func (sw *sweepFigures) needsOf() []EyewearNeed {
 }
 
 // envelope is the worst of each exposure's measured figures over the
-// sweep's geometries, with the geometry each comes from.
+// sweep's geometries, and of each reflection's, with the geometry each
+// comes from.
 type envelope struct {
-	plan  []geometry
-	worst map[exposureKey]*worstFigures
+	plan        []geometry
+	worst       map[exposureKey]*worstFigures
+	reflections map[reflectionKey]*worstReflection
+}
+
+// reflectionKey names one beam's reflection the same way in every
+// geometry: its path, laser, element (0: the open end) and kind.
+type reflectionKey struct {
+	path, laser string
+	element     int
+	kind        ReflectionKind
+}
+
+func reflectionKeyOf(r *Reflection) reflectionKey {
+	k := reflectionKey{r.Path.Path.Name, r.Path.Laser.Name, 0, r.Kind}
+	if r.Element != nil {
+		k.element = r.Element.Index
+	}
+	return k
+}
+
+// worstReflection is a reflection's figures at the geometry where it is
+// worst (the highest ratio to the eye MPE at the surface; for a diffuse
+// zone the largest radius), and that geometry's index in the plan.
+type worstReflection struct {
+	power, irradiance, ratio, radius float64
+	geo                              int
+}
+
+// score is what makes a reflection worse.
+func (w worstReflection) score() float64 { return max(w.ratio, w.radius) }
+
+// take keeps r from geometry geo when it is worse, or as bad and from an
+// earlier geometry.
+func (v *envelope) take(r *Reflection, geo int) {
+	k := reflectionKeyOf(r)
+	x := worstReflection{r.Power, r.Irradiance, r.Ratio, r.Radius, geo}
+	w := v.reflections[k]
+	if w == nil || x.score() > w.score() || (x.score() == w.score() && geo < w.geo) {
+		v.reflections[k] = &x
+	}
+}
+
+// raiseReflection sets the figures of r (the nominal geometry's, before it
+// is judged) to the worst over the sweep where that is worse, and names
+// the geometry (Reflection.Geometry). A nil envelope leaves r as it is.
+func (v *envelope) raiseReflection(r *Reflection) {
+	if v == nil {
+		return
+	}
+	w := v.reflections[reflectionKeyOf(r)]
+	if w == nil || !(w.score() > max(r.Ratio, r.Radius)) {
+		return
+	}
+	r.Power, r.Irradiance, r.Ratio, r.Radius = w.power, w.irradiance, w.ratio, w.radius
+	r.Geometry = v.plan[w.geo].what
 }
 
 func figuresOf(e *Exposure) figures {
@@ -415,7 +473,6 @@ func sweepGeometry(c *setup.Setup, g []*setup.Toleranced, plan []geometry, w *Sw
 	}
 	fit := min(len(plan), max(2, sweepWork/elements))
 	sw := newSweepFigures(plan, len(c.Lasers))
-	sw.envelope.plan = plan
 	errs := make([]error, fit)
 	var (
 		wg   sync.WaitGroup

@@ -293,14 +293,17 @@ func TestSweepCornerFindsTheCombination(t *testing.T) {
 // For a toleranced waist, waist position or element position, as for a
 // focal length, each open segment's swept figures are the highest of the
 // geometries evaluated as setups of their own (the value fixed at each
-// end and at the quarter points), NOHD included (common practice: the
-// sweep is held to the evaluations it stands for).
+// end and at the quarter points), NOHD included, and so are the
+// reflections' (the window 290 mm past a 10 mm lens's focus meets a beam
+// wider than the eye's aperture, and its stray reflections' share through
+// it moves with each value)
+// (common practice: the sweep is held to the evaluations it stands for).
 func TestSweepEqualsItsGeometriesForEachKind(t *testing.T) {
 	const base = `
 [[laser]]
 name = "diode"
 wavelength = "850 nm"
-power = "50 mW"
+power = "500 mW"
 waist = "WAIST"
 waist_at = "WAISTAT"
 
@@ -310,8 +313,7 @@ from = "diode"
   [[path.element]]
   type = "lens"
   at = "AT"
-  focal_length = "100 mm"
-  access = "enclosed"
+  focal_length = "10 mm"
   [[path.element]]
   type = "window"
   at = "400 mm"
@@ -353,9 +355,29 @@ from = "diode"
 					ratio, nohd = max(ratio, o.Ratio), max(nohd, o.NOHD)
 					power, beam = max(power, o.Power), max(beam, o.BeamIrradiance)
 				}
-				if e.Ratio != ratio || e.NOHD != nohd || e.Power != power || e.BeamIrradiance != beam {
+				// To 1e-12: the sweep computes a value at a quarter point or a
+				// 3σ end, the fixed setup reads it from its text.
+				if !nearRel(e.Ratio, ratio, 1e-12) || !nearRel(e.NOHD, nohd, 1e-12) || !nearRel(e.Power, power, 1e-12) || !nearRel(e.BeamIrradiance, beam, 1e-12) {
 					t.Errorf("after element %d: swept ratio %g, NOHD %g, power %g, beam %g; the geometries' highest %g, %g, %g, %g",
 						e.Segment.After, e.Ratio, e.NOHD, e.Power, e.BeamIrradiance, ratio, nohd, power, beam)
+				}
+			}
+			// The reflections likewise: each the worst of its own over the
+			// geometries (its ratio; a diffuse zone's radius).
+			if !slices.ContainsFunc(swept.Hazards.Reflections, func(r *Reflection) bool { return r.Kind == ReflectionStray && r.Element.Index == 2 }) {
+				t.Fatal("no stray reflection at the window to compare")
+			}
+			for _, r := range swept.Hazards.Reflections {
+				var ratio, radius float64
+				for _, a := range fixed {
+					for _, o := range a.Hazards.Reflections {
+						if o.Kind == r.Kind && (o.Element == nil) == (r.Element == nil) && (o.Element == nil || o.Element.Index == r.Element.Index) {
+							ratio, radius = max(ratio, o.Ratio), max(radius, o.Radius)
+						}
+					}
+				}
+				if !nearRel(r.Ratio, ratio, 1e-12) || !nearRel(r.Radius, radius, 1e-12) {
+					t.Errorf("%s reflection: swept ratio %g, radius %g; the geometries' highest %g, %g", r.Kind, r.Ratio, r.Radius, ratio, radius)
 				}
 			}
 		})

@@ -281,6 +281,10 @@ type Reflection struct {
 	OD          float64
 	Radius      float64 // diffuse: nominal hazard zone radius, m
 	Laser       *LaserLimits
+	// Geometry names, as for an exposure (Exposure.Geometry), the geometry
+	// within toleranced positions, focal lengths and waists whose figures
+	// these are, when worse than the nominal geometry's ("" otherwise).
+	Geometry string
 }
 
 // EyewearNeed is what eyewear must give at one wavelength.
@@ -602,9 +606,7 @@ func (res *pathHazardResult) segmentFinding(g []*Exposure) {
 	if worst.OpenEnd {
 		msg += fmt.Sprintf("; the escaping beam stays above the MPE for %s beyond the path's end (NOHD)", units.FormatDistance(worst.NOHD, MaxHazardDistance))
 	}
-	if worst.Geometry != "" {
-		msg += fmt.Sprintf("; the worst within the stated tolerances, with %s", worst.Geometry)
-	}
+	msg += worstNote(worst.Geometry)
 	ref := hazardRef{index: len(res.findings)}
 	for _, e := range g {
 		ref.lasers = append(ref.lasers, e.Laser)
@@ -655,6 +657,7 @@ const NearestViewing = 0.1
 // zone reaches past NearestViewing, the hazard of standing within it (an
 // eye exposure above the MPE that the eyewear worn can control).
 func (res *pathHazardResult) diffuseZone(pb *budget.PathBudget, ll *LaserLimits, rf *Reflection) {
+	res.envelope.raiseReflection(rf)
 	res.reflections = append(res.reflections, rf)
 	if !(rf.Radius > NearestViewing) {
 		return
@@ -671,7 +674,7 @@ func (res *pathHazardResult) diffuseZone(pb *budget.PathBudget, ll *LaserLimits,
 	res.hazards = append(res.hazards, hazardRef{index: len(res.findings), lasers: []*LaserLimits{ll}, eye: true})
 	res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityHazard, Kind: FindingDiffuseZone, Path: pb.Path.Name, Element: index, At: at,
 		Message: fmt.Sprintf("%s: its diffuse reflection of %s (ρ = %g%s) stays above the eye MPE within %s of it (nominal hazard zone, small-source MPE, viewed along the normal: conservative)",
-			where, units.FormatPower(rf.Power), rf.Reflectance, assumedNote(rf.Assumed), units.FormatDistance(rf.Radius, MaxHazardDistance))}.Figure(rf.Radius, NearestViewing, "m"))
+			where, units.FormatPower(rf.Power), rf.Reflectance, assumedNote(rf.Assumed), units.FormatDistance(rf.Radius, MaxHazardDistance)) + worstNote(rf.Geometry)}.Figure(rf.Radius, NearestViewing, "m"))
 }
 
 // stray evaluates the reflection of each of an element's surfaces, at the
@@ -690,7 +693,7 @@ func (res *pathHazardResult) stray(pb *budget.PathBudget, ll *LaserLimits, r *bu
 		res.hazards = append(res.hazards, hazardRef{index: len(res.findings), lasers: []*LaserLimits{ll}, eye: true})
 		res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityHazard, Kind: FindingStray, Path: pb.Path.Name,
 			Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s%s): each of its %d surface(s) reflects %s (R = %g%s), %s × the eye MPE at the surface; block or enclose the back-reflection",
-				el.Index, el.Label(), beamNote(pb), surfaces, units.FormatPower(ref.Power), R, assumedNote(assumed), units.FormatRatio(ref.Ratio))}.Figure(ref.Irradiance, ll.EyeIrradiance, "W/m2"))
+				el.Index, el.Label(), beamNote(pb), surfaces, units.FormatPower(ref.Power), R, assumedNote(assumed), units.FormatRatio(ref.Ratio)) + worstNote(ref.Geometry)}.Figure(ref.Irradiance, ll.EyeIrradiance, "W/m2"))
 	}
 }
 
@@ -709,7 +712,7 @@ func (res *pathHazardResult) escaping(pb *budget.PathBudget, ll *LaserLimits, r 
 			res.hazards = append(res.hazards, hazardRef{index: len(res.findings), lasers: []*LaserLimits{ll}, eye: true})
 			res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityHazard, Kind: FindingEscaping, Path: pb.Path.Name,
 				Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s%s): %s %s, %s × the eye MPE; describe where it goes or end it in a rated dump",
-					el.Index, el.Label(), beamNote(pb), units.FormatPower(ref.Power), what, units.FormatRatio(ref.Ratio))}.Figure(ref.Irradiance, ll.EyeIrradiance, "W/m2"))
+					el.Index, el.Label(), beamNote(pb), units.FormatPower(ref.Power), what, units.FormatRatio(ref.Ratio)) + worstNote(ref.Geometry)}.Figure(ref.Irradiance, ll.EyeIrradiance, "W/m2"))
 		}
 	}
 }
@@ -723,12 +726,23 @@ func (res *pathHazardResult) leaving(pb *budget.PathBudget, ll *LaserLimits, r *
 	ref.Path, ref.Element, ref.Laser = pb, r.Element, ll
 	ref.Irradiance = apertureIrradiance(r.BeamIn, ref.Power, ll.EyeAperture)
 	ref.Ratio = ref.Irradiance / ll.EyeIrradiance
+	res.envelope.raiseReflection(ref)
 	ref.OD = limits.OpticalDensity(ref.Ratio)
 	if !(ref.Ratio > 1) {
 		return nil
 	}
 	res.reflections = append(res.reflections, ref)
 	return ref
+}
+
+// worstNote ends a finding whose figures come from a geometry within the
+// toleranced positions, focal lengths and waists (geometry.go) by naming
+// it; nothing for the nominal geometry.
+func worstNote(geometry string) string {
+	if geometry == "" {
+		return ""
+	}
+	return "; the worst within the stated tolerances, with " + geometry
 }
 
 func assumedNote(assumed bool) string {

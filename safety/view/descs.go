@@ -370,4 +370,6 @@ var (
 	dGroup                              = &Desc{"group", "group", ""}
 	dWorstAtM                           = &Desc{"worst_at_m", "worst at", "Exposure.At"}
 	dWorstGeometry                      = &Desc{"worst_geometry", "worst within the tolerances with", "Exposure.Geometry"}
+	dReflectionWorstGeometry            = &Desc{"worst_geometry", "worst within the tolerances with", "Reflection.Geometry"}
+	dWorstText                          = &Desc{"worst_text", "", ""}
 )

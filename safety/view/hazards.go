@@ -412,14 +412,22 @@ func (b *builder) reflectionRecord(rf *safety.Reflection) Record {
 		where = append(where, ", the open end"...)
 	}
 	r.F(Field{d: dReflectionWhere, Kind: String, Text: string(where), People: true})
+	worst := ""
+	if rf.Geometry != "" {
+		r.F(Str(dReflectionWorstGeometry, rf.Geometry))
+		worst = "; the worst within the stated tolerances, with " + rf.Geometry
+	} else {
+		r.F(Field{d: dReflectionWorstGeometry, Kind: String, OmitEmpty: true})
+	}
+	r.F(Field{d: dWorstText, Kind: String, Text: worst, People: true})
 	switch rf.Kind {
 	case safety.ReflectionStray:
-		r.Line("{where}: {surfaces} surface(s), R = {reflectance}{reflectance_assumed}, {power_w} each, {ratio} × the eye MPE, OD {od_required}")
+		r.Line("{where}: {surfaces} surface(s), R = {reflectance}{reflectance_assumed}, {power_w} each, {ratio} × the eye MPE, OD {od_required}{worst_text}")
 	case safety.ReflectionEscaping:
 		r.F(Field{d: dReflectionShare, Kind: Number, SI: rf.Reflectance, Text: fmtPct(rf.Reflectance), People: true})
-		r.Line("{where}: {power_w} ({share} of the arriving power), {ratio} × the eye MPE, OD {od_required}")
+		r.Line("{where}: {power_w} ({share} of the arriving power), {ratio} × the eye MPE, OD {od_required}{worst_text}")
 	default:
-		r.Line("{where}: {power_w}, ρ = {reflectance}{reflectance_assumed}: hazard zone radius {hazard_radius_m}")
+		r.Line("{where}: {power_w}, ρ = {reflectance}{reflectance_assumed}: hazard zone radius {hazard_radius_m}{worst_text}")
 	}
 	return r
 }
