@@ -177,7 +177,11 @@ func sweepPlan(g []*setup.Toleranced) ([]geometry, Sweep) {
 	for i := range g {
 		for k := 0; k <= w.Between+1; k++ {
 			v := append([]float64(nil), nominal...)
-			if v[i] = lo[i] + (hi[i]-lo[i])*float64(k)/float64(w.Between+1); v[i] == nominal[i] {
+			v[i] = lo[i] + (hi[i]-lo[i])*float64(k)/float64(w.Between+1)
+			if k == w.Between+1 {
+				v[i] = hi[i] // the end itself, not a rounding of it
+			}
+			if v[i] == nominal[i] {
 				continue // the nominal geometry itself
 			}
 			plan = append(plan, geometry{values: v, what: describeGeometry(g, v, nominal)})

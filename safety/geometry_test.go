@@ -148,7 +148,9 @@ func TestSweepPlan(t *testing.T) {
 	tol := func(n int) []*setup.Toleranced {
 		var g []*setup.Toleranced
 		for i := range n {
-			g = append(g, &setup.Toleranced{Key: "focal_length", Label: "lens", Tol: setup.Tolerance{Lo: 0.1 + float64(i), Hi: 0.2 + float64(i)}})
+			// 0.2 + (0.9 − 0.2) is not 0.9 in floating point: the ends
+			// must be the ends themselves.
+			g = append(g, &setup.Toleranced{Key: "focal_length", Label: "lens", Tol: setup.Tolerance{Lo: 0.2 + float64(i), Hi: 0.9 + float64(i)}})
 		}
 		return g
 	}
@@ -179,6 +181,14 @@ func TestSweepPlan(t *testing.T) {
 				t.Errorf("%d values: geometry %q planned twice", c.n, p.what)
 			}
 			seen[key] = true
+		}
+		// Each value alone at each of its ends, exactly.
+		for i := range g {
+			for _, end := range []float64{g[i].Tol.Lo, g[i].Tol.Hi} {
+				if !slices.ContainsFunc(plan, func(p geometry) bool { return p.values[i] == end }) {
+					t.Errorf("%d values: value %d never at its end %g exactly", c.n, i, end)
+				}
+			}
 		}
 		if c.n > 1 {
 			// The first two are the corners at all-low and all-high.
