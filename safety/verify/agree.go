@@ -51,7 +51,7 @@ func pagesAgree(pages [][]run, s *setup.Setup, sha string, hazards []string) []s
 		out = append(out, fmt.Sprintf("the footer of %s %s; the attached setup gives %q", pageList(wrong, len(pages)), what, footer))
 	}
 	if len(pages) > 0 {
-		if got := coverHash(pages[0]); got != sha {
+		if got := coverRow(pages[0], "Setup SHA-256"); got != sha {
 			out = append(out, fmt.Sprintf("the cover states setup SHA-256 %s; the attached setup's is %s", orNone(got), sha))
 		}
 	}
@@ -78,15 +78,32 @@ func pageList(p []int, of int) string {
 	return fmt.Sprintf("pages %s%s (%d of %d)", strings.Join(s, ", "), more, len(p), of)
 }
 
-// coverHash is the hash the cover's "Setup SHA-256" row states ("" when
-// it has none).
-func coverHash(p []run) string {
+// coverRow is what the cover's row with the label states, its first line
+// ("" when it has none).
+func coverRow(p []run, label string) string {
 	for i, r := range p {
-		if r.text == "Setup SHA-256" && i+1 < len(p) {
+		if r.text == label && i+1 < len(p) {
 			return p[i+1].text
 		}
 	}
 	return ""
+}
+
+// coverAgrees compares the cover's tool and date with what the document
+// records it was written from: a record edited to name another version (so
+// that verify would not write the document again) disagrees with the
+// cover.
+func coverAgrees(pages [][]run, rd report.Render) []string {
+	if len(pages) == 0 {
+		return nil
+	}
+	var out []string
+	for _, c := range [][2]string{{"Tool", "beamledger " + rd.Tool}, {"Date", rd.Date}} {
+		if got, want := coverRow(pages[0], c[0]), pdf.Drawable(c[1]); got != want {
+			out = append(out, fmt.Sprintf("the cover's %s reads %q; the document records it was written %q", strings.ToLower(c[0]), got, want))
+		}
+	}
+	return out
 }
 
 var recordHeading = regexp.MustCompile(`^\d+  ` + regexp.QuoteMeta(report.RecordHeading) + `$`)

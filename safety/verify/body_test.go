@@ -55,6 +55,12 @@ func TestBodyComparedOrWhyNot(t *testing.T) {
 	if err != nil || !r.Match() || !r.BodyCompared || r.BodyNote != "" {
 		t.Fatalf("unedited: %+v, %v", r, err)
 	}
+	// A record edited to name another version, so that the pages would not
+	// be written again, disagrees with the cover.
+	doc, _ = document(t, func(d *report.Document) { d.Render.Tool = "0.0.9" })
+	if r, err = Check(doc, nil, "test", nil); err != nil || r.Match() || r.BodyCompared || len(r.Pages) != 1 || !strings.Contains(r.Pages[0], `the cover's tool reads "beamledger test"`) {
+		t.Fatalf("another version in the record alone: %q, %v", r.Pages, err)
+	}
 	doc, _ = document(t, func(d *report.Document) { d.Render.SinceSHA256 = strings.Repeat("ab", 32) })
 	if r, err = Check(doc, nil, "test", nil); err != nil || !r.Match() || r.BodyCompared || !strings.Contains(r.BodyNote, "report --since") {
 		t.Fatalf("--since: %+v, %v", r, err)

@@ -229,6 +229,9 @@ func Check(document []byte, given []byte, tool string, since []byte) (*Result, e
 		}
 	}
 	r.Pages = pagesAgree(pages, s, r.SetupSHA256, then)
+	if ok {
+		r.Pages = append(r.Pages, coverAgrees(pages, rd)...)
+	}
 	if r.BodyNote == "" {
 		var changes *revision.Report
 		if rd.SinceSHA256 != "" {
