@@ -501,7 +501,7 @@ func (res *pathHazardResult) segment(pb *budget.PathBudget, ll *LaserLimits, seg
 // measureSegment measures one beam's open (or enclosed) segment: the worst
 // point of the eye- and skin-aperture-averaged irradiance, the peak
 // irradiance there, the beam's own highest power density, and for an open
-// end the NOHD. The figures derived from these are segment's.
+// end the NOHD. segment works out the figures derived from these.
 func measureSegment(pb *budget.PathBudget, ll *LaserLimits, seg budget.Segment) *Exposure {
 	p := seg.Fraction * pb.Laser.Power
 	irr, at := maxAlong(seg.Beam, p, ll.EyeAperture, seg.To-seg.From)
@@ -606,7 +606,7 @@ func (res *pathHazardResult) segmentFinding(g []*Exposure) {
 	if worst.OpenEnd {
 		msg += fmt.Sprintf("; the escaping beam stays above the MPE for %s beyond the path's end (NOHD)", units.FormatDistance(worst.NOHD, MaxHazardDistance))
 	}
-	msg += worstNote(worst.Geometry)
+	msg += WorstNote(worst.Geometry)
 	ref := hazardRef{index: len(res.findings)}
 	for _, e := range g {
 		ref.lasers = append(ref.lasers, e.Laser)
@@ -674,7 +674,7 @@ func (res *pathHazardResult) diffuseZone(pb *budget.PathBudget, ll *LaserLimits,
 	res.hazards = append(res.hazards, hazardRef{index: len(res.findings), lasers: []*LaserLimits{ll}, eye: true})
 	res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityHazard, Kind: FindingDiffuseZone, Path: pb.Path.Name, Element: index, At: at,
 		Message: fmt.Sprintf("%s: its diffuse reflection of %s (ρ = %g%s) stays above the eye MPE within %s of it (nominal hazard zone, small-source MPE, viewed along the normal: conservative)",
-			where, units.FormatPower(rf.Power), rf.Reflectance, assumedNote(rf.Assumed), units.FormatDistance(rf.Radius, MaxHazardDistance)) + worstNote(rf.Geometry)}.Figure(rf.Radius, NearestViewing, "m"))
+			where, units.FormatPower(rf.Power), rf.Reflectance, assumedNote(rf.Assumed), units.FormatDistance(rf.Radius, MaxHazardDistance)) + WorstNote(rf.Geometry)}.Figure(rf.Radius, NearestViewing, "m"))
 }
 
 // stray evaluates the reflection of each of an element's surfaces, at the
@@ -693,7 +693,7 @@ func (res *pathHazardResult) stray(pb *budget.PathBudget, ll *LaserLimits, r *bu
 		res.hazards = append(res.hazards, hazardRef{index: len(res.findings), lasers: []*LaserLimits{ll}, eye: true})
 		res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityHazard, Kind: FindingStray, Path: pb.Path.Name,
 			Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s%s): each of its %d surface(s) reflects %s (R = %g%s), %s × the eye MPE at the surface; block or enclose the back-reflection",
-				el.Index, el.Label(), beamNote(pb), surfaces, units.FormatPower(ref.Power), R, assumedNote(assumed), units.FormatRatio(ref.Ratio)) + worstNote(ref.Geometry)}.Figure(ref.Irradiance, ll.EyeIrradiance, "W/m2"))
+				el.Index, el.Label(), beamNote(pb), surfaces, units.FormatPower(ref.Power), R, assumedNote(assumed), units.FormatRatio(ref.Ratio)) + WorstNote(ref.Geometry)}.Figure(ref.Irradiance, ll.EyeIrradiance, "W/m2"))
 	}
 }
 
@@ -712,7 +712,7 @@ func (res *pathHazardResult) escaping(pb *budget.PathBudget, ll *LaserLimits, r 
 			res.hazards = append(res.hazards, hazardRef{index: len(res.findings), lasers: []*LaserLimits{ll}, eye: true})
 			res.findings = append(res.findings, budget.Finding{Severity: budget.SeverityHazard, Kind: FindingEscaping, Path: pb.Path.Name,
 				Element: el.Index, At: el.At, Message: fmt.Sprintf("element %d (%s%s): %s %s, %s × the eye MPE; describe where it goes or end it in a rated dump",
-					el.Index, el.Label(), beamNote(pb), units.FormatPower(ref.Power), what, units.FormatRatio(ref.Ratio)) + worstNote(ref.Geometry)}.Figure(ref.Irradiance, ll.EyeIrradiance, "W/m2"))
+					el.Index, el.Label(), beamNote(pb), units.FormatPower(ref.Power), what, units.FormatRatio(ref.Ratio)) + WorstNote(ref.Geometry)}.Figure(ref.Irradiance, ll.EyeIrradiance, "W/m2"))
 		}
 	}
 }
@@ -735,10 +735,10 @@ func (res *pathHazardResult) leaving(pb *budget.PathBudget, ll *LaserLimits, r *
 	return ref
 }
 
-// worstNote ends a finding whose figures come from a geometry within the
-// toleranced positions, focal lengths and waists (geometry.go) by naming
-// it; nothing for the nominal geometry.
-func worstNote(geometry string) string {
+// WorstNote ends a finding or a line whose figures come from a geometry
+// within the toleranced positions, focal lengths and waists (geometry.go)
+// by naming it; nothing for the nominal geometry.
+func WorstNote(geometry string) string {
 	if geometry == "" {
 		return ""
 	}

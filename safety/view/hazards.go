@@ -412,10 +412,9 @@ func (b *builder) reflectionRecord(rf *safety.Reflection) Record {
 		where = append(where, ", the open end"...)
 	}
 	r.F(Field{d: dReflectionWhere, Kind: String, Text: string(where), People: true})
-	worst := ""
+	worst := safety.WorstNote(rf.Geometry)
 	if rf.Geometry != "" {
 		r.F(Str(dReflectionWorstGeometry, rf.Geometry))
-		worst = "; the worst within the stated tolerances, with " + rf.Geometry
 	} else {
 		r.F(Field{d: dReflectionWorstGeometry, Kind: String, OmitEmpty: true})
 	}
