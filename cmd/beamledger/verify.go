@@ -35,7 +35,7 @@ was written from (the setup file's name, the date, the tolerance samples
 and seed), and every page must read word for word as the one written again.
 A document written with --since is written again when the previous revision
 it compares with is given with --since too (its SHA-256 must be the one the
-document records).
+document records). The cover's tool and date must agree with that record.
 
 The document must be a regular file of at most %d MiB carrying exactly one
 setup file and one hazard list, its compressed streams Flate streams that
@@ -43,7 +43,8 @@ expand to at most %d MiB in all.
 
 Exit status: 0 everything matches, 1 something differs, 2 the document or the
 setup cannot be used (not a PDF, not a regular file, not exactly one setup
-attached).`, verify.MaxDocumentBytes>>20, verify.MaxInflatedBytes>>20),
+attached, a --since file that is not the revision the document compares
+with).`, verify.MaxDocumentBytes>>20, verify.MaxInflatedBytes>>20),
 		Example: `  beamledger verify table-c.pdf
   beamledger verify table-c.pdf testdata/examples/table-c.toml
   beamledger verify table-c-rev4.pdf --since testdata/examples/table-c.toml`,
